@@ -1,0 +1,119 @@
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getFilteredRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from "@tanstack/react-table";
+import { useState } from "react";
+import { Link } from "react-router";
+import { jobScopeLabels, jobStatusLabels, jobStatuses } from "~/lib/validation/jobs";
+
+export interface JobRow {
+  id: number;
+  vesselName: string;
+  hin: string | null;
+  scope: keyof typeof jobScopeLabels;
+  status: keyof typeof jobStatusLabels;
+  engineModel: string;
+  leadName: string;
+  technicianNames: string[];
+  dueDate: string | null;
+}
+
+const column = createColumnHelper<JobRow>();
+
+const columns = [
+  column.accessor("vesselName", {
+    header: "Vessel",
+    cell: (c) => (
+      <Link to={`/jobs/${c.row.original.id}`} className="flex min-h-12 items-center font-bold text-harbour underline">
+        {c.getValue()}
+      </Link>
+    ),
+  }),
+  column.accessor("scope", { header: "Scope", cell: (c) => jobScopeLabels[c.getValue()] }),
+  column.accessor("status", {
+    header: "Status",
+    cell: (c) => jobStatusLabels[c.getValue()],
+    filterFn: "equalsString",
+    sortingFn: (a, b) => jobStatuses.indexOf(a.original.status) - jobStatuses.indexOf(b.original.status),
+  }),
+  column.accessor("engineModel", { header: "Engine" }),
+  column.accessor("leadName", { header: "Lead" }),
+  column.accessor((j) => j.technicianNames.join(", "), { id: "technicians", header: "Technicians" }),
+  column.accessor("dueDate", { header: "Due", cell: (c) => c.getValue() ?? "—", sortUndefined: "last" }),
+];
+
+/** The shop's job list: sort by any column, filter by status, search every column. */
+export function JobsTable({ jobs }: { jobs: JobRow[] }) {
+  const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
+  const [search, setSearch] = useState("");
+  const [status, setStatus] = useState("");
+  const table = useReactTable({
+    data: jobs,
+    columns,
+    state: { sorting, globalFilter: search, columnFilters: status ? [{ id: "status", value: status }] : [] },
+    onSortingChange: setSorting,
+    onGlobalFilterChange: setSearch,
+    globalFilterFn: "includesString",
+    getCoreRowModel: getCoreRowModel(),
+    getSortedRowModel: getSortedRowModel(),
+    getFilteredRowModel: getFilteredRowModel(),
+  });
+  const rows = table.getRowModel().rows;
+  return (
+    <div>
+      <div className="mb-4 flex flex-wrap items-end gap-4">
+        <label className="flex flex-1 flex-col gap-1 font-bold">
+          Search
+          <input type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="Vessel, engine, person…" className="field-input font-normal" />
+        </label>
+        <label className="flex flex-col gap-1 font-bold">
+          Status
+          <select value={status} onChange={(e) => setStatus(e.target.value)} className="field-input font-normal">
+            <option value="">Any</option>
+            {jobStatuses.map((s) => (
+              <option key={s} value={s}>{jobStatusLabels[s]}</option>
+            ))}
+          </select>
+        </label>
+      </div>
+      <div className="overflow-x-auto">
+        <table className="w-full border-collapse" data-testid="jobs-table">
+          <thead>
+            {table.getHeaderGroups().map((group) => (
+              <tr key={group.id} className="border-b-2 border-ink text-left">
+                {group.headers.map((header) => {
+                  const sorted = header.column.getIsSorted();
+                  return (
+                    <th key={header.id} className="p-0" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
+                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="flex min-h-12 w-full items-center gap-1 px-2 text-left font-bold">
+                        {flexRender(header.column.columnDef.header, header.getContext())}
+                        <span aria-hidden="true">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
+                      </button>
+                    </th>
+                  );
+                })}
+              </tr>
+            ))}
+          </thead>
+          <tbody>
+            {rows.map((row) => (
+              <tr key={row.id} className="border-b border-rule">
+                {row.getVisibleCells().map((cell) => (
+                  <td key={cell.id} className="px-2 py-1">
+                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
+                  </td>
+                ))}
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+      {rows.length === 0 && <p className="mt-4 text-ink-soft">No jobs match.</p>}
+    </div>
+  );
+}

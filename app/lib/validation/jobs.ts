@@ -1,0 +1,61 @@
+import { z } from "zod";
+
+export const jobScopes = ["repower", "new-installation", "realignment", "shaft-replacement"] as const;
+export const jobScopeLabels: Record<(typeof jobScopes)[number], string> = {
+  repower: "Repower",
+  "new-installation": "New installation",
+  realignment: "Realignment",
+  "shaft-replacement": "Shaft replacement",
+};
+export const jobStatuses = ["planned", "underway", "completed"] as const;
+export const jobStatusLabels: Record<(typeof jobStatuses)[number], string> = {
+  planned: "Planned",
+  underway: "Underway",
+  completed: "Completed",
+};
+
+const number = (label: string) => z.coerce.number({ error: `Enter ${label} as a number.` });
+const text = (label: string, max = 120) =>
+  z.string({ error: `Enter ${label}.` }).trim().min(1, `Enter ${label}.`).max(max);
+const date = z
+  .string()
+  .optional()
+  .transform((v) => (v ? v : undefined))
+  .pipe(z.iso.date({ error: "Enter a date as YYYY-MM-DD." }).optional());
+
+/** The job form, on both sides: the installed equipment and who works on it. */
+export const jobSchema = z
+  .object({
+    vesselId: z.coerce.number({ error: "Choose the vessel." }).int().positive("Choose the vessel."),
+    scope: z.enum(jobScopes, { error: "Choose the scope of work." }),
+    status: z.enum(jobStatuses, { error: "Choose a status." }).default("planned"),
+    engineModel: text("the engine model"),
+    engineSerial: text("the engine serial number", 60),
+    ratedPowerHp: number("the rated power").positive("Rated power must be more than zero.").max(5000),
+    ratedRpmMin: number("the lowest rated rpm").int("Use whole rpm.").positive("Enter the lowest rated rpm.").max(10000),
+    ratedRpmMax: number("the highest rated rpm").int("Use whole rpm.").positive("Enter the highest rated rpm.").max(10000),
+    gearRatio: number("the gear ratio").min(1, "A marine gear ratio is 1:1 or more (enter 2.0 for 2:1).").max(10),
+    propDiameterIn: number("the propeller diameter").positive("The propeller diameter must be more than zero.").max(120),
+    propPitchIn: number("the propeller pitch").positive("The propeller pitch must be more than zero.").max(120),
+    propBlades: number("the number of blades").int().min(2, "A propeller has two blades or more.").max(7),
+    shaftDiameterIn: number("the shaft diameter").positive("The shaft diameter must be more than zero.").max(12),
+    shaftMaterial: text("the shaft material", 60),
+    couplingType: text("the coupling type", 60),
+    startDate: date,
+    dueDate: date,
+    leadId: z.coerce.number({ error: "Choose the lead." }).int().positive("Choose the lead."),
+    technicianIds: z
+      .union([z.array(z.coerce.number().int().positive()), z.coerce.number().int().positive()])
+      .optional()
+      .transform((v) => (v === undefined ? [] : Array.isArray(v) ? v : [v])),
+  })
+  .refine((j) => j.ratedRpmMax >= j.ratedRpmMin, {
+    path: ["ratedRpmMax"],
+    message: "The highest rated rpm must not be below the lowest.",
+  })
+  .refine((j) => !j.startDate || !j.dueDate || j.dueDate >= j.startDate, {
+    path: ["dueDate"],
+    message: "The due date is before the start date.",
+  });
+
+export type JobInput = z.infer<typeof jobSchema>;

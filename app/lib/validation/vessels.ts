@@ -1,0 +1,53 @@
+import { z } from "zod";
+import { validateHin } from "../calc/hin.ts";
+
+export const hullTypes = ["displacement", "semi-displacement", "planing", "catamaran", "other"] as const;
+export const hullTypeLabels: Record<(typeof hullTypes)[number], string> = {
+  displacement: "Displacement",
+  "semi-displacement": "Semi-displacement",
+  planing: "Planing",
+  catamaran: "Catamaran",
+  other: "Other",
+};
+
+const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max)
+    .optional()
+    .transform((v) => (v ? v : undefined));
+
+/** The vessel form, on both sides. An empty HIN is allowed (older or home-built hulls). */
+export const vesselSchema = z.object({
+  name: z.string({ error: "Enter the vessel's name." }).trim().min(1, "Enter the vessel's name.").max(120),
+  hin: z
+    .string()
+    .optional()
+    .transform((v, ctx) => {
+      if (!v?.trim()) return undefined;
+      const check = validateHin(v);
+      if (!check.valid) {
+        ctx.addIssue({ code: "custom", message: check.problems.join(" ") });
+        return z.NEVER;
+      }
+      return check.hin;
+    }),
+  lengthValue: z.coerce
+    .number({ error: "Enter the length as a number." })
+    .positive("The length must be more than zero.")
+    .max(200, "That is longer than any yard boat; check the unit."),
+  lengthUnit: z.enum(["ft", "m"], { error: "Choose feet or metres." }),
+  hullType: z.enum(hullTypes, { error: "Choose a hull type." }),
+  ownerName: z.string({ error: "Enter the owner's name." }).trim().min(1, "Enter the owner's name.").max(120),
+  ownerEmail: z
+    .string()
+    .trim()
+    .optional()
+    .transform((v) => (v ? v : undefined))
+    .pipe(z.email({ error: "Enter a valid e-mail address." }).optional()),
+  ownerPhone: optionalText(40),
+  waterlineNotes: optionalText(2000),
+});
+
+export type VesselInput = z.infer<typeof vesselSchema>;

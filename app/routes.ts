@@ -1,0 +1,30 @@
+import { type RouteConfig, index, layout, prefix, route } from "@react-router/dev/routes";
+
+export default [
+  route("login", "routes/login.tsx"),
+  route("logout", "routes/logout.ts"),
+  route("invitation/:token", "routes/invitation.tsx"),
+  route("dev/mail", "routes/dev-mail.tsx"),
+  route("healthz", "routes/healthz.ts"),
+  ...prefix("api", [
+    route("me", "routes/api/me.ts"),
+    route("jobs", "routes/api/jobs.ts"),
+    route("jobs/:jobId", "routes/api/job.ts"),
+  ]),
+  layout("routes/shell.tsx", [
+    index("routes/today.tsx"),
+    ...prefix("jobs", [
+      index("routes/jobs/list.tsx"),
+      route("new", "routes/jobs/new.tsx"),
+      route(":jobId", "routes/jobs/detail.tsx"),
+      route(":jobId/edit", "routes/jobs/edit.tsx"),
+    ]),
+    ...prefix("vessels", [
+      index("routes/vessels/list.tsx"),
+      route("new", "routes/vessels/new.tsx"),
+      route(":vesselId", "routes/vessels/edit.tsx"),
+    ]),
+    route("people", "routes/people.tsx"),
+  ]),
+  route("*", "routes/not-found.tsx"),
+] satisfies RouteConfig;

@@ -1,0 +1,63 @@
+import { getFormProps, getInputProps, useForm } from "@conform-to/react";
+import { parseWithZod } from "@conform-to/zod/v4";
+import { data, Form, redirect } from "react-router";
+import type { Route } from "./+types/invitation";
+import { Field, FormErrors } from "~/components/field";
+import { newPasswordSchema } from "~/lib/validation/people";
+import { acceptInvitation, lookUpInvitation, type InvitationState } from "~/server/users.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "Set your password · Sternpost" }];
+
+const refusals: Record<Exclude<InvitationState["state"], "valid">, string> = {
+  expired: "This invitation has expired. Ask your shop manager to send a new one.",
+  used: "This invitation has already been used. Sign in with the password you chose.",
+  unknown: "This invitation link is not valid. Check that the whole link was copied.",
+  deactivated: "This account has been deactivated. Ask your shop manager.",
+};
+
+export async function loader({ params }: Route.LoaderArgs) {
+  const invitation = await lookUpInvitation(params.token);
+  if (invitation.state !== "valid") return { refusal: refusals[invitation.state], name: null };
+  return { refusal: null, name: invitation.user.name, email: invitation.user.email };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const submission = parseWithZod(await request.formData(), { schema: newPasswordSchema });
+  if (submission.status !== "success") return data(submission.reply(), { status: 400 });
+  const outcome = await acceptInvitation(params.token, submission.value.password);
+  if (outcome.state !== "valid") return data(submission.reply({ formErrors: [refusals[outcome.state]] }), { status: 400 });
+  return redirect("/login?welcome=1");
+}
+
+export default function Invitation({ loaderData, actionData }: Route.ComponentProps) {
+  const [form, fields] = useForm({
+    lastResult: actionData,
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: newPasswordSchema }),
+    shouldValidate: "onBlur",
+  });
+  return (
+    <main className="mx-auto flex min-h-dvh max-w-md flex-col justify-center gap-6 p-6">
+      <h1 className="text-3xl font-bold">Welcome to Sternpost</h1>
+      {loaderData.refusal ? (
+        <div className="card">
+          <FormErrors errors={[loaderData.refusal]} />
+          <a className="btn mt-4" href="/login">Go to sign in</a>
+        </div>
+      ) : (
+        <Form method="post" {...getFormProps(form)} className="card flex flex-col gap-4">
+          <p>
+            {loaderData.name}, choose a password for <strong>{loaderData.email}</strong>.
+          </p>
+          <FormErrors errors={form.errors} />
+          <Field id={fields.password.id} label="New password" hint="At least 10 characters." errors={fields.password.errors}>
+            <input {...getInputProps(fields.password, { type: "password" })} autoComplete="new-password" className="field-input" />
+          </Field>
+          <Field id={fields.confirm.id} label="Type it again" errors={fields.confirm.errors}>
+            <input {...getInputProps(fields.confirm, { type: "password" })} autoComplete="new-password" className="field-input" />
+          </Field>
+          <button className="btn btn-primary" type="submit">Set password</button>
+        </Form>
+      )}
+    </main>
+  );
+}

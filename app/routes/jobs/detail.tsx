@@ -1,0 +1,61 @@
+import { Link } from "react-router";
+import type { Route } from "./+types/detail";
+import { canEditJob } from "~/lib/permissions";
+import { jobScopeLabels, jobStatusLabels } from "~/lib/validation/jobs";
+import { requireJob } from "~/server/job-access.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.job.vesselName ?? "Job"} · Sternpost` }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { user, job } = await requireJob(request, params.jobId);
+  return { job, canEdit: canEditJob(user, job) };
+}
+
+function Fact({ label, children }: { label: string; children: React.ReactNode }) {
+  return (
+    <div>
+      <dt className="text-sm text-ink-soft">{label}</dt>
+      <dd className="num text-lg font-bold">{children}</dd>
+    </div>
+  );
+}
+
+export default function JobDetail({ loaderData }: Route.ComponentProps) {
+  const { job, canEdit } = loaderData;
+  return (
+    <>
+      <div className="mb-6 flex flex-wrap items-end justify-between gap-4">
+        <div>
+          <p className="font-bold text-copper">
+            {jobScopeLabels[job.scope]} · {jobStatusLabels[job.status]}
+          </p>
+          <h1 className="text-3xl font-bold">{job.vesselName}</h1>
+          {job.hin && <p className="font-mono">HIN {job.hin}</p>}
+        </div>
+        {canEdit && <Link className="btn" to={`/jobs/${job.id}/edit`}>Edit job</Link>}
+      </div>
+      <section className="card mb-6">
+        <h2 className="mb-3 text-xl font-bold">Installed equipment</h2>
+        <dl className="grid grid-cols-2 gap-4 md:grid-cols-4">
+          <Fact label="Engine">{job.engineModel}</Fact>
+          <Fact label="Serial">{job.engineSerial}</Fact>
+          <Fact label="Rated power">{job.ratedPowerHp} hp</Fact>
+          <Fact label="Rated rpm">{job.ratedRpmMin}–{job.ratedRpmMax} rpm</Fact>
+          <Fact label="Gear ratio">{job.gearRatio} : 1</Fact>
+          <Fact label="Propeller">{job.propDiameterIn} in × {job.propPitchIn} in, {job.propBlades} blades</Fact>
+          <Fact label="Shaft">{job.shaftDiameterIn} in, {job.shaftMaterial}</Fact>
+          <Fact label="Coupling">{job.couplingType}</Fact>
+        </dl>
+      </section>
+      <section className="card mb-6">
+        <h2 className="mb-3 text-xl font-bold">People and dates</h2>
+        <dl className="grid grid-cols-2 gap-4 md:grid-cols-4">
+          <Fact label="Lead">{job.leadName}</Fact>
+          <Fact label="Technicians">{job.technicianNames.join(", ") || "None yet"}</Fact>
+          <Fact label="Start">{job.startDate ?? "—"}</Fact>
+          <Fact label="Due">{job.dueDate ?? "—"}</Fact>
+        </dl>
+      </section>
+    </>
+  );
+}

@@ -1,0 +1,170 @@
+import { getFormProps, getInputProps, getSelectProps, useForm } from "@conform-to/react";
+import { parseWithZod } from "@conform-to/zod/v4";
+import { data, Form, useNavigation } from "react-router";
+import type { Route } from "./+types/people";
+import { PageHeader } from "~/components/app-shell";
+import { Field, FormErrors } from "~/components/field";
+import { roleLabels, roles } from "~/lib/roles";
+import { inviteSchema, userChangeSchema } from "~/lib/validation/people";
+import { audit } from "~/server/audit.server";
+import { env } from "~/server/env.server";
+import { sendMail } from "~/server/mail.server";
+import { requireCapability } from "~/server/permissions.server";
+import { endSessionsOf } from "~/server/session.server";
+import { findUserById, inviteUser, InviteError, listUsers, updateUser } from "~/server/users.server";
+
+export const meta: Route.MetaFunction = () => [{ title: "People · Sternpost" }];
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const me = await requireCapability(request, "users:manage");
+  return { me: me.id, people: await listUsers() };
+}
+
+async function sendInvitation(to: string, name: string, token: string) {
+  const link = `${env().APP_URL}/invitation/${token}`;
+  await sendMail({
+    to,
+    subject: "You are invited to Sternpost",
+    text: `Hello ${name},\n\nYou have been given an account on Sternpost, the yard's engine installation records.\nChoose your password here (the link works once, for 7 days):\n\n${link}\n`,
+  });
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  const me = await requireCapability(request, "users:manage");
+  const formData = await request.formData();
+  if (formData.get("intent") === "invite") {
+    const submission = parseWithZod(formData, { schema: inviteSchema });
+    if (submission.status !== "success") return data({ invite: submission.reply(), notice: null }, { status: 400 });
+    try {
+      const { userId, token } = await inviteUser(submission.value, me.id);
+      await sendInvitation(submission.value.email, submission.value.name, token);
+      await audit({ userId: me.id, action: "user.invited", entity: "user", entityId: userId, detail: { role: submission.value.role } });
+      return { invite: submission.reply({ resetForm: true }), notice: `Invitation sent to ${submission.value.email}.` };
+    } catch (error) {
+      if (error instanceof InviteError)
+        return data({ invite: submission.reply({ fieldErrors: { [error.field]: [error.message] } }), notice: null }, { status: 400 });
+      throw error;
+    }
+  }
+  const change = userChangeSchema.safeParse(Object.fromEntries(formData));
+  if (!change.success) return data({ invite: null, notice: "That change was not understood; reload the page and try again." }, { status: 400 });
+  const target = await findUserById(change.data.userId);
+  if (!target) return data({ invite: null, notice: "That person no longer exists." }, { status: 404 });
+  if (target.id === me.id && change.data.intent !== "reinvite")
+    return data({ invite: null, notice: "You cannot change your own role or deactivate yourself; ask another manager." }, { status: 400 });
+  switch (change.data.intent) {
+    case "role":
+      await updateUser(target.id, { role: change.data.role });
+      await endSessionsOf(target.id);
+      break;
+    case "deactivate":
+      await updateUser(target.id, { active: false });
+      await endSessionsOf(target.id);
+      break;
+    case "reactivate":
+      await updateUser(target.id, { active: true });
+      break;
+    case "reinvite": {
+      const { token } = await inviteUser({ email: target.email, name: target.name, role: target.role }, me.id).catch((e) => {
+        if (e instanceof InviteError) throw data({ message: e.message }, { status: 400 });
+        throw e;
+      });
+      await sendInvitation(target.email, target.name, token);
+      break;
+    }
+  }
+  await audit({ userId: me.id, action: `user.${change.data.intent}`, entity: "user", entityId: target.id, detail: change.data });
+  return { invite: null, notice: `${target.name}: ${change.data.intent === "role" ? "role changed" : change.data.intent + "d"}.` };
+}
+
+export default function People({ loaderData, actionData }: Route.ComponentProps) {
+  const busy = useNavigation().state !== "idle";
+  const [form, fields] = useForm({
+    lastResult: busy ? null : actionData?.invite,
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: inviteSchema }),
+    shouldValidate: "onBlur",
+  });
+  return (
+    <>
+      <PageHeader title="People" />
+      {actionData?.notice && (
+        <p role="status" className="mb-4 rounded-md border-2 border-sound bg-sound-light p-3 font-bold">
+          {actionData.notice}
+        </p>
+      )}
+      <section className="card mb-8">
+        <h2 className="mb-4 text-xl font-bold">Invite someone</h2>
+        <Form method="post" {...getFormProps(form)} className="grid gap-4 md:grid-cols-4 md:items-end">
+          <input type="hidden" name="intent" value="invite" />
+          <FormErrors errors={form.errors} />
+          <Field id={fields.name.id} label="Name" errors={fields.name.errors}>
+            <input {...getInputProps(fields.name, { type: "text" })} className="field-input" />
+          </Field>
+          <Field id={fields.email.id} label="E-mail address" errors={fields.email.errors}>
+            <input {...getInputProps(fields.email, { type: "email" })} className="field-input" />
+          </Field>
+          <Field id={fields.role.id} label="Role" errors={fields.role.errors}>
+            <select {...getSelectProps(fields.role)} className="field-input" defaultValue="technician">
+              {roles.map((r) => (
+                <option key={r} value={r}>
+                  {roleLabels[r]}
+                </option>
+              ))}
+            </select>
+          </Field>
+          <button type="submit" className="btn btn-primary" disabled={busy}>
+            Send invitation
+          </button>
+        </Form>
+      </section>
+      <table className="w-full border-collapse">
+        <thead>
+          <tr className="border-b-2 border-ink text-left">
+            <th className="p-2">Name</th>
+            <th className="p-2">E-mail</th>
+            <th className="p-2">Role</th>
+            <th className="p-2">State</th>
+            <th className="p-2">Actions</th>
+          </tr>
+        </thead>
+        <tbody>
+          {loaderData.people.map((p) => (
+            <tr key={p.id} className="border-b border-rule align-middle" data-testid={`person-${p.email}`}>
+              <td className="p-2 font-bold">{p.name}</td>
+              <td className="p-2">{p.email}</td>
+              <td className="p-2">
+                <Form method="post" className="flex gap-2">
+                  <input type="hidden" name="intent" value="role" />
+                  <input type="hidden" name="userId" value={p.id} />
+                  <label className="sr-only" htmlFor={`role-${p.id}`}>Role of {p.name}</label>
+                  <select id={`role-${p.id}`} name="role" defaultValue={p.role} className="field-input w-auto" disabled={p.id === loaderData.me}>
+                    {roles.map((r) => (
+                      <option key={r} value={r}>
+                        {roleLabels[r]}
+                      </option>
+                    ))}
+                  </select>
+                  {p.id !== loaderData.me && <button className="btn" type="submit">Change</button>}
+                </Form>
+              </td>
+              <td className="p-2">{!p.active ? "Deactivated" : p.hasPassword ? "Active" : "Invited"}</td>
+              <td className="p-2">
+                {p.id !== loaderData.me && (
+                  <Form method="post" className="flex gap-2">
+                    <input type="hidden" name="userId" value={p.id} />
+                    {p.active ? (
+                      <button className="btn btn-danger" name="intent" value="deactivate">Deactivate</button>
+                    ) : (
+                      <button className="btn" name="intent" value="reactivate">Reactivate</button>
+                    )}
+                    {p.active && !p.hasPassword && <button className="btn" name="intent" value="reinvite">Send again</button>}
+                  </Form>
+                )}
+              </td>
+            </tr>
+          ))}
+        </tbody>
+      </table>
+    </>
+  );
+}

@@ -1,0 +1,35 @@
+import { z } from "zod";
+
+const DEV_SECRET = "sternpost-development-secret-do-not-use";
+
+const schema = z.object({
+  NODE_ENV: z.enum(["development", "production", "test"]).default("development"),
+  DATABASE_URL: z.string().url().default("mysql://root@127.0.0.1:3307/sternpost"),
+  SESSION_SECRET: z.string().min(16).default(DEV_SECRET),
+  APP_URL: z.string().url().default("http://localhost:3000"),
+  SMTP_URL: z.string().default("smtp://127.0.0.1:2525"),
+  MAIL_FROM: z.string().default("Sternpost <no-reply@sternpost.invalid>"),
+  /** Folder where the local SMTP sink keeps messages; when set, /dev/mail shows them. */
+  MAIL_SINK_DIR: z.string().optional(),
+  /** Login attempts allowed per account and per address in 15 minutes. */
+  LOGIN_ATTEMPTS: z.coerce.number().int().positive().default(8),
+});
+
+export type Env = z.infer<typeof schema>;
+
+let cached: Env | undefined;
+
+/** Parsed once; a production server refuses to start with the development secret. */
+export function env(): Env {
+  if (cached) return cached;
+  const parsed = schema.safeParse(process.env);
+  if (!parsed.success) {
+    const fields = parsed.error.issues.map((i) => `${i.path.join(".")}: ${i.message}`).join("; ");
+    throw new Error(`Invalid environment: ${fields}`);
+  }
+  if (parsed.data.NODE_ENV === "production" && parsed.data.SESSION_SECRET === DEV_SECRET) {
+    throw new Error("SESSION_SECRET must be set to a secret of your own in production.");
+  }
+  cached = parsed.data;
+  return cached;
+}

@@ -1,0 +1,66 @@
+import { randomBytes } from "node:crypto";
+import { createCookie, createSessionStorage } from "react-router";
+import { db } from "./db.server.ts";
+import { env } from "./env.server.ts";
+
+const MAX_AGE_S = 60 * 60 * 24 * 14;
+
+interface SessionData {
+  userId: number;
+  deviceId?: string;
+}
+interface FlashData {
+  notice: string;
+}
+
+function cookie() {
+  return createCookie("__sternpost", {
+    httpOnly: true,
+    sameSite: "lax",
+    path: "/",
+    secure: env().APP_URL.startsWith("https:"),
+    secrets: [env().SESSION_SECRET],
+    maxAge: MAX_AGE_S,
+  });
+}
+
+let storage: ReturnType<typeof createSessionStorage<SessionData, FlashData>> | undefined;
+
+/** Sessions are rows in MariaDB, so every app instance sees the same ones. */
+export function sessionStorage() {
+  storage ??= createSessionStorage<SessionData, FlashData>({
+    cookie: cookie(),
+    async createData(data, expires) {
+      const id = randomBytes(24).toString("base64url");
+      await db()("sessions").insert({ id, user_id: data.userId ?? null, data: JSON.stringify(data), expires_at: expires ?? null });
+      return id;
+    },
+    async readData(id) {
+      const row = await db()("sessions").where({ id }).first();
+      if (!row) return null;
+      if (row.expires_at && new Date(row.expires_at) < new Date()) {
+        await db()("sessions").where({ id }).delete();
+        return null;
+      }
+      return JSON.parse(row.data);
+    },
+    async updateData(id, data, expires) {
+      await db()("sessions")
+        .where({ id })
+        .update({ user_id: data.userId ?? null, data: JSON.stringify(data), expires_at: expires ?? null });
+    },
+    async deleteData(id) {
+      await db()("sessions").where({ id }).delete();
+    },
+  });
+  return storage;
+}
+
+export function getSession(request: Request) {
+  return sessionStorage().getSession(request.headers.get("Cookie"));
+}
+
+/** Ends every session of a user (deactivation, password change). */
+export async function endSessionsOf(userId: number) {
+  await db()("sessions").where({ user_id: userId }).delete();
+}

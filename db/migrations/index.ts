@@ -1,0 +1,15 @@
+import type { Knex } from "knex";
+import * as m001 from "./001_people.ts";
+import * as m002 from "./002_vessels_and_jobs.ts";
+
+// Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
+const migrations: Record<string, Knex.Migration> = {
+  "001_people": m001,
+  "002_vessels_and_jobs": m002,
+};
+
+export const migrationSource: Knex.MigrationSource<string> = {
+  getMigrations: async () => Object.keys(migrations),
+  getMigrationName: (name) => name,
+  getMigration: async (name) => migrations[name]!,
+};

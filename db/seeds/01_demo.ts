@@ -1,0 +1,7 @@
+import type { Knex } from "knex";
+import { seedDemo } from "./demo.ts";
+
+// Entry point for `knex seed:run`; the start script calls seedDemo directly.
+export async function seed(knex: Knex) {
+  await seedDemo(knex);
+}

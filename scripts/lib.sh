@@ -1,0 +1,70 @@
+# Shared by start.sh and test.sh: install what is missing, start the private services.
+# Everything lives under .data/ (ignored by git) so a second run reuses it and keeps the data.
+set -euo pipefail
+ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
+DATA="$ROOT/.data"
+MARIADB_PORT="${MARIADB_PORT:-3307}"
+SMTP_PORT="${SMTP_PORT:-2525}"
+mkdir -p "$DATA"
+
+log() { printf '\033[1m[sternpost]\033[0m %s\n' "$*"; }
+
+apt_ready=""
+apt_install() { # apt_install <command-to-find> <package>...
+  local probe="$1"; shift
+  command -v "$probe" >/dev/null 2>&1 && return 0
+  log "installing $* from Debian's packages"
+  if [ -z "$apt_ready" ]; then apt-get update -qq; apt_ready=1; fi
+  DEBIAN_FRONTEND=noninteractive apt-get install -y -qq "$@" >/dev/null
+}
+
+ensure_node_modules() {
+  if [ ! -d "$ROOT/node_modules" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
+    log "installing npm dependencies (npm ci)"
+    (cd "$ROOT" && npm ci --no-audit --no-fund --loglevel=error)
+  fi
+}
+
+port_open() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+
+start_mariadb() {
+  if [ -n "${DATABASE_URL:-}" ]; then log "using DATABASE_URL (no private MariaDB)"; return 0; fi
+  export DATABASE_URL="mysql://root@127.0.0.1:$MARIADB_PORT/sternpost"
+  if port_open "$MARIADB_PORT"; then log "MariaDB already answering on 127.0.0.1:$MARIADB_PORT"; return 0; fi
+  apt_install mariadbd mariadb-server
+  local dir="$DATA/mariadb"
+  mkdir -p "$dir"
+  if [ ! -d "$dir/data/mysql" ]; then
+    log "initialising a private MariaDB in .data/mariadb"
+    mariadb-install-db --no-defaults --datadir="$dir/data" --user="$(id -un)" \
+      --auth-root-authentication-method=normal --skip-test-db >"$dir/install.log" 2>&1
+  fi
+  log "starting MariaDB on 127.0.0.1:$MARIADB_PORT"
+  nohup mariadbd --no-defaults --datadir="$dir/data" --socket="$dir/sock" --port="$MARIADB_PORT" \
+    --bind-address=127.0.0.1 --pid-file="$dir/mariadb.pid" --log-error="$dir/error.log" \
+    --user="$(id -un)" --character-set-server=utf8mb4 --collation-server=utf8mb4_unicode_ci \
+    --max-connections=300 >/dev/null 2>&1 &
+  for _ in $(seq 1 100); do
+    mariadb-admin --no-defaults --socket="$dir/sock" -uroot ping >/dev/null 2>&1 && return 0
+    sleep 0.2
+  done
+  log "MariaDB did not start; see .data/mariadb/error.log"; tail -20 "$dir/error.log"; return 1
+}
+
+start_mail_sink() {
+  export MAIL_SINK_DIR="${MAIL_SINK_DIR:-$DATA/mail}"
+  export SMTP_URL="${SMTP_URL:-smtp://127.0.0.1:$SMTP_PORT}"
+  if port_open "$SMTP_PORT"; then log "SMTP sink already answering on 127.0.0.1:$SMTP_PORT"; return 0; fi
+  log "starting the SMTP sink on 127.0.0.1:$SMTP_PORT (messages in .data/mail)"
+  SMTP_PORT="$SMTP_PORT" nohup "$ROOT/node_modules/.bin/tsx" "$ROOT/scripts/mail-sink.ts" >"$DATA/mail-sink.log" 2>&1 &
+  for _ in $(seq 1 100); do port_open "$SMTP_PORT" && return 0; sleep 0.1; done
+  log "the SMTP sink did not start; see .data/mail-sink.log"; return 1
+}
+
+session_secret() {
+  if [ -z "${SESSION_SECRET:-}" ]; then
+    [ -f "$DATA/session-secret" ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("hex"))' >"$DATA/session-secret"
+    SESSION_SECRET="$(cat "$DATA/session-secret")"
+    export SESSION_SECRET
+  fi
+}
