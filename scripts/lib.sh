@@ -40,6 +40,7 @@ start_mariadb() {
       --auth-root-authentication-method=normal --skip-test-db >"$dir/install.log" 2>&1
   fi
   log "starting MariaDB on 127.0.0.1:$MARIADB_PORT"
+  STARTED_MARIADB=1
   nohup mariadbd --no-defaults --datadir="$dir/data" --socket="$dir/sock" --port="$MARIADB_PORT" \
     --bind-address=127.0.0.1 --pid-file="$dir/mariadb.pid" --log-error="$dir/error.log" \
     --user="$(id -un)" --character-set-server=utf8mb4 --collation-server=utf8mb4_unicode_ci \
@@ -67,4 +68,13 @@ session_secret() {
     SESSION_SECRET="$(cat "$DATA/session-secret")"
     export SESSION_SECRET
   fi
+}
+
+# Stops the private MariaDB if this script started it (tests leave nothing running behind them).
+stop_mariadb_if_started() {
+  local pidfile="$DATA/mariadb/mariadb.pid"
+  [ "${STARTED_MARIADB:-}" = 1 ] && [ -f "$pidfile" ] || return 0
+  local pid; pid="$(cat "$pidfile")"
+  kill "$pid" 2>/dev/null || return 0
+  for _ in $(seq 1 100); do kill -0 "$pid" 2>/dev/null || return 0; sleep 0.1; done
 }

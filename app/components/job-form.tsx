@@ -40,6 +40,7 @@ export function JobForm({
     },
     onValidate: ({ formData }) => parseWithZod(formData, { schema: jobSchema }),
     shouldValidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   const numeric = (name: keyof typeof fields, label: string, unit: string, hint?: string) => {
     const meta = fields[name];

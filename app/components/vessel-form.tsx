@@ -10,6 +10,7 @@ export function VesselForm({ defaults, lastResult, submitLabel }: { defaults?: P
     defaultValue: { lengthUnit: "ft", hullType: "planing", ...defaults, lengthValue: defaults?.lengthValue?.toString() },
     onValidate: ({ formData }) => parseWithZod(formData, { schema: vesselSchema }),
     shouldValidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   return (
     <Form method="post" {...getFormProps(form)} className="card grid gap-4 md:grid-cols-2">

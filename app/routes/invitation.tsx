@@ -34,6 +34,7 @@ export default function Invitation({ loaderData, actionData }: Route.ComponentPr
     lastResult: actionData,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: newPasswordSchema }),
     shouldValidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   return (
     <main className="mx-auto flex min-h-dvh max-w-md flex-col justify-center gap-6 p-6">

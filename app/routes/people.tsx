@@ -83,6 +83,7 @@ export default function People({ loaderData, actionData }: Route.ComponentProps)
     lastResult: busy ? null : actionData?.invite,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: inviteSchema }),
     shouldValidate: "onBlur",
+    shouldRevalidate: "onInput",
   });
   return (
     <>

@@ -26,7 +26,8 @@ export const vesselSchema = z.object({
     .optional()
     .transform((v, ctx) => {
       if (!v?.trim()) return undefined;
-      const check = validateHin(v);
+      // People copy HINs off paperwork with spaces or hyphens; the number itself has none.
+      const check = validateHin(v.replace(/[\s\-/]/g, ""));
       if (!check.valid) {
         ctx.addIssue({ code: "custom", message: check.problems.join(" ") });
         return z.NEVER;

@@ -1,0 +1,24 @@
+import { afterAll, describe, expect, it } from "vitest";
+import { connect, createDatabase, dropDatabase } from "../../db/connect.ts";
+
+describe("migrations", () => {
+  const url = process.env.DATABASE_URL!.replace(/\/[^/]+$/, "/sternpost_migrations");
+  afterAll(() => dropDatabase(url));
+
+  it("run up, all the way down, and up again on MariaDB", async () => {
+    await dropDatabase(url);
+    await createDatabase(url);
+    const knex = connect(url);
+    try {
+      const tables = async () => (await knex.raw("SHOW TABLES"))[0].map((r: any) => Object.values(r)[0]).sort();
+      await knex.migrate.latest();
+      expect(await tables()).toEqual(expect.arrayContaining(["users", "sessions", "rate_limits", "vessels", "jobs", "job_technicians", "audit_log"]));
+      await knex.migrate.rollback(undefined, true);
+      expect((await tables()).filter((t: string) => !t.startsWith("knex_"))).toEqual([]);
+      const [, again] = await knex.migrate.latest();
+      expect(again.length).toBeGreaterThan(0);
+    } finally {
+      await knex.destroy();
+    }
+  });
+});

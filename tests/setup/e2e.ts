@@ -1,0 +1,59 @@
+import { spawn, type ChildProcess } from "node:child_process";
+import { mkdtempSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { connect } from "../../db/connect.ts";
+import { seedDemo } from "../../db/seeds/demo.ts";
+import { freshDatabase } from "../support/database.ts";
+
+const PORT = Number(process.env.E2E_PORT ?? 3100);
+const SMTP_PORT = Number(process.env.E2E_SMTP_PORT ?? 2626);
+
+async function waitFor(url: string, child: ChildProcess, what: string) {
+  for (let i = 0; i < 150; i++) {
+    if (child.exitCode !== null) throw new Error(`${what} exited with ${child.exitCode}`);
+    try {
+      if ((await fetch(url)).ok) return;
+    } catch {}
+    await new Promise((r) => setTimeout(r, 100));
+  }
+  throw new Error(`${what} did not answer at ${url}`);
+}
+
+/**
+ * End-to-end tests run the production build (`node server.js`) against its own seeded
+ * database and its own SMTP sink, exactly as `npm start` does, on other ports.
+ */
+export default async function setup() {
+  const databaseUrl = await freshDatabase("sternpost_e2e");
+  const knex = connect(databaseUrl);
+  await seedDemo(knex);
+  await knex.destroy();
+
+  const mailDir = mkdtempSync(path.join(tmpdir(), "sternpost-mail-"));
+  const env = {
+    ...process.env,
+    NODE_ENV: "production",
+    PORT: String(PORT),
+    DATABASE_URL: databaseUrl,
+    SESSION_SECRET: "end-to-end-tests-secret-0123456789",
+    APP_URL: `http://localhost:${PORT}`,
+    SMTP_URL: `smtp://127.0.0.1:${SMTP_PORT}`,
+    SMTP_PORT: String(SMTP_PORT),
+    MAIL_SINK_DIR: mailDir,
+  };
+  const children: ChildProcess[] = [];
+  const sink = spawn("node_modules/.bin/tsx", ["scripts/mail-sink.ts"], { env, stdio: "inherit" });
+  children.push(sink);
+  const server = spawn("node", ["server.js"], { env, stdio: ["ignore", "ignore", "inherit"] });
+  children.push(server);
+  await waitFor(`http://localhost:${PORT}/healthz`, server, "The app server");
+
+  process.env.E2E_BASE_URL = `http://localhost:${PORT}`;
+  process.env.E2E_DATABASE_URL = databaseUrl;
+  process.env.E2E_MAIL_DIR = mailDir;
+
+  return async () => {
+    for (const child of children) child.kill("SIGTERM");
+  };
+}

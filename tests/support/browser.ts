@@ -1,0 +1,44 @@
+import { chromium, type Browser, type BrowserContext, type Page } from "playwright-core";
+import { expect } from "vitest";
+import { DEMO_PASSWORD } from "../../db/seeds/demo-people.ts";
+
+export const baseUrl = () => process.env.E2E_BASE_URL ?? "http://localhost:3100";
+
+/** Debian's Chromium, headless, with nothing reaching outside this machine (Playwright gives it a fresh profile). */
+export async function launch(): Promise<Browser> {
+  return chromium.launch({
+    executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    args: [
+      "--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
+      "--disable-background-networking", "--disable-component-update", "--disable-sync",
+    ],
+  });
+}
+
+/** A tablet-sized context whose pages fail the test on any console error. */
+export async function tabletContext(browser: Browser): Promise<{ context: BrowserContext; errors: string[] }> {
+  const context = await browser.newContext({ viewport: { width: 820, height: 1180 }, baseURL: baseUrl(), hasTouch: true });
+  const errors: string[] = [];
+  context.on("page", (page) => watch(page, errors));
+  return { context, errors };
+}
+
+function watch(page: Page, errors: string[]) {
+  page.on("console", (m) => {
+    // A refused page load (403/404) logs a resource error; the tests check those statuses themselves.
+    if (m.type() === "error" && !/Failed to load resource/.test(m.text())) errors.push(m.text());
+  });
+  page.on("pageerror", (e) => errors.push(String(e)));
+}
+
+export function expectNoConsoleErrors(errors: string[]) {
+  expect(errors, "console errors during the test").toEqual([]);
+}
+
+export async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
+  await page.goto("/login");
+  await page.getByLabel("E-mail address").fill(email);
+  await page.getByLabel("Password").fill(password);
+  await page.getByRole("button", { name: "Sign in" }).click();
+  await page.waitForURL((url) => !url.pathname.startsWith("/login"));
+}

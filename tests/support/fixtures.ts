@@ -1,0 +1,51 @@
+import bcrypt from "bcryptjs";
+import type { Knex } from "knex";
+import type { Role } from "../../app/lib/roles.ts";
+
+export const TEST_PASSWORD = "correct-horse-battery";
+const hash = bcrypt.hashSync(TEST_PASSWORD, 4);
+let counter = 0;
+
+/** A person with a known password; e-mail addresses are unique per call. */
+export async function makeUser(knex: Knex, role: Role, overrides: { active?: boolean; name?: string } = {}) {
+  const email = `${role}-${Date.now()}-${++counter}@test.example`;
+  const [id] = await knex("users").insert({ email, name: overrides.name ?? `Test ${role} ${counter}`, role, password_hash: hash, active: overrides.active ?? true });
+  return { id: id as number, email, role };
+}
+
+export async function makeVessel(knex: Knex, createdBy: number | null = null) {
+  const [id] = await knex("vessels").insert({
+    name: `Test hull ${++counter}`,
+    length_value: 30,
+    length_unit: "ft",
+    length_m: 9.144,
+    hull_type: "planing",
+    owner_name: "Test owner",
+    created_by: createdBy,
+  });
+  return id as number;
+}
+
+export async function makeJob(knex: Knex, leadId: number, technicianIds: number[] = [], vesselId?: number) {
+  const vessel = vesselId ?? (await makeVessel(knex));
+  const [id] = await knex("jobs").insert({
+    vessel_id: vessel,
+    scope: "repower",
+    status: "underway",
+    engine_model: "Test engine",
+    engine_serial: `SN-${++counter}`,
+    rated_power_hp: 200,
+    rated_rpm_min: 2600,
+    rated_rpm_max: 2800,
+    gear_ratio: 2,
+    prop_diameter_in: 20,
+    prop_pitch_in: 18,
+    prop_blades: 3,
+    shaft_diameter_in: 1.25,
+    shaft_material: "316 stainless",
+    coupling_type: "Split clamp",
+    lead_id: leadId,
+  });
+  if (technicianIds.length) await knex("job_technicians").insert(technicianIds.map((user_id) => ({ job_id: id, user_id })));
+  return { id: id as number, vesselId: vessel };
+}
