@@ -1,0 +1,250 @@
+import { runCalc, type CalcOutcome } from "~/lib/calc/registry";
+import { atLeast, atMost } from "~/lib/calc/numbers";
+import { convert, type Unit } from "~/lib/calc/units";
+import { calcDefinition, gatherCalcInputs } from "./calc-inputs";
+import { describeRule, formatEntered, formatNumber, formatQuantity } from "./format";
+import { formatPath } from "./load";
+import { findItem, type CalcItem, type ChoiceItem, type Item, type MeasureItem, type ReadingsItem, type ReadingsRule, type Rule, type Template } from "./schema";
+import {
+  valueSchemaFor,
+  type CheckValue,
+  type ChoiceValue,
+  type InitialsValue,
+  type MeasureValue,
+  type PhotoValue,
+  type ReadingsValue,
+  type Responses,
+  type TextValue,
+} from "./values";
+
+/**
+ * The one acceptance-rule evaluator, run by the tablet as the technician types and by the server
+ * before it stores anything. A verdict is always computed from the response, never stored in it.
+ */
+
+export type VerdictStatus =
+  /** nothing entered yet (a calc item: its inputs are not all in) */
+  | "unanswered"
+  /** started but not finished: empty cells in a grid, fewer photos than asked */
+  | "incomplete"
+  /** the entry does not fit the item: a unit it does not take, a grid of the wrong shape */
+  | "invalid"
+  | "ok"
+  /** outside the acceptance rule and no corrective-action note yet */
+  | "out-of-range"
+  /** failed, not applicable, or a choice that is a finding, and no note yet */
+  | "needs-note"
+  /** a finding that carries its note: done, for the reviewer to judge */
+  | "noted";
+
+export type Finding = "fail" | "not-applicable" | "out-of-range" | "flagged-option";
+
+export interface Verdict {
+  status: VerdictStatus;
+  /** Counts as done: answered, and the note a finding needs is there. */
+  done: boolean;
+  /** Plain words for the person at the item. */
+  message: string;
+  /** Why a note was (or is) needed; kept once the note is written so a reviewer sees it. */
+  finding?: Finding;
+  /** Readings outside the rule: a cell, or a whole row when the rule is on the row's spread. */
+  offending?: { row: number; column?: number }[];
+  /** A calc item's result, for its panel and diagram. */
+  outcome?: CalcOutcome;
+}
+
+export interface EvaluationContext {
+  template: Template;
+  responses: Responses;
+}
+
+const NOTE_FOR_RANGE = "Write the corrective action in the note, or correct it and enter a new attempt.";
+
+function hasNote(note: string | undefined): boolean {
+  return typeof note === "string" && note.trim().length > 0;
+}
+
+function verdict(status: VerdictStatus, message: string, extra: Partial<Verdict> = {}): Verdict {
+  return { status, done: status === "ok" || status === "noted", message, ...extra };
+}
+
+/** A finding: `noted` with its note, otherwise `needs-note` (or `out-of-range` for a reading). */
+function finding(kind: Finding, note: string | undefined, what: string, ask: string, extra: Partial<Verdict> = {}): Verdict {
+  if (hasNote(note)) return verdict("noted", `${what} Noted.`, { finding: kind, ...extra });
+  return verdict(kind === "out-of-range" ? "out-of-range" : "needs-note", `${what} ${ask}`, { finding: kind, ...extra });
+}
+
+/**
+ * The verdict on one item's response. `value` is the stored response (absent when none); it is
+ * validated against the item first. A calc item needs the context: its inputs are other items.
+ */
+export function evaluate(item: Item, value: unknown, context?: EvaluationContext): Verdict {
+  if (item.kind === "calc") return evaluateCalc(item, value, context);
+  if (value === undefined || value === null) return verdict("unanswered", "Not answered yet.");
+  const parsed = valueSchemaFor(item).safeParse(value);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    const where = formatPath(issue.path);
+    return verdict("invalid", `This entry does not fit the item${where ? ` (${where})` : ""}: ${issue.message}.`);
+  }
+  switch (item.kind) {
+    case "check":
+      return evaluateCheck(parsed.data as CheckValue);
+    case "measure":
+      return evaluateMeasure(item, parsed.data as MeasureValue);
+    case "readings":
+      return evaluateReadings(item, parsed.data as ReadingsValue);
+    case "choice":
+      return evaluateChoice(item, parsed.data as ChoiceValue);
+    case "text":
+      return (parsed.data as TextValue).text.trim() ? verdict("ok", "Written.") : verdict("unanswered", "Not written yet.");
+    case "photo":
+      return evaluatePhotos((parsed.data as PhotoValue).photos.length, item.minPhotos);
+    case "initials":
+      return verdict("ok", `Confirmed by ${(parsed.data as InitialsValue).initials.trim()}.`);
+  }
+}
+
+/** Every item of a template, keyed by item key. */
+export function evaluateAll(template: Template, responses: Responses): Record<string, Verdict> {
+  const verdicts: Record<string, Verdict> = {};
+  for (const section of template.sections) {
+    for (const item of section.items) verdicts[item.key] = evaluate(item, responses[item.key], { template, responses });
+  }
+  return verdicts;
+}
+
+function evaluateCheck(value: CheckValue): Verdict {
+  switch (value.result) {
+    case "pass":
+      return verdict("ok", "Passed.");
+    case "fail":
+      return finding("fail", value.note, "Failed.", "Write what is wrong and what was done about it in the note.");
+    case "na":
+      return finding("not-applicable", value.note, "Marked not applicable.", "Say why in the note.");
+  }
+}
+
+interface Bounds {
+  low?: number;
+  high?: number;
+}
+
+/** min/max narrowed by nominal ± tolerance. */
+function boundsOf(rule: Rule | ReadingsRule): Bounds {
+  let { min: low, max: high } = rule;
+  if (rule.nominal !== undefined && rule.tolerance !== undefined) {
+    const lo = rule.nominal - rule.tolerance;
+    const hi = rule.nominal + rule.tolerance;
+    low = low === undefined ? lo : Math.max(low, lo);
+    high = high === undefined ? hi : Math.min(high, hi);
+  }
+  return { low, high };
+}
+
+/** Where a value in the rule's unit falls: undefined when within, else which limit it crossed. */
+function crossing(value: number, bounds: Bounds): { side: "below" | "above"; limit: number } | undefined {
+  if (bounds.low !== undefined && !atLeast(value, bounds.low)) return { side: "below", limit: bounds.low };
+  if (bounds.high !== undefined && !atMost(value, bounds.high)) return { side: "above", limit: bounds.high };
+  return undefined;
+}
+
+/** "0.1 mm (0.003937 in)": as entered, and in the rule's unit when that differs. */
+function asEntered(value: number, unit: Unit, ruleUnit: Unit): string {
+  const entered = formatEntered(value, unit);
+  return unit === ruleUnit ? entered : `${entered} (${formatQuantity(convert(value, unit, ruleUnit), ruleUnit)})`;
+}
+
+function evaluateMeasure(item: MeasureItem, value: MeasureValue): Verdict {
+  const last = value.attempts[value.attempts.length - 1];
+  const tries = value.attempts.length > 1 ? ` (attempt ${value.attempts.length})` : "";
+  const rule = item.rule;
+  if (!rule) return verdict("ok", `${asEntered(last.value, last.unit, last.unit)} recorded${tries}.`);
+  const shown = asEntered(last.value, last.unit, rule.unit);
+  const crossed = crossing(convert(last.value, last.unit, rule.unit), boundsOf(rule));
+  if (!crossed) return verdict("ok", `${shown}${tries} is within the rule: ${describeRule(rule)}.`);
+  const what = `${shown}${tries} is ${crossed.side} the ${crossed.side === "below" ? "lower" : "upper"} limit of ${formatQuantity(crossed.limit, rule.unit)}.`;
+  return finding("out-of-range", value.note, what, NOTE_FOR_RANGE);
+}
+
+function evaluateReadings(item: ReadingsItem, value: ReadingsValue): Verdict {
+  const last = value.attempts[value.attempts.length - 1];
+  const empty = last.cells.flat().filter((cell) => cell === null).length;
+  if (empty > 0) {
+    const total = item.rows.length * item.columns.length;
+    return verdict("incomplete", `${empty} of ${total} readings still to enter.`);
+  }
+  const tries = value.attempts.length > 1 ? ` (attempt ${value.attempts.length})` : "";
+  const rule = item.rule;
+  if (!rule) return verdict("ok", `All ${item.rows.length * item.columns.length} readings entered${tries}.`);
+  const bounds = boundsOf(rule);
+  const cells = last.cells.map((row) => row.map((cell) => convert(cell as number, last.unit, rule.unit)));
+  const outside: string[] = [];
+  const offending: { row: number; column?: number }[] = [];
+  cells.forEach((row, r) => {
+    const rowLabel = item.rows[r].label;
+    if (rule.appliesTo === "row-spread") {
+      const spread = Math.max(...row) - Math.min(...row);
+      const crossed = crossing(spread, bounds);
+      if (crossed) {
+        offending.push({ row: r });
+        outside.push(`${rowLabel}: spread ${formatQuantity(spread, rule.unit)} is ${crossed.side} ${formatQuantity(crossed.limit, rule.unit)}`);
+      }
+      return;
+    }
+    row.forEach((cell, c) => {
+      const crossed = crossing(cell, bounds);
+      if (crossed) {
+        offending.push({ row: r, column: c });
+        outside.push(`${rowLabel}, ${item.columns[c].label}: ${formatQuantity(cell, rule.unit)} is ${crossed.side} ${formatQuantity(crossed.limit, rule.unit)}`);
+      }
+    });
+  });
+  if (!outside.length) return verdict("ok", `All readings${tries} within the rule: ${describeRule(rule)}.`);
+  return finding("out-of-range", value.note, `Outside the rule${tries}: ${outside.join("; ")}.`, NOTE_FOR_RANGE, { offending });
+}
+
+function evaluateChoice(item: ChoiceItem, value: ChoiceValue): Verdict {
+  const option = item.options.find((o) => o.key === value.option)!;
+  if (!option.needsNote) return verdict("ok", `${option.label}.`);
+  return finding("flagged-option", value.note, `${option.label}.`, "This choice needs a note: say what was found and what was done.");
+}
+
+function evaluatePhotos(count: number, minPhotos: number): Verdict {
+  if (count === 0) return verdict("unanswered", minPhotos > 1 ? `No photos yet; ${minPhotos} needed.` : "No photo yet.");
+  if (count < minPhotos) return verdict("incomplete", `${count} of ${minPhotos} photos taken.`);
+  return verdict("ok", count === 1 ? "1 photo." : `${count} photos.`);
+}
+
+function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext | undefined): Verdict {
+  let note: string | undefined;
+  if (value !== undefined && value !== null) {
+    const parsed = valueSchemaFor(item).safeParse(value);
+    if (!parsed.success) return verdict("invalid", `This entry does not fit the item: ${parsed.error.issues[0].message}.`);
+    note = parsed.data.note;
+  }
+  const definition = calcDefinition(item.calc);
+  if (!definition) return verdict("invalid", `There is no calculation named "${item.calc}".`);
+  if (!context) return verdict("unanswered", "Computed from other items of the checklist.");
+  const gathered = gatherCalcInputs(item, definition, context.template, context.responses);
+  if (!gathered.ready) return verdict("unanswered", `Waits for: ${gathered.waitingFor.map((source) => source.label).join("; ")}.`);
+  const outcome = runCalc(item.calc, gathered.inputs);
+  if ("error" in outcome) {
+    // The error names the registry input; say which item of the checklist fed it.
+    const binding = Object.hasOwn(item.inputs, outcome.error.field) ? item.inputs[outcome.error.field] : undefined;
+    const source = binding && "item" in binding ? findItem(context.template, binding.item) : undefined;
+    return verdict("invalid", `${source ? `${source.label}: ` : ""}${outcome.error.message}`);
+  }
+  const summary = calcSummary(outcome);
+  if (outcome.verdict === "fail") return finding("out-of-range", note, `${summary} Outside the rule: ${outcome.rule}.`, NOTE_FOR_RANGE, { outcome });
+  if (outcome.verdict === "pass") return verdict("ok", `${summary} Within the rule: ${outcome.rule}.`, { outcome });
+  return verdict("ok", summary, { outcome });
+}
+
+function calcSummary(outcome: CalcOutcome): string {
+  const parts = Object.entries(outcome.values).map(([name, v]) => {
+    const unit = outcome.units[name];
+    return typeof v === "number" ? `${name} ${formatNumber(v)}${unit ? ` ${unit}` : ""}` : `${name} ${v}`;
+  });
+  return parts.length ? `${parts.join(", ")}.` : "";
+}

@@ -1,0 +1,214 @@
+import { z } from "zod";
+import { isUnit, type Unit } from "~/lib/calc/units";
+
+/**
+ * Sternpost's checklist template format (documented in docs/template-format.md). This is the
+ * structure only; `checkedTemplateSchema` in load.ts adds the cross-checks between fields
+ * (duplicate keys, calc bindings, limits in order) and is what the seed, the server and the
+ * browser validate with.
+ */
+
+const KEBAB = /^[a-z0-9]+(?:-[a-z0-9]+)*$/;
+const CAMEL = /^[a-z][A-Za-z0-9]*$/;
+
+const kebabKey = z
+  .string({ error: "expected a string" })
+  .regex(KEBAB, { error: "expected a key in lower-case words joined by hyphens, like face-gaps" });
+
+const words = z.string({ error: "expected a string" }).trim().min(1, { error: "cannot be empty" });
+
+export const unitSchema = z.custom<Unit>((value) => isUnit(value), {
+  error: "expected a unit Sternpost knows (in, thou, mm, psi, kPa, inHg, inH2O, degF, degC, rpm, V, A…)",
+});
+
+/** Where the boat is when the step is done; the screens can filter and order by it. */
+export const phases = ["in-the-shop", "on-the-hard", "afloat", "sea-trial", "after-sea-trial"] as const;
+export const phaseSchema = z.enum(phases);
+export type Phase = z.infer<typeof phaseSchema>;
+
+export const phaseLabels: Record<Phase, string> = {
+  "in-the-shop": "In the shop",
+  "on-the-hard": "On the hard",
+  afloat: "Afloat",
+  "sea-trial": "Sea trial",
+  "after-sea-trial": "After the sea trial",
+};
+
+const itemBase = {
+  key: kebabKey,
+  label: words,
+  /** How to do or measure it. */
+  hint: words.optional(),
+  /** What can hurt someone at this step. */
+  caution: words.optional(),
+  /** The standard, handbook or practice the step and its limit come from. */
+  reference: words.optional(),
+  required: z.boolean({ error: "expected true or false" }).default(true),
+  phase: phaseSchema.optional(),
+};
+
+const limit = z.number({ error: "expected a number" });
+
+/**
+ * Acceptance limits in `unit`, which may differ from the unit a reading is entered in (a limit in
+ * thousandths of an inch against a reading in millimetres). nominal ± tolerance narrows min/max.
+ */
+const ruleFields = {
+  min: limit.optional(),
+  max: limit.optional(),
+  nominal: limit.optional(),
+  tolerance: limit.nonnegative({ error: "cannot be negative" }).optional(),
+  unit: unitSchema,
+};
+
+export const ruleSchema = z.strictObject(ruleFields);
+
+export const readingsRuleSchema = z.strictObject({
+  ...ruleFields,
+  /** each-cell: every reading within the limits; row-spread: each row's largest minus smallest. */
+  appliesTo: z.enum(["each-cell", "row-spread"]).default("each-cell"),
+});
+
+const gridLine = z.strictObject({ key: kebabKey, label: words });
+
+export const checkItemSchema = z.strictObject({ kind: z.literal("check"), ...itemBase });
+
+export const measureItemSchema = z.strictObject({
+  kind: z.literal("measure"),
+  ...itemBase,
+  /** The unit offered first. */
+  unit: unitSchema,
+  /** Units a reading may be entered in (the same dimension as `unit`); only `unit` when absent. */
+  accepts: z.array(unitSchema).min(1, { error: "needs at least one unit" }).optional(),
+  rule: ruleSchema.optional(),
+});
+
+export const readingsItemSchema = z.strictObject({
+  kind: z.literal("readings"),
+  ...itemBase,
+  rows: z.array(gridLine).min(1, { error: "needs at least one row" }),
+  columns: z.array(gridLine).min(1, { error: "needs at least one column" }),
+  unit: unitSchema,
+  accepts: z.array(unitSchema).min(1, { error: "needs at least one unit" }).optional(),
+  rule: readingsRuleSchema.optional(),
+});
+
+/** A calc input comes from another item of the template or is a constant in the input's unit. */
+export const calcBindingSchema = z.union(
+  [
+    z.strictObject({ item: kebabKey }),
+    z.strictObject({
+      value: z.union([limit, z.array(limit).min(1), z.string()], {
+        error: "expected a number, a list of numbers or a string",
+      }),
+    }),
+  ],
+  { error: 'expected { "item": "<item key>" } or { "value": <constant> }' },
+);
+
+export const calcItemSchema = z.strictObject({
+  kind: z.literal("calc"),
+  ...itemBase,
+  /** A calculation name from the registry in ~/lib/calc/registry. */
+  calc: z.string({ error: "expected a string" }).regex(CAMEL, { error: "expected a calculation name, like couplingFace" }),
+  inputs: z.record(
+    z.string().regex(CAMEL, { error: "expected an input name, like diameterIn" }),
+    calcBindingSchema,
+  ),
+});
+
+export const choiceItemSchema = z.strictObject({
+  kind: z.literal("choice"),
+  ...itemBase,
+  options: z
+    .array(
+      z.strictObject({
+        key: kebabKey,
+        label: words,
+        /** Choosing this option is a finding: it needs a note, like a failed check. */
+        needsNote: z.boolean({ error: "expected true or false" }).optional(),
+      }),
+    )
+    .min(2, { error: "needs at least two options" }),
+});
+
+export const textItemSchema = z.strictObject({ kind: z.literal("text"), ...itemBase });
+
+export const photoItemSchema = z.strictObject({
+  kind: z.literal("photo"),
+  ...itemBase,
+  minPhotos: z.number({ error: "expected a number" }).int({ error: "expected a whole number" }).positive({ error: "must be at least 1" }).default(1),
+});
+
+export const initialsItemSchema = z.strictObject({ kind: z.literal("initials"), ...itemBase });
+
+export const itemSchema = z.discriminatedUnion("kind", [
+  checkItemSchema,
+  measureItemSchema,
+  readingsItemSchema,
+  calcItemSchema,
+  choiceItemSchema,
+  textItemSchema,
+  photoItemSchema,
+  initialsItemSchema,
+]);
+
+export const sectionSchema = z.strictObject({
+  key: kebabKey,
+  title: words,
+  items: z.array(itemSchema).min(1, { error: "needs at least one item" }),
+});
+
+export const templateSchema = z.strictObject({
+  key: kebabKey,
+  version: z.number({ error: "expected a number" }).int({ error: "expected a whole number" }).positive({ error: "must be 1 or more" }),
+  title: words,
+  /** What the checklist is for and when it is used, in a sentence or two. */
+  purpose: words,
+  sections: z.array(sectionSchema).min(1, { error: "needs at least one section" }),
+});
+
+export type Template = z.output<typeof templateSchema>;
+/** A template as written in a file, before defaults (required: true, minPhotos: 1...) apply. */
+export type TemplateInput = z.input<typeof templateSchema>;
+export type Section = z.output<typeof sectionSchema>;
+export type Item = z.output<typeof itemSchema>;
+export type ItemKind = Item["kind"];
+export type CheckItem = z.output<typeof checkItemSchema>;
+export type MeasureItem = z.output<typeof measureItemSchema>;
+export type ReadingsItem = z.output<typeof readingsItemSchema>;
+export type CalcItem = z.output<typeof calcItemSchema>;
+export type ChoiceItem = z.output<typeof choiceItemSchema>;
+export type TextItem = z.output<typeof textItemSchema>;
+export type PhotoItem = z.output<typeof photoItemSchema>;
+export type InitialsItem = z.output<typeof initialsItemSchema>;
+export type Rule = z.output<typeof ruleSchema>;
+export type ReadingsRule = z.output<typeof readingsRuleSchema>;
+export type CalcBinding = z.output<typeof calcBindingSchema>;
+
+/** The units a measure or readings item takes: its `accepts` list, or only its `unit`. */
+export function acceptedUnits(item: MeasureItem | ReadingsItem): readonly Unit[] {
+  return item.accepts ?? [item.unit];
+}
+
+export interface PlacedItem {
+  item: Item;
+  section: Section;
+  sectionIndex: number;
+  itemIndex: number;
+}
+
+/** Every item of a template in reading order, with where it sits. */
+export function placedItems(template: Template): PlacedItem[] {
+  return template.sections.flatMap((section, sectionIndex) =>
+    section.items.map((item, itemIndex) => ({ item, section, sectionIndex, itemIndex })),
+  );
+}
+
+export function findItem(template: Template, key: string): Item | undefined {
+  for (const section of template.sections) {
+    const item = section.items.find((candidate) => candidate.key === key);
+    if (item) return item;
+  }
+  return undefined;
+}

@@ -1,0 +1,147 @@
+import { z } from "zod";
+import { acceptedUnits, unitSchema, type Item, type ItemKind } from "./schema";
+
+/**
+ * What a response to an item holds, per kind. A response is stored as entered; its verdict is
+ * always recomputed from it by rules.ts, never stored in it. `valueSchemaFor(item)` adds what
+ * depends on the item (accepted units, grid shape, known options) so a bad entry is refused at
+ * the field before it is kept.
+ */
+
+const note = z.string({ error: "expected a string" }).max(4000, { error: "is longer than 4000 characters" }).optional();
+const at = z.iso.datetime({ offset: true, error: "expected a date and time in ISO 8601, like 2025-05-14T09:30:00Z" });
+const by = z.string({ error: "expected a string" }).trim().min(1, { error: "cannot be empty" });
+const reading = z.number({ error: "expected a number" });
+
+export const checkValueSchema = z.strictObject({
+  result: z.enum(["pass", "fail", "na"], { error: 'expected "pass", "fail" or "na"' }),
+  note,
+});
+
+export const measureAttemptSchema = z.strictObject({ value: reading, unit: unitSchema, at, by });
+
+/** Every attempt is kept (a shaft straightened three times has three); the last one is reported. */
+export const measureValueSchema = z.strictObject({
+  attempts: z.array(measureAttemptSchema).min(1, { error: "needs at least one attempt" }),
+  note,
+});
+
+/** cells[row][column] in the item's row and column order; null = not read yet. */
+export const readingsAttemptSchema = z.strictObject({
+  cells: z.array(z.array(z.union([reading, z.null()], { error: "expected a number or null" }))),
+  unit: unitSchema,
+  at,
+  by,
+});
+
+export const readingsValueSchema = z.strictObject({
+  attempts: z.array(readingsAttemptSchema).min(1, { error: "needs at least one attempt" }),
+  note,
+});
+
+export const choiceValueSchema = z.strictObject({ option: z.string({ error: "expected a string" }), note });
+
+export const textValueSchema = z.strictObject({ text: z.string({ error: "expected a string" }) });
+
+export const initialsValueSchema = z.strictObject({
+  initials: z.string({ error: "expected a string" }).trim().min(1, { error: "cannot be empty" }).max(8, { error: "is longer than 8 characters" }),
+  at,
+  by,
+});
+
+export const photoValueSchema = z.strictObject({
+  photos: z.array(
+    z.strictObject({
+      id: z.uuid({ error: "expected a UUID" }),
+      sha256: z.string().regex(/^[0-9a-f]{64}$/, { error: "expected 64 lower-case hexadecimal digits" }).optional(),
+    }),
+  ),
+});
+
+/** A calc item's result is computed from other items; the response only carries the note. */
+export const calcValueSchema = z.strictObject({ note });
+
+export const valueSchemas = {
+  check: checkValueSchema,
+  measure: measureValueSchema,
+  readings: readingsValueSchema,
+  calc: calcValueSchema,
+  choice: choiceValueSchema,
+  text: textValueSchema,
+  photo: photoValueSchema,
+  initials: initialsValueSchema,
+} as const satisfies Record<ItemKind, z.ZodType>;
+
+export type CheckValue = z.output<typeof checkValueSchema>;
+export type MeasureAttempt = z.output<typeof measureAttemptSchema>;
+export type MeasureValue = z.output<typeof measureValueSchema>;
+export type ReadingsAttempt = z.output<typeof readingsAttemptSchema>;
+export type ReadingsValue = z.output<typeof readingsValueSchema>;
+export type ChoiceValue = z.output<typeof choiceValueSchema>;
+export type TextValue = z.output<typeof textValueSchema>;
+export type InitialsValue = z.output<typeof initialsValueSchema>;
+export type PhotoValue = z.output<typeof photoValueSchema>;
+export type CalcValue = z.output<typeof calcValueSchema>;
+export type ValueFor<K extends ItemKind> = z.output<(typeof valueSchemas)[K]>;
+export type ItemValue = ValueFor<ItemKind>;
+/** A checklist's responses by item key; an item with no entry yet is absent. */
+export type Responses = Readonly<Record<string, unknown>>;
+
+/** The schema of a response to this particular item. */
+export function valueSchemaFor<I extends Item>(item: I): z.ZodType<ValueFor<I["kind"]>> {
+  const schema: z.ZodType = valueSchemas[item.kind];
+  return schema.superRefine((value, ctx) => {
+    for (const problem of fitProblems(item, value as ItemValue)) ctx.addIssue({ code: "custom", ...problem });
+  }) as z.ZodType<ValueFor<I["kind"]>>;
+}
+
+interface FitProblem {
+  path: (string | number)[];
+  message: string;
+}
+
+function fitProblems(item: Item, value: ItemValue): FitProblem[] {
+  switch (item.kind) {
+    case "measure": {
+      const units = acceptedUnits(item);
+      return (value as MeasureValue).attempts.flatMap((attempt, i) =>
+        units.includes(attempt.unit)
+          ? []
+          : [{ path: ["attempts", i, "unit"], message: `this item takes ${units.join(" or ")}, not ${attempt.unit}` }],
+      );
+    }
+    case "readings": {
+      const units = acceptedUnits(item);
+      return (value as ReadingsValue).attempts.flatMap((attempt, i) => {
+        const problems: FitProblem[] = [];
+        if (!units.includes(attempt.unit)) {
+          problems.push({ path: ["attempts", i, "unit"], message: `this item takes ${units.join(" or ")}, not ${attempt.unit}` });
+        }
+        if (attempt.cells.length !== item.rows.length) {
+          problems.push({ path: ["attempts", i, "cells"], message: `expected ${item.rows.length} rows, got ${attempt.cells.length}` });
+        }
+        attempt.cells.forEach((row, r) => {
+          if (r < item.rows.length && row.length !== item.columns.length) {
+            problems.push({
+              path: ["attempts", i, "cells", r],
+              message: `expected ${item.columns.length} readings in row "${item.rows[r].label}", got ${row.length}`,
+            });
+          }
+        });
+        return problems;
+      });
+    }
+    case "choice": {
+      const { option } = value as ChoiceValue;
+      return item.options.some((o) => o.key === option)
+        ? []
+        : [{ path: ["option"], message: `expected one of ${item.options.map((o) => o.key).join(", ")}` }];
+    }
+    case "photo": {
+      const ids = (value as PhotoValue).photos.map((p) => p.id);
+      return ids.flatMap((id, i) => (ids.indexOf(id) === i ? [] : [{ path: ["photos", i, "id"], message: "the same photo twice" }]));
+    }
+    default:
+      return [];
+  }
+}

@@ -1,0 +1,208 @@
+import { readFileSync } from "node:fs";
+import { describe, expect, test } from "vitest";
+import { calculations } from "~/lib/calc/registry";
+import type { Unit } from "~/lib/calc/units";
+import {
+  evaluate,
+  findItem,
+  parseTemplateText,
+  placedItems,
+  progress,
+  problemText,
+  templateFileName,
+  type Item,
+  type Template,
+} from "~/lib/templates";
+import { grid, libraryDir, libraryFiles, loadLibrary, measured, signed } from "./fixtures";
+
+const library = loadLibrary();
+const byKey = (key: string): Template => library.find((t) => t.key === key)!;
+
+describe("the starter library in checklists/", () => {
+  test("holds the six starter templates, version 1 each", () => {
+    expect(library.map((t) => t.key).sort()).toEqual([
+      "cooling",
+      "engine-alignment",
+      "exhaust",
+      "instruments-and-electrical",
+      "propeller-shaft-and-coupling",
+      "sea-trial",
+    ]);
+    expect(library.every((t) => t.version === 1)).toBe(true);
+  });
+
+  test.each(libraryFiles())("%s validates and is named after its key and version", (name) => {
+    const parsed = parseTemplateText(readFileSync(libraryDir + name, "utf8"));
+    expect(parsed.ok ? [] : parsed.problems.map(problemText)).toEqual([]);
+    if (parsed.ok) expect(templateFileName(parsed.template)).toBe(name);
+  });
+
+  test("every item a technician works through says how, and on whose authority", () => {
+    const missing = library.flatMap((t) =>
+      placedItems(t)
+        .map(({ item }) => item)
+        .filter((item) => !["photo", "initials", "text"].includes(item.kind))
+        .filter((item) => !item.hint || !item.reference)
+        .map((item) => `${t.key}/${item.key}`),
+    );
+    expect(missing).toEqual([]);
+  });
+
+  test("every numeric acceptance rule names its source: a standard, the maker, or common practice", () => {
+    const unsourced = library.flatMap((t) =>
+      placedItems(t)
+        .map(({ item }) => item)
+        .filter((item) => (item.kind === "measure" || item.kind === "readings") && item.rule && item.rule.min !== 0)
+        .filter((item) => !/common practice|ABYC|ISO|ASME|SAE|maker/i.test(item.reference ?? ""))
+        .map((item) => `${t.key}/${item.key}`),
+    );
+    expect(unsourced).toEqual([]);
+  });
+
+  test("the hazards of DESIGN §8 carry a caution at the step", () => {
+    const caution = (template: string, item: string) => findItem(byKey(template), item)?.caution ?? "";
+    expect(caution("propeller-shaft-and-coupling", "straightening")).toMatch(/hot work/i);
+    expect(caution("propeller-shaft-and-coupling", "straightening")).toMatch(/fire watch/i);
+    expect(caution("propeller-shaft-and-coupling", "runout-readings")).toMatch(/by hand only.*isolate the engine/i);
+    expect(caution("engine-alignment", "face-gaps")).toMatch(/isolate the engine/i);
+    expect(caution("engine-alignment", "engine-set")).toMatch(/lift/i);
+    expect(caution("exhaust", "co-alarm")).toMatch(/carbon monoxide/i);
+    expect(caution("exhaust", "no-exhaust-leaks")).toMatch(/carbon monoxide/i);
+    expect(caution("instruments-and-electrical", "batteries-secured")).toMatch(/negative first/i);
+    expect(caution("sea-trial", "trial-safety")).toMatch(/lookout/i);
+  });
+});
+
+describe("calc items and the calculation registry", () => {
+  const calcItems = library.flatMap((t) =>
+    placedItems(t).flatMap(({ item }) => (item.kind === "calc" ? [{ template: t, item }] : [])),
+  );
+
+  test("the library uses the calculations the jobs need", () => {
+    expect(new Set(calcItems.map(({ item }) => item.calc))).toEqual(
+      new Set([
+        "shaftRunout", "couplingFit", "keyForShaft", "propellerTaper", "couplingFace", "couplingRim",
+        "mountMoves", "exhaustInjection", "exhaustBackPressure", "wireSize", "seaTrialLoading", "propSlip",
+      ]),
+    );
+  });
+
+  test.each(calcItems.map(({ template, item }) => [`${template.key}/${item.key}`, template, item] as const))(
+    "%s names a registered calculation and binds its required inputs to items that exist",
+    (_, template, item) => {
+      const definition = calculations[item.calc];
+      expect(definition, `calculation ${item.calc}`).toBeDefined();
+      const required = Object.entries(definition.inputs).filter(([, spec]) => !spec.optional).map(([name]) => name);
+      for (const name of required) expect(Object.keys(item.inputs)).toContain(name);
+      for (const [name, binding] of Object.entries(item.inputs)) {
+        expect(Object.keys(definition.inputs)).toContain(name);
+        if ("item" in binding) expect(findItem(template, binding.item), binding.item).toBeDefined();
+      }
+    },
+  );
+});
+
+/**
+ * A sound installation as a technician would record it. The numbers that feed calculations are
+ * set here; everything else is filled from its own rule (the middle of min–max, the nominal, or a
+ * little inside a one-sided limit).
+ */
+const sound: Record<string, [number, Unit] | (number | null)[][] | string> = {
+  "shaft-diameter": [1.25, "in"],
+  "coupling-bore": [1.2504, "in"],
+  "seat-roundness": [[1.2502, 1.2501], [1.2502, 1.2502]],
+  "runout-readings": [[0, 0.0005, 0.001, 0.0005], [0, 0.001, 0.002, 0.001], [0, 0.001, 0.0025, 0.001], [0, 0.001, 0.002, 0.001], [0, 0.0005, 0.001, 0.0005]],
+  "coupling-diameter": [4, "in"],
+  "face-gaps": [[0.004, 0.003, 0.0035, 0.0035]],
+  "recheck-gaps": [[0.0042, 0.003, 0.0035, 0.0036]],
+  "rim-readings": [[0, 0.002, 0.001, 0.001]],
+  "front-mount-distance": [30, "in"],
+  "rear-mount-distance": [8, "in"],
+  "adjuster-tpi": [11, "tpi"],
+  "injection-height": [10, "in"],
+  "injection-minimum": [6, "in"],
+  "back-pressure": [1.5, "inHg"],
+  "back-pressure-limit": [3, "inHg"],
+  "panel-current": [10, "A"],
+  "panel-run-length": [20, "ft"],
+  "panel-conductor-installed": "10",
+  "tachometer-check": [[750, 760], [2400, 2430]],
+  "temperature-gauge-check": [[182, 178]],
+  "rated-rpm-low": [3000, "rpm"],
+  "rated-rpm-high": [3200, "rpm"],
+  "wot-rpm": [3100, "rpm"],
+  "wot-speed": [8.2, "kn"],
+  "propeller-pitch": [14, "in"],
+  "gear-ratio": [2.5, "1"],
+};
+
+function insideRule(rule: { min?: number; max?: number; nominal?: number }): number {
+  if (rule.nominal !== undefined) return rule.nominal;
+  if (rule.min !== undefined && rule.max !== undefined) return (rule.min + rule.max) / 2;
+  if (rule.min !== undefined) return rule.min + Math.abs(rule.min) * 0.1;
+  return rule.max! - Math.abs(rule.max!) * 0.1;
+}
+
+function soundValue(item: Item): unknown {
+  const given = sound[item.key];
+  switch (item.kind) {
+    case "check":
+      return { result: "pass" };
+    case "measure":
+      if (Array.isArray(given)) return measured(given as [number, Unit]);
+      return measured([item.rule ? insideRule(item.rule) : 1, item.unit]);
+    case "readings": {
+      if (Array.isArray(given)) return grid(item.unit, given as number[][]);
+      const value = item.rule ? insideRule(item.rule) : 1;
+      return grid(item.unit, item.rows.map(() => item.columns.map(() => value)));
+    }
+    case "choice":
+      return { option: typeof given === "string" ? given : item.options.find((o) => !o.needsNote)!.key };
+    case "text":
+      return { text: "Calm, two aboard, half tanks, clean bottom." };
+    case "photo":
+      return { photos: Array.from({ length: item.minPhotos }, (_, i) => ({ id: `3b7e5c1a-9d2f-4e8b-a6c4-00000000000${i}` })) };
+    case "initials":
+      return signed;
+    case "calc":
+      return undefined;
+  }
+}
+
+function soundResponses(template: Template): Record<string, unknown> {
+  return Object.fromEntries(placedItems(template).map(({ item }) => [item.key, soundValue(item)]));
+}
+
+describe("each template filled in for a sound installation", () => {
+  test.each(library.map((t) => [t.key, t] as const))("%s: every calc computes, nothing asks for attention, complete", (_, template) => {
+    const responses = soundResponses(template);
+    const result = progress(template, responses);
+    const notOk = Object.entries(result.verdicts).filter(([, v]) => v.status !== "ok").map(([key, v]) => `${key}: ${v.status} ${v.message}`);
+    expect(notOk).toEqual([]);
+    expect(result.complete).toBe(true);
+    for (const { item } of placedItems(template)) {
+      if (item.kind === "calc") expect(result.verdicts[item.key].outcome, item.key).toBeDefined();
+    }
+  });
+
+  test("a shaft 0.008 in out at mid-length is caught by the runout calculation", () => {
+    // Common practice: 0.003 in TIR is the usual limit and 0.008 in is far out.
+    const template = byKey("propeller-shaft-and-coupling");
+    const responses = {
+      ...soundResponses(template),
+      "runout-readings": grid("in", [[0, 0.001, 0.001, 0.0005], [0, 0.003, 0.005, 0.003], [0, 0.004, 0.008, 0.004], [0, 0.003, 0.005, 0.002], [0, 0.001, 0.001, 0.0005]]),
+    };
+    const v = evaluate(findItem(template, "runout-result")!, undefined, { template, responses });
+    expect(v.status).toBe("out-of-range");
+    expect(v.message).toMatch(/worst station middle/);
+    expect(progress(template, responses).overall.attention).toEqual(["runout-result"]);
+  });
+
+  test("an engine that cannot reach its rated band at full throttle is over-propped", () => {
+    const template = byKey("sea-trial");
+    const responses = { ...soundResponses(template), "wot-rpm": measured([2750, "rpm"]) };
+    const v = evaluate(findItem(template, "propeller-loading")!, undefined, { template, responses });
+    expect(v.status).toBe("out-of-range");
+    expect(v.message).toMatch(/over-propped/);
+  });
+});
