@@ -1,3 +1,4 @@
+import { useEffect } from "react";
 import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
@@ -24,6 +25,10 @@ export function Layout({ children }: { children: React.ReactNode }) {
 }
 
 export default function App() {
+  useEffect(() => {
+    // Marks the page as interactive (scripts loaded, event handlers attached); tests wait for it.
+    document.documentElement.dataset.hydrated = "true";
+  }, []);
   return <Outlet />;
 }
 

@@ -10,6 +10,8 @@ export default [
     route("me", "routes/api/me.ts"),
     route("jobs", "routes/api/jobs.ts"),
     route("jobs/:jobId", "routes/api/job.ts"),
+    route("templates/:key/:version", "routes/api/template.ts"),
+    route("checklists/:checklistId", "routes/api/checklist.ts"),
   ]),
   layout("routes/shell.tsx", [
     index("routes/today.tsx"),
@@ -24,6 +26,7 @@ export default [
       route("new", "routes/vessels/new.tsx"),
       route(":vesselId", "routes/vessels/edit.tsx"),
     ]),
+    route("checklists/:checklistId", "routes/checklists/view.tsx"),
     route("people", "routes/people.tsx"),
   ]),
   route("*", "routes/not-found.tsx"),

@@ -43,3 +43,7 @@ export function FormErrors({ errors }: { errors?: string[] | null }) {
     </div>
   );
 }
+
+export interface FormErrorsData {
+  errors?: string[] | null;
+}

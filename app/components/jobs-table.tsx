@@ -7,7 +7,7 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { useState } from "react";
+import { useMemo, useState } from "react";
 import { Link } from "react-router";
 import { jobScopeLabels, jobStatusLabels, jobStatuses } from "~/lib/validation/jobs";
 
@@ -52,10 +52,12 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
   const [search, setSearch] = useState("");
   const [status, setStatus] = useState("");
+  // The table re-derives its rows whenever a state object changes identity: keep them stable.
+  const columnFilters = useMemo(() => (status ? [{ id: "status", value: status }] : []), [status]);
   const table = useReactTable({
     data: jobs,
     columns,
-    state: { sorting, globalFilter: search, columnFilters: status ? [{ id: "status", value: status }] : [] },
+    state: { sorting, globalFilter: search, columnFilters },
     onSortingChange: setSorting,
     onGlobalFilterChange: setSearch,
     globalFilterFn: "includesString",

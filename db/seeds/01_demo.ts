@@ -1,7 +1,9 @@
 import type { Knex } from "knex";
 import { seedDemo } from "./demo.ts";
+import { seedLibrary } from "./library.ts";
 
 // Entry point for `knex seed:run`; the start script calls seedDemo directly.
 export async function seed(knex: Knex) {
+  await seedLibrary(knex);
   await seedDemo(knex);
 }

@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { demoPeople } from "../../db/seeds/demo-people.ts";
-import { expectNoConsoleErrors, launch, signIn, tabletContext } from "../support/browser.ts";
+import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
 import { waitForMail } from "../support/mail.ts";
 
 let browser: Browser;
@@ -34,7 +34,7 @@ describe("signing in", () => {
   it("says plainly when the password is wrong", async () => {
     const { context } = await tabletContext(browser);
     const page = await context.newPage();
-    await page.goto("/login");
+    await open(page, "/login");
     await page.getByLabel("E-mail address").fill("tech@kittiwake-slip.example");
     await page.getByLabel("Password").fill("not-the-password");
     await page.getByRole("button", { name: "Sign in" }).click();
@@ -62,11 +62,11 @@ describe("the manager's day", () => {
     expect(link).toBeTruthy();
 
     // The development page shows the same message with its link.
-    await page.goto("/dev/mail");
+    await open(page, "/dev/mail");
     await expect.poll(() => page.getByTestId("mail").first().innerText()).toContain(email);
 
     const newcomer = await (await tabletContext(browser)).context.newPage();
-    await newcomer.goto(link!);
+    await open(newcomer, link!);
     await newcomer.getByLabel("New password").fill("first-day-at-the-yard");
     await newcomer.getByLabel("Type it again").fill("first-day-at-the-yard");
     await newcomer.getByRole("button", { name: "Set password" }).click();
@@ -82,7 +82,7 @@ describe("the manager's day", () => {
     const page = await context.newPage();
     await signIn(page, "manager@kittiwake-slip.example");
     const vesselName = `Skerry Lass ${Date.now() % 100000}`;
-    await page.goto("/vessels/new");
+    await open(page, "/vessels/new");
     await page.getByLabel("Vessel name").fill(vesselName);
     // A HIN that breaks 33 CFR 181.25 (the letter O in the serial) is refused at the field first.
     await page.getByLabel("Hull identification number (HIN)").fill("KSBO4017J526");
@@ -94,9 +94,9 @@ describe("the manager's day", () => {
     await page.getByLabel("Hull identification number (HIN)").fill("KSB7R118C727");
     await page.getByRole("button", { name: "Save vessel" }).click();
     await page.waitForURL(/\/vessels$/);
-    expect(await page.getByText(vesselName).count()).toBe(1);
+    await expect.poll(() => page.getByText(vesselName).count()).toBe(1);
 
-    await page.goto("/jobs/new");
+    await open(page, "/jobs/new");
     await page.getByLabel("Vessel").selectOption({ label: vesselName });
     await page.getByLabel("Engine model").fill("K4-150 diesel");
     await page.getByLabel("Engine serial number").fill("K4T-0099001");
@@ -126,7 +126,7 @@ describe("the manager's day", () => {
     const other = await tabletContext(browser);
     const otherPage = await other.context.newPage();
     await signIn(otherPage, "tech@kittiwake-slip.example");
-    await otherPage.goto("/jobs");
+    await open(otherPage, "/jobs");
     expect(await otherPage.getByTestId("jobs-table").innerText()).not.toContain(vesselName);
     expectNoConsoleErrors(tech.errors);
     await tech.context.close();

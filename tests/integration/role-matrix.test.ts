@@ -3,6 +3,8 @@ import type { Role } from "~/lib/roles";
 import { appHandler, signInCookie } from "../support/app.ts";
 import { testDb } from "../support/db.ts";
 import { makeJob, makeUser } from "../support/fixtures.ts";
+import { seedLibrary } from "../../db/seeds/library.ts";
+import { startChecklists } from "~/server/checklists.server";
 
 type Who = Role | "anonymous";
 const everyone: Who[] = ["anonymous", "technician", "lead", "manager", "surveyor"];
@@ -12,7 +14,7 @@ afterAll(() => knex.destroy());
 // What each person gets: 200, 302 (to sign in), 401 (API without session), 403, 404.
 let app: Awaited<ReturnType<typeof appHandler>>;
 const cookies: Partial<Record<Who, string>> = {};
-let ownJob: number, otherJob: number, ownVessel: number, otherVessel: number;
+let ownJob: number, otherJob: number, ownVessel: number, otherVessel: number, ownChecklist: string, otherChecklist: string;
 
 beforeAll(async () => {
   app = await appHandler();
@@ -25,6 +27,9 @@ beforeAll(async () => {
   const own = await makeJob(knex, people.lead!.id, [people.technician!.id]);
   const other = await makeJob(knex, otherLead.id, []);
   [ownJob, otherJob, ownVessel, otherVessel] = [own.id, other.id, own.vesselId, other.vesselId];
+  await seedLibrary(knex);
+  [ownChecklist] = await startChecklists(ownJob, ["cooling"], people.lead!.id);
+  [otherChecklist] = await startChecklists(otherJob, ["cooling"], otherLead.id);
 });
 
 const matrix: [string | (() => string), Record<Who, number>][] = [
@@ -47,6 +52,14 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   [() => `/api/jobs/${ownJob}`, { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   [() => `/api/jobs/${otherJob}`, { anonymous: 401, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
   ["/api/jobs/not-a-number", { anonymous: 401, technician: 400, lead: 400, manager: 400, surveyor: 400 }],
+  [() => `/checklists/${ownChecklist}`, { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  [() => `/checklists/${otherChecklist}`, { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/checklists/00000000-0000-4000-8000-000000000000", { anonymous: 302, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
+  [() => `/api/checklists/${ownChecklist}`, { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  [() => `/api/checklists/${otherChecklist}`, { anonymous: 401, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/api/templates/cooling/1", { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  ["/api/templates/cooling/99", { anonymous: 401, technician: 404, lead: 404, manager: 404, surveyor: 403 }],
+  ["/api/templates/cooling/zero", { anonymous: 401, technician: 400, lead: 400, manager: 400, surveyor: 403 }],
   ["/healthz", { anonymous: 200, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
   ["/no-such-page", { anonymous: 404, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
   // No local mail sink is configured in these tests, so the development page does not exist.
@@ -70,10 +83,12 @@ describe("role matrix: every page and API route for every role", () => {
     ["/jobs/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
     ["/vessels/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
     [() => `/jobs/${otherJob}/edit`, { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
+    [() => `/jobs/${ownJob}`, { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
+    [() => `/jobs/${otherJob}`, { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
   ];
   for (const [path, expected] of posts) {
     for (const who of everyone) {
-      it(`POST ${typeof path === "string" ? path : "a job's edit page"} with an empty form as ${who} → ${expected[who]}`, async () => {
+      it(`POST ${typeof path === "string" ? path : path.toString().replace(/^\(\) => /, "")} with an empty form as ${who} → ${expected[who]}`, async () => {
         const url = typeof path === "string" ? path : path();
         const response = await app(url, { method: "POST", body: new URLSearchParams({}), cookie: cookies[who] });
         expect(response.status).toBe(expected[who]);

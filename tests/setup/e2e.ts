@@ -4,6 +4,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { connect } from "../../db/connect.ts";
 import { seedDemo } from "../../db/seeds/demo.ts";
+import { seedLibrary } from "../../db/seeds/library.ts";
 import { freshDatabase } from "../support/database.ts";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
@@ -27,6 +28,7 @@ async function waitFor(url: string, child: ChildProcess, what: string) {
 export default async function setup() {
   const databaseUrl = await freshDatabase("sternpost_e2e");
   const knex = connect(databaseUrl);
+  await seedLibrary(knex);
   await seedDemo(knex);
   await knex.destroy();
 

@@ -35,10 +35,21 @@ export function expectNoConsoleErrors(errors: string[]) {
   expect(errors, "console errors during the test").toEqual([]);
 }
 
+/** Opens a page and waits until React has hydrated it, so clicks reach their handlers. */
+export async function open(page: Page, url: string) {
+  await page.goto(url);
+  await hydrated(page);
+}
+
+export async function hydrated(page: Page) {
+  await page.waitForSelector("html[data-hydrated]", { state: "attached" });
+}
+
 export async function signIn(page: Page, email: string, password = DEMO_PASSWORD) {
-  await page.goto("/login");
+  await open(page, "/login");
   await page.getByLabel("E-mail address").fill(email);
   await page.getByLabel("Password").fill(password);
   await page.getByRole("button", { name: "Sign in" }).click();
   await page.waitForURL((url) => !url.pathname.startsWith("/login"));
+  await hydrated(page);
 }

@@ -1,14 +1,40 @@
-import { Link } from "react-router";
+import { parseWithZod } from "@conform-to/zod/v4";
+import { data, Link } from "react-router";
 import type { Route } from "./+types/detail";
+import { JobChecklists } from "~/components/job-checklists";
+import { defaultTemplatesFor } from "~/lib/checklist-sets";
 import { canEditJob } from "~/lib/permissions";
+import { startChecklistsSchema } from "~/lib/validation/checklists";
 import { jobScopeLabels, jobStatusLabels } from "~/lib/validation/jobs";
+import { ChecklistStartError, listJobChecklists, startChecklists } from "~/server/checklists.server";
 import { requireJob } from "~/server/job-access.server";
+import { latestPublished } from "~/server/templates.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.job.vesselName ?? "Job"} · Sternpost` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, job } = await requireJob(request, params.jobId);
-  return { job, canEdit: canEditJob(user, job) };
+  const [checklists, library] = await Promise.all([listJobChecklists(job.id), latestPublished()]);
+  return {
+    job,
+    canEdit: canEditJob(user, job),
+    checklists,
+    available: library.map(({ key, title, version }) => ({ key, title, version })),
+    defaults: defaultTemplatesFor[job.scope],
+  };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const { user, job } = await requireJob(request, params.jobId, "edit");
+  const submission = parseWithZod(await request.formData(), { schema: startChecklistsSchema });
+  if (submission.status !== "success") return data({ errors: Object.values(submission.error ?? {}).flatMap((e) => e ?? []) }, { status: 400 });
+  try {
+    await startChecklists(job.id, submission.value.templates, user.id);
+  } catch (error) {
+    if (error instanceof ChecklistStartError) return data({ errors: [error.message] }, { status: 400 });
+    throw error;
+  }
+  return { errors: null };
 }
 
 function Fact({ label, children }: { label: string; children: React.ReactNode }) {
@@ -20,8 +46,8 @@ function Fact({ label, children }: { label: string; children: React.ReactNode })
   );
 }
 
-export default function JobDetail({ loaderData }: Route.ComponentProps) {
-  const { job, canEdit } = loaderData;
+export default function JobDetail({ loaderData, actionData }: Route.ComponentProps) {
+  const { job, canEdit, checklists, available, defaults } = loaderData;
   return (
     <>
       <div className="mb-6 flex flex-wrap items-end justify-between gap-4">
@@ -34,6 +60,7 @@ export default function JobDetail({ loaderData }: Route.ComponentProps) {
         </div>
         {canEdit && <Link className="btn" to={`/jobs/${job.id}/edit`}>Edit job</Link>}
       </div>
+      <JobChecklists checklists={checklists} available={available} defaults={defaults} canStart={canEdit} result={actionData} />
       <section className="card mb-6">
         <h2 className="mb-3 text-xl font-bold">Installed equipment</h2>
         <dl className="grid grid-cols-2 gap-4 md:grid-cols-4">

@@ -1,0 +1,90 @@
+import { randomUUID } from "node:crypto";
+import { defaultTemplatesFor, type ChecklistState } from "~/lib/checklist-sets";
+import type { Template } from "~/lib/templates";
+import { audit } from "./audit.server.ts";
+import { db } from "./db.server.ts";
+import { latestPublished } from "./templates.server.ts";
+
+export interface JobChecklistSummary {
+  id: string;
+  jobId: number;
+  key: string;
+  title: string;
+  version: number;
+  state: ChecklistState;
+  /** A newer published version exists; this checklist stays on its own. */
+  newerVersion: number | null;
+}
+
+export async function listJobChecklists(jobId: number): Promise<JobChecklistSummary[]> {
+  const [rows, latest] = await Promise.all([
+    db()("job_checklists as c")
+      .join("template_versions as t", "t.id", "c.template_version_id")
+      .where("c.job_id", jobId)
+      .orderBy("c.created_at")
+      .select("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version"),
+    latestPublished(),
+  ]);
+  // The order the work is done in, whatever order they were started in.
+  const order = (key: string) => (defaultTemplatesFor.repower.indexOf(key) + 100) % 100;
+  rows.sort((a: any, b: any) => order(a.template_key) - order(b.template_key));
+  return rows.map((r: any) => {
+    const newest = latest.find((l) => l.key === r.template_key);
+    return {
+      id: r.id,
+      jobId: r.job_id,
+      key: r.template_key,
+      title: r.title,
+      version: r.version,
+      state: r.state,
+      newerVersion: newest && newest.version > r.version ? newest.version : null,
+    };
+  });
+}
+
+export class ChecklistStartError extends Error {}
+
+/**
+ * Starts one checklist per chosen template on a job, each pinned to the version published now.
+ * Templates already started on the job are skipped.
+ */
+export async function startChecklists(jobId: number, keys: string[], userId: number): Promise<string[]> {
+  return db().transaction(async (trx) => {
+    const latest = await latestPublished(trx);
+    const unknown = keys.filter((k) => !latest.some((l) => l.key === k));
+    if (unknown.length) throw new ChecklistStartError(`No published template named ${unknown.join(", ")}.`);
+    const existing: string[] = await trx("job_checklists").where({ job_id: jobId }).pluck("template_key");
+    const ids: string[] = [];
+    for (const key of keys.filter((k) => !existing.includes(k))) {
+      const version = latest.find((l) => l.key === key)!;
+      const id = randomUUID();
+      await trx("job_checklists").insert({ id, job_id: jobId, template_version_id: version.id, template_key: key, started_by: userId });
+      await audit({ userId, action: "checklist.started", entity: "checklist", entityId: id, detail: { jobId, key, version: version.version } }, trx);
+      ids.push(id);
+    }
+    return ids;
+  });
+}
+
+export interface JobChecklist extends JobChecklistSummary {
+  template: Template;
+}
+
+export async function findChecklist(id: string): Promise<JobChecklist | undefined> {
+  const row = await db()("job_checklists as c")
+    .join("template_versions as t", "t.id", "c.template_version_id")
+    .where("c.id", id)
+    .first("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version", "t.body");
+  if (!row) return undefined;
+  const newest = (await latestPublished()).find((l) => l.key === row.template_key);
+  return {
+    id: row.id,
+    jobId: row.job_id,
+    key: row.template_key,
+    title: row.title,
+    version: row.version,
+    state: row.state,
+    newerVersion: newest && newest.version > row.version ? newest.version : null,
+    template: JSON.parse(row.body),
+  };
+}
