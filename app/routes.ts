@@ -12,6 +12,7 @@ export default [
     route("jobs/:jobId", "routes/api/job.ts"),
     route("templates/:key/:version", "routes/api/template.ts"),
     route("checklists/:checklistId", "routes/api/checklist.ts"),
+    route("templates/:key/:version/export", "routes/api/template-export.ts"),
   ]),
   layout("routes/shell.tsx", [
     index("routes/today.tsx"),
@@ -27,6 +28,17 @@ export default [
       route(":vesselId", "routes/vessels/edit.tsx"),
     ]),
     route("checklists/:checklistId", "routes/checklists/view.tsx"),
+    // calculators
+    ...prefix("calculators", [index("routes/calculators/index.tsx"), route(":name", "routes/calculators/calculator.tsx")]),
+    // library
+    ...prefix("library", [
+      index("routes/library/index.tsx"),
+      route("import", "routes/library/import.tsx"),
+      route(":key/compare", "routes/library/compare.tsx"),
+      route(":key/:version", "routes/library/version.tsx"),
+      route(":key/:version/edit", "routes/library/edit.tsx"),
+    ]),
+    // end library
     route("people", "routes/people.tsx"),
   ]),
   route("*", "routes/not-found.tsx"),

@@ -22,12 +22,14 @@ export type Capability =
   | "vessels:create"
   | "jobs:view"
   | "jobs:create"
-  | "mail:read-dev";
+  | "calculators:use"
+  | "library:view"
+  | "library:edit";
 
 const capabilities: Record<Role, Capability[]> = {
-  technician: ["jobs:view"],
-  lead: ["jobs:view", "jobs:create", "vessels:view", "vessels:create"],
-  manager: ["users:manage", "jobs:view", "jobs:create", "vessels:view", "vessels:create"],
+  technician: ["jobs:view", "calculators:use", "library:view"],
+  lead: ["jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view"],
+  manager: ["users:manage", "jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view", "library:edit"],
   surveyor: [],
 };
 
@@ -64,6 +66,8 @@ export function navigationFor(actor: Actor): { to: string; label: string }[] {
   const items: { to: string; label: string }[] = [{ to: "/", label: "Today" }];
   if (can(actor, "jobs:view")) items.push({ to: "/jobs", label: "Jobs" });
   if (can(actor, "vessels:view")) items.push({ to: "/vessels", label: "Vessels" });
+  if (can(actor, "calculators:use")) items.push({ to: "/calculators", label: "Calculators" });
+  if (can(actor, "library:view")) items.push({ to: "/library", label: "Library" });
   if (can(actor, "users:manage")) items.push({ to: "/people", label: "People" });
   return items;
 }

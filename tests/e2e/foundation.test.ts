@@ -11,9 +11,9 @@ beforeAll(async () => {
 afterAll(() => browser?.close());
 
 const expectedNavigation: Record<string, string[]> = {
-  manager: ["Today", "Jobs", "Vessels", "People"],
-  lead: ["Today", "Jobs", "Vessels"],
-  technician: ["Today", "Jobs"],
+  manager: ["Today", "Jobs", "Vessels", "Calculators", "Library", "People"],
+  lead: ["Today", "Jobs", "Vessels", "Calculators", "Library"],
+  technician: ["Today", "Jobs", "Calculators", "Library"],
   surveyor: ["Today"],
 };
 
