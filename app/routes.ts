@@ -13,6 +13,8 @@ export default [
     route("templates/:key/:version", "routes/api/template.ts"),
     route("checklists/:checklistId", "routes/api/checklist.ts"),
     route("templates/:key/:version/export", "routes/api/template-export.ts"),
+    route("sync", "routes/api/sync.ts"),
+    route("offline", "routes/api/offline.ts"),
   ]),
   layout("routes/shell.tsx", [
     index("routes/today.tsx"),
@@ -28,6 +30,7 @@ export default [
       route(":vesselId", "routes/vessels/edit.tsx"),
     ]),
     route("checklists/:checklistId", "routes/checklists/view.tsx"),
+    route("sync", "routes/sync.tsx"),
     // calculators
     ...prefix("calculators", [index("routes/calculators/index.tsx"), route(":name", "routes/calculators/calculator.tsx")]),
     // library

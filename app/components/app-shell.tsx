@@ -1,6 +1,8 @@
 import { Form, NavLink } from "react-router";
 import { navigationFor, type Actor } from "~/lib/permissions";
 import { roleLabels, type Role } from "~/lib/roles";
+import { SyncStatusBar } from "./sync-status.tsx";
+import { UpdatePrompt } from "./update-prompt.tsx";
 
 export function AppShell({ user, children }: { user: Actor & { name: string; role: Role }; children: React.ReactNode }) {
   return (
@@ -38,7 +40,15 @@ export function AppShell({ user, children }: { user: Actor & { name: string; rol
             </Form>
           </div>
         </div>
+        {user.role !== "surveyor" && (
+          <div className="border-t border-ink-soft">
+            <div className="mx-auto max-w-6xl px-4 py-1">
+              <SyncStatusBar />
+            </div>
+          </div>
+        )}
       </header>
+      <UpdatePrompt />
       <main className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">{children}</main>
       <footer className="border-t border-rule px-4 py-3 text-center text-sm text-ink-soft">
         Sternpost records and computes; the engine maker's installation instructions, the applicable standards, local

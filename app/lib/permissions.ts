@@ -55,6 +55,11 @@ export function canEditJob(actor: Actor, job: JobAccess): boolean {
   return actor.role === "manager" || (actor.role === "lead" && job.leadId === actor.id);
 }
 
+/** Who records entries on a job's checklists: its technicians and its lead. */
+export function canFillJob(actor: Actor, job: JobAccess): boolean {
+  return (actor.role === "technician" && job.technicianIds.includes(actor.id)) || (actor.role === "lead" && job.leadId === actor.id);
+}
+
 /** A lead edits a vessel they registered or one that has a job they lead. */
 export function canEditVessel(actor: Actor, vessel: { createdBy: number | null; leadIds: number[] }): boolean {
   if (actor.role === "manager") return true;

@@ -1,20 +1,79 @@
-import { Link } from "react-router";
+import { useEffect, useState } from "react";
+import { Link, useRevalidator } from "react-router";
 import type { Route } from "./+types/today";
+import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
 import { can } from "~/lib/permissions";
-import { jobStatusLabels } from "~/lib/validation/jobs";
 import { requireUser } from "~/server/auth.server";
+import { listJobChecklists } from "~/server/checklists.server";
 import { listVisibleJobs } from "~/server/jobs.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Today · Sternpost" }];
 
+interface TodayJob {
+  id: number;
+  vesselName: string;
+  engineModel: string;
+  dueDate: string | null;
+  checklists: { id: string; title: string; state: ChecklistState }[];
+}
+
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const jobs = can(user, "jobs:view") ? await listVisibleJobs(user) : [];
-  return { name: user.name, role: user.role, jobs: jobs.filter((j) => j.status !== "completed") };
+  const jobs = can(user, "jobs:view") ? (await listVisibleJobs(user)).filter((j) => j.status !== "completed") : [];
+  const withChecklists: TodayJob[] = await Promise.all(
+    jobs.map(async (j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: await listJobChecklists(j.id) })),
+  );
+  return { name: user.name, role: user.role, jobs: withChecklists, offline: false };
+}
+
+/** With no connection, the jobs this tablet holds. */
+export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
+  try {
+    return await serverLoader();
+  } catch (error) {
+    if (error instanceof Response) throw error;
+    const store = await import("~/lib/offline/store.client");
+    const user = await store.getMeta<{ name: string; role: "technician" | "lead" | "manager" | "surveyor" }>("user");
+    const jobs: TodayJob[] = (await store.listLocalJobs()).map((j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: j.checklists }));
+    return { name: user?.name ?? "", role: user?.role ?? "technician", jobs, offline: true };
+  }
+}
+
+function OfflineReadiness() {
+  const [state, setState] = useState<{ busy: boolean; message: string | null; readyAt: string | null }>({ busy: false, message: null, readyAt: null });
+  const revalidator = useRevalidator();
+  async function prepare(quiet = false) {
+    setState((s) => ({ ...s, busy: true, message: quiet ? s.message : "Copying your jobs to this tablet…" }));
+    try {
+      const [{ takeOffline }, { calculatorPages }] = await Promise.all([import("~/lib/offline/take-offline.client"), import("~/lib/offline/calculator-pages")]);
+      const done = await takeOffline(calculatorPages());
+      const readyAt = localStorage.getItem("sternpost:offline-ready");
+      setState({ busy: false, readyAt, message: quiet ? null : `Ready offline: ${done.checklists} checklists and ${done.pages} pages on this tablet.` });
+      revalidator.revalidate();
+    } catch (error) {
+      setState((s) => ({ ...s, busy: false, message: `Not ready offline: ${(error as Error).message}` }));
+    }
+  }
+  useEffect(() => {
+    const readyAt = localStorage.getItem("sternpost:offline-ready");
+    setState((s) => ({ ...s, readyAt }));
+    // Once a tablet holds the jobs, each visit with a connection refreshes them quietly.
+    if (readyAt && navigator.onLine) void prepare(true);
+  }, []);
+  return (
+    <div className="card mb-6 flex flex-wrap items-center gap-4">
+      <button type="button" className="btn btn-primary" disabled={state.busy} onClick={() => prepare()}>
+        {state.busy ? "Copying…" : state.readyAt ? "Refresh the offline copy" : "Make my jobs available offline"}
+      </button>
+      <p role="status" data-testid="offline-readiness">
+        {state.message ?? (state.readyAt ? `Available offline since ${new Date(state.readyAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}.` : "Do this once with a connection before going aboard.")}
+      </p>
+    </div>
+  );
 }
 
 export default function Today({ loaderData }: Route.ComponentProps) {
-  const { name, role, jobs } = loaderData;
+  const { name, role, jobs, offline } = loaderData;
   return (
     <>
       <h1 className="mb-2 text-3xl font-bold">Good to see you, {name.split(" ")[0]}</h1>
@@ -22,17 +81,26 @@ export default function Today({ loaderData }: Route.ComponentProps) {
         <p className="text-lg">Commissioning records issued to you will appear here.</p>
       ) : (
         <>
-          <p className="mb-6 text-lg">{role === "technician" ? "The jobs you are assigned to:" : "Open jobs:"}</p>
+          <OfflineReadiness />
+          <p className="mb-4 text-lg">
+            {offline ? "No connection: the jobs on this tablet." : role === "technician" ? "The jobs you are assigned to:" : "Open jobs:"}
+          </p>
           {jobs.length === 0 && <p>No open jobs.</p>}
           <ul className="grid gap-4 md:grid-cols-2">
             {jobs.map((j) => (
-              <li key={j.id}>
-                <Link to={`/jobs/${j.id}`} className="card flex min-h-24 flex-col no-underline hover:border-ink">
-                  <span className="text-xl font-bold text-ink">{j.vesselName}</span>
-                  <span className="text-ink-soft">
-                    {j.engineModel} · {jobStatusLabels[j.status]} · due {j.dueDate ?? "—"}
-                  </span>
-                </Link>
+              <li key={j.id} className="card flex flex-col gap-2" data-testid={`job-${j.id}`}>
+                {offline ? <span className="text-xl font-bold">{j.vesselName}</span> : <Link to={`/jobs/${j.id}`} className="text-xl font-bold text-harbour underline">{j.vesselName}</Link>}
+                <span className="text-ink-soft">{j.engineModel} · due {j.dueDate ?? "—"}</span>
+                <ul className="flex flex-col">
+                  {j.checklists.map((c) => (
+                    <li key={c.id}>
+                      <Link to={`/checklists/${c.id}`} className="flex min-h-12 items-center justify-between gap-2 border-t border-rule no-underline">
+                        <span className="font-bold text-ink">{c.title}</span>
+                        <span className="text-sm text-ink-soft">{checklistStateLabels[c.state]}</span>
+                      </Link>
+                    </li>
+                  ))}
+                </ul>
               </li>
             ))}
           </ul>

@@ -88,3 +88,12 @@ export async function findChecklist(id: string): Promise<JobChecklist | undefine
     template: JSON.parse(row.body),
   };
 }
+
+/** The current responses of a checklist as the server holds them. */
+export async function checklistResponses(checklistId: string) {
+  const rows = await db()("checklist_responses as r").join("users as u", "u.id", "r.updated_by").where("r.checklist_id", checklistId)
+    .select("r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
+  return Object.fromEntries(
+    rows.map((r: any) => [r.item_key, { value: typeof r.value === "string" ? JSON.parse(r.value) : r.value, rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString(), pending: false }]),
+  ) as Record<string, { value: unknown; rev: number; by: string; at: string; pending: boolean }>;
+}

@@ -68,3 +68,4 @@ export type { TemplateParse, TemplateProblem } from "./load";
 export { describeRule, formatQuantity, unitSymbol } from "./format";
 export { calcDefinition, gatherCalcInputs } from "./calc-inputs";
 export type { GatheredInputs } from "./calc-inputs";
+export { describeValue } from "./describe-value";

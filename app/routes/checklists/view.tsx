@@ -1,37 +1,156 @@
-import { Link } from "react-router";
+import { useEffect, useState } from "react";
+import { Link, useFetcher, useRevalidator } from "react-router";
 import type { Route } from "./+types/view";
-import { ChecklistOutline } from "~/components/checklist/checklist-outline";
+import { FillItem } from "~/components/checklist/fill-item";
 import { checklistStateLabels } from "~/lib/checklist-sets";
+import { canFillJob } from "~/lib/permissions";
+import { findItem, progress, valueSchemaFor } from "~/lib/templates";
 import { requireChecklist } from "~/server/checklist-access.server";
+import { checklistResponses } from "~/server/checklists.server";
+import { openConflicts } from "~/server/offline.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.checklist.title ?? "Checklist"} · Sternpost` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const { checklist, job } = await requireChecklist(request, params.checklistId);
-  return { checklist, job: { id: job.id, vesselName: job.vesselName } };
+  const { user, checklist, job } = await requireChecklist(request, params.checklistId);
+  const { template, ...summary } = checklist;
+  return {
+    source: "server" as const,
+    me: user.name,
+    checklist: { ...summary, canFill: canFillJob(user, job) },
+    template,
+    responses: await checklistResponses(checklist.id),
+    conflicts: (await openConflicts([checklist.id])).length,
+    rejections: [] as { opId: string; itemKey: string; reason: string }[],
+    job: { id: job.id, vesselName: job.vesselName },
+  };
 }
 
-export default function ChecklistView({ loaderData }: Route.ComponentProps) {
-  const { checklist, job } = loaderData;
+/** The tablet's own copy is what is shown and filled, online or not. */
+export async function clientLoader({ params, serverLoader }: Route.ClientLoaderArgs) {
+  const store = await import("~/lib/offline/store.client");
+  let local = await store.readChecklist(params.checklistId);
+  if (!local && navigator.onLine) {
+    const { takeOffline } = await import("~/lib/offline/take-offline.client");
+    await takeOffline().catch(() => undefined);
+    local = await store.readChecklist(params.checklistId);
+  }
+  if (!local) return serverLoader();
+  const jobs = await store.listLocalJobs();
+  const job = jobs.find((j) => j.id === local.checklist.jobId);
+  const me = (await store.getMeta<{ name: string }>("user"))?.name ?? "";
+  return {
+    source: "device" as const,
+    me,
+    checklist: local.checklist,
+    template: local.template,
+    responses: local.responses,
+    conflicts: local.conflicts.length,
+    rejections: local.rejections,
+    job: { id: local.checklist.jobId, vesselName: job?.vesselName ?? "" },
+  };
+}
+clientLoader.hydrate = true as const;
+
+export async function clientAction({ request, params }: Route.ClientActionArgs) {
+  const form = await request.formData();
+  const itemKey = String(form.get("itemKey") ?? "");
+  const store = await import("~/lib/offline/store.client");
+  const local = await store.readChecklist(params.checklistId);
+  if (!local) return { itemKey, error: "This checklist is not on this tablet yet; connect once to make it available offline." };
+  const item = findItem(local.template, itemKey);
+  if (!item) return { itemKey, error: "No such item on this checklist." };
+  let value: unknown;
+  try {
+    value = JSON.parse(String(form.get("value")));
+  } catch {
+    return { itemKey, error: "The entry could not be read." };
+  }
+  const parsed = valueSchemaFor(item).safeParse(value);
+  if (!parsed.success) return { itemKey, error: `Not saved: ${parsed.error.issues[0]!.message}.` };
+  const me = (await store.getMeta<{ name: string }>("user"))?.name ?? "";
+  try {
+    await store.recordEntry(params.checklistId, itemKey, parsed.data, me);
+  } catch (error) {
+    return { itemKey, error: error instanceof store.LocalStoreError ? error.message : "Not saved on this tablet." };
+  }
+  const { requestSync, refreshStatus } = await import("~/lib/offline/status.client");
+  void refreshStatus().then(() => (navigator.onLine ? requestSync() : undefined));
+  return { itemKey, error: null };
+}
+
+export function HydrateFallback() {
+  return <p className="text-lg">Opening the checklist on this tablet…</p>;
+}
+
+export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
+  const { checklist, template, responses, job, me } = loaderData;
+  const fetcher = useFetcher<typeof clientAction>();
+  const revalidator = useRevalidator();
+  const [sectionIndex, setSectionIndex] = useState(0);
+  const values = Object.fromEntries(Object.entries(responses).map(([k, r]) => [k, r.value]));
+  const state = progress(template, values);
+  const locked = checklist.state === "submitted" || checklist.state === "countersigned";
+  const editable = loaderData.source === "device" && checklist.canFill && !locked;
+  const section = template.sections[sectionIndex] ?? template.sections[0]!;
+
+  // Entries from other devices arrive with each sync: show them.
+  useEffect(() => {
+    let stop = () => {};
+    import("~/lib/offline/status.client").then((m) => (stop = m.onSynced(() => revalidator.revalidate())));
+    return () => stop();
+  }, [revalidator]);
+
+  const save = (itemKey: string) => (value: unknown) => fetcher.submit({ itemKey, value: JSON.stringify(value) }, { method: "post" });
+  const failed = fetcher.data?.error ? fetcher.data : null;
+
   return (
     <>
       <p className="mb-1">
-        <Link to={`/jobs/${job.id}`} className="font-bold text-harbour underline">
-          ← {job.vesselName}
-        </Link>
+        <Link to={`/jobs/${job.id}`} className="font-bold text-harbour underline">← {job.vesselName || "Job"}</Link>
       </p>
-      <div className="mb-6 flex flex-wrap items-end justify-between gap-2">
+      <div className="mb-4 flex flex-wrap items-end justify-between gap-2">
         <h1 className="text-3xl font-bold">{checklist.title}</h1>
-        <p className="text-lg">
-          Version {checklist.version} · {checklistStateLabels[checklist.state]}
-        </p>
+        <p className="text-lg">Version {checklist.version} · {checklistStateLabels[checklist.state]}</p>
       </div>
-      {checklist.newerVersion && (
-        <p className="mb-4 rounded-md border-2 border-harbour p-3">
-          Version {checklist.newerVersion} of this template has been published since; this checklist stays on version {checklist.version}.
-        </p>
+      <p className="mb-2" data-testid="overall-progress">
+        <strong>{state.overall.left.length === 0 ? "Every required item is done." : `${state.overall.left.length} required items left`}</strong>
+        {state.overall.attention.length > 0 && <> · <strong className="text-fault">▲ {state.overall.attention.length} need attention</strong></>}
+        {" "}· {state.overall.done} of {state.overall.required} done
+      </p>
+      {locked && <p className="mb-4 rounded-md border-2 border-harbour p-3">This checklist is {checklistStateLabels[checklist.state].toLowerCase()}: it takes no more entries.</p>}
+      {!checklist.canFill && !locked && <p className="mb-4 rounded-md border-2 border-harbour p-3">You can read this checklist; its technicians and lead fill it.</p>}
+      {loaderData.rejections.length > 0 && (
+        <div role="alert" className="mb-4 rounded-md border-2 border-fault bg-fault-light p-3">
+          <strong>The server refused {loaderData.rejections.length} entr{loaderData.rejections.length === 1 ? "y" : "ies"}:</strong>
+          <ul className="ml-5 list-disc">{loaderData.rejections.map((r) => <li key={r.opId}>{r.reason}</li>)}</ul>
+        </div>
       )}
-      <ChecklistOutline template={checklist.template} />
+      <nav aria-label="Sections" className="mb-4 flex flex-wrap gap-2">
+        {template.sections.map((s, i) => {
+          const p = state.sections[i]!;
+          return (
+            <button key={s.key} type="button" className={`btn ${i === sectionIndex ? "btn-primary" : ""}`} aria-current={i === sectionIndex ? "step" : undefined} onClick={() => setSectionIndex(i)}>
+              {i + 1}. {s.title} <span className="num text-sm">{p.done}/{p.required}{p.attention.length ? " ▲" : ""}</span>
+            </button>
+          );
+        })}
+      </nav>
+      <section aria-labelledby="section-title">
+        <h2 id="section-title" className="mb-3 border-b-2 border-ink pb-1 text-2xl font-bold">{sectionIndex + 1}. {section.title}</h2>
+        <ol className="flex flex-col gap-4">
+          {section.items.map((item) => (
+            <FillItem key={item.key} item={item} template={template} value={responses[item.key]?.value} verdict={state.verdicts[item.key]!}
+              pending={!!responses[item.key]?.pending} by={me} disabled={!editable} onSave={save(item.key)}>
+              {failed?.itemKey === item.key && <p role="alert" className="font-bold text-fault">▲ {failed.error}</p>}
+            </FillItem>
+          ))}
+        </ol>
+        <div className="mt-6 flex justify-between gap-2">
+          <button type="button" className="btn" disabled={sectionIndex === 0} onClick={() => setSectionIndex(sectionIndex - 1)}>← Previous section</button>
+          <button type="button" className="btn" disabled={sectionIndex >= template.sections.length - 1} onClick={() => setSectionIndex(sectionIndex + 1)}>Next section →</button>
+        </div>
+      </section>
     </>
   );
 }

@@ -1,0 +1,58 @@
+import type { Item, Template, Verdict } from "~/lib/templates";
+import { CalcPanel, CheckEditor, ChoiceEditor, InitialsEditor, MeasureEditor, ReadingsEditor, TextEditor, type EditorProps } from "./editors.tsx";
+import { ItemNotes } from "./item-notes.tsx";
+import { VerdictBadge } from "./verdict-badge.tsx";
+
+export interface FillItemProps {
+  item: Item;
+  template: Template;
+  value: unknown;
+  verdict: Verdict;
+  pending: boolean;
+  by: string;
+  disabled: boolean;
+  onSave: (value: unknown) => void;
+  diagram?: React.ReactNode;
+  children?: React.ReactNode;
+}
+
+function Editor(props: EditorProps & { diagram?: React.ReactNode }) {
+  const { item } = props;
+  switch (item.kind) {
+    case "check":
+      return <CheckEditor {...props} />;
+    case "measure":
+      return <MeasureEditor {...(props as EditorProps<typeof item>)} />;
+    case "readings":
+      return <ReadingsEditor {...(props as EditorProps<typeof item>)} />;
+    case "choice":
+      return <ChoiceEditor {...(props as EditorProps<typeof item>)} />;
+    case "text":
+      return <TextEditor {...props} />;
+    case "initials":
+      return <InitialsEditor {...props} />;
+    case "calc":
+      return <CalcPanel {...props} />;
+    case "photo":
+      return <p className="text-ink-soft">Photos for this item are taken with the photo step (at least {item.minPhotos}).</p>;
+  }
+}
+
+/** One item as the technician fills it: what to do, the entry, and its verdict in words and a shape. */
+export function FillItem({ item, value, verdict, pending, by, disabled, onSave, diagram, children }: FillItemProps) {
+  return (
+    <li className="card flex flex-col gap-3" data-item={item.key} id={`item-${item.key}`}>
+      <div className="flex flex-wrap items-start justify-between gap-2">
+        <h3 className="text-lg font-bold">
+          {item.label}
+          {item.required && <span className="sr-only"> (required)</span>}
+        </h3>
+        {pending && <span className="text-sm font-bold text-harbour" data-testid="pending">Saved on this tablet · waiting to send</span>}
+      </div>
+      <ItemNotes item={item} />
+      <Editor item={item} value={value} verdict={verdict} by={by} disabled={disabled} onSave={onSave} diagram={diagram} />
+      <VerdictBadge verdict={verdict} />
+      {children}
+    </li>
+  );
+}

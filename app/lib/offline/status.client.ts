@@ -1,0 +1,82 @@
+import { localDb } from "./db.client.ts";
+import { getMeta } from "./store.client.ts";
+import { syncOnce } from "./sync.client.ts";
+
+export interface SyncStatus {
+  online: boolean;
+  waiting: number;
+  conflicts: number;
+  refused: number;
+  lastSyncAt: string | null;
+  syncing: boolean;
+  problem: string | null;
+}
+
+let status: SyncStatus = { online: true, waiting: 0, conflicts: 0, refused: 0, lastSyncAt: null, syncing: false, problem: null };
+const listeners = new Set<() => void>();
+
+export const syncStatus = {
+  get: () => status,
+  subscribe(listener: () => void) {
+    listeners.add(listener);
+    return () => listeners.delete(listener);
+  },
+};
+
+function publish(next: Partial<SyncStatus>) {
+  status = { ...status, ...next };
+  for (const l of listeners) l();
+}
+
+/** Re-reads the counts shown in the status bar. */
+export async function refreshStatus() {
+  const db = await localDb();
+  const [waiting, conflicts, refused, lastSyncAt] = await Promise.all([db.count("outbox"), db.count("conflicts"), db.count("rejections"), getMeta<string>("lastSyncAt")]);
+  publish({ waiting, conflicts, refused, lastSyncAt: lastSyncAt ?? null, online: navigator.onLine });
+}
+
+let timer: ReturnType<typeof setTimeout> | undefined;
+let failures = 0;
+const afterSync = new Set<() => void>();
+
+/** Called with each successful sync (the screens reload what they show). */
+export function onSynced(listener: () => void) {
+  afterSync.add(listener);
+  return () => afterSync.delete(listener);
+}
+
+/** One sync, one tab at a time (Web Locks); failures retry with backoff up to a minute. */
+export async function requestSync() {
+  clearTimeout(timer);
+  const run = async () => {
+    publish({ syncing: true });
+    const result = await syncOnce().catch((error) => ({ ok: false as const, reason: "server" as const, message: String(error) }));
+    publish({ syncing: false, problem: result.ok ? null : result.message });
+    if (result.ok) {
+      failures = 0;
+      for (const l of afterSync) l();
+    } else failures++;
+    await refreshStatus();
+    const delay = result.ok ? 30_000 : Math.min(60_000, 2000 * 2 ** Math.min(failures, 5));
+    timer = setTimeout(requestSync, delay);
+  };
+  if (navigator.locks) await navigator.locks.request("sternpost-sync", { ifAvailable: true }, async (lock) => (lock ? run() : undefined));
+  else await run();
+}
+
+let started = false;
+
+/** Sync on start, on coming back online, when the tab becomes visible, and on a timer. */
+export function startSyncing() {
+  if (started) return;
+  started = true;
+  window.addEventListener("online", () => {
+    publish({ online: true });
+    void requestSync();
+  });
+  window.addEventListener("offline", () => publish({ online: false }));
+  document.addEventListener("visibilitychange", () => {
+    if (document.visibilityState === "visible") void requestSync();
+  });
+  void refreshStatus().then(requestSync);
+}

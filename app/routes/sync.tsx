@@ -1,0 +1,105 @@
+import { Link, useFetcher } from "react-router";
+import type { Route } from "./+types/sync";
+import { describeValue, findItem } from "~/lib/templates";
+
+export const meta: Route.MetaFunction = () => [{ title: "To decide · Sternpost" }];
+
+/** Read from the tablet only: it works with no connection. */
+export async function clientLoader() {
+  const store = await import("~/lib/offline/store.client");
+  const { localDb } = await import("~/lib/offline/db.client");
+  const db = await localDb();
+  const { conflicts, rejections } = await store.allConflicts();
+  const describe = async (checklistId: string, itemKey: string) => {
+    const checklist = await db.get("checklists", checklistId);
+    const template = checklist ? await db.get("templates", [checklist.key, checklist.version]) : undefined;
+    const item = template ? findItem(template.template, itemKey) : undefined;
+    return { checklistTitle: checklist?.title ?? "A checklist", item };
+  };
+  return {
+    conflicts: await Promise.all(
+      conflicts.map(async (c) => {
+        const { checklistTitle, item } = await describe(c.checklistId, c.itemKey);
+        return { ...c, checklistTitle, label: item?.label ?? c.itemKey, server: describeValue(item, c.serverValue), sent: describeValue(item, c.clientValue) };
+      }),
+    ),
+    rejections: await Promise.all(
+      rejections.map(async (r) => {
+        const { checklistTitle, item } = await describe(r.checklistId, r.itemKey);
+        return { ...r, checklistTitle, label: item?.label ?? r.itemKey, sent: describeValue(item, r.value) };
+      }),
+    ),
+  };
+}
+
+export async function clientAction({ request }: Route.ClientActionArgs) {
+  const form = await request.formData();
+  const store = await import("~/lib/offline/store.client");
+  if (form.get("intent") === "dismiss") {
+    await store.dismissRejection(String(form.get("opId")));
+  } else {
+    const { conflicts } = await store.allConflicts();
+    const conflict = conflicts.find((c) => c.id === Number(form.get("conflictId")));
+    if (!conflict) return { error: "That conflict was already decided." };
+    const me = (await store.getMeta<{ name: string }>("user"))?.name ?? "";
+    const value = form.get("keep") === "sent" ? conflict.clientValue : conflict.serverValue;
+    await store.recordEntry(conflict.checklistId, conflict.itemKey, value, me, [conflict.id]);
+  }
+  const { requestSync, refreshStatus } = await import("~/lib/offline/status.client");
+  void refreshStatus().then(() => (navigator.onLine ? requestSync() : undefined));
+  return { error: null };
+}
+
+export function HydrateFallback() {
+  return <p>Reading this tablet…</p>;
+}
+
+export default function ToDecide({ loaderData }: Route.ComponentProps) {
+  const fetcher = useFetcher();
+  const { conflicts, rejections } = loaderData;
+  return (
+    <>
+      <h1 className="mb-2 text-3xl font-bold">To decide</h1>
+      <p className="mb-6 text-lg">
+        When two people changed the same entry while apart, both values are kept here until someone chooses. Nothing is overwritten on its own.
+      </p>
+      {conflicts.length === 0 && rejections.length === 0 && <p data-testid="nothing-to-decide">Nothing to decide.</p>}
+      <ul className="flex flex-col gap-4">
+        {conflicts.map((c) => (
+          <li key={c.id} className="card flex flex-col gap-3" data-testid="conflict">
+            <h2 className="text-xl font-bold">{c.label}</h2>
+            <p className="text-ink-soft">{c.checklistTitle}</p>
+            <div className="grid gap-3 md:grid-cols-2">
+              <div className="rounded-md border-2 border-rule p-3">
+                <p className="text-sm font-bold">On the server now (revision {c.serverRev})</p>
+                <p className="num text-lg" data-testid="server-value">{c.server}</p>
+              </div>
+              <div className="rounded-md border-2 border-rule p-3">
+                <p className="text-sm font-bold">Sent by {c.by}, {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}</p>
+                <p className="num text-lg" data-testid="sent-value">{c.sent}</p>
+              </div>
+            </div>
+            <fetcher.Form method="post" className="flex flex-wrap gap-2">
+              <input type="hidden" name="conflictId" value={c.id} />
+              <button className="btn" name="keep" value="server">Keep the server's value</button>
+              <button className="btn" name="keep" value="sent">Use the value that was sent</button>
+              <Link className="btn" to={`/checklists/${c.checklistId}#item-${c.itemKey}`}>Enter a new value</Link>
+            </fetcher.Form>
+          </li>
+        ))}
+        {rejections.map((r) => (
+          <li key={r.opId} className="card flex flex-col gap-2 border-fault" data-testid="rejection">
+            <h2 className="text-xl font-bold">Refused: {r.label}</h2>
+            <p className="text-ink-soft">{r.checklistTitle}</p>
+            <p><strong>Why: </strong>{r.reason}</p>
+            <p><strong>What was sent: </strong>{r.sent}</p>
+            <fetcher.Form method="post">
+              <input type="hidden" name="opId" value={r.opId} />
+              <button className="btn" name="intent" value="dismiss">Understood, remove</button>
+            </fetcher.Form>
+          </li>
+        ))}
+      </ul>
+    </>
+  );
+}

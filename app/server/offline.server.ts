@@ -1,0 +1,57 @@
+import { canFillJob, type Actor } from "~/lib/permissions";
+import type { ConflictRecord, OfflineBundle } from "~/lib/sync/bundle";
+import { db } from "./db.server.ts";
+import { listVisibleJobs } from "./jobs.server.ts";
+import type { User } from "./users.server.ts";
+
+const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
+
+/** Open conflicts on the given checklists, for the person who decides them. */
+export async function openConflicts(checklistIds: string[]): Promise<ConflictRecord[]> {
+  if (!checklistIds.length) return [];
+  const rows = await db()("sync_conflicts as k")
+    .join("users as u", "u.id", "k.user_id")
+    .whereIn("k.checklist_id", checklistIds)
+    .whereNull("k.resolved_at")
+    .orderBy("k.id")
+    .select("k.*", "u.name");
+  return rows.map((r: any) => ({
+    id: r.id, checklistId: r.checklist_id, itemKey: r.item_key, serverValue: json(r.server_value), serverRev: r.server_rev,
+    clientValue: json(r.client_value), by: r.name, at: new Date(r.received_at).toISOString(), deviceId: r.device_id,
+  }));
+}
+
+/**
+ * The person's jobs, their checklists, the template versions those use, every response and the
+ * cursor they correspond to — read in one transaction so the cursor matches the responses.
+ */
+export async function offlineBundle(user: User): Promise<OfflineBundle> {
+  const jobs = await listVisibleJobs(user as Actor);
+  const jobIds = jobs.map((j) => j.id);
+  return db().transaction(async (trx) => {
+    const cursor = String((await trx("sync_clock").where({ id: 1 }).first()).seq);
+    const checklistRows = jobIds.length
+      ? await trx("job_checklists as c").join("template_versions as t", "t.id", "c.template_version_id").whereIn("c.job_id", jobIds)
+          .select("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version", "t.body")
+      : [];
+    const ids = checklistRows.map((c: any) => c.id);
+    const responses = ids.length
+      ? await trx("checklist_responses as r").join("users as u", "u.id", "r.updated_by").whereIn("r.checklist_id", ids)
+          .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name")
+      : [];
+    const templates = new Map<string, OfflineBundle["templates"][number]>();
+    for (const c of checklistRows) templates.set(`${c.template_key}@${c.version}`, { key: c.template_key, version: c.version, template: JSON.parse(c.body) });
+    return {
+      user: { id: user.id, name: user.name, email: user.email, role: user.role },
+      jobs: jobs.map((j) => ({ id: j.id, vesselName: j.vesselName, hin: j.hin, engineModel: j.engineModel, status: j.status, dueDate: j.dueDate, leadName: j.leadName })),
+      checklists: checklistRows.map((c: any) => {
+        const job = jobs.find((j) => j.id === c.job_id)!;
+        return { id: c.id, jobId: c.job_id, key: c.template_key, title: c.title, version: c.version, state: c.state, canFill: canFillJob(user, job) };
+      }),
+      templates: [...templates.values()],
+      responses: responses.map((r: any) => ({ checklistId: r.checklist_id, itemKey: r.item_key, value: json(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString() })),
+      conflicts: await openConflicts(ids),
+      cursor,
+    };
+  });
+}
