@@ -2,9 +2,11 @@ import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import PDFDocument from "pdfkit";
 import QRCode from "qrcode";
+import { renderToStaticMarkup } from "react-dom/server";
 // svg-to-pdfkit ships no type declarations; its one function is typed below (PlaceSvg).
 // @ts-expect-error TS7016
 import svgToPdfkit from "svg-to-pdfkit";
+import { diagramFor } from "~/components/diagrams/for-calc";
 import type { CalcInput } from "~/lib/calc/registry";
 import { convert, isUnit, type Unit } from "~/lib/calc/units";
 import type { CommissioningRecord, RecordChecklist, RecordRevision } from "~/lib/record/types";
@@ -12,6 +14,7 @@ import {
   calcDefinition,
   describeRule,
   evaluate,
+  findItem,
   formatQuantity,
   gatherCalcInputs,
   phaseLabels,
@@ -125,8 +128,13 @@ interface Reading {
   words: string;
   /** What the note is, when the item carries one: "Corrective action", "Reason"… */
   noteLabel: string;
-  /** The evaluator's account of a finding ("0.0016 in is above the upper limit of 0.001 in."). */
+  /** The evaluator's account of what is out ("0.0016 in is above the upper limit of 0.001 in."). */
   detail?: string;
+}
+
+/** The evaluator's message without the request it makes of the technician at the item. */
+function account(verdict: Verdict): string {
+  return verdict.message.replace(/\s*Noted\.$/, "").replace(/\s*Write the corrective action.*$/, "");
 }
 
 function hasRule(item: Item): boolean {
@@ -135,7 +143,7 @@ function hasRule(item: Item): boolean {
 
 /** How a verdict reads on paper. The verdict itself always comes from the one evaluator (rules.ts). */
 function readVerdict(item: Item, verdict: Verdict): Reading {
-  const detail = verdict.message.replace(/\s*Noted\.$/, "");
+  const detail = account(verdict);
   switch (verdict.status) {
     case "ok": {
       if (item.kind === "check") return { shape: "tick", colour: sound, words: "Passed", noteLabel: "Note" };
@@ -152,18 +160,18 @@ function readVerdict(item: Item, verdict: Verdict): Reading {
     case "noted":
       switch (verdict.finding) {
         case "fail":
-          return { shape: "triangle", colour: brass, words: "Failed, action recorded", noteLabel: "Action taken", detail };
+          return { shape: "triangle", colour: brass, words: "Failed, action recorded", noteLabel: "Action taken" };
         case "not-applicable":
           return { shape: "circle", colour: inkSoft, words: "Not applicable", noteLabel: "Reason" };
         case "flagged-option":
-          return { shape: "triangle", colour: brass, words: "Finding recorded", noteLabel: "Note", detail };
+          return { shape: "triangle", colour: brass, words: "Finding recorded", noteLabel: "Note" };
         default:
           return { shape: "triangle", colour: brass, words: "Outside limit, corrective action recorded", noteLabel: "Corrective action", detail };
       }
     case "out-of-range":
       return { shape: "triangle", colour: fault, words: "Outside limit, no corrective action recorded", noteLabel: "Note", detail };
     case "needs-note":
-      return { shape: "triangle", colour: fault, words: "Finding without its note", noteLabel: "Note", detail };
+      return { shape: "triangle", colour: fault, words: "Finding without its note", noteLabel: "Note" };
     case "unanswered":
       return { shape: "circle", colour: inkSoft, words: item.required ? "Not answered" : "Not answered (optional)", noteLabel: "Note" };
     case "incomplete":
@@ -184,17 +192,12 @@ const shapeLegend: [Shape, string, string][] = [
 // ---- diagrams -------------------------------------------------------------------------------
 
 /**
- * The diagram of a calc item as SVG markup, or undefined when there is none.
- *
- * Hook point for the diagram components: once app/components/diagrams/for-calc.tsx exists,
- * this becomes
- *   const element = diagramFor(calc, detail, inputs);
- *   return element ? renderToStaticMarkup(element) : undefined;
- * (diagramFor from "~/components/diagrams/for-calc", renderToStaticMarkup from
- * "react-dom/server"); placeSvg below already draws any SVG it returns, with the app's fonts.
+ * The diagram of a calc item as SVG markup, or undefined when its calculation has none: the same
+ * pure SVG components the screens show (app/components/diagrams), rendered to static markup.
  */
-function svgForCalc(_calc: string, _detail: unknown, _inputs: Record<string, CalcInput | undefined>): string | undefined {
-  return undefined;
+function svgForCalc(calc: string, detail: unknown, inputs: Record<string, CalcInput | undefined>): string | undefined {
+  const element = diagramFor(calc, detail, inputs);
+  return element ? renderToStaticMarkup(element) : undefined;
 }
 
 type PlaceSvg = (
@@ -370,19 +373,21 @@ class Writer {
     const pad = 3.5;
     const markRoom = 11;
     const cellWidth = (c: Column, cell?: Cell) => c.width - 2 * pad - (cell?.mark ? markRoom : 0);
+    const headerHeight = () => {
+      this.style("bold", size.small);
+      return Math.max(...columns.map((c) => this.height(c.label, c.width - 2 * pad))) + 2 * pad;
+    };
     const header = () => {
-      this.style("bold", size.small, inkSoft);
-      const h = Math.max(...columns.map((c) => this.height(c.label, c.width - 2 * pad))) + 2 * pad;
-      this.doc.save().rect(x0, this.y, sum(columns.map((c) => c.width)), h).fill(paper).restore();
+      const h = headerHeight();
+      const top = this.y;
+      this.doc.save().rect(x0, top, sum(columns.map((c) => c.width)), h).fill(paper).restore();
       let x = x0;
       for (const c of columns) {
         this.style("bold", size.small, inkSoft);
-        this.doc.text(this.printable(c.label), x + pad, this.y + pad, { width: c.width - 2 * pad, align: c.align ?? "left", lineGap: 1.5 });
+        this.doc.text(this.printable(c.label), x + pad, top + pad, { width: c.width - 2 * pad, align: c.align ?? "left", lineGap: 1.5 });
         x += c.width;
       }
-      this.y += h - pad;
-      this.y = Math.max(this.y, 0);
-      this.doc.y = this.y;
+      this.y = top + h;
       this.hline(x0, columns, ink, 0.6);
     };
     const rowHeight = (row: Cell[]) =>
@@ -393,10 +398,6 @@ class Writer {
         }),
       ) + 2 * pad;
 
-    const headerHeight = () => {
-      this.style("bold", size.small);
-      return Math.max(...columns.map((c) => this.height(c.label, c.width - 2 * pad))) + 2 * pad;
-    };
     this.ensure(headerHeight() + (rows[0] ? rowHeight(rows[0]) : 0));
     header();
     for (const row of rows) {
@@ -446,8 +447,10 @@ function keyValues(w: Writer, x: number, width: number, pairs: [string, string][
   const keyWidth = Math.min(96, width * 0.34);
   let y = w.y;
   for (const [key, value] of pairs) {
+    w.style("regular", size.small + 0.5);
+    const keyHeight = w.height(key, keyWidth - 6);
     w.style("regular", size.body);
-    const h = Math.max(w.height(key, keyWidth - 6), w.height(value, width - keyWidth, TNUM));
+    const h = Math.max(keyHeight, w.height(value, width - keyWidth, TNUM));
     w.style("regular", size.small + 0.5, inkSoft);
     w.doc.text(w.printable(key), x, y + 1, { width: keyWidth - 6, lineGap: 1.5 });
     w.style("regular", size.body, ink);
@@ -553,7 +556,7 @@ async function cover(w: Writer, record: CommissioningRecord, options: RecordPdfO
   w.y = Math.max(eqLeft, eqRight, equipmentTop) + 12;
 
   boxTitle(w, w.left, w.width, "Checklists in this record");
-  const widths = spread(w.width, [4.2, 1.2, 3.2, 2.6, 3]);
+  const widths = spread(w.width, [4.2, 1.3, 2.9, 3.3, 2.8]);
   w.table(
     [
       { label: "Checklist", width: widths[0] },
@@ -575,16 +578,16 @@ async function cover(w: Writer, record: CommissioningRecord, options: RecordPdfO
   // How the verdicts are drawn, so nobody has to guess what a shape means.
   w.style("bold", size.small, inkSoft);
   doc.text("Verdicts are given in words and a shape:", w.left, w.y);
-  w.y += 1;
+  const legendTop = w.y + 2;
   const legendWidth = w.width / 2;
   shapeLegend.forEach(([shape, colour, words], i) => {
     const x = w.left + (i % 2) * legendWidth;
-    const y = w.y + Math.floor(i / 2) * 12;
+    const y = legendTop + Math.floor(i / 2) * 12;
     w.shape(shape, colour, x + 4, y + 4.5, 7);
     w.style("regular", size.small, ink);
     doc.text(w.printable(words), x + 13, y, { width: legendWidth - 16, lineBreak: false });
   });
-  w.y += Math.ceil(shapeLegend.length / 2) * 12 + 10;
+  w.y = legendTop + Math.ceil(shapeLegend.length / 2) * 12 + 10;
 
   await verification(w, options);
 
@@ -616,8 +619,11 @@ async function verification(w: Writer, { digest, verifyUrl }: RecordPdfOptions):
   w.style("bold", size.small, copper);
   doc.text("RECORD DIGEST (SHA-256)", textX, y, { width: textWidth, characterSpacing: 0.8 });
   y += 13;
-  w.style("bold", 9.3, ink);
-  doc.text(digest, textX, y, { width: textWidth, lineBreak: false, ...TNUM });
+  // One unbroken line, so it can be read out, compared and searched for whole.
+  w.style("bold", 9.5, ink);
+  const fitted = Math.min(9.5, (9.5 * textWidth) / doc.widthOfString(digest, TNUM));
+  w.style("bold", fitted, ink);
+  doc.text(digest, textX, y, { width: textWidth + 1, lineBreak: false, ...TNUM });
   y += 16;
   w.style("bold", size.small, inkSoft);
   doc.text("Check it at", textX, y, { width: textWidth });
@@ -684,8 +690,18 @@ function sectionHeading(w: Writer, index: number, title: string): void {
 
 const GUTTER = 30;
 
-function itemBlock(w: Writer, checklist: RecordChecklist, item: Item, number: string, responses: Record<string, unknown>): void {
+/** What every item of one checklist is rendered against. */
+interface ChecklistContext {
+  checklist: RecordChecklist;
+  responses: Record<string, unknown>;
+  /** "2.3" by item key, for cross-references. */
+  numbers: Map<string, string>;
+}
+
+function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
   const { doc } = w;
+  const { checklist, responses } = ctx;
+  const number = ctx.numbers.get(item.key) ?? "";
   const response = checklist.responses[item.key];
   const verdict = evaluate(item, response?.value, { template: checklist.template, responses });
   const reading = readVerdict(item, verdict);
@@ -694,7 +710,7 @@ function itemBlock(w: Writer, checklist: RecordChecklist, item: Item, number: st
 
   w.style("bold", size.label);
   const labelHeight = w.height(item.label, width);
-  w.ensure(labelHeight + 44);
+  w.ensure(labelHeight + 44 + leadIn(w, item, reading, width));
   const top = w.y;
   w.style("regular", size.small + 0.5, inkSoft);
   doc.text(number, w.left, top + 1.5, { width: GUTTER - 4, ...TNUM });
@@ -727,7 +743,7 @@ function itemBlock(w: Writer, checklist: RecordChecklist, item: Item, number: st
     w.paragraph(reading.detail, { indent, tnum: true, gap: 2 });
   }
 
-  itemValue(w, checklist, item, response?.value, verdict, indent);
+  itemValue(w, ctx, item, response?.value, verdict, indent);
 
   const note = noteOf(response?.value);
   if (note) w.labelled(reading.noteLabel, note, { indent, colour: reading.shape === "triangle" ? reading.colour : ink });
@@ -740,13 +756,17 @@ function itemBlock(w: Writer, checklist: RecordChecklist, item: Item, number: st
 
   const photos = photoReferences(checklist, item, response?.value);
   if (photos.length) {
+    w.y += 3;
+    const widths = spread(w.width - indent, [36, 66]);
+    w.table(
+      [
+        { label: photos.length === 1 ? "Photo" : `Photos (${photos.length})`, width: widths[0] },
+        { label: "SHA-256 of the stored file", width: widths[1] },
+      ],
+      photos.map((photo) => [{ text: photo.id }, { text: photo.sha256 ?? "not yet recorded", colour: photo.sha256 ? ink : inkSoft }]),
+      { indent, fontSize: 7.2 },
+    );
     w.y += 2;
-    w.style("bold", size.small + 0.5, ink);
-    w.paragraph(photos.length === 1 ? "Photo" : `Photos (${photos.length})`, { indent });
-    for (const photo of photos) {
-      w.style("regular", size.small, ink);
-      w.paragraph(`${photo.id}   SHA-256 ${photo.sha256 ?? "not yet recorded"}`, { indent: indent + 8, tnum: true });
-    }
   }
 
   const comments = checklist.comments.filter((c) => c.itemKey === item.key).sort((a, b) => (a.at < b.at ? -1 : 1));
@@ -757,6 +777,25 @@ function itemBlock(w: Writer, checklist: RecordChecklist, item: Item, number: st
 
   w.y += 9;
   w.doc.save().moveTo(x, w.y - 4.5).lineTo(w.left + w.width, w.y - 4.5).lineWidth(0.4).strokeColor(rule).stroke().restore();
+}
+
+/** Room for the first of an item's content, so its heading never ends a page alone. */
+function leadIn(w: Writer, item: Item, reading: Reading, width: number): number {
+  w.style("regular", size.body);
+  const detail = reading.detail ? w.height(reading.detail, width) : 0;
+  switch (item.kind) {
+    case "measure":
+      return detail + 44;
+    case "readings":
+      return detail + 70;
+    case "calc": {
+      const definition = calcDefinition(item.calc);
+      w.style("regular", size.small);
+      return detail + (definition ? w.height(`${definition.title}: ${definition.summary} Source: ${definition.source}.`, width) : 0) + 60;
+    }
+    default:
+      return detail;
+  }
 }
 
 function ruleOf(item: Item, verdict: Verdict): string | undefined {
@@ -814,7 +853,7 @@ function photoReferences(checklist: RecordChecklist, item: Item, value: unknown)
   return out;
 }
 
-function itemValue(w: Writer, checklist: RecordChecklist, item: Item, value: unknown, verdict: Verdict, indent: number): void {
+function itemValue(w: Writer, ctx: ChecklistContext, item: Item, value: unknown, verdict: Verdict, indent: number): void {
   if (value === undefined && item.kind !== "calc") return;
   switch (item.kind) {
     case "measure":
@@ -822,7 +861,7 @@ function itemValue(w: Writer, checklist: RecordChecklist, item: Item, value: unk
     case "readings":
       return readingsAttempts(w, item, value as ReadingsValue, indent);
     case "calc":
-      return calcResult(w, checklist, item, verdict, indent);
+      return calcResult(w, ctx, item, verdict, indent);
     case "choice":
       w.style("regular", size.body, ink);
       w.labelled("Chosen", valueWords(item, value), { indent });
@@ -858,7 +897,7 @@ function measureAttempts(w: Writer, item: MeasureItem, value: MeasureValue, inde
   const columns: Column[] = [
     { label: "Attempt", width: widths[0] },
     { label: "Value", width: widths[1] },
-    ...(converted ? [{ label: `In ${unitSymbol(ruleUnit!)}`, width: widths[2] }] : []),
+    ...(converted ? [{ label: `Converted to ${unitSymbol(ruleUnit!)}`, width: widths[2] }] : []),
     { label: "By", width: widths[converted ? 3 : 2] },
     { label: "When", width: widths[converted ? 4 : 3] },
   ];
@@ -909,7 +948,7 @@ function readingsAttempts(w: Writer, item: ReadingsItem, value: ReadingsValue, i
     });
     w.table(columns, rows, { indent });
     if (item.rule && own.status !== "incomplete") {
-      const words = own.status === "ok" ? "Within the rule." : own.message.replace(/\s*(Write the corrective action.*)$/, "");
+      const words = own.status === "ok" ? "Within the rule." : account(own);
       w.style("regular", size.small, own.status === "ok" ? sound : brass);
       w.paragraph(words, { indent, tnum: true });
     }
@@ -917,29 +956,37 @@ function readingsAttempts(w: Writer, item: ReadingsItem, value: ReadingsValue, i
   });
 }
 
-function calcResult(w: Writer, checklist: RecordChecklist, item: CalcItem, verdict: Verdict, indent: number): void {
+function calcResult(w: Writer, ctx: ChecklistContext, item: CalcItem, verdict: Verdict, indent: number): void {
+  const { checklist } = ctx;
   const definition = calcDefinition(item.calc);
   const outcome = verdict.outcome;
   const width = w.width - indent;
-  if (definition) {
-    w.style("regular", size.small, inkSoft);
-    w.paragraph(`${definition.title}: ${definition.summary} Source: ${definition.source}.`, { indent, gap: 2 });
+  const about = definition ? `${definition.title}: ${definition.summary} Source: ${definition.source}.` : "";
+  if (!outcome || !definition) {
+    if (about) {
+      w.style("regular", size.small, inkSoft);
+      w.paragraph(about, { indent, gap: 2 });
+    }
+    return;
   }
-  if (!outcome || !definition) return;
 
   const labels = keyLabels(checklist.template, item);
-  const widths = spread(width, [3, 2.4]);
+  const rows = Object.entries(outcome.values).map(([name, v]): Cell[] => {
+    const unit = outcome.units[name];
+    const text = typeof v === "number" ? minus(unit ? formatNumberWithUnit(v, unit) : String(Number(v.toPrecision(6)))) : (labels.get(v) ?? v);
+    return [{ text: name }, { text, bold: true }];
+  });
+  // The description, the table's head and its first rows stay on one page.
+  w.style("regular", size.small, inkSoft);
+  w.ensure(w.height(about, width) + 24 + 18 * Math.min(rows.length, 3));
+  w.paragraph(about, { indent, gap: 2 });
+  const widths = spread(Math.min(width, 330), [3, 2.2]);
   w.table(
     [
       { label: "Result", width: widths[0] },
       { label: "Value", width: widths[1], align: "right" },
     ],
-    Object.entries(outcome.values).map(([name, v]): Cell[] => {
-      const unit = outcome.units[name];
-      const text =
-        typeof v === "number" ? (unit ? minus(`${formatNumberWithUnit(v, unit)}`) : minus(String(Number(v.toPrecision(6))))) : (labels.get(v) ?? v);
-      return [{ text: name }, { text, bold: true }];
-    }),
+    rows,
     { indent },
   );
 
@@ -948,19 +995,19 @@ function calcResult(w: Writer, checklist: RecordChecklist, item: CalcItem, verdi
     const spec = definition.inputs[name];
     const label = spec?.label ?? name;
     if ("item" in binding) {
-      const source = checklist.template.sections.flatMap((s) => s.items).find((i) => i.key === binding.item);
-      return `${label}: from “${source?.label ?? binding.item}”`;
+      const source = findItem(checklist.template, binding.item);
+      return `${label}, item ${ctx.numbers.get(binding.item) ?? binding.item} “${source?.label ?? binding.item}”`;
     }
     const unit = spec?.unit;
     const v = binding.value;
     const shown = typeof v === "number" ? (unit ? quantity(v, unit) : String(v)) : Array.isArray(v) ? v.join(", ") : v;
-    return `${label}: ${shown} (set by the template)`;
+    return `${label}, ${shown} (set by the template)`;
   });
   w.y += 3;
   w.style("regular", size.small, inkSoft);
-  w.paragraph(`Computed from ${from.join("; ")}.`, { indent, tnum: true, gap: 2 });
+  w.paragraph(`Inputs: ${from.join("; ")}.`, { indent, tnum: true, gap: 2 });
 
-  const gathered = gatherCalcInputs(item, definition, checklist.template, valuesOf(checklist));
+  const gathered = gatherCalcInputs(item, definition, checklist.template, ctx.responses);
   const svg = gathered.ready ? svgForCalc(item.calc, outcome.detail, gathered.inputs) : undefined;
   if (svg) placeSvg(w, svg, indent, Math.min(width, 360));
 }
@@ -975,18 +1022,23 @@ function keyLabels(template: Template, item: CalcItem): Map<string, string> {
   const labels = new Map<string, string>();
   for (const binding of Object.values(item.inputs)) {
     if (!("item" in binding)) continue;
-    const source = template.sections.flatMap((s) => s.items).find((i) => i.key === binding.item);
+    const source = findItem(template, binding.item);
     if (source?.kind !== "readings") continue;
     for (const line of [...source.rows, ...source.columns]) labels.set(line.key, line.label);
   }
   return labels;
 }
 
+/** The root element's own width and height would fix its size in pixels; without them it fills its box. */
+function scalable(svg: string): string {
+  return svg.replace(/^<svg\b[^>]*>/, (root) => root.replace(/\s(?:width|height)="[^"]*"/g, ""));
+}
+
 /** Places SVG markup at the left of the content, `width` wide, with the app's fonts. */
 function placeSvg(w: Writer, svg: string, indent: number, width: number): void {
   const height = Math.min(width / svgAspect(svg), 260);
   w.ensure(height + 8);
-  placeSvgIn(w.doc, svg, w.left + indent, w.y + 4, {
+  placeSvgIn(w.doc, scalable(svg), w.left + indent, w.y + 4, {
     width,
     height,
     preserveAspectRatio: "xMinYMin meet",
@@ -1001,10 +1053,12 @@ function checklistPages(w: Writer, checklist: RecordChecklist, index: number, co
   w.currentTitle = `${index + 1}. ${checklist.template.title}`;
   w.newPage();
   checklistHeader(w, checklist, index, count);
-  const responses = valuesOf(checklist);
+  const numbers = new Map<string, string>();
+  checklist.template.sections.forEach((section, s) => section.items.forEach((item, i) => numbers.set(item.key, `${s + 1}.${i + 1}`)));
+  const ctx: ChecklistContext = { checklist, responses: valuesOf(checklist), numbers };
   checklist.template.sections.forEach((section, s) => {
     sectionHeading(w, s, section.title);
-    section.items.forEach((item, i) => itemBlock(w, checklist, item, `${s + 1}.${i + 1}`, responses));
+    section.items.forEach((item) => itemBlock(w, ctx, item));
   });
 }
 

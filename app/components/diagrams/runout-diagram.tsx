@@ -1,6 +1,6 @@
 import type { RunoutResult } from "~/lib/calc";
 import { atMost } from "~/lib/calc/numbers";
-import { colours, DiagramFrame, fixed, formatLength, Label, r, ticks, VerdictLine, VerdictMark, type LengthUnit } from "./svg-kit";
+import { colours, DiagramFrame, fixed, formatLength, Label, r, ticks, VerdictLine, VerdictMark, wrap, type LengthUnit } from "./svg-kit";
 
 export interface RunoutDiagramProps {
   result: RunoutResult;
@@ -15,7 +15,7 @@ export interface RunoutDiagramProps {
 }
 
 const W = 640;
-const H = 345;
+const H = 360;
 const LEFT = 84;
 const RIGHT = 616;
 const TOP = 50;
@@ -41,14 +41,20 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
     return LEFT + pad + (i / (stations.length - 1)) * (RIGHT - LEFT - 2 * pad);
   };
 
+  // Characters per line under each bar: the narrowest gap between neighbouring stations, at about 6.5 px a character.
+  const gaps = stations.slice(1).map((_, i) => x(i + 1) - x(i));
+  const labelChars = Math.max(8, Math.floor(Math.min(RIGHT - LEFT, ...gaps) / 6.5));
   const worstName = nameOf(worstStation);
-  const summary = pass
-    ? `Within the limit: worst TIR ${len(maxTirIn)} at ${worstName}, limit ${len(limitTirIn)}`
-    : `Over the limit: worst TIR ${len(maxTirIn)} at ${worstName}, limit ${len(limitTirIn)}`;
+  const verdictWords = (name: string) =>
+    `${pass ? "Within the limit" : "Over the limit"}: worst TIR ${len(maxTirIn)} at ${name}, limit ${len(limitTirIn)}`;
+  const summary = verdictWords(worstName);
   const title = `Shaft runout along the shaft. ${summary}. ${stations
     .map((s, i) => `${nameOf(i)}: ${len(s.tirIn)}${showPositions ? ` at ${len(s.positionIn)}` : ""}, high spot ${angleOf(i)}`)
     .join("; ")}.`;
   const limitY = y(limitTirIn);
+  // The limit's label goes at the right unless the last station's numbers sit on it there.
+  const clearance = (i: number) => Math.abs(y(stations[i].tirIn) - limitY);
+  const limitLabelLeft = clearance(stations.length - 1) < 45 && clearance(0) > clearance(stations.length - 1);
   const shaftLeft = x(0) - 34;
   const shaftRight = x(stations.length - 1) + 34;
 
@@ -89,10 +95,12 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
             <VerdictMark x={x(i)} y={top - 11} pass={within} size={14} />
             <Label x={r(x(i))} y={r(top - 24)} halo text={len(s.tirIn)} size={13} anchor="middle" bold />
             {i === worstStation && <Label x={r(x(i))} y={r(top - 40)} text="worst" size={12} anchor="middle" bold fill={within ? colours.ink : colours.fault} />}
-            <Label x={r(x(i))} y={BOTTOM + 18} text={nameOf(i)} size={13} anchor="middle" bold />
-            {showPositions && <Label x={r(x(i))} y={BOTTOM + 33} text={`at ${len(s.positionIn)}`} size={12} anchor="middle" fill={colours.inkSoft} />}
-            <Label x={r(x(i))} y={BOTTOM + (showPositions ? 48 : 33)} text={`high spot ${angleOf(i)}`} size={12} anchor="middle" fill={colours.inkSoft} />
-            <path d={`M ${r(x(i) - 6)} ${BOTTOM + 56} L ${r(x(i) + 6)} ${BOTTOM + 56} L ${r(x(i))} ${BOTTOM + 64} Z`} fill={colours.ink} />
+            {wrap(nameOf(i), labelChars).map((line, l) => (
+              <Label key={l} x={r(x(i))} y={BOTTOM + 17 + l * 14} text={line} size={12} anchor="middle" bold />
+            ))}
+            {showPositions && <Label x={r(x(i))} y={BOTTOM + 47} text={`at ${len(s.positionIn)}`} size={12} anchor="middle" fill={colours.inkSoft} />}
+            <Label x={r(x(i))} y={BOTTOM + (showPositions ? 61 : 47)} text={`high spot ${angleOf(i)}`} size={12} anchor="middle" fill={colours.inkSoft} />
+            <path d={`M ${r(x(i) - 6)} ${BOTTOM + 68} L ${r(x(i) + 6)} ${BOTTOM + 68} L ${r(x(i))} ${BOTTOM + 76} Z`} fill={colours.ink} />
           </g>
         );
       })}
@@ -100,10 +108,10 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
       <line x1={LEFT} y1={r(limitY)} x2={RIGHT} y2={r(limitY)} stroke={colours.copper} strokeWidth={2.5} strokeDasharray="9 5" />
       <Label x={limitLabelLeft ? LEFT + 8 : RIGHT - 4} y={r(limitY) - 6} halo text={`limit ${len(limitTirIn)}`} size={13} anchor={limitLabelLeft ? "start" : "end"} bold fill={colours.copper} />
 
-      <rect x={r(shaftLeft)} y={BOTTOM + 66} width={r(shaftRight - shaftLeft)} height={14} rx={3} fill={colours.paper} stroke={colours.inkSoft} strokeWidth={1.5} />
-      <Label x={r(shaftLeft) - 6} y={BOTTOM + 78} text="shaft" size={12} anchor="end" fill={colours.inkSoft} />
+      <rect x={r(shaftLeft)} y={BOTTOM + 78} width={r(shaftRight - shaftLeft)} height={14} rx={3} fill={colours.paper} stroke={colours.inkSoft} strokeWidth={1.5} />
+      <Label x={r(shaftLeft) - 6} y={BOTTOM + 90} text="shaft" size={12} anchor="end" fill={colours.inkSoft} />
 
-      <VerdictLine x={16} y={H - 16} pass={pass} text={summary} />
+      <VerdictLine x={16} y={H - 16} pass={pass} text={verdictWords(wrap(worstName, 28, 1)[0])} size={14} />
     </DiagramFrame>
   );
 }

@@ -28,6 +28,9 @@ export function StraighteningDiagram({ history, limitTirIn, attemptLabels, lengt
   const y = (v: number) => BOTTOM - (v / yTop) * (BOTTOM - TOP);
   const x = (i: number) => (attempts.length === 1 ? (LEFT + RIGHT) / 2 : LEFT + 40 + (i / (attempts.length - 1)) * (RIGHT - LEFT - 80));
   const limitY = y(limitTirIn);
+  // The limit's label goes at the right unless the last attempt's number sits on it there.
+  const clearance = (i: number) => Math.abs(y(attempts[i].tirIn) - limitY);
+  const limitLabelLeft = clearance(attempts.length - 1) < 30 && clearance(0) > clearance(attempts.length - 1);
 
   const reached = reachedLimitAt !== undefined;
   const summary = reached

@@ -209,3 +209,22 @@ export function ticks(max: number, count = 4): number[] {
   for (let v = 0; v < max + step * 0.999; v += step) values.push(Number(v.toPrecision(10)));
   return values;
 }
+
+/** Words broken into at most `maxLines` lines of about `maxChars`, the last cut with an ellipsis. */
+export function wrap(text: string, maxChars: number, maxLines = 2): string[] {
+  const lines: string[] = [];
+  let line = "";
+  for (const word of text.split(/\s+/).filter(Boolean)) {
+    if (line && `${line} ${word}`.length > maxChars) {
+      lines.push(line);
+      line = word;
+    } else {
+      line = line ? `${line} ${word}` : word;
+    }
+  }
+  if (line) lines.push(line);
+  if (lines.length <= maxLines && lines.every((l) => l.length <= maxChars)) return lines;
+  const kept = lines.slice(0, maxLines).map((l) => (l.length > maxChars ? l.slice(0, maxChars - 1) : l));
+  kept[kept.length - 1] = `${kept[kept.length - 1].slice(0, maxChars - 1).trimEnd()}…`;
+  return kept;
+}

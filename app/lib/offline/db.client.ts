@@ -59,8 +59,7 @@ interface SternpostDB extends DBSchema {
 }
 
 export type Store = IDBPDatabase<SternpostDB>;
-export const DB_NAME = "sternpost";
-
+let dbName = "sternpost";
 let opening: Promise<Store> | null = null;
 
 /**
@@ -68,7 +67,7 @@ let opening: Promise<Store> | null = null;
  * memory pressure) the next call opens a new one instead of retrying on the dead handle.
  */
 export function localDb(): Promise<Store> {
-  opening ??= openDB<SternpostDB>(DB_NAME, 1, {
+  opening ??= openDB<SternpostDB>(dbName, 1, {
     upgrade(db) {
       db.createObjectStore("templates", { keyPath: ["key", "version"] });
       db.createObjectStore("jobs", { keyPath: "id" });
@@ -89,7 +88,8 @@ export function localDb(): Promise<Store> {
   return opening;
 }
 
-/** For tests: forget the open connection. */
-export function forgetLocalDb() {
+/** For tests: forget the open connection (as after a crash), or switch to another device's database. */
+export function forgetLocalDb(nextName = dbName) {
   opening = null;
+  dbName = nextName;
 }

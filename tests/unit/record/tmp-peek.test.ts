@@ -1,11 +1,10 @@
 import { test } from "vitest";
+import { writeFileSync } from "node:fs";
 import { commissioningRecordFixture } from "../../support/record-fixture";
-import { evaluateAll } from "~/lib/templates";
-test("peek", () => {
+import { recordDigest } from "~/lib/record/digest.server";
+import { renderRecordPdf } from "~/server/record-pdf.server";
+test("peek", async () => {
   const r = commissioningRecordFixture();
-  for (const c of r.checklists) {
-    const v = evaluateAll(c.template, Object.fromEntries(Object.entries(c.responses).map(([k, x]) => [k, x.value])));
-    for (const [k, x] of Object.entries(v)) console.log(c.templateKey, k, x.status, x.message);
-    console.log(c.digest);
-  }
+  const pdf = await renderRecordPdf(r, { digest: recordDigest(r), verifyUrl: r.verifyUrl });
+  writeFileSync("/tmp/record.pdf", pdf);
 });

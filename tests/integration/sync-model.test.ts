@@ -1,0 +1,151 @@
+import "fake-indexeddb/auto";
+import fc from "fast-check";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { forgetLocalDb } from "~/lib/offline/db.client";
+import { readChecklist, recordEntry, saveBundle } from "~/lib/offline/store.client";
+import { syncOnce } from "~/lib/offline/sync.client";
+import { sameJson } from "~/lib/sync/protocol";
+import { startChecklists } from "~/server/checklists.server";
+import { seedLibrary } from "../../db/seeds/library.ts";
+import { appHandler, signInCookie } from "../support/app.ts";
+import { testDb } from "../support/db.ts";
+import { makeJob, makeUser } from "../support/fixtures.ts";
+
+/**
+ * A model test of offline sync: several devices edit the same checklist while apart and sync
+ * through the real /api/sync route (the production build's handler) into MariaDB, over a network
+ * that drops requests, loses answers after the server committed, duplicates requests and replays
+ * old ones. Afterwards nothing is lost, nothing is applied twice, and every device agrees with
+ * the server.
+ */
+
+const knex = testDb();
+afterAll(() => knex.destroy());
+const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
+
+const ITEMS = ["seacock", "strainer", "impeller", "thermostat"] as const;
+const valueArb = fc.oneof(
+  fc.constant({ result: "pass" }),
+  fc.constantFrom("Weeping at the flange", "Replaced", "Seized handle").map((note) => ({ result: "fail", note })),
+  fc.constant({ result: "na", note: "Not fitted on this boat" }),
+);
+type Fault = "none" | "drop" | "lose-answer" | "duplicate" | "replay-old";
+const stepArb = fc.oneof(
+  { weight: 3, arbitrary: fc.record({ kind: fc.constant("edit" as const), device: fc.nat(2), item: fc.constantFrom(...ITEMS), value: valueArb }) },
+  { weight: 2, arbitrary: fc.record({ kind: fc.constant("sync" as const), device: fc.nat(2), fault: fc.constantFrom<Fault>("none", "drop", "lose-answer", "duplicate", "replay-old") }) },
+);
+
+let app: Awaited<ReturnType<typeof appHandler>>;
+beforeAll(async () => {
+  await seedLibrary(knex);
+  app = await appHandler();
+});
+
+let run = 0;
+
+async function setUpRun() {
+  run++;
+  const lead = await makeUser(knex, "lead");
+  const techs = [await makeUser(knex, "technician"), await makeUser(knex, "technician")];
+  const job = await makeJob(knex, lead.id, techs.map((t) => t.id));
+  const [checklist] = await startChecklists(job.id, ["cooling"], lead.id);
+  const people = [techs[0]!, techs[1]!, lead];
+  const devices = await Promise.all(
+    people.map(async (p, i) => ({ name: `model-${run}-${i}`, cookie: await signInCookie(app, p.email), lastBody: null as string | null })),
+  );
+  for (const d of devices) {
+    forgetLocalDb(d.name);
+    const bundle = await (await app("/api/offline", { cookie: d.cookie })).json();
+    await saveBundle(bundle);
+  }
+  return { checklist: checklist!, devices };
+}
+
+/** A fetch through the app's handler for one device, misbehaving as the step says. */
+function network(device: { cookie: string; lastBody: string | null }, fault: Fault): typeof fetch {
+  return (async (_url: string, init: RequestInit) => {
+    const body = String(init.body);
+    const send = (b: string) => app("/api/sync", { method: "POST", body: b, headers: { "Content-Type": "application/json" }, cookie: device.cookie });
+    const previous = device.lastBody;
+    device.lastBody = body;
+    switch (fault) {
+      case "drop":
+        throw new TypeError("network dropped the request");
+      case "lose-answer":
+        await send(body);
+        throw new TypeError("the answer was lost");
+      case "duplicate":
+        await send(body);
+        return send(body);
+      case "replay-old":
+        if (previous) await send(previous);
+        return send(body);
+      default:
+        return send(body);
+    }
+  }) as typeof fetch;
+}
+
+describe("offline sync under a bad network (model test)", () => {
+  it("keeps every edit, applies each once, and converges", async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.array(stepArb, { minLength: 5, maxLength: 30 }), async (steps) => {
+        const { checklist, devices } = await setUpRun();
+        const made: { opId: string; item: string; value: unknown }[] = [];
+        for (const step of steps) {
+          const device = devices[step.device]!;
+          forgetLocalDb(device.name);
+          if (step.kind === "edit") {
+            const entry = await recordEntry(checklist, step.item, step.value, `device ${step.device}`);
+            made.push({ opId: entry.opId, item: step.item, value: step.value });
+          } else {
+            await syncOnce(network(device, step.fault));
+          }
+        }
+        // The network heals: every device syncs until nothing is left, then pulls once more.
+        for (let round = 0; round < 2; round++) {
+          for (const device of devices) {
+            forgetLocalDb(device.name);
+            expect(await syncOnce(network(device, "none"))).toMatchObject({ ok: true });
+          }
+        }
+
+        const ops = await knex("sync_ops").where({ checklist_id: checklist });
+        const history = await knex("response_history").where({ checklist_id: checklist }).orderBy("id");
+        const conflicts = await knex("sync_conflicts").where({ checklist_id: checklist });
+        const current = await knex("checklist_responses").where({ checklist_id: checklist });
+
+        // Each edit reached the server exactly once.
+        expect(ops.map((o: any) => o.op_id).sort()).toEqual(made.map((m) => m.opId).sort());
+        // No replay applied anything twice: one history row per applied operation, revisions 1..n per item.
+        expect(new Set(history.map((h: any) => h.op_id)).size).toBe(history.length);
+        for (const item of ITEMS) {
+          const revs = history.filter((h: any) => h.item_key === item).map((h: any) => h.rev);
+          expect(revs).toEqual(revs.map((_: number, i: number) => i + 1));
+        }
+        // Nothing lost: every edit is in the item's history or kept in a conflict row.
+        for (const m of made) {
+          const inHistory = history.some((h: any) => h.item_key === m.item && sameJson(parse(h.value), m.value));
+          const inConflict = conflicts.some((c: any) => c.op_id === m.opId && sameJson(parse(c.client_value), m.value));
+          expect(inHistory || inConflict, `edit ${m.opId} on ${m.item} was lost`).toBe(true);
+        }
+        // The server's value is the last applied one.
+        for (const row of current) {
+          const last = history.filter((h: any) => h.item_key === row.item_key).at(-1);
+          expect(sameJson(parse(row.value), parse(last.value))).toBe(true);
+        }
+        // Every device shows the server's state and has nothing waiting.
+        for (const device of devices) {
+          forgetLocalDb(device.name);
+          const local = (await readChecklist(checklist))!;
+          expect(local.waiting).toBe(0);
+          for (const row of current) {
+            expect(sameJson(local.responses[row.item_key]?.value, parse(row.value)), `${device.name} differs on ${row.item_key}`).toBe(true);
+            expect(local.responses[row.item_key]?.rev).toBe(row.rev);
+          }
+        }
+      }),
+      { numRuns: 25 },
+    );
+  }, 240_000);
+});
