@@ -318,7 +318,9 @@ type ImportPlan =
  */
 export function planImport(versions: readonly Pick<VersionRow, "version" | "status" | "body_sha256">[], template: Template, options: ImportOptions): ImportPlan {
   const same = versions.find((v) => v.version === template.version);
-  if (same && same.status !== "draft" && same.body_sha256 === sha256(templateBody(template))) return { action: "unchanged", version: same.version };
+  if (same && same.status !== "draft" && !options.renumber && same.body_sha256 === sha256(templateBody(template))) {
+    return { action: "unchanged", version: same.version };
+  }
   const draft = versions.find((v) => v.status === "draft");
   const next = versions.length ? Math.max(...versions.map((v) => v.version)) + (draft ? 0 : 1) : 1;
   const target = options.renumber ? next : template.version;

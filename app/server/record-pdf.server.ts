@@ -58,7 +58,7 @@ export const GOVERNING_STATEMENT =
 
 // ---- fonts, page, palette -------------------------------------------------------------------
 
-const require = createRequire(import.meta.url);
+const nodeRequire = createRequire(import.meta.url);
 const FONT_PACKAGE = "@expo-google-fonts/atkinson-hyperlegible";
 const REGULAR = "Atkinson";
 // svg-to-pdfkit finds the bold face of a family by this "-Bold" suffix.
@@ -67,8 +67,8 @@ const BOLD = "Atkinson-Bold";
 let fontFiles: { regular: Buffer; bold: Buffer } | undefined;
 function fonts() {
   fontFiles ??= {
-    regular: readFileSync(require.resolve(`${FONT_PACKAGE}/400Regular/AtkinsonHyperlegible_400Regular.ttf`)),
-    bold: readFileSync(require.resolve(`${FONT_PACKAGE}/700Bold/AtkinsonHyperlegible_700Bold.ttf`)),
+    regular: readFileSync(nodeRequire.resolve(`${FONT_PACKAGE}/400Regular/AtkinsonHyperlegible_400Regular.ttf`)),
+    bold: readFileSync(nodeRequire.resolve(`${FONT_PACKAGE}/700Bold/AtkinsonHyperlegible_700Bold.ttf`)),
   };
   return fontFiles;
 }
@@ -210,7 +210,6 @@ type PlaceSvg = (
     height: number;
     preserveAspectRatio?: string;
     fontCallback?: (family: string, bold: boolean, italic: boolean) => string;
-    warningCallback?: (message: string) => void;
   },
 ) => void;
 const placeSvgIn = svgToPdfkit as PlaceSvg;
@@ -311,9 +310,9 @@ class Writer {
    * A paragraph at x (from the left margin) in the current style. Short paragraphs move whole to
    * the next page; a long one flows across pages.
    */
-  paragraph(text: string, options: { indent?: number; width?: number; gap?: number; tnum?: boolean } = {}): void {
+  paragraph(text: string, options: { indent?: number; gap?: number; tnum?: boolean } = {}): void {
     const indent = options.indent ?? 0;
-    const width = options.width ?? this.width - indent;
+    const width = this.width - indent;
     const extra = options.tnum ? TNUM : {};
     const h = this.height(text, width, extra);
     if (this.y + h > this.bottom && h < (this.bottom - MARGIN.top) / 3) this.newPage();
@@ -336,7 +335,7 @@ class Writer {
     this.doc.text(this.printable(value), { width, lineGap: 1.5 });
   }
 
-  rule(colour = rule, weight = 0.75): void {
+  rule(colour: string, weight: number): void {
     this.doc.save().moveTo(this.left, this.y).lineTo(this.left + this.width, this.y).lineWidth(weight).strokeColor(colour).stroke().restore();
   }
 
@@ -443,14 +442,23 @@ function spread(total: number, weights: number[]): number[] {
 
 // ---- the cover ------------------------------------------------------------------------------
 
+const keyWidthIn = (width: number) => Math.min(96, width * 0.34);
+
+/** The height of one key and its value laid side by side. */
+function keyValueHeight(w: Writer, width: number, key: string, value: string): number {
+  const keyWidth = keyWidthIn(width);
+  w.style("regular", size.small + 0.5);
+  const keyHeight = w.height(key, keyWidth - 6);
+  w.style("regular", size.body);
+  return Math.max(keyHeight, w.height(value, width - keyWidth, TNUM));
+}
+
+/** Keys in a narrow soft column, values beside them; returns where the last one ends. */
 function keyValues(w: Writer, x: number, width: number, pairs: [string, string][]): number {
-  const keyWidth = Math.min(96, width * 0.34);
+  const keyWidth = keyWidthIn(width);
   let y = w.y;
   for (const [key, value] of pairs) {
-    w.style("regular", size.small + 0.5);
-    const keyHeight = w.height(key, keyWidth - 6);
-    w.style("regular", size.body);
-    const h = Math.max(keyHeight, w.height(value, width - keyWidth, TNUM));
+    const h = keyValueHeight(w, width, key, value);
     w.style("regular", size.small + 0.5, inkSoft);
     w.doc.text(w.printable(key), x, y + 1, { width: keyWidth - 6, lineGap: 1.5 });
     w.style("regular", size.body, ink);
@@ -462,7 +470,7 @@ function keyValues(w: Writer, x: number, width: number, pairs: [string, string][
 
 function boxTitle(w: Writer, x: number, width: number, title: string): void {
   w.style("bold", size.small, copper);
-  w.doc.text(w.printable(title.toUpperCase()), x, w.y, { width, characterSpacing: 0.8 });
+  w.doc.text(w.printable(title.toUpperCase()), x, w.y, { width });
   const y = w.y + 2;
   w.doc.save().moveTo(x, y).lineTo(x + width, y).lineWidth(0.75).strokeColor(copper).stroke().restore();
   w.y = y + 6;
@@ -501,9 +509,9 @@ async function cover(w: Writer, record: CommissioningRecord, options: RecordPdfO
   const { doc } = w;
   const { vessel, job } = record;
   w.y = MARGIN.top - 10;
-  w.style("bold", size.small + 1, copper);
-  doc.text(w.printable(record.yardName.toUpperCase()), w.left, w.y, { characterSpacing: 1.2 });
-  w.y += 4;
+  w.style("bold", size.label + 0.5, copper);
+  doc.text(w.printable(record.yardName), w.left, w.y);
+  w.y += 2;
   w.style("bold", size.title, ink);
   doc.text("Commissioning record", w.left, w.y);
   w.style("regular", size.vessel, ink);
@@ -617,7 +625,7 @@ async function verification(w: Writer, { digest, verifyUrl }: RecordPdfOptions):
 
   let y = top + pad;
   w.style("bold", size.small, copper);
-  doc.text("RECORD DIGEST (SHA-256)", textX, y, { width: textWidth, characterSpacing: 0.8 });
+  doc.text("RECORD DIGEST (SHA-256)", textX, y, { width: textWidth });
   y += 13;
   // One unbroken line, so it can be read out, compared and searched for whole.
   w.style("bold", 9.5, ink);
@@ -647,7 +655,7 @@ function checklistHeader(w: Writer, checklist: RecordChecklist, index: number, c
   const { doc } = w;
   const t = checklist.template;
   w.style("bold", size.small + 0.5, copper);
-  doc.text(`CHECKLIST ${index + 1} OF ${count}`, w.left, w.y, { characterSpacing: 1 });
+  doc.text(`CHECKLIST ${index + 1} OF ${count}`, w.left, w.y);
   w.y += 2;
   w.style("bold", size.h1, ink);
   w.paragraph(t.title);
@@ -666,20 +674,19 @@ function checklistHeader(w: Writer, checklist: RecordChecklist, index: number, c
     ["In this checklist", tallyWords(tally(checklist))],
   ];
   const pad = 9;
-  w.style("regular", size.body);
   const inner = w.width - 2 * pad;
-  const height = sum(pairs.map(([k, v]) => Math.max(w.height(k, 130), w.height(v, inner - 130, TNUM)) + 3)) + 2 * pad - 3;
+  const height = sum(pairs.map(([k, v]) => keyValueHeight(w, inner, k, v) + 3)) - 3 + 2 * pad;
   w.ensure(height);
   const top = w.y;
   doc.save().rect(w.left, top, w.width, height).fill(paper).restore();
   w.y = top + pad;
-  const end = keyValues(w, w.left + pad, inner, pairs.map(([k, v]) => [k, v]));
-  w.y = Math.max(end - 3 + pad, top + height) + 14;
+  keyValues(w, w.left + pad, inner, pairs);
+  w.y = top + height + 14;
   doc.x = w.left;
 }
 
-function sectionHeading(w: Writer, index: number, title: string): void {
-  w.ensure(60);
+function sectionHeading(w: Writer, index: number, title: string, firstItemNeeds: number): void {
+  w.ensure(36 + firstItemNeeds);
   w.y += 6;
   w.style("bold", size.h2, ink);
   w.doc.text(w.printable(`${index + 1}   ${title}`), w.left, w.y, { width: w.width });
@@ -708,9 +715,7 @@ function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
   const x = w.left + GUTTER;
   const width = w.width - GUTTER;
 
-  w.style("bold", size.label);
-  const labelHeight = w.height(item.label, width);
-  w.ensure(labelHeight + 44 + leadIn(w, item, reading, width));
+  w.ensure(itemNeeds(w, ctx, item));
   const top = w.y;
   w.style("regular", size.small + 0.5, inkSoft);
   doc.text(number, w.left, top + 1.5, { width: GUTTER - 4, ...TNUM });
@@ -779,7 +784,14 @@ function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
   w.doc.save().moveTo(x, w.y - 4.5).lineTo(w.left + w.width, w.y - 4.5).lineWidth(0.4).strokeColor(rule).stroke().restore();
 }
 
-/** Room for the first of an item's content, so its heading never ends a page alone. */
+/** Room for an item's heading and the first of its content, so a heading never ends a page alone. */
+function itemNeeds(w: Writer, ctx: ChecklistContext, item: Item): number {
+  const width = w.width - GUTTER;
+  const verdict = evaluate(item, ctx.responses[item.key], { template: ctx.checklist.template, responses: ctx.responses });
+  w.style("bold", size.label);
+  return w.height(item.label, width) + 44 + leadIn(w, item, readVerdict(item, verdict), width);
+}
+
 function leadIn(w: Writer, item: Item, reading: Reading, width: number): number {
   w.style("regular", size.body);
   const detail = reading.detail ? w.height(reading.detail, width) : 0;
@@ -1043,7 +1055,6 @@ function placeSvg(w: Writer, svg: string, indent: number, width: number): void {
     height,
     preserveAspectRatio: "xMinYMin meet",
     fontCallback: (_family, bold) => (bold ? BOLD : REGULAR),
-    warningCallback: () => {},
   });
   w.y += height + 8;
   w.doc.x = w.left;
@@ -1057,7 +1068,7 @@ function checklistPages(w: Writer, checklist: RecordChecklist, index: number, co
   checklist.template.sections.forEach((section, s) => section.items.forEach((item, i) => numbers.set(item.key, `${s + 1}.${i + 1}`)));
   const ctx: ChecklistContext = { checklist, responses: valuesOf(checklist), numbers };
   checklist.template.sections.forEach((section, s) => {
-    sectionHeading(w, s, section.title);
+    sectionHeading(w, s, section.title, itemNeeds(w, ctx, section.items[0]));
     section.items.forEach((item) => itemBlock(w, ctx, item));
   });
 }
@@ -1075,11 +1086,11 @@ function pageFurniture(w: Writer, record: CommissioningRecord): void {
     const pageNumber = i - range.start + 1;
     if (pageNumber > 1) {
       w.style("regular", size.small, inkSoft);
-      doc.text(w.printable(`${record.vessel.name} · Commissioning record`), MARGIN.left, 34, { width: w.width / 2, lineBreak: false });
-      doc.text(w.printable(w.pageTitles[i - range.start] ?? ""), MARGIN.left + w.width / 2, 34, { width: w.width / 2, align: "right", lineBreak: false });
+      doc.text(w.printable(`${record.yardName} · ${record.vessel.name} · Commissioning record`), MARGIN.left, 34, { width: w.width * 0.6, lineBreak: false });
+      doc.text(w.printable(w.pageTitles[i - range.start] ?? ""), MARGIN.left + w.width * 0.6, 34, { width: w.width * 0.4, align: "right", lineBreak: false });
       doc.save().moveTo(MARGIN.left, 47).lineTo(MARGIN.left + w.width, 47).lineWidth(0.5).strokeColor(rule).stroke().restore();
     }
-    const footTop = doc.page.height - MARGIN.bottom + 18;
+    const footTop = doc.page.height - MARGIN.bottom + 14;
     doc.save().moveTo(MARGIN.left, footTop - 6).lineTo(MARGIN.left + w.width, footTop - 6).lineWidth(0.5).strokeColor(rule).stroke().restore();
     w.style("regular", size.tiny, inkSoft);
     doc.text(GOVERNING_STATEMENT, MARGIN.left, footTop, { width: w.width, lineGap: 1 });

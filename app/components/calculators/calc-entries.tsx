@@ -148,35 +148,37 @@ export function withPositionsUnit(entry: Extract<Entry, { shape: "grid" }>, unit
   return { ...entry, positions: { texts: entry.positions.texts.map((t) => convertText(t, from, unit)), unit } };
 }
 
-/** The length unit of a system: inches (thou and feet kept) or millimetres (feet become metres). */
-function lengthIn(system: LengthSystem, unit: Unit): Unit {
-  const feet = unit === "ft" || unit === "m";
+/**
+ * The length unit of a system for an input whose own unit is `specUnit`: millimetres (metres for
+ * feet), or back to inches (thou kept, feet for metres). Inputs the library takes in millimetres
+ * (ISO fits, DIN keys, a metric thread pitch) stay in millimetres: their standards are metric.
+ */
+function lengthIn(system: LengthSystem, specUnit: Unit, current: Unit): Unit {
+  const feet = specUnit === "ft" || specUnit === "m";
   if (system === "metric") return feet ? "m" : "mm";
-  return feet ? "ft" : unit === "thou" ? "thou" : "in";
+  if (feet) return "ft";
+  if (specUnit === "mm") return "mm";
+  return current === "thou" ? "thou" : "in";
 }
 
 /** Every length entry switched to inches or to millimetres. */
-export function withLengthSystem(entries: Entries, system: LengthSystem): Entries {
+export function withLengthSystem(entries: Entries, specs: Record<string, CalcInputSpec>, system: LengthSystem): Entries {
   const next: Entries = {};
   for (const [name, entry] of Object.entries(entries)) {
+    const specUnit = specs[name]?.unit;
     let updated = entry;
-    if (entry.shape !== "text" && entry.unit && dimensionOf(entry.unit) === "length") updated = withUnit(entry, lengthIn(system, entry.unit));
-    if (updated.shape === "grid" && updated.positions) updated = withPositionsUnit(updated, lengthIn(system, updated.positions.unit));
+    if (specUnit && entry.shape !== "text" && entry.unit && dimensionOf(entry.unit) === "length") {
+      updated = withUnit(entry, lengthIn(system, specUnit, entry.unit));
+    }
+    if (updated.shape === "grid" && updated.positions) updated = withPositionsUnit(updated, lengthIn(system, "in", updated.positions.unit));
     next[name] = updated;
   }
   return next;
 }
 
-/** "inch" when every length is in inches, thou or feet; "metric" when all are mm or m; otherwise mixed. */
-export function lengthSystemOf(entries: Entries): LengthSystem | "mixed" | "none" {
-  const units = Object.values(entries).flatMap((e) => [
-    ...(e.shape !== "text" && e.unit && dimensionOf(e.unit) === "length" ? [e.unit] : []),
-    ...(e.shape === "grid" && e.positions ? [e.positions.unit] : []),
-  ]);
-  if (units.length === 0) return "none";
-  if (units.every((u) => u === "in" || u === "thou" || u === "ft")) return "inch";
-  if (units.every((u) => u === "mm" || u === "m")) return "metric";
-  return "mixed";
+/** Whether any input is a length the library takes in inches or feet, so the inches-or-millimetres switch has something to do. */
+export function hasInchLengths(specs: Record<string, CalcInputSpec>): boolean {
+  return Object.values(specs).some((spec) => spec.unit === "in" || spec.unit === "ft");
 }
 
 // ---- reading what was typed ----------------------------------------------------------------

@@ -12,7 +12,7 @@ import { convert, dimensionOf, type Unit } from "~/lib/calc";
 import { CouplingFaceDiagram } from "./coupling-face-diagram";
 import { MountMovesDiagram } from "./mount-moves-diagram";
 import { RunoutDiagram } from "./runout-diagram";
-import { SeaTrialDiagram } from "./sea-trial-diagram";
+import { SeaTrialDiagram, type SeaTrialPoint } from "./sea-trial-diagram";
 import type { LengthUnit } from "./svg-kit";
 
 type Inputs = Record<string, CalcInput | undefined>;
@@ -48,12 +48,19 @@ function clockIn(input: CalcInput | undefined): ClockGapsIn | undefined {
 
 const isObject = (detail: unknown): detail is Record<string, unknown> => typeof detail === "object" && detail !== null;
 
+export interface DiagramOptions {
+  /** How lengths are written on the diagram (the library's results are in inches). */
+  lengthUnit?: LengthUnit;
+  /** Runs of a sea trial (engine rpm and speed) to plot on the loading diagram. */
+  speedRuns?: SeaTrialPoint[];
+}
+
 /**
  * The diagram for a registry outcome, given the calculation's name, its `detail` and the inputs
  * it ran on, or null when the calculation has no diagram (or the inputs no longer fit it). Used
  * by the calculators and by a checklist's calc items.
  */
-export function diagramFor(calcName: string, detail: unknown, inputs: Inputs, options: { lengthUnit?: LengthUnit } = {}): ReactElement | null {
+export function diagramFor(calcName: string, detail: unknown, inputs: Inputs, options: DiagramOptions = {}): ReactElement | null {
   if (!isObject(detail)) return null;
   const { lengthUnit } = options;
   switch (calcName) {
@@ -103,6 +110,7 @@ export function diagramFor(calcName: string, detail: unknown, inputs: Inputs, op
           ratedRpmMax={numberIn(inputs.ratedRpmMax, "rpm")}
           wotRpm={numberIn(inputs.wotRpm, "rpm")}
           loading={detail as unknown as SeaTrialLoadingResult}
+          points={options.speedRuns}
         />
       );
     case "propSlip": {

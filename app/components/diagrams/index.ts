@@ -13,4 +13,5 @@ export type { StraighteningDiagramProps } from "./straightening-diagram";
 export { SeaTrialDiagram } from "./sea-trial-diagram";
 export type { SeaTrialDiagramProps, SeaTrialPoint } from "./sea-trial-diagram";
 export { diagramFor } from "./for-calc";
+export type { DiagramOptions } from "./for-calc";
 export { formatLength, type LengthUnit } from "./svg-kit";

@@ -44,6 +44,7 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
   // Characters per line under each bar: the narrowest gap between neighbouring stations, at about 6.5 px a character.
   const gaps = stations.slice(1).map((_, i) => x(i + 1) - x(i));
   const labelChars = Math.max(8, Math.floor(Math.min(RIGHT - LEFT, ...gaps) / 6.5));
+  const nameLines = Math.max(...stations.map((_, i) => wrap(nameOf(i), labelChars).length));
   const worstName = nameOf(worstStation);
   const verdictWords = (name: string) =>
     `${pass ? "Within the limit" : "Over the limit"}: worst TIR ${len(maxTirIn)} at ${name}, limit ${len(limitTirIn)}`;
@@ -98,8 +99,8 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
             {wrap(nameOf(i), labelChars).map((line, l) => (
               <Label key={l} x={r(x(i))} y={BOTTOM + 17 + l * 14} text={line} size={12} anchor="middle" bold />
             ))}
-            {showPositions && <Label x={r(x(i))} y={BOTTOM + 47} text={`at ${len(s.positionIn)}`} size={12} anchor="middle" fill={colours.inkSoft} />}
-            <Label x={r(x(i))} y={BOTTOM + (showPositions ? 61 : 47)} text={`high spot ${angleOf(i)}`} size={12} anchor="middle" fill={colours.inkSoft} />
+            {showPositions && <Label x={r(x(i))} y={BOTTOM + 19 + nameLines * 14} text={`at ${len(s.positionIn)}`} size={12} anchor="middle" fill={colours.inkSoft} />}
+            <Label x={r(x(i))} y={BOTTOM + 19 + (nameLines + (showPositions ? 1 : 0)) * 14} text={`high spot ${angleOf(i)}`} size={12} anchor="middle" fill={colours.inkSoft} />
             <path d={`M ${r(x(i) - 6)} ${BOTTOM + 68} L ${r(x(i) + 6)} ${BOTTOM + 68} L ${r(x(i))} ${BOTTOM + 76} Z`} fill={colours.ink} />
           </g>
         );

@@ -34,8 +34,8 @@ export function StraighteningDiagram({ history, limitTirIn, attemptLabels, lengt
 
   const reached = reachedLimitAt !== undefined;
   const summary = reached
-    ? `Within the ${len(limitTirIn)} limit at ${nameOf(reachedLimitAt)} (${len(attempts[reachedLimitAt].tirIn)})`
-    : `Not yet within the ${len(limitTirIn)} limit: best ${len(bestTirIn)} at ${nameOf(bestAttempt)}`;
+    ? `Within the ${len(limitTirIn)} limit: ${len(attempts[reachedLimitAt].tirIn)} (${nameOf(reachedLimitAt)})`
+    : `Not yet within the ${len(limitTirIn)} limit: best ${len(bestTirIn)} (${nameOf(bestAttempt)})`;
   const title = `Straightening attempts: worst-station TIR after each. ${attempts
     .map((a, i) => `${nameOf(i)}: ${len(a.tirIn)}`)
     .join(", ")}. ${summary}.`;

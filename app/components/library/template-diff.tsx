@@ -1,5 +1,6 @@
-import { describeRule, phaseLabels, type Phase, type Rule } from "~/lib/templates";
+import { describeRule, phaseLabels, unitSymbol, type Item, type Phase, type Rule } from "~/lib/templates";
 import type { FieldChange, ItemChange, ItemPlace, TemplateDiff } from "~/lib/templates/diff";
+import { kindNames } from "./kind-names.ts";
 
 const fieldNames: Record<string, string> = {
   title: "Title",
@@ -70,6 +71,24 @@ function Changes({ fields }: { fields: FieldChange[] }) {
   );
 }
 
+/** An added or removed item in a line: its kind and, for a reading, what it accepts. */
+function ItemSummary({ item }: { item: Item }) {
+  const rule = "rule" in item && item.rule ? describeRule(item.rule) : null;
+  return (
+    <p className="text-sm">
+      {kindNames[item.kind]}
+      {"unit" in item && <>, in {unitSymbol(item.unit) || item.unit}</>}
+      {rule && (
+        <>
+          {" "}
+          · Accept: <span className="num">{rule}</span>
+        </>
+      )}
+      {item.kind === "calc" && <> · {item.calc}</>}
+    </p>
+  );
+}
+
 const place = (p: ItemPlace) => `${p.sectionTitle}, place ${p.position}`;
 
 const marks = {
@@ -107,6 +126,7 @@ function ItemEntry({ change }: { change: ItemChange }) {
           </>
         )}
       </p>
+      {change.item && <ItemSummary item={change.item} />}
       {change.fields.length > 0 && <Changes fields={change.fields} />}
     </li>
   );

@@ -16,7 +16,7 @@ export const operationSchema = z.strictObject({
   seq: z.number({ error: "must be a number" }).int().nonnegative(),
   checklistId: z.uuid({ error: "must be a UUID" }),
   itemKey: z.string({ error: "must be a string" }).min(1).max(80),
-  value: z.unknown().refine((v) => v !== undefined, { error: "is required" }),
+  value: z.json({ error: "must be a JSON value" }),
   baseRev: z.number({ error: "must be a number" }).int().nonnegative(),
   at: z.iso.datetime({ offset: true, error: "must be an ISO 8601 date and time" }),
   /** Conflict ids this operation decides (a resolution is an ordinary operation). */

@@ -34,6 +34,8 @@ export interface ItemChange {
   to?: ItemPlace;
   moved: boolean;
   fields: FieldChange[];
+  /** The whole item, when it was added or removed: there is nothing to compare it with. */
+  item?: Item;
 }
 
 export interface SectionChange {
@@ -144,7 +146,7 @@ function diffItems(from: Template, to: Template): ItemChange[] {
 
   const entries = [...after.values()].map(({ item, place }): ItemChange => {
     const old = before.get(item.key);
-    if (!old) return { key: item.key, label: item.label, kind: item.kind, status: "added", to: place, moved: false, fields: [] };
+    if (!old) return { key: item.key, label: item.label, kind: item.kind, status: "added", to: place, moved: false, fields: [], item };
     return {
       key: item.key,
       label: item.label,
@@ -167,6 +169,7 @@ function diffItems(from: Template, to: Template): ItemChange[] {
       from: place,
       moved: false,
       fields: [],
+      item,
       anchor: precedingKept(fromKeys, item.key, new Set(after.keys())),
     }));
   return interleave(entries, removed);

@@ -1,5 +1,6 @@
 import { dimensionOf, isUnit, units, type Unit } from "~/lib/calc/units";
 import { calcBindingProblems, calcDefinition } from "./calc-inputs";
+import { sameValue } from "./diff";
 import { formatPath, parseTemplate, type TemplateParse, type TemplateProblem } from "./load";
 import type { CalcBinding, CalcItem, Item, ItemKind, Phase, Template } from "./schema";
 
@@ -319,9 +320,10 @@ export function checkDraft(state: EditorState): TemplateParse {
   return parseTemplate(toTemplateInput(state));
 }
 
-/** True when the state says what the template says (ids and typing aside). */
+/** True when the draft, read by the schema, is the template (ids, spacing and typing aside). */
 export function sameAsTemplate(state: EditorState, template: Template): boolean {
-  return JSON.stringify(toTemplateInput(state)) === JSON.stringify(toTemplateInput(fromTemplate(template)));
+  const parsed = checkDraft(state);
+  return parsed.ok && sameValue(parsed.template, template);
 }
 
 // ---- problems at fields --------------------------------------------------------------------

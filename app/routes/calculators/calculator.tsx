@@ -1,4 +1,39 @@
-// Placeholder until this screen is built.
-export default function Placeholder() {
-  return <p>Coming soon.</p>;
+import { Link } from "react-router";
+import type { Route } from "./+types/calculator";
+import { PageHeader } from "~/components/app-shell";
+import { Calculator } from "~/components/calculators/calculator";
+import { calculations } from "~/lib/calc";
+
+const definitionOf = (name: string) => (Object.hasOwn(calculations, name) ? calculations[name] : undefined);
+
+// No loader or action: the calculation runs in the browser and must work with no connection.
+export const meta: Route.MetaFunction = ({ params }) => [
+  { title: `${definitionOf(params.name)?.title ?? "No such calculator"} · Sternpost` },
+];
+
+export default function CalculatorPage({ params }: Route.ComponentProps) {
+  const definition = definitionOf(params.name);
+  return (
+    <>
+      <p className="mb-1">
+        <Link to="/calculators" className="font-bold text-harbour underline">
+          ← Calculators
+        </Link>
+      </p>
+      {definition ? (
+        <>
+          <PageHeader title={definition.title} />
+          <p className="-mt-4 mb-6 text-ink-soft">{definition.summary}</p>
+          <Calculator key={definition.name} definition={definition} />
+        </>
+      ) : (
+        <>
+          <PageHeader title="No such calculator" />
+          <p role="alert" className="card">
+            There is no calculator called “{params.name}”. Choose one from the <Link to="/calculators" className="font-bold text-harbour underline">list of calculators</Link>.
+          </p>
+        </>
+      )}
+    </>
+  );
 }

@@ -1,4 +1,53 @@
-// Placeholder until this screen is built.
-export default function Placeholder() {
-  return <p>Coming soon.</p>;
+import { data, Link, redirect } from "react-router";
+import type { Route } from "./+types/edit";
+import { TemplateEditor } from "~/components/library/editor/template-editor";
+import { LibraryError, readableVersion, saveDraft } from "~/server/library.server";
+import { invariantFound, requireCapability } from "~/server/permissions.server";
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `Editing ${data?.template.title ?? "a draft"} · Sternpost` }];
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireCapability(request, "library:edit");
+  const found = await readableVersion(user, params.key, Number(params.version));
+  invariantFound(found, "There is no such template version.");
+  // A published or retired version never changes: its page offers a new draft instead.
+  if (found.status !== "draft") throw redirect(`/library/${params.key}/${params.version}`);
+  return { template: found.template };
+}
+
+export async function action({ request, params }: Route.ActionArgs) {
+  const user = await requireCapability(request, "library:edit");
+  const form = await request.formData();
+  let body: unknown;
+  try {
+    body = JSON.parse(String(form.get("body") ?? ""));
+  } catch {
+    return data({ ok: false as const, problems: [{ path: "", message: "The draft did not arrive as JSON." }] }, { status: 400 });
+  }
+  try {
+    const result = await saveDraft(params.key, Number(params.version), body, user.id);
+    if (!result.ok) return data(result, { status: 400 });
+  } catch (error) {
+    if (error instanceof LibraryError) return data({ ok: false as const, errors: [error.message] }, { status: 409 });
+    throw error;
+  }
+  if (form.get("intent") === "save-review") return redirect(`/library/${params.key}/${params.version}`);
+  return { ok: true as const };
+}
+
+export default function EditDraft({ loaderData, params }: Route.ComponentProps) {
+  const { template } = loaderData;
+  return (
+    <>
+      <p className="mb-1">
+        <Link to={`/library/${params.key}/${params.version}`} className="font-bold text-harbour underline">
+          ← Version {params.version} of {template.title}
+        </Link>
+      </p>
+      <h1 className="mb-4 text-3xl font-bold">
+        Editing the draft of version {params.version}
+      </h1>
+      <TemplateEditor key={`${params.key}-${params.version}`} saved={template} />
+    </>
+  );
 }

@@ -79,6 +79,8 @@ function jobsWord(n: number) {
   return `${n} job${n === 1 ? "" : "s"}`;
 }
 
+const keep = (n: number) => (n === 1 ? "keeps" : "keep");
+
 export default function TemplateVersion({ loaderData, actionData }: Route.ComponentProps) {
   const { template, entry, newestPublished, hasDraft, others, diff, fallback, canEdit } = loaderData;
   const previous = others.find((o) => o.version < template.version);
@@ -132,7 +134,9 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
           <p>No job uses this version.</p>
         ) : (
           <>
-            <p>{jobsWord(entry.jobCount)} started from this version keep it, whatever is published later.</p>
+            <p>
+              {jobsWord(entry.jobCount)} started from this version {keep(entry.jobCount)} it, whatever is published later.
+            </p>
             <ul className="mt-2 flex flex-col gap-1">
               {entry.jobs.map((j) => (
                 <li key={j.checklistId}>
@@ -164,7 +168,10 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
                 <p>
                   Version {template.version} will never change again, and new jobs will start from it.
                   {onPrevious && onPrevious.jobCount > 0 && (
-                    <> The {jobsWord(onPrevious.jobCount)} on version {onPrevious.version} keep version {onPrevious.version}.</>
+                    <>
+                      {" "}
+                      The {jobsWord(onPrevious.jobCount)} on version {onPrevious.version} {keep(onPrevious.jobCount)} version {onPrevious.version}.
+                    </>
                   )}
                 </p>
               </TwoStepButton>
@@ -198,7 +205,7 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
               <Form method="post" className="contents">
                 <TwoStepButton label={`Retire version ${template.version}…`} confirmLabel={`Retire version ${template.version}`} danger submit={{ name: "intent", value: "retire" }}>
                   <p>
-                    No new job will start from version {template.version}; the {jobsWord(entry.jobCount)} on it keep it.{" "}
+                    No new job will start from version {template.version}; the {jobsWord(entry.jobCount)} on it {keep(entry.jobCount)} it.{" "}
                     {template.version === newestPublished &&
                       (fallback !== null ? (
                         <strong>New jobs will start from version {fallback} again.</strong>

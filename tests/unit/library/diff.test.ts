@@ -39,6 +39,7 @@ describe("differences between two versions", () => {
         to: { sectionKey: "final-alignment", sectionTitle: "Final alignment afloat", position: 3 },
         moved: false,
         fields: [],
+        item: { kind: "measure", key: "coupling-bolt-torque", label: "Coupling bolt torque", required: true, unit: "lbfFt", rule: { nominal: 40, tolerance: 2, unit: "lbfFt" } },
       },
     ]);
     expect(diff.counts).toEqual({ added: 1, removed: 0, moved: 0, changed: 0 });
@@ -51,7 +52,16 @@ describe("differences between two versions", () => {
     const v2 = edited(v1, (t) => t.sections[0].items.splice(1, 1));
     const diff = diffTemplates(v1, v2);
     expect(diff.items).toEqual([
-      { key: "b", label: "Check b", kind: "check", status: "removed", from: { sectionKey: "one", sectionTitle: "One", position: 2 }, moved: false, fields: [] },
+      {
+        key: "b",
+        label: "Check b",
+        kind: "check",
+        status: "removed",
+        from: { sectionKey: "one", sectionTitle: "One", position: 2 },
+        moved: false,
+        fields: [],
+        item: v1.sections[0].items[1],
+      },
     ]);
   });
 

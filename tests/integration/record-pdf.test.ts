@@ -1,0 +1,126 @@
+import { execFileSync } from "node:child_process";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { afterAll, beforeAll, describe, expect, test } from "vitest";
+import { recordDigest } from "~/lib/record/digest.server";
+import type { CommissioningRecord } from "~/lib/record/types";
+import { GOVERNING_STATEMENT, renderRecordPdf } from "~/server/record-pdf.server";
+import { commissioningRecordFixture } from "../support/record-fixture";
+
+// No database here: the record is plain data. It sits with the integration tests because it reads
+// the PDF back with Debian's poppler-utils (pdftotext, pdffonts, pdfinfo), as a surveyor's tools would.
+
+let dir: string;
+let record: CommissioningRecord;
+let digest: string;
+let text: string;
+let fonts: string;
+let info: string;
+
+/** 5 mm in points (72 pt to the inch, 25.4 mm to the inch). */
+const MM5 = (5 / 25.4) * 72;
+
+const poppler = (tool: string, ...args: string[]) => execFileSync(tool, args, { encoding: "utf8" });
+
+beforeAll(async () => {
+  dir = mkdtempSync(join(tmpdir(), "sternpost-record-"));
+  record = commissioningRecordFixture();
+  // A character the font has no glyph for, in a note: it must come out in a form it has.
+  const bearing = record.checklists[0].responses["stern-bearing"].value as { note: string };
+  bearing.note += " Bilge checked for CO₂ extinguisher discharge: none.";
+  digest = recordDigest(record);
+  const pdf = await renderRecordPdf(record, { digest, verifyUrl: record.verifyUrl });
+  const file = join(dir, "record.pdf");
+  writeFileSync(file, pdf);
+  text = poppler("pdftotext", "-layout", "-enc", "UTF-8", file, "-");
+  fonts = poppler("pdffonts", file);
+  info = poppler("pdfinfo", file);
+}, 60_000);
+
+afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+describe("the commissioning record PDF", () => {
+  test("parses as an A4 PDF of several pages", () => {
+    expect(info).toMatch(/Page size:\s+595\.28 x 841\.89 pts \(A4\)/);
+    expect(Number(/Pages:\s+(\d+)/.exec(info)?.[1])).toBeGreaterThan(3);
+    expect(info).toMatch(/Title:\s+Commissioning record: Tern of Helvick/);
+  });
+
+  test("embeds the Atkinson Hyperlegible regular and bold faces, and no other font", () => {
+    const rows = fonts.split("\n").slice(2).filter((line) => line.trim());
+    expect(rows.map((row) => row.split(/\s+/)[0].replace(/^[A-Z]{6}\+/, "")).sort()).toEqual([
+      "AtkinsonHyperlegible-Bold",
+      "AtkinsonHyperlegible-Regular",
+    ]);
+    // pdffonts columns: name, type (two words), encoding, emb, sub, uni, object, generation.
+    for (const row of rows) expect(row).toMatch(/CID TrueType\s+Identity-H\s+yes\s+yes\s+yes/);
+  });
+
+  test("names the yard, the vessel and the installed equipment", () => {
+    for (const words of ["Kittiwake Slip", "Tern of Helvick", "KSL31007F405", "Declan Ó Briain", "D480-0041977", "2.47 : 1", "Róisín Keohane"]) {
+      expect(text).toContain(words);
+    }
+  });
+
+  test("carries the record's digest, each checklist's digest and the verification link", () => {
+    expect(digest).toMatch(/^[0-9a-f]{64}$/);
+    expect(text).toContain(digest);
+    for (const checklist of record.checklists) expect(text).toContain(checklist.digest);
+    expect(text).toContain(record.verifyUrl);
+  });
+
+  test("shows the readings of every attempt, with who took them and when", () => {
+    // The second straightening set, mid-length at 180° (an earlier attempt, kept in the record).
+    expect(text).toMatch(/Attempt 2 of 3 · values in in · Niamh Forde, 12 May 2025, \d\d:\d\d UTC/);
+    expect(text).toMatch(/Mid-length\s+0\s+0\.0015\s+0\.0035\s+0\.002/);
+    // A measure entered in thousandths, shown as entered and in the rule's unit.
+    expect(text).toMatch(/2\.4 thou\s+0\.0024 in/);
+    // A face-gap set in thou, then the computed angularity with its verdict.
+    expect(text).toMatch(/Gap\s+5\s+3\.5\s+4\.5\s+4/);
+  });
+
+  test("gives each verdict in words, with the rule and the corrective action", () => {
+    expect(text).toContain("Outside limit, corrective action recorded");
+    expect(text).toMatch(/Rule: between 0 in and 0\.002 in/);
+    expect(text).toContain("Corrective action: Spigot runout is in the supplied coupling itself");
+    expect(text).toContain("Failed, action recorded");
+    expect(text).toContain("Earlier, revision 1: Failed (Niamh Forde");
+    expect(text).toContain("Within limit");
+  });
+
+  test("includes computed results, their diagrams, comments and photo digests", () => {
+    expect(text).toMatch(/worst TIR\s+0\.0015 in/);
+    expect(text).toContain("Runout along the shaft"); // drawn by the diagram component
+    expect(text).toContain("Review comment, Róisín Keohane");
+    for (const photo of record.checklists.flatMap((c) => c.photos)) expect(text).toContain(photo.sha256);
+  });
+
+  test("writes a character the font lacks in a form it has", () => {
+    expect(text).toContain("CO2 extinguisher");
+  });
+
+  test("says on every page what governs, with the record id and the page number", () => {
+    const pages = text.split("\f").filter((page) => page.trim());
+    const statementStart = GOVERNING_STATEMENT.slice(0, 40);
+    pages.forEach((page, i) => {
+      expect(page).toContain(statementStart);
+      expect(page).toContain(`Record ${record.record.id}`);
+      expect(page).toContain(`Page ${i + 1} of ${pages.length}`);
+    });
+  });
+
+  test("keeps every word inside the side margins and off the last 5 mm of the paper", () => {
+    const file = join(dir, "record.pdf");
+    const boxes = poppler("pdftotext", "-bbox", file, "-");
+    const words = [...boxes.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">/g)];
+    expect(words.length).toBeGreaterThan(1000);
+    for (const [, xMin, yMin, xMax, yMax] of words) {
+      // Words inside the 56 pt side margins; header and footer in the top and bottom margins.
+      expect(Number(xMin)).toBeGreaterThanOrEqual(55);
+      expect(Number(xMax)).toBeLessThanOrEqual(595.28 - 55);
+      expect(Number(yMin)).toBeGreaterThanOrEqual(MM5);
+      expect(Number(yMax)).toBeLessThanOrEqual(841.89 - MM5);
+    }
+  });
+});
