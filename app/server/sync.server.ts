@@ -5,12 +5,15 @@ import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { db } from "./db.server.ts";
 
 interface ChecklistAccess {
-  id: string;
   state: string;
   template: Template;
   canView: boolean;
   canFill: boolean;
 }
+
+const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
+const reject = (op: Operation, reason: string): OpResult => ({ opId: op.opId, status: "rejected", reason });
+const itemId = (checklistId: string, itemKey: string) => `${checklistId}|${itemKey}`;
 
 /** The checklists of the jobs this person may see (the scope of what they pull). */
 function visibleChecklists(knex: Knex, actor: Actor) {
@@ -21,22 +24,25 @@ function visibleChecklists(knex: Knex, actor: Actor) {
   return q.whereRaw("1 = 0");
 }
 
-async function loadAccess(trx: Knex.Transaction, actor: Actor, checklistId: string): Promise<ChecklistAccess | null> {
-  const row = await trx("job_checklists as c")
+/** Who may do what on each checklist the batch touches, read in two queries. */
+async function loadAccess(trx: Knex.Transaction, actor: Actor, checklistIds: string[]): Promise<Map<string, ChecklistAccess>> {
+  const rows = await trx("job_checklists as c")
     .join("template_versions as t", "t.id", "c.template_version_id")
     .join("jobs as j", "j.id", "c.job_id")
-    .where("c.id", checklistId)
-    .first("c.id", "c.state", "t.body", "j.id as job_id", "j.lead_id");
-  if (!row) return null;
-  const technicianIds: number[] = await trx("job_technicians").where({ job_id: row.job_id }).pluck("user_id");
-  const job = { leadId: row.lead_id, technicianIds };
-  return { id: row.id, state: row.state, template: JSON.parse(row.body), canView: canViewJob(actor, job), canFill: canFillJob(actor, job) };
+    .whereIn("c.id", checklistIds)
+    .select("c.id", "c.state", "t.body", "j.id as job_id", "j.lead_id");
+  const crew = await trx("job_technicians").whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))]).select("job_id", "user_id");
+  const templates = new Map<string, Template>();
+  return new Map(
+    rows.map((r: any) => {
+      const job = { leadId: r.lead_id, technicianIds: crew.filter((c: any) => c.job_id === r.job_id).map((c: any) => c.user_id) };
+      if (!templates.has(r.body)) templates.set(r.body, JSON.parse(r.body));
+      return [r.id, { state: r.state, template: templates.get(r.body)!, canView: canViewJob(actor, job), canFill: canFillJob(actor, job) }];
+    }),
+  );
 }
 
-const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
-const reject = (op: Operation, reason: string): OpResult => ({ opId: op.opId, status: "rejected", reason });
-
-async function applyOne(trx: Knex.Transaction, actor: Actor, deviceId: string, op: Operation, changeSeq: number, access: ChecklistAccess | null): Promise<OpResult> {
+function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
   if (!access || !access.canView) return reject(op, "This checklist is not on one of your jobs.");
   if (!access.canFill) return reject(op, "Only the job's technicians and its lead record entries.");
   if (access.state === "submitted") return reject(op, "The checklist has been submitted for review and takes no more entries.");
@@ -48,46 +54,19 @@ async function applyOne(trx: Knex.Transaction, actor: Actor, deviceId: string, o
     const first = parsed.error.issues[0]!;
     return reject(op, `The entry for "${item.label}" is not valid: ${[...first.path].join(".") || "value"} ${first.message}.`);
   }
-
-  const current = await trx("checklist_responses").where({ checklist_id: op.checklistId, item_key: op.itemKey }).forUpdate().first();
-  const currentRev: number = current?.rev ?? 0;
-  const currentValue = current ? json(current.value) : undefined;
-  const now = new Date();
-
-  if (op.baseRev === currentRev || (current && sameJson(currentValue, op.value))) {
-    const unchanged = op.baseRev !== currentRev; // the same value as the server's: nothing to write
-    const rev = unchanged ? currentRev : currentRev + 1;
-    if (op.resolves?.length) {
-      await trx("sync_conflicts")
-        .whereIn("id", op.resolves)
-        .where({ checklist_id: op.checklistId, item_key: op.itemKey })
-        .whereNull("resolved_at")
-        .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
-    }
-    if (unchanged) return { opId: op.opId, status: "applied", rev };
-    const value = JSON.stringify(op.value);
-    const row = { value, rev, updated_by: actor.id, device_id: deviceId, updated_at: now, change_seq: changeSeq };
-    if (current) await trx("checklist_responses").where({ checklist_id: op.checklistId, item_key: op.itemKey }).update(row);
-    else await trx("checklist_responses").insert({ checklist_id: op.checklistId, item_key: op.itemKey, ...row });
-    await trx("response_history").insert({
-      checklist_id: op.checklistId, item_key: op.itemKey, rev, value, user_id: actor.id, device_id: deviceId, op_id: op.opId, at: now, client_at: new Date(op.at),
-    });
-    return { opId: op.opId, status: "applied", rev };
-  }
-
-  // Based on an older revision and different: the server keeps its value, the sent one is kept too.
-  const [conflictId] = await trx("sync_conflicts").insert({
-    checklist_id: op.checklistId, item_key: op.itemKey, op_id: op.opId, base_rev: op.baseRev, server_rev: currentRev,
-    server_value: current ? current.value : null, client_value: JSON.stringify(op.value), user_id: actor.id, device_id: deviceId,
-    client_at: new Date(op.at), received_at: now,
-  });
-  return { opId: op.opId, status: "conflict", rev: currentRev, serverValue: currentValue ?? null, conflictId };
+  return null;
 }
 
 /**
  * Applies a batch and answers what changed since the cursor, in one transaction: either the
- * whole batch is recorded (with each op's result) or nothing is. Applying batches take the
- * sync clock's row lock first, so change numbers are handed out in commit order.
+ * whole batch is recorded (with each op's result) or nothing is. The rules per operation:
+ * a known opId gets its first answer again; baseRev equal to the current revision is applied
+ * (revision + 1); the same value as the server's is accepted without a conflict; anything else
+ * is a conflict, kept with both values. Applying batches take the sync clock's row lock first, so
+ * change numbers are handed out in commit order and a pull can never skip a late commit.
+ *
+ * The batch is decided in memory over rows read with a few locking queries, then written with a
+ * few multi-row statements, so a thousand operations cost a handful of round trips.
  */
 export async function sync(actor: Actor, request: SyncRequest): Promise<SyncResponse> {
   return db().transaction(async (trx) => {
@@ -97,10 +76,22 @@ export async function sync(actor: Actor, request: SyncRequest): Promise<SyncResp
       const { seq } = await trx("sync_clock").where({ id: 1 }).forUpdate().first();
       clock = Number(seq) + 1;
       await trx("sync_clock").where({ id: 1 }).update({ seq: clock });
-      const known = new Map<string, any>(
-        (await trx("sync_ops").whereIn("op_id", request.ops.map((o) => o.opId))).map((r: any) => [r.op_id, r]),
-      );
-      const accessCache = new Map<string, ChecklistAccess | null>();
+      const now = new Date();
+
+      const known = new Map<string, any>((await trx("sync_ops").whereIn("op_id", request.ops.map((o) => o.opId))).map((r: any) => [r.op_id, r]));
+      const checklistIds = [...new Set(request.ops.map((o) => o.checklistId))];
+      const access = await loadAccess(trx, actor, checklistIds);
+      const currentRows = await trx("checklist_responses")
+        .whereIn(["checklist_id", "item_key"], [...new Set(request.ops.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")))
+        .forUpdate();
+      const current = new Map<string, { rev: number; value: unknown }>(currentRows.map((r: any) => [itemId(r.checklist_id, r.item_key), { rev: r.rev, value: json(r.value) }]));
+
+      const responses = new Map<string, any>();
+      const history: any[] = [];
+      const conflicts: { op: Operation; row: any; resultIndex: number }[] = [];
+      const resolutions: { op: Operation }[] = [];
+      const recorded: any[] = [];
+
       for (const op of request.ops) {
         const seen = known.get(op.opId);
         if (seen) {
@@ -108,18 +99,67 @@ export async function sync(actor: Actor, request: SyncRequest): Promise<SyncResp
           results.push(seen.user_id === actor.id ? json(seen.result) : reject(op, "This operation id was used by someone else."));
           continue;
         }
-        if (!accessCache.has(op.checklistId)) accessCache.set(op.checklistId, await loadAccess(trx, actor, op.checklistId));
-        const result = await applyOne(trx, actor, request.deviceId, op, clock, accessCache.get(op.checklistId) ?? null);
+        const key = itemId(op.checklistId, op.itemKey);
+        let result = refusal(op, access.get(op.checklistId));
+        if (!result) {
+          const now_ = current.get(key);
+          const rev = now_?.rev ?? 0;
+          if (op.baseRev === rev) {
+            const value = JSON.stringify(op.value);
+            current.set(key, { rev: rev + 1, value: op.value });
+            responses.set(key, { checklist_id: op.checklistId, item_key: op.itemKey, value, rev: rev + 1, updated_by: actor.id, device_id: request.deviceId, updated_at: now, change_seq: clock });
+            history.push({ checklist_id: op.checklistId, item_key: op.itemKey, rev: rev + 1, value, user_id: actor.id, device_id: request.deviceId, op_id: op.opId, at: now, client_at: new Date(op.at) });
+            result = { opId: op.opId, status: "applied", rev: rev + 1 };
+            if (op.resolves?.length) resolutions.push({ op });
+          } else if (now_ && sameJson(now_.value, op.value)) {
+            result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
+            if (op.resolves?.length) resolutions.push({ op });
+          } else {
+            result = { opId: op.opId, status: "conflict", rev, serverValue: now_?.value ?? null };
+            conflicts.push({
+              op,
+              resultIndex: results.length,
+              row: {
+                checklist_id: op.checklistId, item_key: op.itemKey, op_id: op.opId, base_rev: op.baseRev, server_rev: rev,
+                server_value: now_ ? JSON.stringify(now_.value) : null, client_value: JSON.stringify(op.value), user_id: actor.id,
+                device_id: request.deviceId, client_at: new Date(op.at), received_at: now,
+              },
+            });
+          }
+        }
         results.push(result);
-        known.set(op.opId, { user_id: actor.id, result: JSON.stringify(result) });
-        await trx("sync_ops").insert({
-          op_id: op.opId, device_id: request.deviceId, seq: op.seq, user_id: actor.id, checklist_id: op.checklistId,
-          item_key: op.itemKey, status: result.status, result: JSON.stringify(result), received_at: new Date(),
-        });
+        known.set(op.opId, { user_id: actor.id, result });
+        recorded.push({ op, resultIndex: results.length - 1 });
       }
+
+      // Conflict ids come from one multi-row insert: InnoDB gives such an insert consecutive ids.
+      if (conflicts.length) {
+        const [firstId] = await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
+        conflicts.forEach((c, i) => (results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: Number(firstId) + i }));
+      }
+      if (responses.size) {
+        await trx("checklist_responses")
+          .insert([...responses.values()])
+          .onConflict(["checklist_id", "item_key"])
+          .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
+      }
+      for (let i = 0; i < history.length; i += 500) await trx("response_history").insert(history.slice(i, i + 500));
+      for (const { op } of resolutions) {
+        await trx("sync_conflicts")
+          .whereIn("id", op.resolves!)
+          .where({ checklist_id: op.checklistId, item_key: op.itemKey })
+          .whereNull("resolved_at")
+          .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
+      }
+      const opRows = recorded.map(({ op, resultIndex }) => ({
+        op_id: op.opId, device_id: request.deviceId, seq: op.seq, user_id: actor.id, checklist_id: op.checklistId, item_key: op.itemKey,
+        status: results[resultIndex]!.status, result: JSON.stringify(results[resultIndex]), received_at: now,
+      }));
+      for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
     } else {
       clock = Number((await trx("sync_clock").where({ id: 1 }).first()).seq);
     }
+
     const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
     const rows = await trx("checklist_responses as r")
       .join("users as u", "u.id", "r.updated_by")

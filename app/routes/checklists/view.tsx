@@ -1,6 +1,7 @@
 import { useEffect, useState } from "react";
 import { Link, useFetcher, useRevalidator } from "react-router";
 import type { Route } from "./+types/view";
+import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { FillItem } from "~/components/checklist/fill-item";
 import { checklistStateLabels } from "~/lib/checklist-sets";
 import { canFillJob } from "~/lib/permissions";
@@ -141,7 +142,8 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
         <ol className="flex flex-col gap-4">
           {section.items.map((item) => (
             <FillItem key={item.key} item={item} template={template} value={responses[item.key]?.value} verdict={state.verdicts[item.key]!}
-              pending={!!responses[item.key]?.pending} by={me} disabled={!editable} onSave={save(item.key)}>
+              pending={!!responses[item.key]?.pending} by={me} disabled={!editable} onSave={save(item.key)}
+              diagram={<CalcDiagram item={item} template={template} responses={values} verdict={state.verdicts[item.key]!} />}>
               {failed?.itemKey === item.key && <p role="alert" className="font-bold text-fault">▲ {failed.error}</p>}
             </FillItem>
           ))}
