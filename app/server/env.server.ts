@@ -13,6 +13,16 @@ const schema = z.object({
   MAIL_SINK_DIR: z.string().optional(),
   /** Login attempts allowed per account and per address in 15 minutes. */
   LOGIN_ATTEMPTS: z.coerce.number().int().positive().default(8),
+  /** The S3-compatible store for photos; the defaults are the local stand-in (scripts/s3-fake.ts). */
+  S3_ENDPOINT: z.string().url().default("http://127.0.0.1:4569"),
+  S3_REGION: z.string().min(1).default("us-east-1"),
+  S3_BUCKET: z.string().min(3).default("sternpost-photos"),
+  S3_ACCESS_KEY_ID: z.string().min(1).default("S3RVER"),
+  S3_SECRET_ACCESS_KEY: z.string().min(1).default("S3RVER"),
+  /** Bucket in the path (http://host/bucket/key), as most stand-ins and self-hosted stores need. */
+  S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+  /** The largest photo accepted, in bytes; the tablet compresses to well under it. */
+  PHOTO_MAX_BYTES: z.coerce.number().int().positive().default(5 * 1024 * 1024),
 });
 
 export type Env = z.infer<typeof schema>;

@@ -195,8 +195,10 @@ function mustParse(input: unknown): Template {
 /** A new template: version 1, a draft with one section and one item to start from. */
 export async function createTemplate(fields: { key: string; title: string; purpose: string }, userId: number): Promise<{ key: string; version: number }> {
   const template = mustParse({
-    ...fields,
+    key: fields.key,
     version: 1,
+    title: fields.title,
+    purpose: fields.purpose,
     sections: [{ key: "first-section", title: "First section", items: [{ kind: "check", key: "first-check", label: "First check" }] }],
   });
   return db().transaction(async (trx) => {

@@ -27,19 +27,36 @@ function visibleChecklists(knex: Knex, actor: Actor) {
 /** Who may do what on each checklist the batch touches, read in two queries. */
 async function loadAccess(trx: Knex.Transaction, actor: Actor, checklistIds: string[]): Promise<Map<string, ChecklistAccess>> {
   const rows = await trx("job_checklists as c")
-    .join("template_versions as t", "t.id", "c.template_version_id")
     .join("jobs as j", "j.id", "c.job_id")
     .whereIn("c.id", checklistIds)
-    .select("c.id", "c.state", "t.body", "j.id as job_id", "j.lead_id");
-  const crew = await trx("job_technicians").whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))]).select("job_id", "user_id");
-  const templates = new Map<string, Template>();
+    .select("c.id", "c.state", "c.template_version_id", "j.id as job_id", "j.lead_id");
+  const [crew, bodies] = await Promise.all([
+    trx("job_technicians").whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))]).select("job_id", "user_id"),
+    trx("template_versions").whereIn("id", [...new Set(rows.map((r: any) => r.template_version_id))]).select("id", "body"),
+  ]);
+  const templates = new Map<number, Template>(bodies.map((b: any) => [b.id, JSON.parse(b.body)]));
   return new Map(
     rows.map((r: any) => {
       const job = { leadId: r.lead_id, technicianIds: crew.filter((c: any) => c.job_id === r.job_id).map((c: any) => c.user_id) };
-      if (!templates.has(r.body)) templates.set(r.body, JSON.parse(r.body));
-      return [r.id, { state: r.state, template: templates.get(r.body)!, canView: canViewJob(actor, job), canFill: canFillJob(actor, job) }];
+      return [r.id, { state: r.state, template: templates.get(r.template_version_id)!, canView: canViewJob(actor, job), canFill: canFillJob(actor, job) }];
     }),
   );
+}
+
+/** The answers already given to these operation ids, from wherever each kind of answer is kept. */
+async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
+  const answers = new Map<string, { userId: number; result: OpResult }>();
+  const [applied, conflicted, others] = await Promise.all([
+    trx("response_history").whereIn("op_id", opIds).select("op_id", "user_id", "rev"),
+    trx("sync_conflicts").whereIn("op_id", opIds).select("op_id", "user_id", "id", "server_rev", "server_value"),
+    trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
+  ]);
+  for (const r of applied) answers.set(r.op_id, { userId: r.user_id, result: { opId: r.op_id, status: "applied", rev: r.rev } });
+  for (const r of conflicted) {
+    answers.set(r.op_id, { userId: r.user_id, result: { opId: r.op_id, status: "conflict", rev: r.server_rev, serverValue: r.server_value === null ? null : json(r.server_value), conflictId: r.id } });
+  }
+  for (const r of others) answers.set(r.op_id, { userId: r.user_id, result: json(r.result) });
+  return answers;
 }
 
 function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
@@ -68,22 +85,23 @@ function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult |
  * The batch is decided in memory over rows read with a few locking queries, then written with a
  * few multi-row statements, so a thousand operations cost a handful of round trips.
  */
-export async function sync(actor: Actor, request: SyncRequest): Promise<SyncResponse> {
+export async function sync(actor: Actor & { name: string }, request: SyncRequest): Promise<SyncResponse> {
   return db().transaction(async (trx) => {
     let clock: number;
     const results: OpResult[] = [];
+    const wrote: Change[] = [];
     if (request.ops.length) {
       const { seq } = await trx("sync_clock").where({ id: 1 }).forUpdate().first();
       clock = Number(seq) + 1;
       await trx("sync_clock").where({ id: 1 }).update({ seq: clock });
       const now = new Date();
 
-      const known = new Map<string, any>((await trx("sync_ops").whereIn("op_id", request.ops.map((o) => o.opId))).map((r: any) => [r.op_id, r]));
+      const known = await answersGiven(trx, request.ops.map((o) => o.opId));
       const checklistIds = [...new Set(request.ops.map((o) => o.checklistId))];
       const access = await loadAccess(trx, actor, checklistIds);
       const currentRows = await trx("checklist_responses")
-        .whereIn(["checklist_id", "item_key"], [...new Set(request.ops.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")))
-        .forUpdate();
+        // No row locks needed: every applier holds the clock lock, so none runs beside this one.
+        .whereIn(["checklist_id", "item_key"], [...new Set(request.ops.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")));
       const current = new Map<string, { rev: number; value: unknown }>(currentRows.map((r: any) => [itemId(r.checklist_id, r.item_key), { rev: r.rev, value: json(r.value) }]));
 
       const responses = new Map<string, any>();
@@ -96,7 +114,7 @@ export async function sync(actor: Actor, request: SyncRequest): Promise<SyncResp
         const seen = known.get(op.opId);
         if (seen) {
           // A retry: the first answer, unchanged (another person's opId is simply refused).
-          results.push(seen.user_id === actor.id ? json(seen.result) : reject(op, "This operation id was used by someone else."));
+          results.push(seen.userId === actor.id ? { ...seen.result, opId: op.opId } : reject(op, "This operation id was used by someone else."));
           continue;
         }
         const key = itemId(op.checklistId, op.itemKey);
@@ -128,14 +146,20 @@ export async function sync(actor: Actor, request: SyncRequest): Promise<SyncResp
           }
         }
         results.push(result);
-        known.set(op.opId, { user_id: actor.id, result });
-        recorded.push({ op, resultIndex: results.length - 1 });
+        known.set(op.opId, { userId: actor.id, result });
+        // Applied values and conflicts are their own record; only the rest needs a row of its own.
+        if (result.status === "rejected" || (result.status === "applied" && !history.some((h) => h.op_id === op.opId))) {
+          recorded.push({ op, resultIndex: results.length - 1 });
+        }
       }
 
       // Conflict ids come from one multi-row insert: InnoDB gives such an insert consecutive ids.
       if (conflicts.length) {
         const [firstId] = await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
         conflicts.forEach((c, i) => (results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: Number(firstId) + i }));
+      }
+      for (const r of responses.values()) {
+        wrote.push({ checklistId: r.checklist_id, itemKey: r.item_key, value: JSON.parse(r.value), rev: r.rev, by: actor.name, at: now.toISOString() });
       }
       if (responses.size) {
         await trx("checklist_responses")
@@ -161,16 +185,18 @@ export async function sync(actor: Actor, request: SyncRequest): Promise<SyncResp
     }
 
     const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
+    // This batch's own changes carry the new clock value and are known here; read only the rest.
     const rows = await trx("checklist_responses as r")
       .join("users as u", "u.id", "r.updated_by")
       .whereIn("r.checklist_id", visibleChecklists(trx, actor).select("c.id"))
       .where("r.change_seq", ">", since)
-      .where("r.change_seq", "<=", clock)
+      .where("r.change_seq", wrote.length ? "<" : "<=", clock)
       .orderBy("r.change_seq")
       .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
     const changes: Change[] = rows.map((r: any) => ({
       checklistId: r.checklist_id, itemKey: r.item_key, value: json(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString(),
     }));
+    if (since < clock) changes.push(...wrote);
     return { results, changes, cursor: String(clock) };
   });
 }

@@ -23,12 +23,13 @@ export async function up(knex: Knex) {
     t.json("value").notNullable();
     t.integer("user_id").unsigned().notNullable().references("users.id");
     t.string("device_id", 64).nullable();
-    t.uuid("op_id").nullable();
+    t.uuid("op_id").nullable().unique();
     t.datetime("at", { precision: 3 }).notNullable();
     t.datetime("client_at", { precision: 3 }).nullable();
     t.unique(["checklist_id", "item_key", "rev"]);
   });
-  // Each operation a device sent, with the result it got: a repeated opId gets the same answer.
+  // Operations whose answer is not in response_history or sync_conflicts (refused, or accepted
+  // as the server's own value), so a repeated opId gets the same answer.
   await knex.schema.createTable("sync_ops", (t) => {
     t.uuid("op_id").primary();
     t.string("device_id", 64).notNullable();

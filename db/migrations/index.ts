@@ -3,6 +3,7 @@ import * as m001 from "./001_people.ts";
 import * as m002 from "./002_vessels_and_jobs.ts";
 import * as m003 from "./003_checklist_templates.ts";
 import * as m004 from "./004_responses_and_sync.ts";
+import * as m005 from "./005_photos.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
 const migrations: Record<string, Knex.Migration> = {
@@ -10,6 +11,7 @@ const migrations: Record<string, Knex.Migration> = {
   "002_vessels_and_jobs": m002,
   "003_checklist_templates": m003,
   "004_responses_and_sync": m004,
+  "005_photos": m005,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

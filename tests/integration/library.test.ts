@@ -295,6 +295,22 @@ describe("over HTTP, by role", () => {
     expect(await response.text()).toBe(starterText("engine-alignment"));
   });
 
+  it("creates a new template from the library page, or says at the field what is wrong", async () => {
+    const key = `lib-form-${run}`;
+    ownKeys.push(key);
+    const post = (fields: Record<string, string>) =>
+      app("/library?index", { method: "POST", body: new URLSearchParams({ intent: "create-template", ...fields }), cookie: cookies.manager });
+    const bad = await post({ key: "Stern Gland", title: "Stern gland", purpose: "" });
+    expect(bad.status).toBe(400);
+    expect(await bad.text()).toMatch(/expected a key in lower-case words joined by hyphens/);
+    const good = await post({ key, title: "Stern gland", purpose: "Packing or a dripless seal fitted and adjusted." });
+    expect(good.status).toBe(302);
+    expect(good.headers.get("Location")).toBe(`/library/${key}/1/edit`);
+    expect((await rowOf(key, 1)).status).toBe("draft");
+    const technician = await app("/library?index", { method: "POST", body: new URLSearchParams({ intent: "create-template", key: `${key}-x`, title: "x", purpose: "x" }), cookie: cookies.technician });
+    expect(technician.status).toBe(403);
+  });
+
   it("lets only a manager publish", async () => {
     const publish = (w: string) => app(`/library/${draftKey}/2`, { method: "POST", body: new URLSearchParams({ intent: "publish" }), cookie: cookies[w] });
     for (const w of ["technician", "lead", "surveyor"]) expect((await publish(w)).status).toBe(403);

@@ -9,8 +9,9 @@ let counter = 0;
 /** A person with a known password; e-mail addresses are unique per call. */
 export async function makeUser(knex: Knex, role: Role, overrides: { active?: boolean; name?: string } = {}) {
   const email = `${role}-${Date.now()}-${++counter}@test.example`;
-  const [id] = await knex("users").insert({ email, name: overrides.name ?? `Test ${role} ${counter}`, role, password_hash: hash, active: overrides.active ?? true });
-  return { id: id as number, email, role };
+  const name = overrides.name ?? `Test ${role} ${counter}`;
+  const [id] = await knex("users").insert({ email, name, role, password_hash: hash, active: overrides.active ?? true });
+  return { id: id as number, email, role, name };
 }
 
 export async function makeVessel(knex: Knex, createdBy: number | null = null) {

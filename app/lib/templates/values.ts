@@ -87,12 +87,18 @@ export type ItemValue = ValueFor<ItemKind>;
 /** A checklist's responses by item key; an item with no entry yet is absent. */
 export type Responses = Readonly<Record<string, unknown>>;
 
-/** The schema of a response to this particular item. */
+const schemaCache = new WeakMap<Item, z.ZodType>();
+
+/** The schema of a response to this particular item (built once per item: a sync batch checks many). */
 export function valueSchemaFor<I extends Item>(item: I): z.ZodType<ValueFor<I["kind"]>> {
-  const schema: z.ZodType = valueSchemas[item.kind];
-  return schema.superRefine((value, ctx) => {
-    for (const problem of fitProblems(item, value as ItemValue)) ctx.addIssue({ code: "custom", ...problem });
-  }) as z.ZodType<ValueFor<I["kind"]>>;
+  let schema = schemaCache.get(item);
+  if (!schema) {
+    schema = (valueSchemas[item.kind] as z.ZodType).superRefine((value, ctx) => {
+      for (const problem of fitProblems(item, value as ItemValue)) ctx.addIssue({ code: "custom", ...problem });
+    });
+    schemaCache.set(item, schema);
+  }
+  return schema as z.ZodType<ValueFor<I["kind"]>>;
 }
 
 interface FitProblem {
