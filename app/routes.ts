@@ -6,6 +6,8 @@ export default [
   route("invitation/:token", "routes/invitation.tsx"),
   route("dev/mail", "routes/dev-mail.tsx"),
   route("healthz", "routes/healthz.ts"),
+  route("verify/:recordId", "routes/verify.tsx"),
+  route("records/:recordId/pdf", "routes/records/pdf.ts"),
   ...prefix("api", [
     route("me", "routes/api/me.ts"),
     route("jobs", "routes/api/jobs.ts"),
@@ -15,6 +17,7 @@ export default [
     route("templates/:key/:version/export", "routes/api/template-export.ts"),
     route("sync", "routes/api/sync.ts"),
     route("offline", "routes/api/offline.ts"),
+    route("photos/:photoId", "routes/api/photo.ts"),
   ]),
   layout("routes/shell.tsx", [
     index("routes/today.tsx"),
@@ -30,7 +33,9 @@ export default [
       route(":vesselId", "routes/vessels/edit.tsx"),
     ]),
     route("checklists/:checklistId", "routes/checklists/view.tsx"),
+    route("checklists/:checklistId/review", "routes/checklists/review.tsx"),
     route("sync", "routes/sync.tsx"),
+    route("records/:recordId", "routes/records/view.tsx"),
     // calculators
     ...prefix("calculators", [index("routes/calculators/index.tsx"), route(":name", "routes/calculators/calculator.tsx")]),
     // library
@@ -43,6 +48,7 @@ export default [
     ]),
     // end library
     route("people", "routes/people.tsx"),
+    route("audit", "routes/audit.tsx"),
   ]),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

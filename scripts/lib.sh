@@ -62,6 +62,18 @@ start_mail_sink() {
   log "the SMTP sink did not start; see .data/mail-sink.log"; return 1
 }
 
+start_s3_fake() {
+  if [ -n "${S3_ENDPOINT:-}" ]; then log "using S3_ENDPOINT (no local S3 stand-in)"; return 0; fi
+  local port="${S3_PORT:-4569}"
+  export S3_ENDPOINT="http://127.0.0.1:$port" S3_BUCKET="${S3_BUCKET:-sternpost-photos}" S3_FORCE_PATH_STYLE=true
+  export S3_ACCESS_KEY_ID="${S3_ACCESS_KEY_ID:-S3RVER}" S3_SECRET_ACCESS_KEY="${S3_SECRET_ACCESS_KEY:-S3RVER}"
+  if port_open "$port"; then log "S3 stand-in already answering on 127.0.0.1:$port"; return 0; fi
+  log "starting the S3 stand-in on 127.0.0.1:$port (photos in .data/s3)"
+  S3_PORT="$port" S3_FAKE_DIR="$DATA/s3" nohup "$ROOT/node_modules/.bin/tsx" "$ROOT/scripts/s3-fake.ts" >"$DATA/s3-fake.log" 2>&1 &
+  for _ in $(seq 1 100); do port_open "$port" && return 0; sleep 0.1; done
+  log "the S3 stand-in did not start; see .data/s3-fake.log"; return 1
+}
+
 session_secret() {
   if [ -z "${SESSION_SECRET:-}" ]; then
     [ -f "$DATA/session-secret" ] || node -e 'process.stdout.write(require("crypto").randomBytes(32).toString("hex"))' >"$DATA/session-secret"

@@ -5,6 +5,7 @@ cd "$ROOT"
 ensure_node_modules
 start_mariadb
 start_mail_sink
+start_s3_fake
 session_secret
 export NODE_ENV=production PORT="${PORT:-3000}"
 export APP_URL="${APP_URL:-http://localhost:$PORT}"

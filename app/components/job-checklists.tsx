@@ -5,10 +5,13 @@ import { FormErrors } from "./field.tsx";
 
 interface Summary {
   id: string;
+  key: string;
   title: string;
   version: number;
   state: keyof typeof checklistStateLabels;
   newerVersion: number | null;
+  amends: string | null;
+  amendedBy: string | null;
 }
 
 /** The job's checklists, and for its lead or the manager the form that starts more. */
@@ -17,15 +20,17 @@ export function JobChecklists({
   available,
   defaults,
   canStart,
+  canReview,
   result,
 }: {
   checklists: Summary[];
   available: { key: string; title: string; version: number }[];
   defaults: string[];
   canStart: boolean;
+  canReview: boolean;
   result?: FormErrorsData;
 }) {
-  const startable = available.filter((a) => !checklists.some((c) => c.title === a.title));
+  const startable = available.filter((a) => !checklists.some((c) => c.key === a.key));
   return (
     <section className="card mb-6" aria-labelledby="checklists-title">
       <h2 id="checklists-title" className="mb-3 text-xl font-bold">Checklists</h2>
@@ -36,7 +41,17 @@ export function JobChecklists({
             <Link to={`/checklists/${c.id}`} className="flex min-h-12 items-center text-lg font-bold text-harbour underline">
               {c.title}
             </Link>
-            <span className="flex flex-wrap gap-3">
+            <span className="flex flex-wrap items-center gap-3">
+              {canReview && c.state === "submitted" && <Link to={`/checklists/${c.id}/review`} className="btn btn-primary">Review</Link>}
+              {canStart && c.state === "countersigned" && !c.amendedBy && (
+                <Form method="post">
+                  <input type="hidden" name="intent" value="amend" />
+                  <input type="hidden" name="checklistId" value={c.id} />
+                  <button className="btn" type="submit">Correct it (amendment)</button>
+                </Form>
+              )}
+              {c.amends && <span className="text-sm">Amendment</span>}
+              {c.amendedBy && <span className="text-sm">Corrected by an amendment</span>}
               <span>Version {c.version}</span>
               {c.newerVersion && <span className="font-bold text-brass">Version {c.newerVersion} published since</span>}
               <span>{checklistStateLabels[c.state]}</span>

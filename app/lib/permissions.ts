@@ -24,12 +24,13 @@ export type Capability =
   | "jobs:create"
   | "calculators:use"
   | "library:view"
-  | "library:edit";
+  | "library:edit"
+  | "audit:read";
 
 const capabilities: Record<Role, Capability[]> = {
   technician: ["jobs:view", "calculators:use", "library:view"],
   lead: ["jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view"],
-  manager: ["users:manage", "jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view", "library:edit"],
+  manager: ["users:manage", "jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view", "library:edit", "audit:read"],
   surveyor: [],
 };
 
@@ -74,5 +75,6 @@ export function navigationFor(actor: Actor): { to: string; label: string }[] {
   if (can(actor, "calculators:use")) items.push({ to: "/calculators", label: "Calculators" });
   if (can(actor, "library:view")) items.push({ to: "/library", label: "Library" });
   if (can(actor, "users:manage")) items.push({ to: "/people", label: "People" });
+  if (can(actor, "audit:read")) items.push({ to: "/audit", label: "Audit log" });
   return items;
 }

@@ -6,6 +6,7 @@ import { can } from "~/lib/permissions";
 import { requireUser } from "~/server/auth.server";
 import { listJobChecklists } from "~/server/checklists.server";
 import { listVisibleJobs } from "~/server/jobs.server";
+import { recordsIssuedTo } from "~/server/records.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Today · Sternpost" }];
 
@@ -23,7 +24,10 @@ export async function loader({ request }: Route.LoaderArgs) {
   const withChecklists: TodayJob[] = await Promise.all(
     jobs.map(async (j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: await listJobChecklists(j.id) })),
   );
-  return { name: user.name, role: user.role, jobs: withChecklists, offline: false };
+  const records = user.role === "surveyor"
+    ? (await recordsIssuedTo(user.id)).map((r: any) => ({ id: r.id as string, vesselName: r.vessel_name as string, engineModel: r.engine_model as string, issuedAt: new Date(r.issued_at).toISOString() }))
+    : [];
+  return { name: user.name, role: user.role, jobs: withChecklists, records, offline: false };
 }
 
 /** With no connection, the jobs this tablet holds. */
@@ -35,7 +39,7 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
     const store = await import("~/lib/offline/store.client");
     const user = await store.getMeta<{ name: string; role: "technician" | "lead" | "manager" | "surveyor" }>("user");
     const jobs: TodayJob[] = (await store.listLocalJobs()).map((j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: j.checklists }));
-    return { name: user?.name ?? "", role: user?.role ?? "technician", jobs, offline: true };
+    return { name: user?.name ?? "", role: user?.role ?? "technician", jobs, records: [], offline: true };
   }
 }
 
@@ -73,12 +77,24 @@ function OfflineReadiness() {
 }
 
 export default function Today({ loaderData }: Route.ComponentProps) {
-  const { name, role, jobs, offline } = loaderData;
+  const { name, role, jobs, records, offline } = loaderData;
   return (
     <>
       <h1 className="mb-2 text-3xl font-bold">Good to see you, {name.split(" ")[0]}</h1>
       {role === "surveyor" ? (
-        <p className="text-lg">Commissioning records issued to you will appear here.</p>
+        <>
+          <p className="mb-4 text-lg">{records.length ? "Commissioning records issued to you:" : "Commissioning records issued to you will appear here."}</p>
+          <ul className="flex flex-col gap-3" data-testid="issued-records">
+            {records.map((r) => (
+              <li key={r.id}>
+                <Link to={`/records/${r.id}`} className="card flex flex-col no-underline">
+                  <span className="text-xl font-bold text-ink">{r.vesselName}</span>
+                  <span className="text-ink-soft">{r.engineModel} · issued {new Date(r.issuedAt).toLocaleDateString("en-GB", { dateStyle: "medium" })}</span>
+                </Link>
+              </li>
+            ))}
+          </ul>
+        </>
       ) : (
         <>
           <OfflineReadiness />

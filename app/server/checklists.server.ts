@@ -14,6 +14,9 @@ export interface JobChecklistSummary {
   state: ChecklistState;
   /** A newer published version exists; this checklist stays on its own. */
   newerVersion: number | null;
+  /** The countersigned checklist this one corrects, and the amendment that corrects this one. */
+  amends: string | null;
+  amendedBy: string | null;
 }
 
 export async function listJobChecklists(jobId: number): Promise<JobChecklistSummary[]> {
@@ -22,7 +25,7 @@ export async function listJobChecklists(jobId: number): Promise<JobChecklistSumm
       .join("template_versions as t", "t.id", "c.template_version_id")
       .where("c.job_id", jobId)
       .orderBy("c.created_at")
-      .select("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version"),
+      .select("c.id", "c.job_id", "c.state", "c.amends_id", "t.template_key", "t.title", "t.version"),
     latestPublished(),
   ]);
   // The order the work is done in, whatever order they were started in.
@@ -38,6 +41,8 @@ export async function listJobChecklists(jobId: number): Promise<JobChecklistSumm
       version: r.version,
       state: r.state,
       newerVersion: newest && newest.version > r.version ? newest.version : null,
+      amends: r.amends_id ?? null,
+      amendedBy: rows.find((other: any) => other.amends_id === r.id)?.id ?? null,
     };
   });
 }
@@ -74,7 +79,7 @@ export async function findChecklist(id: string): Promise<JobChecklist | undefine
   const row = await db()("job_checklists as c")
     .join("template_versions as t", "t.id", "c.template_version_id")
     .where("c.id", id)
-    .first("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version", "t.body");
+    .first("c.id", "c.job_id", "c.state", "c.amends_id", "t.template_key", "t.title", "t.version", "t.body");
   if (!row) return undefined;
   const newest = (await latestPublished()).find((l) => l.key === row.template_key);
   return {
@@ -85,6 +90,8 @@ export async function findChecklist(id: string): Promise<JobChecklist | undefine
     version: row.version,
     state: row.state,
     newerVersion: newest && newest.version > row.version ? newest.version : null,
+    amends: row.amends_id ?? null,
+    amendedBy: (await db()("job_checklists").where({ amends_id: row.id }).first("id"))?.id ?? null,
     template: JSON.parse(row.body),
   };
 }

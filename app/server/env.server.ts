@@ -9,6 +9,8 @@ const schema = z.object({
   APP_URL: z.string().url().default("http://localhost:3000"),
   SMTP_URL: z.string().default("smtp://127.0.0.1:2525"),
   MAIL_FROM: z.string().default("Sternpost <no-reply@sternpost.invalid>"),
+  /** The boatyard's name, printed on its commissioning records. */
+  YARD_NAME: z.string().min(1).default("Kittiwake Slip"),
   /** Folder where the local SMTP sink keeps messages; when set, /dev/mail shows them. */
   MAIL_SINK_DIR: z.string().optional(),
   /** Login attempts allowed per account and per address in 15 minutes. */

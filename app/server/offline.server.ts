@@ -6,6 +6,13 @@ import type { User } from "./users.server.ts";
 
 const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 
+/** The review comments on the given checklists, oldest first. */
+export async function commentsOn(checklistIds: string[], knex = db()) {
+  const rows = await knex("checklist_comments as m").join("users as u", "u.id", "m.user_id").whereIn("m.checklist_id", checklistIds).orderBy("m.id")
+    .select("m.checklist_id", "m.item_key", "m.text", "m.at", "u.name");
+  return rows.map((r: any) => ({ checklistId: r.checklist_id as string, itemKey: r.item_key as string, by: r.name as string, at: new Date(r.at).toISOString(), text: r.text as string }));
+}
+
 /** Open conflicts on the given checklists, for the person who decides them. */
 export async function openConflicts(checklistIds: string[]): Promise<ConflictRecord[]> {
   if (!checklistIds.length) return [];
@@ -39,6 +46,7 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
       ? await trx("checklist_responses as r").join("users as u", "u.id", "r.updated_by").whereIn("r.checklist_id", ids)
           .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name")
       : [];
+    const comments = ids.length ? await commentsOn(ids, trx) : [];
     const templates = new Map<string, OfflineBundle["templates"][number]>();
     for (const c of checklistRows) templates.set(`${c.template_key}@${c.version}`, { key: c.template_key, version: c.version, template: JSON.parse(c.body) });
     return {
@@ -46,7 +54,10 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
       jobs: jobs.map((j) => ({ id: j.id, vesselName: j.vesselName, hin: j.hin, engineModel: j.engineModel, status: j.status, dueDate: j.dueDate, leadName: j.leadName })),
       checklists: checklistRows.map((c: any) => {
         const job = jobs.find((j) => j.id === c.job_id)!;
-        return { id: c.id, jobId: c.job_id, key: c.template_key, title: c.title, version: c.version, state: c.state, canFill: canFillJob(user, job) };
+        return {
+          id: c.id, jobId: c.job_id, key: c.template_key, title: c.title, version: c.version, state: c.state, canFill: canFillJob(user, job),
+          comments: comments.filter((m) => m.checklistId === c.id).map(({ checklistId: _, ...m }) => m),
+        };
       }),
       templates: [...templates.values()],
       responses: responses.map((r: any) => ({ checklistId: r.checklist_id, itemKey: r.item_key, value: json(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString() })),

@@ -1,4 +1,5 @@
 import { fileTypeFromBuffer } from "file-type";
+import type { Knex } from "knex";
 import { createHash } from "node:crypto";
 import { canFillJob, canViewJob, type Actor } from "~/lib/permissions";
 import type { RecordPhoto } from "~/lib/record/types";
@@ -63,23 +64,32 @@ async function checklistAccess(actor: Actor, checklistId: string) {
   return { state: row.state as string, body: row.body as string, canView: canViewJob(actor, job), canFill: canFillJob(actor, job) };
 }
 
-function refuseUnlessFillable(access: Awaited<ReturnType<typeof checklistAccess>>, itemKey: string): Template {
+/**
+ * Refuses anyone who may not add photos to the item. A submitted checklist still takes the bytes
+ * of a photo one of its applied entries lists: the entry was made while it was open, and the
+ * tablet sends photos only after the entries (and a submission queued offline) reached the
+ * server. A countersigned one takes none: its digest covers the photos stored when it was signed.
+ */
+function refuseUnlessFillable(access: Awaited<ReturnType<typeof checklistAccess>>, itemKey: string, listed: boolean): void {
   if (!access) throw new PhotoRefusal(404, "There is no such checklist.");
   if (!access.canView) throw new PhotoRefusal(403, "This checklist belongs to a job that is not yours.");
   if (!access.canFill) throw new PhotoRefusal(403, "Only the job's technicians and its lead add photos.");
-  if (access.state === "submitted") throw new PhotoRefusal(409, "The checklist has been submitted for review and takes no more photos.");
+  if (!findItem(JSON.parse(access.body) as Template, itemKey)) throw new PhotoRefusal(404, `The checklist has no item "${itemKey}".`);
   if (access.state === "countersigned") throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
-  const template = JSON.parse(access.body) as Template;
-  if (!findItem(template, itemKey)) throw new PhotoRefusal(404, `The checklist has no item "${itemKey}".`);
-  return template;
+  if (access.state === "submitted" && !listed) throw new PhotoRefusal(409, "The checklist has been submitted for review and takes no more photos.");
 }
 
-/** The photo an item's current entry lists under this id, if it gives a SHA-256 for it. */
-async function referencedSha(checklistId: string, itemKey: string, id: string): Promise<string | undefined> {
-  const row = await db()("checklist_responses").where({ checklist_id: checklistId, item_key: itemKey }).first("value");
-  if (!row) return undefined;
-  const value = (typeof row.value === "string" ? JSON.parse(row.value) : row.value) as Partial<PhotoValue>;
-  return Array.isArray(value.photos) ? value.photos.find((p) => p.id === id)?.sha256 : undefined;
+/** The photos a stored value (a JSON column) lists; none for values of other kinds. */
+function photosListedIn(raw: unknown): PhotoValue["photos"] {
+  const value = (typeof raw === "string" ? JSON.parse(raw) : raw) as Partial<PhotoValue> | null;
+  return Array.isArray(value?.photos) ? value.photos : [];
+}
+
+/** The SHA-256s that the item's applied entries (every revision) give for this photo id. */
+async function listedShas(checklistId: string, itemKey: string, id: string): Promise<{ listed: boolean; sha256s: Set<string> }> {
+  const revisions = await db()("response_history").where({ checklist_id: checklistId, item_key: itemKey }).pluck("value");
+  const entries = revisions.flatMap((raw) => photosListedIn(raw).filter((p) => p.id === id));
+  return { listed: entries.length > 0, sha256s: new Set(entries.flatMap((p) => (p.sha256 ? [p.sha256] : []))) };
 }
 
 /** The answer to sending bytes for an id that is already stored: the same bytes, or a conflict. */
@@ -103,21 +113,27 @@ export async function storePhoto(actor: Actor, input: { id: string; checklistId:
   if (input.bytes.byteLength === 0) throw new PhotoRefusal(400, "The photo is empty.");
   const sha256 = sha256Of(input.bytes);
 
-  const found = await db()("photos").where({ id: input.id }).first();
+  // Three independent reads, side by side: they are most of what a photo costs besides the put.
+  const [found, listing, access] = await Promise.all([
+    db()("photos").where({ id: input.id }).first(),
+    listedShas(input.checklistId, input.itemKey, input.id),
+    checklistAccess(actor, input.checklistId),
+  ]);
   if (found) {
     const existing = toStored(found);
-    const access = await checklistAccess(actor, existing.checklistId);
-    if (!access?.canView) throw new PhotoRefusal(403, "This photo belongs to a job that is not yours.");
+    const owner = existing.checklistId === input.checklistId ? access : await checklistAccess(actor, existing.checklistId);
+    if (!owner?.canView) throw new PhotoRefusal(403, "This photo belongs to a job that is not yours.");
     return repeated(existing, input, sha256);
   }
 
-  refuseUnlessFillable(await checklistAccess(actor, input.checklistId), input.itemKey);
+  refuseUnlessFillable(access, input.itemKey, listing.listed);
   const type = await fileTypeFromBuffer(input.bytes);
   if (!type || !ACCEPTED_TYPES.has(type.mime)) {
-    throw new PhotoRefusal(415, `Only JPEG, PNG and WebP photos are accepted; these bytes are ${type ? `${type.mime}` : "not an image"}.`);
+    throw new PhotoRefusal(415, `Only JPEG, PNG and WebP photos are accepted; these bytes are ${type?.mime ?? "not an image"}.`);
   }
-  const listed = await referencedSha(input.checklistId, input.itemKey, input.id);
-  if (listed && listed !== sha256) throw new PhotoRefusal(409, "These bytes are not the photo the entry refers to (their SHA-256 differs).");
+  if (listing.sha256s.size && !listing.sha256s.has(sha256)) {
+    throw new PhotoRefusal(409, "These bytes are not the photo the entry refers to (their SHA-256 differs).");
+  }
 
   const key = storageKeyFor(sha256);
   await putObject(key, input.bytes, type.mime);
@@ -147,10 +163,25 @@ export async function readPhoto(actor: Actor, id: string): Promise<StoredPhoto &
   return { ...photo, data };
 }
 
-/** The stored photos of these checklists, for the commissioning record (its digest covers them). */
-export async function checklistPhotos(checklistId: string): Promise<RecordPhoto[]> {
-  const rows = await db()("photos").where({ checklist_id: checklistId }).orderBy(["item_key", "id"]).select("item_key", "id", "sha256");
+/** The stored photos of a checklist, for the commissioning record (its digest covers them). */
+export async function checklistPhotos(checklistId: string, knex: Knex = db()): Promise<RecordPhoto[]> {
+  const rows = await knex("photos").where({ checklist_id: checklistId }).orderBy(["item_key", "id"]).select("item_key", "id", "sha256");
   return rows.map((r: any) => ({ itemKey: r.item_key, id: r.id, sha256: r.sha256 }));
+}
+
+/**
+ * Photos the checklist's current entries list whose bytes have not reached the store yet (still
+ * on a tablet). A countersignature waits for them: the digest covers the stored photos, and a
+ * countersigned checklist takes no more.
+ */
+export async function photosNotYetStored(checklistId: string, knex: Knex = db()): Promise<string[]> {
+  const [values, stored] = await Promise.all([
+    knex("checklist_responses").where({ checklist_id: checklistId }).pluck("value"),
+    knex("photos").where({ checklist_id: checklistId }).pluck("id"),
+  ]);
+  const have = new Set<string>(stored);
+  const listed = values.flatMap((raw) => photosListedIn(raw).map((p) => p.id));
+  return [...new Set(listed.filter((id) => !have.has(id)))].sort();
 }
 
 /** A stored photo's bytes by id, for the record PDF (renderRecordPdf's photoBytes). */

@@ -1,3 +1,4 @@
+import { createHash } from "node:crypto";
 import { readFileSync } from "node:fs";
 import { createRequire } from "node:module";
 import PDFDocument from "pdfkit";
@@ -41,7 +42,8 @@ import { jobScopeLabels } from "~/lib/validation/jobs";
  * The commissioning record as a PDF: a cover with the yard, vessel, job, installed equipment,
  * the record's digest and a QR code of its verification link, then every checklist item by item
  * with its value, verdict (in words and a drawn shape, never colour alone), acceptance rule,
- * every attempt, notes, the lead's comments, photo references and computed results.
+ * every attempt, notes, the lead's comments, photo references (and the photos, scaled, when the
+ * caller can read them) and computed results.
  * Fonts are the app's own Atkinson Hyperlegible TTFs, embedded (subset) in the file.
  */
 
@@ -50,6 +52,8 @@ export interface RecordPdfOptions {
   digest: string;
   /** The public verification page the QR code points at. */
   verifyUrl: string;
+  /** Reads a stored photo's bytes by id (photos.server.ts photoBytes); without it photos are listed, not shown. */
+  photoBytes?: (id: string) => Promise<Buffer | undefined>;
 }
 
 /** The app's statement, on the cover and at the foot of every page (DESIGN.md section 8). */
@@ -703,6 +707,7 @@ interface ChecklistContext {
   responses: Record<string, unknown>;
   /** "2.3" by item key, for cross-references. */
   numbers: Map<string, string>;
+  photoFiles: PhotoFiles;
 }
 
 function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
@@ -772,6 +777,7 @@ function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
       { indent, fontSize: 7.2 },
     );
     w.y += 2;
+    photoPictures(w, photos, ctx.photoFiles, indent);
   }
 
   const comments = checklist.comments.filter((c) => c.itemKey === item.key).sort((a, b) => (a.at < b.at ? -1 : 1));
@@ -863,6 +869,59 @@ function photoReferences(checklist: RecordChecklist, item: Item, value: unknown)
   const out: { id: string; sha256?: string }[] = stored.map((p) => ({ id: p.id, sha256: p.sha256 }));
   for (const p of listed) if (!out.some((o) => o.id === p.id)) out.push({ id: p.id, sha256: p.sha256 });
   return out;
+}
+
+/** A photo's file by id: its bytes when they match the recorded SHA-256, "differs" when they do not. */
+type PhotoFiles = Map<string, Buffer | "differs">;
+
+/** Every photo the record refers to, read once before the pages are laid out. */
+async function readPhotoFiles(record: CommissioningRecord, photoBytes: RecordPdfOptions["photoBytes"]): Promise<PhotoFiles> {
+  const files: PhotoFiles = new Map();
+  if (!photoBytes) return files;
+  for (const checklist of record.checklists) {
+    for (const item of checklist.template.sections.flatMap((s) => s.items)) {
+      for (const photo of photoReferences(checklist, item, checklist.responses[item.key]?.value)) {
+        if (files.has(photo.id)) continue;
+        const bytes = await photoBytes(photo.id);
+        if (!bytes) continue;
+        // Only the file the record's digest covers is shown as that photo.
+        const matches = !photo.sha256 || createHash("sha256").update(bytes).digest("hex") === photo.sha256;
+        files.set(photo.id, matches ? bytes : "differs");
+      }
+    }
+  }
+  return files;
+}
+
+const PICTURE = { width: 140, height: 105, gap: 8, caption: 12 };
+
+/** The item's photos, scaled into a grid of boxes under their table, in the table's order. */
+function photoPictures(w: Writer, photos: { id: string }[], files: PhotoFiles, indent: number): void {
+  const perRow = Math.max(1, Math.floor((w.width - indent + PICTURE.gap) / (PICTURE.width + PICTURE.gap)));
+  const shown = photos.map((photo, i) => ({ n: i + 1, file: files.get(photo.id) })).filter((p) => p.file !== undefined);
+  for (let start = 0; start < shown.length; start += perRow) {
+    w.ensure(PICTURE.height + PICTURE.caption + 6);
+    const top = w.y + 3;
+    shown.slice(start, start + perRow).forEach(({ n, file }, column) => {
+      const x = w.left + indent + column * (PICTURE.width + PICTURE.gap);
+      let caption = `Photo ${n}`;
+      if (file === "differs") {
+        caption = `Photo ${n}: the stored file does not match its SHA-256; not shown`;
+      } else {
+        try {
+          w.doc.image(file!, x, top, { fit: [PICTURE.width, PICTURE.height], align: "center", valign: "center" });
+          w.doc.save().rect(x, top, PICTURE.width, PICTURE.height).lineWidth(0.4).strokeColor(rule).stroke().restore();
+        } catch {
+          // pdfkit embeds JPEG and PNG; a WebP photo is listed above but cannot be drawn.
+          caption = `Photo ${n}: this file type cannot be shown in a PDF`;
+        }
+      }
+      w.style("regular", size.tiny, file === "differs" ? fault : inkSoft);
+      w.doc.text(w.printable(caption), x, top + PICTURE.height + 2, { width: PICTURE.width, lineGap: 1 });
+    });
+    w.y = top + PICTURE.height + PICTURE.caption + 4;
+    w.doc.x = w.left;
+  }
 }
 
 function itemValue(w: Writer, ctx: ChecklistContext, item: Item, value: unknown, verdict: Verdict, indent: number): void {
@@ -1060,13 +1119,13 @@ function placeSvg(w: Writer, svg: string, indent: number, width: number): void {
   w.doc.x = w.left;
 }
 
-function checklistPages(w: Writer, checklist: RecordChecklist, index: number, count: number): void {
+function checklistPages(w: Writer, checklist: RecordChecklist, index: number, count: number, photoFiles: PhotoFiles): void {
   w.currentTitle = `${index + 1}. ${checklist.template.title}`;
   w.newPage();
   checklistHeader(w, checklist, index, count);
   const numbers = new Map<string, string>();
   checklist.template.sections.forEach((section, s) => section.items.forEach((item, i) => numbers.set(item.key, `${s + 1}.${i + 1}`)));
-  const ctx: ChecklistContext = { checklist, responses: valuesOf(checklist), numbers };
+  const ctx: ChecklistContext = { checklist, responses: valuesOf(checklist), numbers, photoFiles };
   checklist.template.sections.forEach((section, s) => {
     sectionHeading(w, s, section.title, itemNeeds(w, ctx, section.items[0]));
     section.items.forEach((item) => itemBlock(w, ctx, item));
@@ -1132,9 +1191,10 @@ export async function renderRecordPdf(record: CommissioningRecord, options: Reco
     doc.on("error", reject);
   });
 
+  const photoFiles = await readPhotoFiles(record, options.photoBytes);
   const w = new Writer(doc);
   await cover(w, record, options);
-  record.checklists.forEach((checklist, i) => checklistPages(w, checklist, i, record.checklists.length));
+  record.checklists.forEach((checklist, i) => checklistPages(w, checklist, i, record.checklists.length, photoFiles));
   pageFurniture(w, record);
   doc.end();
   return done;

@@ -2,7 +2,9 @@ import type { Knex } from "knex";
 import { canFillJob, canViewJob, type Actor } from "~/lib/permissions";
 import { sameJson, type Change, type Operation, type OpResult, type SyncRequest, type SyncResponse } from "~/lib/sync/protocol";
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
+import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { db } from "./db.server.ts";
+import { submitChecklist } from "./review.server.ts";
 
 interface ChecklistAccess {
   state: string;
@@ -108,13 +110,21 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       const history: any[] = [];
       const conflicts: { op: Operation; row: any; resultIndex: number }[] = [];
       const resolutions: { op: Operation }[] = [];
-      const recorded: any[] = [];
+      const recorded: { op: Operation; resultIndex: number }[] = [];
+      const submissions: { op: Operation; resultIndex: number }[] = [];
 
       for (const op of request.ops) {
         const seen = known.get(op.opId);
         if (seen) {
           // A retry: the first answer, unchanged (another person's opId is simply refused).
           results.push(seen.userId === actor.id ? { ...seen.result, opId: op.opId } : reject(op, "This operation id was used by someone else."));
+          continue;
+        }
+        if (op.itemKey === SUBMIT_KEY) {
+          // Decided after this batch's entries are written: they count towards "complete".
+          submissions.push({ op, resultIndex: results.length });
+          results.push(reject(op, "Not decided yet."));
+          known.set(op.opId, { userId: actor.id, result: results.at(-1)! });
           continue;
         }
         const key = itemId(op.checklistId, op.itemKey);
@@ -174,6 +184,11 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           .where({ checklist_id: op.checklistId, item_key: op.itemKey })
           .whereNull("resolved_at")
           .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
+      }
+      for (const { op, resultIndex } of submissions) {
+        const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
+        results[resultIndex] = refused ? reject(op, refused) : { opId: op.opId, status: "applied", rev: 0 };
+        recorded.push({ op, resultIndex });
       }
       const opRows = recorded.map(({ op, resultIndex }) => ({
         op_id: op.opId, device_id: request.deviceId, seq: op.seq, user_id: actor.id, checklist_id: op.checklistId, item_key: op.itemKey,

@@ -311,6 +311,26 @@ describe("over HTTP, by role", () => {
     expect(technician.status).toBe(403);
   });
 
+  it("imports a pasted file as a draft, or lists its problems by path", async () => {
+    const post = (text: string, who = "manager") => {
+      const form = new FormData();
+      form.set("text", text);
+      return app("/library/import", { method: "POST", body: form, cookie: cookies[who] });
+    };
+    const broken = JSON.parse(alignmentCopy("http-import"));
+    broken.sections[2].items[0].rule = { min: 48, max: 24, unit: "h" };
+    const refused = await post(JSON.stringify(broken));
+    expect(refused.status).toBe(400);
+    expect(await refused.text()).toContain("sections[2].items[0].rule.min");
+    expect(await rowOf(broken.key, 1)).toBeUndefined();
+    broken.sections[2].items[0].rule = { min: 24, unit: "h" };
+    expect((await post(JSON.stringify(broken), "lead")).status).toBe(403);
+    const accepted = await post(JSON.stringify(broken));
+    expect(accepted.status).toBe(302);
+    expect(accepted.headers.get("Location")).toBe(`/library/${broken.key}/1`);
+    expect((await rowOf(broken.key, 1)).status).toBe("draft");
+  });
+
   it("lets only a manager publish", async () => {
     const publish = (w: string) => app(`/library/${draftKey}/2`, { method: "POST", body: new URLSearchParams({ intent: "publish" }), cookie: cookies[w] });
     for (const w of ["technician", "lead", "surveyor"]) expect((await publish(w)).status).toBe(403);

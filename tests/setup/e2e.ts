@@ -5,10 +5,12 @@ import path from "node:path";
 import { connect } from "../../db/connect.ts";
 import { seedDemo } from "../../db/seeds/demo.ts";
 import { seedLibrary } from "../../db/seeds/library.ts";
+import { startS3Fake } from "../../scripts/s3-fake.ts";
 import { freshDatabase } from "../support/database.ts";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
 const SMTP_PORT = Number(process.env.E2E_SMTP_PORT ?? 2626);
+const S3_PORT = Number(process.env.E2E_S3_PORT ?? 4669);
 
 async function waitFor(url: string, child: ChildProcess, what: string) {
   for (let i = 0; i < 150; i++) {
@@ -23,7 +25,7 @@ async function waitFor(url: string, child: ChildProcess, what: string) {
 
 /**
  * End-to-end tests run the production build (`node server.js`) against its own seeded
- * database and its own SMTP sink, exactly as `npm start` does, on other ports.
+ * database, its own SMTP sink and its own S3 stand-in, exactly as `npm start` does, on other ports.
  */
 export default async function setup() {
   const databaseUrl = await freshDatabase("sternpost_e2e");
@@ -33,6 +35,7 @@ export default async function setup() {
   await knex.destroy();
 
   const mailDir = mkdtempSync(path.join(tmpdir(), "sternpost-mail-"));
+  const s3 = await startS3Fake({ port: S3_PORT, directory: mkdtempSync(path.join(tmpdir(), "sternpost-s3-")), bucket: "sternpost-photos" });
   const env = {
     ...process.env,
     NODE_ENV: "production",
@@ -43,6 +46,11 @@ export default async function setup() {
     SMTP_URL: `smtp://127.0.0.1:${SMTP_PORT}`,
     SMTP_PORT: String(SMTP_PORT),
     MAIL_SINK_DIR: mailDir,
+    S3_ENDPOINT: s3.endpoint,
+    S3_BUCKET: "sternpost-photos",
+    S3_ACCESS_KEY_ID: "S3RVER",
+    S3_SECRET_ACCESS_KEY: "S3RVER",
+    S3_FORCE_PATH_STYLE: "true",
   };
   const children: ChildProcess[] = [];
   const sink = spawn("node_modules/.bin/tsx", ["scripts/mail-sink.ts"], { env, stdio: "inherit" });
@@ -57,5 +65,6 @@ export default async function setup() {
 
   return async () => {
     for (const child of children) child.kill("SIGTERM");
+    await s3.close();
   };
 }

@@ -17,6 +17,8 @@ describe("permissions", () => {
     expect(can(tech, "vessels:view")).toBe(false);
     expect(can(surveyor, "jobs:view")).toBe(false);
     expect(can(null, "jobs:view")).toBe(false);
+    expect(can(manager, "audit:read")).toBe(true);
+    for (const who of [tech, lead, surveyor]) expect(can(who, "audit:read")).toBe(false);
   });
 
   it("let a technician see only assigned jobs, a lead only led jobs, a manager all, a surveyor none", () => {
@@ -45,7 +47,7 @@ describe("permissions", () => {
 
   it("derive each role's navigation from the same capabilities", () => {
     const labels = (who: Parameters<typeof navigationFor>[0]) => navigationFor(who).map((i) => i.label);
-    expect(labels(manager)).toEqual(["Today", "Jobs", "Vessels", "Calculators", "Library", "People"]);
+    expect(labels(manager)).toEqual(["Today", "Jobs", "Vessels", "Calculators", "Library", "People", "Audit log"]);
     expect(labels(lead)).toEqual(["Today", "Jobs", "Vessels", "Calculators", "Library"]);
     expect(labels(tech)).toEqual(["Today", "Jobs", "Calculators", "Library"]);
     expect(labels(surveyor)).toEqual(["Today"]);

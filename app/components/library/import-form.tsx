@@ -1,6 +1,6 @@
 import { getFormProps, getInputProps, getTextareaProps, useForm, type SubmissionResult } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
-import { useState } from "react";
+import { useEffect, useState } from "react";
 import { Form } from "react-router";
 import { z } from "zod";
 import { Field, FormErrors } from "~/components/field";
@@ -51,6 +51,10 @@ export function ImportForm({ lastResult, problems }: { lastResult?: SubmissionRe
   });
   // The browser reads the file with the same schema before it is sent; the server checks it again.
   const [check, setCheck] = useState<Check>(null);
+  // Once the server has answered, its list is the one to read.
+  useEffect(() => {
+    if (problems?.length) setCheck(null);
+  }, [problems]);
   return (
     <Form method="post" encType="multipart/form-data" {...getFormProps(form)} className="card flex flex-col gap-4">
       <FormErrors errors={form.errors} />

@@ -32,7 +32,7 @@ function VersionRow({ template, version, canEdit }: { template: LibraryTemplate;
   const older = template.versions.find((v) => v.version < version.version);
   return (
     <tr className="border-t border-rule align-top" data-version={version.version}>
-      <th scope="row" className="p-2 text-left">
+      <th scope="row" className="p-2 text-left whitespace-nowrap">
         <Link to={`/library/${version.key}/${version.version}`} className="flex min-h-12 items-center text-lg text-harbour underline">
           Version {version.version}
         </Link>

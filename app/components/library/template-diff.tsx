@@ -1,5 +1,4 @@
-import { describeRule, phaseLabels, unitSymbol, type Item, type Phase, type Rule } from "~/lib/templates";
-import type { FieldChange, ItemChange, ItemPlace, TemplateDiff } from "~/lib/templates/diff";
+import { describeRule, formatQuantity, phaseLabels, unitSymbol, type FieldChange, type Item, type ItemChange, type ItemPlace, type Phase, type Rule, type TemplateDiff } from "~/lib/templates";
 import { kindNames } from "./kind-names.ts";
 
 const fieldNames: Record<string, string> = {
@@ -48,7 +47,10 @@ function shown(field: string, value: unknown): string {
   return String(value);
 }
 
-function Changes({ fields }: { fields: FieldChange[] }) {
+function Changes({ fields, item }: { fields: FieldChange[]; item?: Item }) {
+  const ruleUnit = item && "rule" in item && item.rule ? item.rule.unit : undefined;
+  const withUnit = (field: string, value: unknown) =>
+    ruleUnit && typeof value === "number" && /^rule\.(min|max|nominal|tolerance)$/.test(field) ? formatQuantity(value, ruleUnit) : shown(field, value);
   return (
     <table className="mt-2 w-full border-collapse text-sm">
       <thead>
@@ -62,8 +64,8 @@ function Changes({ fields }: { fields: FieldChange[] }) {
         {fields.map((f) => (
           <tr key={f.field} data-field={f.field}>
             <th scope="row" className="border-b border-rule p-1 text-left align-top">{fieldName(f.field)}</th>
-            <td className="border-b border-rule p-1 align-top text-ink-soft"><del className="decoration-fault">{shown(f.field, f.before)}</del></td>
-            <td className="border-b border-rule p-1 align-top"><ins className="no-underline font-bold">{shown(f.field, f.after)}</ins></td>
+            <td className="border-b border-rule p-1 align-top text-ink-soft"><del className="decoration-fault">{withUnit(f.field, f.before)}</del></td>
+            <td className="border-b border-rule p-1 align-top"><ins className="no-underline font-bold">{withUnit(f.field, f.after)}</ins></td>
           </tr>
         ))}
       </tbody>
@@ -126,8 +128,8 @@ function ItemEntry({ change }: { change: ItemChange }) {
           </>
         )}
       </p>
-      {change.item && <ItemSummary item={change.item} />}
-      {change.fields.length > 0 && <Changes fields={change.fields} />}
+      {change.status !== "kept" && <ItemSummary item={change.item} />}
+      {change.fields.length > 0 && <Changes fields={change.fields} item={change.item} />}
     </li>
   );
 }

@@ -1,6 +1,6 @@
 import { openDB, type DBSchema, type IDBPDatabase } from "idb";
 import type { ChecklistState } from "../checklist-sets.ts";
-import type { ConflictRecord, OfflineBundle } from "../sync/bundle.ts";
+import type { ConflictRecord, OfflineBundle, ReviewComment } from "../sync/bundle.ts";
 import type { Template } from "../templates/index.ts";
 
 /** A response as the device knows it: what is shown, and the server's value and revision under it. */
@@ -45,6 +45,7 @@ export interface LocalChecklist {
   version: number;
   state: ChecklistState;
   canFill: boolean;
+  comments: ReviewComment[];
 }
 
 interface SternpostDB extends DBSchema {

@@ -1,4 +1,5 @@
 import type { OfflineBundle } from "../sync/bundle.ts";
+import { SUBMIT_KEY, submitValue } from "../sync/submission.ts";
 import type { Change, OpResult } from "../sync/protocol.ts";
 import { localDb, type LocalResponse, type OutboxEntry } from "./db.client.ts";
 
@@ -118,6 +119,23 @@ export async function recordEntry(checklistId: string, itemKey: string, value: u
   return entry;
 }
 
+/** Queues the checklist's submission behind its entries and stops further entries on this tablet. */
+export async function queueSubmission(checklistId: string): Promise<OutboxEntry> {
+  const id = await deviceId();
+  const db = await localDb();
+  const tx = db.transaction(["checklists", "outbox", "meta"], "readwrite");
+  const checklist = await tx.objectStore("checklists").get(checklistId);
+  if (!checklist) throw new LocalStoreError("This checklist is not on this tablet.");
+  if (checklist.state !== "in-progress" && checklist.state !== "returned") throw new LocalStoreError("This checklist has already been submitted.");
+  const seq = (((await tx.objectStore("meta").get("seq")) as number | undefined) ?? 0) + 1;
+  const entry: OutboxEntry = { opId: crypto.randomUUID(), deviceId: id, seq, checklistId, itemKey: SUBMIT_KEY, value: submitValue, baseRev: 0, at: new Date().toISOString() };
+  await tx.objectStore("outbox").add(entry);
+  await tx.objectStore("meta").put(seq, "seq");
+  await tx.objectStore("checklists").put({ ...checklist, state: "submitted" });
+  await tx.done;
+  return entry;
+}
+
 /** The outbox in the order entries were made. */
 export async function outboxInOrder(): Promise<OutboxEntry[]> {
   return (await localDb()).getAllFromIndex("outbox", "bySeq");
@@ -126,7 +144,7 @@ export async function outboxInOrder(): Promise<OutboxEntry[]> {
 /** Takes in a sync answer: confirmed entries leave the outbox, conflicts and refusals are kept for the person. */
 export async function applySyncAnswer(sent: OutboxEntry[], answer: { results: OpResult[]; changes: Change[]; cursor: string }, me: string) {
   const db = await localDb();
-  const tx = db.transaction(["responses", "outbox", "conflicts", "rejections", "meta"], "readwrite");
+  const tx = db.transaction(["responses", "outbox", "conflicts", "rejections", "meta", "checklists"], "readwrite");
   const outbox = tx.objectStore("outbox");
   const responses = tx.objectStore("responses");
   const byId = new Map(sent.map((op) => [op.opId, op]));
@@ -134,6 +152,15 @@ export async function applySyncAnswer(sent: OutboxEntry[], answer: { results: Op
     const op = byId.get(result.opId);
     if (!op) continue;
     await outbox.delete(op.opId);
+    if (op.itemKey === SUBMIT_KEY) {
+      if (result.status === "rejected") {
+        // Refused (say, an item left): the checklist is open again here, and the reason is shown.
+        const checklist = await tx.objectStore("checklists").get(op.checklistId);
+        if (checklist) await tx.objectStore("checklists").put({ ...checklist, state: "in-progress" });
+        await tx.objectStore("rejections").put({ opId: op.opId, checklistId: op.checklistId, itemKey: op.itemKey, value: op.value, reason: result.reason ?? "Refused.", at: op.at });
+      }
+      continue;
+    }
     const later = (await outbox.getAll()).filter((o) => o.checklistId === op.checklistId && o.itemKey === op.itemKey);
     const local = await responses.get([op.checklistId, op.itemKey]);
     if (result.status === "applied") {

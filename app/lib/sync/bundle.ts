@@ -6,11 +6,19 @@ import type { Role } from "../roles.ts";
 export interface OfflineBundle {
   user: { id: number; name: string; email: string; role: Role };
   jobs: { id: number; vesselName: string; hin: string | null; engineModel: string; status: string; dueDate: string | null; leadName: string }[];
-  checklists: { id: string; jobId: number; key: string; title: string; version: number; state: ChecklistState; canFill: boolean }[];
+  checklists: { id: string; jobId: number; key: string; title: string; version: number; state: ChecklistState; canFill: boolean; comments: ReviewComment[] }[];
   templates: { key: string; version: number; template: Template }[];
   responses: { checklistId: string; itemKey: string; value: unknown; rev: number; by: string; at: string }[];
   conflicts: ConflictRecord[];
   cursor: string;
+}
+
+/** A lead's remark on an item, shown to the technician at the item. */
+export interface ReviewComment {
+  itemKey: string;
+  by: string;
+  at: string;
+  text: string;
 }
 
 /** A value kept aside because it arrived based on an older revision and differed. */

@@ -34,8 +34,8 @@ export interface ItemChange {
   to?: ItemPlace;
   moved: boolean;
   fields: FieldChange[];
-  /** The whole item, when it was added or removed: there is nothing to compare it with. */
-  item?: Item;
+  /** The item as it is now (as it was, when removed): what an added item asks for, the unit of a changed limit. */
+  item: Item;
 }
 
 export interface SectionChange {
@@ -156,6 +156,7 @@ function diffItems(from: Template, to: Template): ItemChange[] {
       to: place,
       moved: !inPlace.has(item.key),
       fields: itemFieldChanges(old.item, item),
+      item,
     };
   });
   const fromKeys = [...before.keys()];

@@ -23,7 +23,8 @@ export interface LineDraft {
 }
 
 export interface OptionDraft extends LineDraft {
-  needsNote: boolean;
+  /** Left unset unless someone sets it, so a file's explicit false comes back as written. */
+  needsNote?: boolean;
 }
 
 export interface RuleDraft {
@@ -217,7 +218,7 @@ export function fromTemplate(template: Template): EditorState {
         case "calc":
           return { ...draft, calc: item.calc, inputs: Object.fromEntries(Object.entries(item.inputs).map(([k, b]) => [k, bindingDraft(b)])) };
         case "choice":
-          return { ...draft, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote ?? false })) };
+          return { ...draft, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote })) };
         case "photo":
           return { ...draft, minPhotos: String(item.minPhotos) };
         default:
@@ -294,7 +295,7 @@ export function toItemInput(item: ItemDraft): Record<string, unknown> {
         ),
       };
     case "choice":
-      return { ...base, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote || undefined })) };
+      return { ...base, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote })) };
     case "photo":
       return { ...base, minPhotos: numberFrom(item.minPhotos) };
     default:
@@ -449,7 +450,7 @@ function newItem(state: EditorState, kind: ItemKind): { item: ItemDraft; nextId:
     case "readings":
       return { item: { ...item, unit: "in", rows: [line("rows", 1, "Row 1")], columns: [line("columns", 1, "Column 1")] }, nextId: next };
     case "choice":
-      return { item: { ...item, options: [{ ...line("options", 1, ""), needsNote: false }, { ...line("options", 2, ""), needsNote: false }] }, nextId: next };
+      return { item: { ...item, options: [line("options", 1, ""), line("options", 2, "")] }, nextId: next };
     case "photo":
       return { item: { ...item, minPhotos: "1" }, nextId: next };
     default:
@@ -469,7 +470,7 @@ function lineReducer(item: ItemDraft, action: Extract<EditorAction, { type: `lin
     case "line/add": {
       const key = uniqueKey(`${lineBase[action.list]}-${list.length + 1}`, list.map((l) => l.key));
       const line: LineDraft = { id: `l${nextId}`, key, label: "", autoKey: true };
-      return set([...list, action.list === "options" ? ({ ...line, needsNote: false } as OptionDraft) : line]);
+      return set([...list, line]);
     }
     case "line/update":
       return set(

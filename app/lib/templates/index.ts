@@ -69,3 +69,5 @@ export { describeRule, formatQuantity, unitSymbol } from "./format";
 export { calcDefinition, gatherCalcInputs } from "./calc-inputs";
 export type { GatheredInputs } from "./calc-inputs";
 export { describeValue } from "./describe-value";
+export { diffTemplates } from "./diff";
+export type { ChangeStatus, FieldChange, ItemChange, ItemPlace, SectionChange, TemplateDiff } from "./diff";

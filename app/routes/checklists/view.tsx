@@ -5,10 +5,10 @@ import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { FillItem } from "~/components/checklist/fill-item";
 import { checklistStateLabels } from "~/lib/checklist-sets";
 import { canFillJob } from "~/lib/permissions";
-import { findItem, progress, valueSchemaFor } from "~/lib/templates";
+import { findItem, progress, valueSchemaFor, type Template } from "~/lib/templates";
 import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
-import { openConflicts } from "~/server/offline.server";
+import { commentsOn, openConflicts } from "~/server/offline.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.checklist.title ?? "Checklist"} · Sternpost` }];
 
@@ -18,7 +18,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return {
     source: "server" as const,
     me: user.name,
-    checklist: { ...summary, canFill: canFillJob(user, job) },
+    checklist: { ...summary, canFill: canFillJob(user, job), comments: (await commentsOn([checklist.id])).map(({ checklistId: _, ...c }) => c) },
     template,
     responses: await checklistResponses(checklist.id),
     conflicts: (await openConflicts([checklist.id])).length,
@@ -57,6 +57,16 @@ export async function clientAction({ request, params }: Route.ClientActionArgs) 
   const form = await request.formData();
   const itemKey = String(form.get("itemKey") ?? "");
   const store = await import("~/lib/offline/store.client");
+  if (form.get("intent") === "submit") {
+    try {
+      await store.queueSubmission(params.checklistId);
+    } catch (error) {
+      return { itemKey: "", error: error instanceof store.LocalStoreError ? error.message : "Not submitted." };
+    }
+    const { requestSync, refreshStatus } = await import("~/lib/offline/status.client");
+    void refreshStatus().then(() => (navigator.onLine ? requestSync() : undefined));
+    return { itemKey: "", error: null };
+  }
   const local = await store.readChecklist(params.checklistId);
   if (!local) return { itemKey, error: "This checklist is not on this tablet yet; connect once to make it available offline." };
   const item = findItem(local.template, itemKey);
@@ -78,6 +88,38 @@ export async function clientAction({ request, params }: Route.ClientActionArgs) 
   const { requestSync, refreshStatus } = await import("~/lib/offline/status.client");
   void refreshStatus().then(() => (navigator.onLine ? requestSync() : undefined));
   return { itemKey, error: null };
+}
+
+function SubmitPanel({ state, template, onJump, onSubmit }: { state: ReturnType<typeof progress>; template: Template; onJump: (section: number) => void; onSubmit: () => void }) {
+  const missing = [...state.overall.left, ...state.overall.attention];
+  return (
+    <div className="card mt-6 flex flex-col gap-3" data-testid="submit-panel">
+      <h2 className="text-xl font-bold">Submit for review</h2>
+      {state.complete ? (
+        <>
+          <p>Every required item is done. Once submitted, the lead reviews it and it takes no more entries; with no connection it is sent with the next sync.</p>
+          <div><button type="button" className="btn btn-primary" onClick={onSubmit}>Submit for review</button></div>
+        </>
+      ) : (
+        <>
+          <p>Before it can be submitted:</p>
+          <ul className="flex flex-col gap-1">
+            {missing.map((key) => {
+              const sectionIndex = template.sections.findIndex((s) => s.items.some((i) => i.key === key));
+              const item = template.sections[sectionIndex]?.items.find((i) => i.key === key);
+              return (
+                <li key={key}>
+                  <button type="button" className="text-left text-harbour underline" onClick={() => onJump(sectionIndex)}>
+                    {state.overall.attention.includes(key) ? "▲ needs attention" : "○ not answered"}: {item?.label} (section {sectionIndex + 1})
+                  </button>
+                </li>
+              );
+            })}
+          </ul>
+        </>
+      )}
+    </div>
+  );
 }
 
 export function HydrateFallback() {
@@ -144,10 +186,16 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
             <FillItem key={item.key} item={item} template={template} value={responses[item.key]?.value} verdict={state.verdicts[item.key]!}
               pending={!!responses[item.key]?.pending} by={me} disabled={!editable} onSave={save(item.key)}
               diagram={<CalcDiagram item={item} template={template} responses={values} verdict={state.verdicts[item.key]!} />}>
+              {checklist.comments.filter((c) => c.itemKey === item.key).map((c, i) => (
+                <p key={i} className="rounded-md border-2 border-harbour p-2" data-testid="review-comment">
+                  <strong>Lead's comment: </strong>{c.text} <span className="text-sm text-ink-soft">({c.by}, {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })})</span>
+                </p>
+              ))}
               {failed?.itemKey === item.key && <p role="alert" className="font-bold text-fault">▲ {failed.error}</p>}
             </FillItem>
           ))}
         </ol>
+        {editable && <SubmitPanel state={state} template={template} onJump={setSectionIndex} onSubmit={() => fetcher.submit({ intent: "submit" }, { method: "post" })} />}
         <div className="mt-6 flex justify-between gap-2">
           <button type="button" className="btn" disabled={sectionIndex === 0} onClick={() => setSectionIndex(sectionIndex - 1)}>← Previous section</button>
           <button type="button" className="btn" disabled={sectionIndex >= template.sections.length - 1} onClick={() => setSectionIndex(sectionIndex + 1)}>Next section →</button>

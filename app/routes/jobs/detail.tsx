@@ -1,23 +1,30 @@
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Link } from "react-router";
 import type { Route } from "./+types/detail";
+import { IssueRecord } from "~/components/issue-record";
 import { JobChecklists } from "~/components/job-checklists";
 import { defaultTemplatesFor } from "~/lib/checklist-sets";
 import { canEditJob } from "~/lib/permissions";
 import { startChecklistsSchema } from "~/lib/validation/checklists";
+import { issueRecordSchema } from "~/lib/validation/records";
 import { jobScopeLabels, jobStatusLabels } from "~/lib/validation/jobs";
 import { ChecklistStartError, listJobChecklists, startChecklists } from "~/server/checklists.server";
 import { requireJob } from "~/server/job-access.server";
+import { recordReadiness, recordsOfJob, issueRecord } from "~/server/records.server";
+import { ReviewError, startAmendment } from "~/server/review.server";
 import { latestPublished } from "~/server/templates.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.job.vesselName ?? "Job"} · Sternpost` }];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, job } = await requireJob(request, params.jobId);
-  const [checklists, library] = await Promise.all([listJobChecklists(job.id), latestPublished()]);
+  const [checklists, library, readiness, records] = await Promise.all([listJobChecklists(job.id), latestPublished(), recordReadiness(job.id), recordsOfJob(job.id)]);
   return {
     job,
     canEdit: canEditJob(user, job),
+    canReview: user.role === "lead" && job.leadId === user.id,
+    readiness,
+    records: user.role === "technician" ? [] : records,
     checklists,
     available: library.map(({ key, title, version }) => ({ key, title, version })),
     defaults: defaultTemplatesFor[job.scope],
@@ -26,15 +33,36 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, job } = await requireJob(request, params.jobId, "edit");
-  const submission = parseWithZod(await request.formData(), { schema: startChecklistsSchema });
-  if (submission.status !== "success") return data({ errors: Object.values(submission.error ?? {}).flatMap((e) => e ?? []) }, { status: 400 });
+  const form = await request.formData();
+  if (form.get("intent") === "issue-record") {
+    const parsed = issueRecordSchema.safeParse(Object.fromEntries(form));
+    if (!parsed.success) return data({ errors: null, recordError: parsed.error.issues[0]!.message, issued: null }, { status: 400 });
+    try {
+      await issueRecord(user, job.id, parsed.data.emails);
+    } catch (error) {
+      if (error instanceof ReviewError) return data({ errors: null, recordError: error.message, issued: null }, { status: error.status });
+      throw error;
+    }
+    return { errors: null, recordError: null, issued: `Record issued to ${parsed.data.emails.join(", ")}.` };
+  }
+  if (form.get("intent") === "amend") {
+    try {
+      await startAmendment(user, String(form.get("checklistId") ?? ""));
+    } catch (error) {
+      if (error instanceof ReviewError) return data({ errors: [error.message], recordError: null, issued: null }, { status: error.status });
+      throw error;
+    }
+    return { errors: null, recordError: null, issued: null };
+  }
+  const submission = parseWithZod(form, { schema: startChecklistsSchema });
+  if (submission.status !== "success") return data({ errors: Object.values(submission.error ?? {}).flatMap((e) => e ?? []), recordError: null, issued: null }, { status: 400 });
   try {
     await startChecklists(job.id, submission.value.templates, user.id);
   } catch (error) {
-    if (error instanceof ChecklistStartError) return data({ errors: [error.message] }, { status: 400 });
+    if (error instanceof ChecklistStartError) return data({ errors: [error.message], recordError: null, issued: null }, { status: 400 });
     throw error;
   }
-  return { errors: null };
+  return { errors: null, recordError: null, issued: null };
 }
 
 function Fact({ label, children }: { label: string; children: React.ReactNode }) {
@@ -47,7 +75,7 @@ function Fact({ label, children }: { label: string; children: React.ReactNode })
 }
 
 export default function JobDetail({ loaderData, actionData }: Route.ComponentProps) {
-  const { job, canEdit, checklists, available, defaults } = loaderData;
+  const { job, canEdit, canReview, checklists, available, defaults, readiness, records } = loaderData;
   return (
     <>
       <div className="mb-6 flex flex-wrap items-end justify-between gap-4">
@@ -60,7 +88,8 @@ export default function JobDetail({ loaderData, actionData }: Route.ComponentPro
         </div>
         {canEdit && <Link className="btn" to={`/jobs/${job.id}/edit`}>Edit job</Link>}
       </div>
-      <JobChecklists checklists={checklists} available={available} defaults={defaults} canStart={canEdit} result={actionData} />
+      <JobChecklists checklists={checklists} available={available} defaults={defaults} canStart={canEdit} canReview={canReview} result={actionData} />
+      {(canEdit || records.length > 0) && <IssueRecord readiness={readiness} records={records} canIssue={canEdit} error={actionData?.recordError} issued={actionData?.issued} />}
       <section className="card mb-6">
         <h2 className="mb-3 text-xl font-bold">Installed equipment</h2>
         <dl className="grid grid-cols-2 gap-4 md:grid-cols-4">

@@ -1,7 +1,7 @@
 import { Form, Link } from "react-router";
 import type { Route } from "./+types/compare";
 import { TemplateDiffView } from "~/components/library/template-diff";
-import { diffTemplates } from "~/lib/templates/diff";
+import { diffTemplates } from "~/lib/templates";
 import { readableVersion, templateHistory } from "~/server/library.server";
 import { invariantFound, requireCapability } from "~/server/permissions.server";
 

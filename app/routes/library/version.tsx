@@ -7,7 +7,7 @@ import { TwoStepButton } from "~/components/library/two-step-button";
 import { shortDate, VersionStatusBadge } from "~/components/library/version-status";
 import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
 import { can } from "~/lib/permissions";
-import { diffTemplates } from "~/lib/templates/diff";
+import { diffTemplates } from "~/lib/templates";
 import {
   createDraftFrom,
   discardDraft,

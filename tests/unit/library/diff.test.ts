@@ -119,6 +119,7 @@ describe("differences between two versions", () => {
         to: { sectionKey: "two", sectionTitle: "Two", position: 1 },
         moved: true,
         fields: [],
+        item: v1.sections[0].items[2],
       },
     ]);
   });

@@ -1,5 +1,5 @@
 import { describe, expect, test } from "vitest";
-import { describeRule, type MeasureItem } from "~/lib/templates";
+import { describeRule, parseTemplate, type MeasureItem } from "~/lib/templates";
 import {
   allItems,
   checkDraft,
@@ -36,6 +36,30 @@ describe("reading a template into the editor and writing it back", () => {
       expect(parsed.ok && parsed.template).toEqual(template);
       expect(sameAsTemplate(state, template)).toBe(true);
     }
+  });
+
+  test("fields a file may spell out or leave to the default come back as the file had them", () => {
+    const parsed = parseTemplate({
+      key: "spelled-out",
+      version: 3,
+      title: "Spelled out",
+      purpose: "Explicit defaults.",
+      sections: [
+        {
+          key: "only",
+          title: "Only",
+          items: [
+            { kind: "choice", key: "c", label: "C", options: [{ key: "a", label: "A", needsNote: false }, { key: "b", label: "B" }] },
+            { kind: "measure", key: "m", label: "M", unit: "mm", accepts: ["mm"], required: false },
+            { kind: "readings", key: "r", label: "R", rows: [{ key: "x", label: "X" }], columns: [{ key: "y", label: "Y" }], unit: "in", rule: { max: 1, unit: "in", appliesTo: "each-cell" } },
+          ],
+        },
+      ],
+    });
+    if (!parsed.ok) throw new Error("fixture does not parse");
+    const state = fromTemplate(parsed.template);
+    expect(sameAsTemplate(state, parsed.template)).toBe(true);
+    expect(checkDraft(state)).toEqual(parsed);
   });
 
   test("any edit makes it differ; undoing the edit makes it the same again", () => {

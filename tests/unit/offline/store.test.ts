@@ -17,7 +17,7 @@ const template: Template = {
 const bundle = (over: Partial<OfflineBundle> = {}): OfflineBundle => ({
   user: { id: 1, name: "Tess Tech", email: "t@test.example", role: "technician" },
   jobs: [{ id: 1, vesselName: "Test hull", hin: null, engineModel: "E", status: "underway", dueDate: null, leadName: "L" }],
-  checklists: [{ id: CHECKLIST, jobId: 1, key: "demo", title: "Demo", version: 1, state: "in-progress", canFill: true }],
+  checklists: [{ id: CHECKLIST, jobId: 1, key: "demo", title: "Demo", version: 1, state: "in-progress", canFill: true, comments: [] }],
   templates: [{ key: "demo", version: 1, template }],
   responses: [],
   conflicts: [],

@@ -51,12 +51,12 @@ export function LinesEditor({
               )}
             </EditorField>
             <div className="flex flex-wrap items-end gap-2">
-              {"needsNote" in line && (
+              {list === "options" && (
                 <label className="flex min-h-12 items-center gap-2">
                   <input
                     type="checkbox"
                     className="size-6"
-                    checked={line.needsNote}
+                    checked={(line as OptionDraft).needsNote ?? false}
                     onChange={(e) => dispatch({ type: "line/update", itemId, list, lineId: line.id, patch: { needsNote: e.currentTarget.checked } })}
                   />
                   Needs a note

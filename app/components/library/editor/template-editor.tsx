@@ -25,7 +25,7 @@ export function TemplateEditor({ saved }: { saved: Template }) {
   const reply = fetcher.state === "idle" ? fetcher.data : undefined;
   const problems = check.ok ? (reply && !reply.ok ? (reply.problems ?? []) : []) : check.problems;
   const byPath = useMemo(() => problemsByPath(problems), [problems]);
-  const dirty = !sameAsTemplate(state, saved);
+  const dirty = useMemo(() => !sameAsTemplate(state, saved), [state, saved]);
   const [view, setView] = useState<"edit" | "preview">("edit");
   const [open, setOpen] = useState<Set<string>>(() => new Set());
   const [announcement, setAnnouncement] = useState("");
@@ -207,10 +207,10 @@ export function TemplateEditor({ saved }: { saved: Template }) {
         </p>
 
         {blocker.state === "blocked" && (
-          <div role="alertdialog" aria-label="Unsaved changes" className="rounded-md border-2 border-brass bg-brass-light p-3">
+          <div role="alertdialog" aria-label="Unsaved changes" className="fixed top-4 left-1/2 z-30 w-[min(40rem,calc(100%-2rem))] -translate-x-1/2 rounded-md border-2 border-brass bg-brass-light p-3 shadow-lg">
             <p className="font-bold">This draft has changes that are not saved. Leave without saving them?</p>
             <div className="mt-2 flex gap-2">
-              <button type="button" className="btn btn-primary" onClick={() => blocker.reset()}>
+              <button type="button" className="btn btn-primary" autoFocus onClick={() => blocker.reset()}>
                 Stay and keep editing
               </button>
               <button type="button" className="btn" onClick={() => blocker.proceed()}>

@@ -1,0 +1,163 @@
+import { randomUUID } from "node:crypto";
+import { execFileSync } from "node:child_process";
+import { writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import type { Browser, Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { connect } from "../../db/connect.ts";
+import { sha256 } from "../../db/seeds/library.ts";
+import { expectNoConsoleErrors, hydrated, launch, open, signIn, tabletContext } from "../support/browser.ts";
+import { waitForMail } from "../support/mail.ts";
+
+let browser: Browser;
+const knex = connect(process.env.E2E_DATABASE_URL!);
+let jobId: number;
+
+// A short checklist for this test only, so the whole path fits in one run.
+const template = {
+  key: "handover-check", version: 1, title: "Handover check", purpose: "A short end-to-end checklist.",
+  sections: [{ key: "main", title: "Main", items: [
+    { kind: "check", key: "bilge-dry", label: "Bilge dry after the run", required: true },
+    { kind: "measure", key: "face-runout", label: "Coupling face runout after facing", unit: "in", accepts: ["in", "mm"], rule: { max: 0.002, unit: "in" }, required: true },
+    { kind: "text", key: "remarks", label: "Remarks", required: true },
+  ] }],
+};
+
+beforeAll(async () => {
+  browser = await launch();
+  const body = JSON.stringify(template);
+  const [versionId] = await knex("template_versions").insert({ template_key: template.key, version: 1, status: "published", title: template.title, body, body_sha256: sha256(body), published_at: new Date() });
+  const lead = await knex("users").where({ email: "lead2@kittiwake-slip.example" }).first();
+  const tech = await knex("users").where({ email: "tech2@kittiwake-slip.example" }).first();
+  const vessel = await knex("vessels").where({ name: "Merrow" }).first();
+  [jobId] = await knex("jobs").insert({
+    vessel_id: vessel.id, scope: "realignment", status: "underway", engine_model: "R4-110 diesel", engine_serial: "R4N-E2E", rated_power_hp: 110, rated_rpm_min: 2500,
+    rated_rpm_max: 2600, gear_ratio: 2.5, prop_diameter_in: 20, prop_pitch_in: 14, prop_blades: 3, shaft_diameter_in: 1.25, shaft_material: "316 stainless", coupling_type: "Solid", lead_id: lead.id,
+  });
+  await knex("job_technicians").insert({ job_id: jobId, user_id: tech.id });
+  await knex("job_checklists").insert({ id: randomUUID(), job_id: jobId, template_version_id: versionId, template_key: template.key, started_by: lead.id });
+});
+afterAll(async () => {
+  await browser?.close();
+  await knex.destroy();
+});
+
+const item = (page: Page, key: string) => page.locator(`[data-item="${key}"]`);
+const state = async () => (await knex("job_checklists").where({ job_id: jobId }).first()).state;
+
+describe("from submission to the surveyor's verified PDF", () => {
+  it("submit, return with a comment, fix, countersign, issue, download, verify", async () => {
+    // The technician fills it in and submits.
+    const tech = await tabletContext(browser);
+    const techPage = await tech.context.newPage();
+    await signIn(techPage, "tech2@kittiwake-slip.example");
+    await techPage.getByRole("button", { name: /Make my jobs available offline/ }).click();
+    await techPage.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+    await techPage.getByRole("link", { name: /^Handover check/ }).click();
+    await techPage.getByRole("heading", { level: 1, name: "Handover check" }).waitFor();
+    expect(await techPage.getByTestId("submit-panel").innerText()).toMatch(/Bilge dry after the run/);
+    await item(techPage, "bilge-dry").getByRole("button", { name: "✓ Pass" }).click();
+    await item(techPage, "face-runout").getByLabel("Reading").fill("0.0015");
+    await item(techPage, "face-runout").getByRole("button", { name: "Record reading" }).click();
+    await item(techPage, "remarks").getByRole("textbox").fill("Couplings faced, bolts torqued");
+    await item(techPage, "remarks").getByRole("button", { name: "Save" }).click();
+    await techPage.getByRole("button", { name: "Submit for review" }).click();
+    await expect.poll(() => techPage.locator("h1 + p").innerText()).toMatch(/Waiting for review/);
+    await expect.poll(state, { timeout: 20_000 }).toBe("submitted");
+
+    // The lead returns it with a comment.
+    const lead = await tabletContext(browser);
+    const leadPage = await lead.context.newPage();
+    await signIn(leadPage, "lead2@kittiwake-slip.example");
+    await open(leadPage, `/jobs/${jobId}`);
+    await leadPage.getByRole("link", { name: "Review" }).click();
+    await leadPage.getByRole("heading", { name: /Review: Handover check/ }).waitFor();
+    await item(leadPage, "remarks").getByLabel("Comment on this item").fill("Say which bolts and the torque used");
+    await item(leadPage, "remarks").getByRole("button", { name: "Add comment" }).click();
+    await item(leadPage, "remarks").getByTestId("review-comment").waitFor();
+    await leadPage.getByRole("button", { name: /Return to the technician/ }).click();
+    await leadPage.waitForURL(new RegExp(`/jobs/${jobId}$`));
+    expect(await state()).toBe("returned");
+
+    // The technician sees the comment at the item, fixes it and submits again.
+    await open(techPage, "/");
+    await techPage.getByRole("button", { name: /Refresh the offline copy/ }).click();
+    await techPage.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+    await techPage.getByRole("link", { name: /^Handover check/ }).click();
+    await item(techPage, "remarks").getByTestId("review-comment").getByText(/torque used/).waitFor();
+    await item(techPage, "remarks").getByRole("textbox").fill("Couplings faced; four M12 bolts at 85 N·m");
+    await item(techPage, "remarks").getByRole("button", { name: "Save" }).click();
+    await techPage.getByRole("button", { name: "Submit for review" }).click();
+    await expect.poll(state, { timeout: 20_000 }).toBe("submitted");
+
+    // The lead countersigns with the password (a wrong one is refused first).
+    await open(leadPage, `/checklists/${(await knex("job_checklists").where({ job_id: jobId }).first()).id}/review`);
+    await leadPage.getByLabel("Your password, to countersign").fill("not-my-password");
+    await leadPage.getByRole("button", { name: "Countersign and lock" }).click();
+    await leadPage.getByRole("alert").getByText(/password is not right/).waitFor();
+    await leadPage.getByLabel("Your password, to countersign").fill("slipway-demo-2026");
+    await leadPage.getByRole("button", { name: "Countersign and lock" }).click();
+    await leadPage.waitForURL(new RegExp(`/jobs/${jobId}$`));
+    const signed = await knex("job_checklists").where({ job_id: jobId }).first();
+    expect(signed.state).toBe("countersigned");
+    expect(signed.digest).toMatch(/^[0-9a-f]{64}$/);
+
+    // The manager issues the record to a new surveyor.
+    const manager = await tabletContext(browser);
+    const managerPage = await manager.context.newPage();
+    await signIn(managerPage, "manager@kittiwake-slip.example");
+    await open(managerPage, `/jobs/${jobId}`);
+    const surveyorEmail = `surveyor.${Date.now()}@harbourmark-survey.example`;
+    await managerPage.getByLabel("Surveyors' e-mail addresses").fill("not an address");
+    await managerPage.getByRole("button", { name: "Issue the record" }).click();
+    await managerPage.getByRole("alert").getByText(/not an e-mail address/).waitFor();
+    await managerPage.getByLabel("Surveyors' e-mail addresses").fill(surveyorEmail);
+    await managerPage.getByRole("button", { name: "Issue the record" }).click();
+    await managerPage.getByRole("status").getByText(/Record issued/).waitFor();
+
+    // The e-mail arrives with the links; the surveyor sets a password and reads the record.
+    const mail = await waitForMail(surveyorEmail);
+    const invitation = mail.text.match(/https?:\/\/\S+\/invitation\/\S+/)![0];
+    const recordUrl = mail.text.match(/https?:\/\/\S+\/records\/[0-9a-f-]{36}/)![0];
+    const verifyUrl = mail.text.match(/https?:\/\/\S+\/verify\/[0-9a-f-]{36}/)![0];
+    const surveyor = await tabletContext(browser);
+    const surveyorPage = await surveyor.context.newPage();
+    await open(surveyorPage, invitation);
+    await surveyorPage.getByLabel("New password").fill("surveyor-password-1");
+    await surveyorPage.getByLabel("Type it again").fill("surveyor-password-1");
+    await surveyorPage.getByRole("button", { name: "Set password" }).click();
+    await surveyorPage.waitForURL(/\/login/);
+    await signIn(surveyorPage, surveyorEmail, "surveyor-password-1");
+    await open(surveyorPage, new URL(recordUrl).pathname);
+    await surveyorPage.getByTestId("record-checklist").getByText(/countersigned by/).waitFor();
+    // Everything else stays closed to the surveyor.
+    expect((await surveyorPage.request.get(`/jobs/${jobId}`)).status()).toBe(403);
+    expect((await surveyorPage.request.get(`/checklists/${signed.id}`)).status()).toBe(403);
+
+    const download = surveyorPage.waitForEvent("download");
+    await surveyorPage.getByRole("link", { name: "Download the PDF" }).click();
+    const pdfPath = path.join(tmpdir(), `record-${Date.now()}.pdf`);
+    await (await download).saveAs(pdfPath);
+    const text = execFileSync("pdftotext", ["-layout", pdfPath, "-"], { encoding: "utf8" });
+    const digest = (await knex("records").where({ job_id: jobId }).first()).digest;
+    expect(text).toContain("Merrow");
+    expect(text).toMatch(/0\.0015/);
+    expect(text.replace(/\s+/g, "")).toContain(digest);
+
+    // The public verification page: genuine, then changed after a direct edit of the stored record.
+    const visitor = await (await tabletContext(browser)).context.newPage();
+    await open(visitor, new URL(verifyUrl).pathname);
+    expect(await visitor.getByTestId("verdict").innerText()).toMatch(/Genuine and unchanged/);
+    expect(await visitor.locator("main").innerText()).not.toContain("R4N-E2E");
+    const stored = await knex("records").where({ job_id: jobId }).first();
+    await knex("records").where({ id: stored.id }).update({ content: stored.content.replace("0.0015", "0.0009") });
+    await open(visitor, new URL(verifyUrl).pathname);
+    expect(await visitor.getByTestId("verdict").innerText()).toMatch(/Changed/);
+    await knex("records").where({ id: stored.id }).update({ content: stored.content });
+
+    expectNoConsoleErrors(tech.errors);
+    expectNoConsoleErrors(lead.errors);
+    writeFileSync(path.join(tmpdir(), "last-record.txt"), text);
+  });
+});
