@@ -139,9 +139,14 @@ export async function storePhoto(actor: Actor, input: { id: string; checklistId:
   await putObject(key, input.bytes, type.mime);
   const photo: StoredPhoto = { id: input.id, checklistId: input.checklistId, itemKey: input.itemKey, sha256, bytes: input.bytes.byteLength, contentType: type.mime };
   try {
-    await db()("photos").insert({
-      id: photo.id, checklist_id: photo.checklistId, item_key: photo.itemKey, sha256, bytes: photo.bytes, content_type: photo.contentType,
-      uploaded_by: actor.id, uploaded_at: new Date(), storage_key: key,
+    await db().transaction(async (trx) => {
+      // Under the checklist row's lock: a countersignature cannot slip in between the check and the row.
+      const { state } = await trx("job_checklists").where({ id: photo.checklistId }).forShare().first("state");
+      if (state === "countersigned") throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
+      await trx("photos").insert({
+        id: photo.id, checklist_id: photo.checklistId, item_key: photo.itemKey, sha256, bytes: photo.bytes, content_type: photo.contentType,
+        uploaded_by: actor.id, uploaded_at: new Date(), storage_key: key,
+      });
     });
   } catch (error) {
     // The same id sent twice at once: the first insert won; this one is a repeat of it.

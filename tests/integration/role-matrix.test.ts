@@ -62,8 +62,18 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   ["/api/templates/cooling/zero", { anonymous: 401, technician: 400, lead: 400, manager: 400, surveyor: 403 }],
   ["/healthz", { anonymous: 200, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
   ["/no-such-page", { anonymous: 404, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
-  // No local mail sink is configured in these tests, so the development page does not exist.
-  ["/dev/mail", { anonymous: 404, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
+  // The integration setup runs a local mail sink, so its development page exists (for everyone: invitees read it).
+  ["/dev/mail", { anonymous: 200, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
+  ["/calculators", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
+  ["/library", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  ["/audit", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/sync", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
+  [() => `/checklists/${ownChecklist}/review`, { anonymous: 302, technician: 403, lead: 200, manager: 200, surveyor: 403 }],
+  [() => `/checklists/${otherChecklist}/review`, { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/records/00000000-0000-4000-8000-000000000000", { anonymous: 302, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
+  ["/verify/00000000-0000-4000-8000-000000000000", { anonymous: 404, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
+  ["/api/offline", { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  ["/api/sync", { anonymous: 405, technician: 405, lead: 405, manager: 405, surveyor: 405 }],
 ];
 
 describe("role matrix: every page and API route for every role", () => {
@@ -85,6 +95,7 @@ describe("role matrix: every page and API route for every role", () => {
     [() => `/jobs/${otherJob}/edit`, { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
     [() => `/jobs/${ownJob}`, { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
     [() => `/jobs/${otherJob}`, { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
+    [() => `/checklists/${ownChecklist}/review`, { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
   ];
   for (const [path, expected] of posts) {
     for (const who of everyone) {
