@@ -90,4 +90,30 @@ describe("the calculators on a tablet", () => {
     expectNoConsoleErrors(errors);
     await context.close();
   });
+
+  it("works with the network off: opened from the tablet's copy after a reload", async () => {
+    const { context, errors } = await tabletContext(browser);
+    const page = await context.newPage();
+    await signIn(page, "tech@kittiwake-slip.example");
+    await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
+    await page.getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ }).click();
+    await page.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+    await context.setOffline(true);
+    const response = await page.goto("/calculators/propSlip");
+    expect(response?.fromServiceWorker()).toBe(true);
+    await page.waitForSelector("html[data-hydrated]", { state: "attached" });
+    await page.getByLabel("Propeller pitch", { exact: true }).fill("24");
+    await page.getByLabel("Engine rpm", { exact: true }).fill("2800");
+    await page.getByLabel("Gear ratio (e.g. 2.5 for 2.5 : 1)", { exact: true }).fill("1.96");
+    await page.getByLabel("Speed through the water", { exact: true }).fill("27");
+    const expected = slipByHand(24, 2800, 1.96, 27);
+    const slip = await page.locator('[data-result="slip"]').innerText();
+    expect(Math.abs(Number(slip.replace("%", "").trim()) - expected.slipPercent)).toBeLessThanOrEqual(0.05);
+    // Back to the list and into another calculator, still offline (client-side navigation).
+    await page.getByRole("link", { name: "Calculators" }).first().click();
+    await page.getByRole("heading", { level: 1, name: "Calculators" }).waitFor();
+    expect(await page.getByTestId("connection").innerText()).toMatch(/Offline/);
+    expectNoConsoleErrors(errors.filter((e) => !/ERR_INTERNET_DISCONNECTED/.test(e)));
+    await context.close();
+  });
 });
