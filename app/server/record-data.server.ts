@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import type { RecordChecklist } from "~/lib/record/types";
 import { db } from "./db.server.ts";
+import { checklistPhotos } from "./photos.server.ts";
 
 const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 const iso = (d: Date | string | null) => (d === null ? undefined : new Date(d).toISOString());
@@ -23,9 +24,7 @@ export async function loadRecordChecklist(checklistId: string, knex: Knex = db()
     knex("response_history as h").join("users as u", "u.id", "h.user_id").where("h.checklist_id", checklistId).orderBy(["h.item_key", "h.rev"]).select("h.item_key", "h.value", "h.rev", "h.at", "u.name"),
     knex("checklist_comments as m").join("users as u", "u.id", "m.user_id").where("m.checklist_id", checklistId).orderBy("m.id").select("m.item_key", "m.text", "m.at", "u.name"),
   ]);
-  const photos = (await knex.schema.hasTable("photos"))
-    ? await knex("photos").where({ checklist_id: checklistId }).orderBy(["item_key", "id"]).select("item_key", "id", "sha256")
-    : [];
+  const photos = await checklistPhotos(checklistId, knex);
   const historyByItem: RecordChecklist["history"] = {};
   for (const h of history) (historyByItem[h.item_key] ??= []).push({ rev: h.rev, value: json(h.value), by: h.name, at: new Date(h.at).toISOString() });
   return {
@@ -36,7 +35,7 @@ export async function loadRecordChecklist(checklistId: string, knex: Knex = db()
     responses: Object.fromEntries(responses.map((r: any) => [r.item_key, { value: json(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString() }])),
     history: historyByItem,
     comments: comments.map((c: any) => ({ itemKey: c.item_key, by: c.name, at: new Date(c.at).toISOString(), text: c.text })),
-    photos: photos.map((p: any) => ({ itemKey: p.item_key, id: p.id, sha256: p.sha256 })),
+    photos,
     submittedBy: row.submitted_name ?? undefined,
     submittedAt: iso(row.submitted_at),
     countersignedBy: row.countersigned_name ?? undefined,

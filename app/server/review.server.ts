@@ -5,6 +5,7 @@ import { checklistDigest } from "~/lib/record/digest.server";
 import { progress, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
+import { photosNotYetStored } from "./photos.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import { checkPassword } from "./users.server.ts";
 
@@ -83,6 +84,9 @@ export async function countersign(actor: Actor, checklistId: string, password: s
     const c = await checklistWithJob(trx, checklistId);
     requireLead(actor, c.job);
     if (c.state !== "submitted") throw new ReviewError("Only a checklist waiting for review can be countersigned.");
+    // The digest covers the photos: every photo an entry lists must have reached the store.
+    const missing = await photosNotYetStored(checklistId, trx);
+    if (missing.length) throw new ReviewError(`${missing.length} photo(s) listed in the entries have not reached the server yet; countersign once the technician's tablet has synced.`);
     const at = new Date();
     await trx("job_checklists").where({ id: checklistId }).update({ countersigned_by: actor.id, countersigned_at: at });
     const content = await loadRecordChecklist(checklistId, trx);

@@ -51,7 +51,7 @@ describe("working with no connection", () => {
 
     await context.setOffline(true);
     await openChecklist(page, "Engine alignment");
-    await page.getByRole("button", { name: /Final alignment afloat/ }).click();
+    await page.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Final alignment afloat/ }).click();
 
     // measure: two attempts, both kept
     const afloat = item(page, "time-afloat");
@@ -87,9 +87,9 @@ describe("working with no connection", () => {
 
     // choice and initials on another checklist
     await openChecklist(page, "Cooling");
-    await page.getByRole("button", { name: /Raw-water pump flow/ }).click();
+    await page.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Raw-water pump flow/ }).click();
     await item(page, "flow-against-maker").getByRole("button", { name: "At or above the maker's figure" }).click();
-    await page.getByRole("button", { name: /Temperatures under load/ }).click();
+    await page.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Temperatures under load/ }).click();
     await item(page, "cooling-done").getByLabel("Your initials").fill("ta");
     await item(page, "cooling-done").getByRole("button", { name: "Confirm" }).click();
     await item(page, "cooling-done").getByText(/Confirmed by TA/).first().waitFor();
@@ -112,7 +112,7 @@ describe("working with no connection", () => {
     expect(reloaded?.fromServiceWorker()).toBe(true);
     await hydrated(again);
     await openChecklist(again, "Engine alignment");
-    await again.getByRole("button", { name: /Final alignment afloat/ }).click();
+    await again.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Final alignment afloat/ }).click();
     expect(await item(again, "time-afloat").getByTestId("attempts").locator("tr").count()).toBe(2);
     await item(again, "face-angularity").locator('[data-verdict="ok"]').waitFor();
 

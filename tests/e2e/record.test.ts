@@ -30,7 +30,9 @@ beforeAll(async () => {
   const [versionId] = await knex("template_versions").insert({ template_key: template.key, version: 1, status: "published", title: template.title, body, body_sha256: sha256(body), published_at: new Date() });
   const lead = await knex("users").where({ email: "lead2@kittiwake-slip.example" }).first();
   const tech = await knex("users").where({ email: "tech2@kittiwake-slip.example" }).first();
-  const vessel = await knex("vessels").where({ name: "Merrow" }).first();
+  // A hull of its own, so other tests' "Merrow" and "Tern of Helvick" links stay unique.
+  const [vesselId] = await knex("vessels").insert({ name: "Fulmar Rock", hin: null, length_value: 28, length_unit: "ft", length_m: 8.534, hull_type: "displacement", owner_name: "Ines Mallory" });
+  const vessel = { id: vesselId };
   [jobId] = await knex("jobs").insert({
     vessel_id: vessel.id, scope: "realignment", status: "underway", engine_model: "R4-110 diesel", engine_serial: "R4N-E2E", rated_power_hp: 110, rated_rpm_min: 2500,
     rated_rpm_max: 2600, gear_ratio: 2.5, prop_diameter_in: 20, prop_pitch_in: 14, prop_blades: 3, shaft_diameter_in: 1.25, shaft_material: "316 stainless", coupling_type: "Solid", lead_id: lead.id,
@@ -141,7 +143,7 @@ describe("from submission to the surveyor's verified PDF", () => {
     await (await download).saveAs(pdfPath);
     const text = execFileSync("pdftotext", ["-layout", pdfPath, "-"], { encoding: "utf8" });
     const digest = (await knex("records").where({ job_id: jobId }).first()).digest;
-    expect(text).toContain("Merrow");
+    expect(text).toContain("Fulmar Rock");
     expect(text).toMatch(/0\.0015/);
     expect(text.replace(/\s+/g, "")).toContain(digest);
 

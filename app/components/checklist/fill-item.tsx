@@ -1,6 +1,7 @@
 import type { Item, Template, Verdict } from "~/lib/templates";
 import { CalcPanel, CheckEditor, ChoiceEditor, InitialsEditor, MeasureEditor, ReadingsEditor, TextEditor, type EditorProps } from "./editors.tsx";
 import { ItemNotes } from "./item-notes.tsx";
+import { PhotoEditor } from "./photo-editor.tsx";
 import { VerdictBadge } from "./verdict-badge.tsx";
 
 export interface FillItemProps {
@@ -13,10 +14,12 @@ export interface FillItemProps {
   disabled: boolean;
   onSave: (value: unknown) => void;
   diagram?: React.ReactNode;
+  /** Photos are kept per checklist on the tablet. */
+  checklistId?: string;
   children?: React.ReactNode;
 }
 
-function Editor(props: EditorProps & { diagram?: React.ReactNode }) {
+function Editor(props: EditorProps & { diagram?: React.ReactNode; checklistId?: string }) {
   const { item } = props;
   switch (item.kind) {
     case "check":
@@ -34,12 +37,12 @@ function Editor(props: EditorProps & { diagram?: React.ReactNode }) {
     case "calc":
       return <CalcPanel {...props} />;
     case "photo":
-      return <p className="text-ink-soft">Photos for this item are taken with the photo step (at least {item.minPhotos}).</p>;
+      return props.checklistId ? <PhotoEditor {...(props as EditorProps<typeof item>)} checklistId={props.checklistId} /> : null;
   }
 }
 
 /** One item as the technician fills it: what to do, the entry, and its verdict in words and a shape. */
-export function FillItem({ item, value, verdict, pending, by, disabled, onSave, diagram, children }: FillItemProps) {
+export function FillItem({ item, value, verdict, pending, by, disabled, onSave, diagram, checklistId, children }: FillItemProps) {
   return (
     <li className="card flex flex-col gap-3" data-item={item.key} id={`item-${item.key}`}>
       <div className="flex flex-wrap items-start justify-between gap-2">
@@ -50,7 +53,7 @@ export function FillItem({ item, value, verdict, pending, by, disabled, onSave, 
         {pending && <span className="text-sm font-bold text-harbour" data-testid="pending">Saved on this tablet · waiting to send</span>}
       </div>
       <ItemNotes item={item} />
-      <Editor item={item} value={value} verdict={verdict} by={by} disabled={disabled} onSave={onSave} diagram={diagram} />
+      <Editor item={item} value={value} verdict={verdict} by={by} disabled={disabled} onSave={onSave} diagram={diagram} checklistId={checklistId} />
       <VerdictBadge verdict={verdict} />
       {children}
     </li>

@@ -1,5 +1,6 @@
 import { localDb } from "./db.client.ts";
 import { getMeta } from "./store.client.ts";
+import { uploadPendingPhotos } from "./photos.client.ts";
 import { syncOnce } from "./sync.client.ts";
 
 export interface SyncStatus {
@@ -51,6 +52,8 @@ export async function requestSync() {
   const run = async () => {
     publish({ syncing: true });
     const result = await syncOnce().catch((error) => ({ ok: false as const, reason: "server" as const, message: String(error) }));
+    // Photos go after the entries that reference them.
+    if (result.ok) await uploadPendingPhotos().catch(() => undefined);
     publish({ syncing: false, problem: result.ok ? null : result.message });
     if (result.ok) {
       failures = 0;

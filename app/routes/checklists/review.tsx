@@ -75,7 +75,7 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
           <ol className="flex flex-col gap-4">
             {section.items.map((item) => (
               <FillItem key={item.key} item={item} template={template} value={responses[item.key]?.value} verdict={state.verdicts[item.key]!} pending={false} by="" disabled onSave={() => {}}
-                diagram={<CalcDiagram item={item} template={template} responses={values} verdict={state.verdicts[item.key]!} />}>
+                checklistId={checklist.id} diagram={<CalcDiagram item={item} template={template} responses={values} verdict={state.verdicts[item.key]!} />}>
                 {responses[item.key] && <p className="text-sm text-ink-soft">Last entry by {responses[item.key]!.by}, {new Date(responses[item.key]!.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })} (revision {responses[item.key]!.rev})</p>}
                 {comments.filter((c) => c.itemKey === item.key).map((c, j) => (
                   <p key={j} className="rounded-md border-2 border-harbour p-2" data-testid="review-comment"><strong>Comment: </strong>{c.text} <span className="text-sm text-ink-soft">({c.by})</span></p>

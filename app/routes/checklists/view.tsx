@@ -185,7 +185,7 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
           {section.items.map((item) => (
             <FillItem key={item.key} item={item} template={template} value={responses[item.key]?.value} verdict={state.verdicts[item.key]!}
               pending={!!responses[item.key]?.pending} by={me} disabled={!editable} onSave={save(item.key)}
-              diagram={<CalcDiagram item={item} template={template} responses={values} verdict={state.verdicts[item.key]!} />}>
+              checklistId={checklist.id} diagram={<CalcDiagram item={item} template={template} responses={values} verdict={state.verdicts[item.key]!} />}>
               {checklist.comments.filter((c) => c.itemKey === item.key).map((c, i) => (
                 <p key={i} className="rounded-md border-2 border-harbour p-2" data-testid="review-comment">
                   <strong>Lead's comment: </strong>{c.text} <span className="text-sm text-ink-soft">({c.by}, {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })})</span>
