@@ -25,6 +25,8 @@ export interface JobRow {
 
 const column = createColumnHelper<JobRow>();
 
+const byDueDate = (a: string | null, b: string | null) => (a === b ? 0 : a === null ? 1 : b === null ? -1 : a < b ? -1 : 1);
+
 const columns = [
   column.accessor("vesselName", {
     header: "Vessel",
@@ -44,7 +46,12 @@ const columns = [
   column.accessor("engineModel", { header: "Engine" }),
   column.accessor("leadName", { header: "Lead" }),
   column.accessor((j) => j.technicianNames.join(", "), { id: "technicians", header: "Technicians" }),
-  column.accessor("dueDate", { header: "Due", cell: (c) => c.getValue() ?? "—", sortUndefined: "last" }),
+  column.accessor("dueDate", {
+    header: "Due",
+    cell: (c) => c.getValue() ?? "—",
+    // Jobs without a due date go last; an explicit order keeps the server's and the browser's rows alike.
+    sortingFn: (a, b) => byDueDate(a.original.dueDate, b.original.dueDate) || a.original.id - b.original.id,
+  }),
 ];
 
 /** The shop's job list: sort by any column, filter by status, search every column. */

@@ -71,6 +71,7 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   [() => `/checklists/${ownChecklist}/review`, { anonymous: 302, technician: 403, lead: 200, manager: 200, surveyor: 403 }],
   [() => `/checklists/${otherChecklist}/review`, { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
   ["/records/00000000-0000-4000-8000-000000000000", { anonymous: 302, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
+  ["/records/00000000-0000-4000-8000-000000000000/photos/00000000-0000-4000-8000-000000000001", { anonymous: 302, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
   ["/verify/00000000-0000-4000-8000-000000000000", { anonymous: 404, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
   ["/api/offline", { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/api/sync", { anonymous: 405, technician: 405, lead: 405, manager: 405, surveyor: 405 }],

@@ -26,9 +26,9 @@ export async function tabletContext(browser: Browser): Promise<{ context: Browse
 function watch(page: Page, errors: string[]) {
   page.on("console", (m) => {
     // A refused page load (403/404) logs a resource error; the tests check those statuses themselves.
-    if (m.type() === "error" && !/Failed to load resource/.test(m.text())) errors.push(m.text());
+    if (m.type() === "error" && !/Failed to load resource/.test(m.text())) errors.push(`${page.url()}: ${m.text()}`);
   });
-  page.on("pageerror", (e) => errors.push(String(e)));
+  page.on("pageerror", (e) => errors.push(`${page.url()}: ${String(e)}`));
 }
 
 export function expectNoConsoleErrors(errors: string[]) {

@@ -64,6 +64,15 @@ export default function RecordView({ loaderData }: Route.ComponentProps) {
                         {(c.history[item.key]?.length ?? 0) > 1 && (
                           <p className="text-sm text-ink-soft">Earlier: {c.history[item.key]!.slice(0, -1).map((h) => `${describeValue(item, h.value)} (${h.by})`).join("; ")}</p>
                         )}
+                        {c.photos.some((p) => p.itemKey === item.key) && (
+                          <div className="flex flex-wrap gap-2">
+                            {c.photos.filter((p) => p.itemKey === item.key).map((p) => (
+                              <a key={p.id} href={`/records/${record.id}/photos/${p.id}`} target="_blank" rel="noreferrer">
+                                <img src={`/records/${record.id}/photos/${p.id}`} alt={`Photo for ${item.label}`} className="h-32 w-auto rounded border border-rule" data-testid="record-photo" />
+                              </a>
+                            ))}
+                          </div>
+                        )}
                         <VerdictBadge verdict={state.verdicts[item.key]!} />
                         <CalcDiagram item={item} template={c.template} responses={values} verdict={state.verdicts[item.key]!} />
                         {c.comments.filter((m) => m.itemKey === item.key).map((m, i) => <p key={i} className="text-sm">Review comment: {m.text} ({m.by})</p>)}
