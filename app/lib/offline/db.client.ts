@@ -1,7 +1,8 @@
-import { openDB, type DBSchema, type IDBPDatabase } from "idb";
+import type { DBSchema, IDBPDatabase } from "idb";
 import type { ChecklistState } from "../checklist-sets.ts";
 import type { ConflictRecord, OfflineBundle, ReviewComment } from "../sync/bundle.ts";
 import type { Template } from "../templates/index.ts";
+import { reopeningDatabase } from "./reopening-db.client.ts";
 
 /** A response as the device knows it: what is shown, and the server's value and revision under it. */
 export interface LocalResponse {
@@ -60,37 +61,19 @@ interface SternpostDB extends DBSchema {
 }
 
 export type Store = IDBPDatabase<SternpostDB>;
-let dbName = "sternpost";
-let opening: Promise<Store> | null = null;
+const database = reopeningDatabase<SternpostDB>("sternpost", 1, (db) => {
+  db.createObjectStore("templates", { keyPath: ["key", "version"] });
+  db.createObjectStore("jobs", { keyPath: "id" });
+  db.createObjectStore("checklists", { keyPath: "id" }).createIndex("byJob", "jobId");
+  db.createObjectStore("responses", { keyPath: ["checklistId", "itemKey"] }).createIndex("byChecklist", "checklistId");
+  db.createObjectStore("outbox", { keyPath: "opId" }).createIndex("bySeq", "seq");
+  db.createObjectStore("conflicts", { keyPath: "id" }).createIndex("byChecklist", "checklistId");
+  db.createObjectStore("rejections", { keyPath: "opId" });
+  db.createObjectStore("meta");
+});
 
-/**
- * The device's database, opened once. If the browser closes the connection (WebKit does, under
- * memory pressure) the next call opens a new one instead of retrying on the dead handle.
- */
-export function localDb(): Promise<Store> {
-  opening ??= openDB<SternpostDB>(dbName, 1, {
-    upgrade(db) {
-      db.createObjectStore("templates", { keyPath: ["key", "version"] });
-      db.createObjectStore("jobs", { keyPath: "id" });
-      db.createObjectStore("checklists", { keyPath: "id" }).createIndex("byJob", "jobId");
-      db.createObjectStore("responses", { keyPath: ["checklistId", "itemKey"] }).createIndex("byChecklist", "checklistId");
-      db.createObjectStore("outbox", { keyPath: "opId" }).createIndex("bySeq", "seq");
-      db.createObjectStore("conflicts", { keyPath: "id" }).createIndex("byChecklist", "checklistId");
-      db.createObjectStore("rejections", { keyPath: "opId" });
-      db.createObjectStore("meta");
-    },
-    terminated() {
-      opening = null;
-    },
-  }).then((db) => {
-    db.addEventListener("close", () => (opening = null));
-    return db;
-  });
-  return opening;
-}
+/** The device's database (reopened if the browser closed the connection). */
+export const localDb = (): Promise<Store> => database.open();
 
 /** For tests: forget the open connection (as after a crash), or switch to another device's database. */
-export function forgetLocalDb(nextName = dbName) {
-  opening = null;
-  dbName = nextName;
-}
+export const forgetLocalDb = (nextName?: string) => database.forget(nextName);

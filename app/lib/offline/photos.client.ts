@@ -1,5 +1,6 @@
-import { openDB, type DBSchema, type IDBPDatabase } from "idb";
+import type { DBSchema, IDBPDatabase } from "idb";
 import type { PhotoValue } from "../templates/index.ts";
+import { reopeningDatabase } from "./reopening-db.client.ts";
 import { outboxInOrder, readChecklist, recordEntry } from "./store.client.ts";
 
 /**
@@ -43,31 +44,15 @@ interface PhotoDB extends DBSchema {
   meta: { key: string; value: number };
 }
 
-let dbName = "sternpost-photos";
-let opening: Promise<IDBPDatabase<PhotoDB>> | null = null;
-
 // Bytes are kept as ArrayBuffers: some WebKit versions cannot store Blobs in IndexedDB.
-function photoDb(): Promise<IDBPDatabase<PhotoDB>> {
-  opening ??= openDB<PhotoDB>(dbName, 1, {
-    upgrade(db) {
-      db.createObjectStore("photos", { keyPath: "id" }).createIndex("bySeq", "seq");
-      db.createObjectStore("meta");
-    },
-    terminated() {
-      opening = null;
-    },
-  }).then((db) => {
-    db.addEventListener("close", () => (opening = null));
-    return db;
-  });
-  return opening;
-}
+const database = reopeningDatabase<PhotoDB>("sternpost-photos", 1, (db) => {
+  db.createObjectStore("photos", { keyPath: "id" }).createIndex("bySeq", "seq");
+  db.createObjectStore("meta");
+});
+const photoDb = (): Promise<IDBPDatabase<PhotoDB>> => database.open();
 
 /** For tests: forget the open connection, or switch to another device's photo database. */
-export function forgetPhotoDb(nextName = dbName) {
-  opening = null;
-  dbName = nextName;
-}
+export const forgetPhotoDb = (nextName?: string) => database.forget(nextName);
 
 const listeners = new Set<() => void>();
 
