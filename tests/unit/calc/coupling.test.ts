@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, couplingFace, couplingRim } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { couplingFace, couplingRim } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 describe("couplingFace", () => {
   it("angularity is the gap difference divided by the diameter (similar triangles)", () => {

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, couplingFit, fitCheck, isoFit, isoFitIn } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { couplingFit, fitCheck, isoFit, isoFitIn } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 // Limit deviations from ISO 286-2:2010, Tables for holes H and shafts f g h js k m n p r s,
 // values in µm (from memory of the printed tables; each is IT grade of ISO 286-1 Table 1 plus

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, keyForShaft, keyForShaftMm } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { keyForShaft, keyForShaftMm } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 // ASME B17.1-1967 (R2013) Table 1, "Key Size Versus Shaft Diameter", as reproduced in
 // Machinery's Handbook ("Keys and Keyseats"): rows run over one size up to and including the next.

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, mountMoves, shimStack, threadPitch } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { mountMoves, shimStack, threadPitch } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 const square = { top: 0.004, bottom: 0.004, port: 0.004, starboard: 0.004 };
 

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, propSlip, seaTrialLoading } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { propSlip, seaTrialLoading } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 describe("propSlip — Gerr, Propeller Handbook, apparent slip", () => {
   it("20 in pitch, 3000 engine rpm through 2 : 1, 20 kn → 1500 shaft rpm, 24.69 kn theoretical, 19 % slip", () => {

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, runoutGrade, shaftRunout, straighteningHistory } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { runoutGrade, shaftRunout, straighteningHistory } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 describe("shaftRunout", () => {
   it("TIR is the largest minus the smallest reading of one revolution", () => {

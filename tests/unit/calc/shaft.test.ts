@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, bearingSpacing, shaftDiameter } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { bearingSpacing, shaftDiameter } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 describe("shaftDiameter — Gerr, Propeller Handbook shaft-diameter formula", () => {
   it("worked example: 42 SHP at 2000 shaft rpm, bronze (St = 20,000 psi), SF 3 → about 1 in", () => {

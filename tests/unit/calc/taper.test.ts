@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
-import { CalcError, propellerTaper, threadPitch } from "~/lib/calc";
+import { fieldOf } from "../../support/calc.ts";
+import { propellerTaper, threadPitch } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 // SAE J755, marine propeller-shaft ends and hubs (dimension table as published by propeller
 // shops, and the standard's own table for shafts 3/4 to 3 in).

@@ -1,15 +1,7 @@
 import { describe, expect, it } from "vitest";
+import { fieldOf } from "../../support/calc.ts";
 import { CalcError, awgCircularMils, conductorCircularMils, wireSize } from "~/lib/calc";
 
-function fieldOf(run: () => unknown): string | undefined {
-  try {
-    run();
-  } catch (error) {
-    if (error instanceof CalcError) return error.field;
-    throw error;
-  }
-  return undefined;
-}
 
 describe("conductor areas — NEC Chapter 9 Table 8", () => {
   it("circular mils of AWG sizes (Table 8, 'Area, Circular mils')", () => {
