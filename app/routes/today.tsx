@@ -4,7 +4,7 @@ import type { Route } from "./+types/today";
 import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
 import { can } from "~/lib/permissions";
 import { requireUser } from "~/server/auth.server";
-import { listJobChecklists } from "~/server/checklists.server";
+import { listChecklistsOfJobs } from "~/server/checklists.server";
 import { listVisibleJobs } from "~/server/jobs.server";
 import { recordsIssuedTo } from "~/server/records.server";
 
@@ -21,9 +21,8 @@ interface TodayJob {
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
   const jobs = can(user, "jobs:view") ? (await listVisibleJobs(user)).filter((j) => j.status !== "completed") : [];
-  const withChecklists: TodayJob[] = await Promise.all(
-    jobs.map(async (j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: await listJobChecklists(j.id) })),
-  );
+  const checklists = await listChecklistsOfJobs(jobs.map((j) => j.id));
+  const withChecklists: TodayJob[] = jobs.map((j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: checklists.get(j.id)! }));
   const records = user.role === "surveyor"
     ? (await recordsIssuedTo(user.id)).map((r: any) => ({ id: r.id as string, vesselName: r.vessel_name as string, engineModel: r.engine_model as string, issuedAt: new Date(r.issued_at).toISOString() }))
     : [];
