@@ -13,6 +13,9 @@ export SESSION_SECRET="${SESSION_SECRET:-test-suite-secret-0123456789abcdef}"
 
 log "building the production bundle"
 node_modules/.bin/react-router build >"$DATA/build.log" 2>&1 || { tail -40 "$DATA/build.log"; exit 1; }
+log "linting and checking the format"
+node_modules/.bin/eslint . || { log "ESLint found problems (npm run lint)"; exit 1; }
+node_modules/.bin/prettier --check . >/dev/null || { node_modules/.bin/prettier --list-different .; log "files not formatted (npm run format)"; exit 1; }
 log "typechecking"
 node_modules/.bin/react-router typegen >/dev/null 2>&1
 node_modules/.bin/tsc --noEmit

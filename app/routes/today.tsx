@@ -1,4 +1,4 @@
-import { useEffect, useState } from "react";
+import { useEffect, useEffectEvent, useState } from "react";
 import { Link, useRevalidator } from "react-router";
 import type { Route } from "./+types/today";
 import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
@@ -57,11 +57,12 @@ function OfflineReadiness() {
       setState((s) => ({ ...s, busy: false, message: `Not ready offline: ${(error as Error).message}` }));
     }
   }
+  const refreshQuietly = useEffectEvent(() => void prepare(true));
   useEffect(() => {
     const readyAt = localStorage.getItem("sternpost:offline-ready");
     setState((s) => ({ ...s, readyAt }));
     // Once a tablet holds the jobs, each visit with a connection refreshes them quietly.
-    if (readyAt && navigator.onLine) void prepare(true);
+    if (readyAt && navigator.onLine) refreshQuietly();
   }, []);
   return (
     <div className="card mb-6 flex flex-wrap items-center gap-4">

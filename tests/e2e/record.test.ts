@@ -7,7 +7,7 @@ import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
 import { sha256 } from "../../db/seeds/library.ts";
-import { expectNoConsoleErrors, hydrated, launch, open, signIn, tabletContext } from "../support/browser.ts";
+import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
 import { waitForMail } from "../support/mail.ts";
 
 let browser: Browser;

@@ -41,11 +41,6 @@ const push = (actor: typeof tech, ops: ReturnType<typeof op>[]) => sync(actor, {
 const stateOf = async (id: string) => (await knex("job_checklists").where({ id }).first()).state;
 const actions = async (id: string) => (await knex("audit_log").where({ entity_id: id }).orderBy("id").pluck("action")) as string[];
 
-async function filledChecklist() {
-  const [id] = await startChecklists(jobId, [template.key], lead.id).then(async (ids) => (ids.length ? ids : [await freshJobChecklist()]));
-  await push(tech, [op(id!, "a", { result: "pass" }, 0), op(id!, "b", { text: "done" }, 0)]);
-  return id!;
-}
 async function freshJobChecklist() {
   jobId = (await makeJob(knex, lead.id, [tech.id])).id;
   return (await startChecklists(jobId, [template.key], lead.id))[0]!;

@@ -1,6 +1,6 @@
 import type { CalcInputSpec, Unit } from "~/lib/calc";
 import { Field } from "~/components/field";
-import { CLOCK, choicesFor, resizeGrid, unitText, withPositionsUnit, withUnit, type ClockPosition, type Entry } from "./calc-entries";
+import { choicesFor, resizeGrid, unitText, withPositionsUnit, withUnit, type ClockPosition, type Entry } from "./calc-entries";
 
 /** Free-text inputs that take one of a few words, and classes offered as suggestions. */
 const textChoices: Record<string, { options: string[]; only: boolean }> = {

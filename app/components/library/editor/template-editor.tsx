@@ -23,7 +23,10 @@ export function TemplateEditor({ saved }: { saved: Template }) {
   const check = useMemo(() => checkDraft(state), [state]);
   const fetcher = useFetcher<SaveReply>();
   const reply = fetcher.state === "idle" ? fetcher.data : undefined;
-  const problems = check.ok ? (reply && !reply.ok ? (reply.problems ?? []) : []) : check.problems;
+  const problems = useMemo(
+    () => (check.ok ? (reply && !reply.ok ? (reply.problems ?? []) : []) : check.problems),
+    [check, reply],
+  );
   const byPath = useMemo(() => problemsByPath(problems), [problems]);
   const dirty = useMemo(() => !sameAsTemplate(state, saved), [state, saved]);
   const [view, setView] = useState<"edit" | "preview">("edit");
