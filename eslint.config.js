@@ -18,7 +18,10 @@ export default tseslint.config(
       "react-hooks/rules-of-hooks": "error",
       "react-hooks/exhaustive-deps": "error",
       "import-x/no-cycle": "error",
-      "@typescript-eslint/no-unused-vars": ["error", { argsIgnorePattern: "^_", varsIgnorePattern: "^_", caughtErrors: "none" }],
+      "@typescript-eslint/no-unused-vars": [
+        "error",
+        { argsIgnorePattern: "^_", varsIgnorePattern: "^_", caughtErrors: "none" },
+      ],
       "no-empty": ["error", { allowEmptyCatch: true }],
     },
   },
@@ -46,5 +49,8 @@ export default tseslint.config(
     rules: { "@typescript-eslint/no-explicit-any": "off" },
   },
   // Tests poke at raw JSON and rows on purpose.
-  { files: ["tests/**", "bench/**", "db/**", "scripts/**"], rules: { "@typescript-eslint/no-explicit-any": "off" } },
+  {
+    files: ["tests/**", "bench/**", "db/**", "scripts/**"],
+    rules: { "@typescript-eslint/no-explicit-any": "off" },
+  },
 );

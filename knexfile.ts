@@ -2,7 +2,9 @@ import type { Knex } from "knex";
 import { migrationSource } from "./db/migrations/index.ts";
 
 /** One configuration for the app, the scripts and the tests; DATABASE_URL picks the server. */
-export function knexConfig(databaseUrl = process.env.DATABASE_URL ?? "mysql://root@127.0.0.1:3307/sternpost"): Knex.Config {
+export function knexConfig(
+  databaseUrl = process.env.DATABASE_URL ?? "mysql://root@127.0.0.1:3307/sternpost",
+): Knex.Config {
   return {
     client: "mysql2",
     connection: {

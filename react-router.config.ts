@@ -7,7 +7,8 @@ export default {
   // React Router writes its client manifest after the worker was generated: generate it again so
   // the worker precaches the manifest too (otherwise the first offline start misses it).
   async buildEnd({ viteConfig }) {
-    const pwa = viteConfig.plugins.find((p) => p.name === "vite-plugin-pwa") as { api?: { generateSW(): Promise<void> } } | undefined;
+    const pwa = viteConfig.plugins.find((p) => p.name === "vite-plugin-pwa") as
+      { api?: { generateSW(): Promise<void> } } | undefined;
     if (!pwa?.api) throw new Error("vite-plugin-pwa is missing from the Vite config");
     await pwa.api.generateSW();
   },

@@ -4,7 +4,6 @@ import { defineConfig } from "vite";
 import { VitePWA } from "vite-plugin-pwa";
 import { PAGES_CACHE } from "./app/lib/offline/pages.ts";
 
-
 export default defineConfig({
   plugins: [
     tailwindcss(),
@@ -19,7 +18,8 @@ export default defineConfig({
       manifest: {
         name: "Sternpost — engine installation records",
         short_name: "Sternpost",
-        description: "Measured checklists for installing and commissioning inboard engines, offline in the bilge.",
+        description:
+          "Measured checklists for installing and commissioning inboard engines, offline in the bilge.",
         start_url: "/",
         scope: "/",
         display: "standalone",
@@ -43,9 +43,14 @@ export default defineConfig({
         runtimeCaching: [
           {
             // Pages: the network when it answers, else the copy kept when the page was made available offline.
-            urlPattern: ({ request, url }) => request.mode === "navigate" && !url.pathname.startsWith("/api/"),
+            urlPattern: ({ request, url }) =>
+              request.mode === "navigate" && !url.pathname.startsWith("/api/"),
             handler: "NetworkFirst",
-            options: { cacheName: PAGES_CACHE, networkTimeoutSeconds: 5, matchOptions: { ignoreSearch: false } },
+            options: {
+              cacheName: PAGES_CACHE,
+              networkTimeoutSeconds: 5,
+              matchOptions: { ignoreSearch: false },
+            },
           },
         ],
       },

@@ -38,7 +38,10 @@ export default [
     route("sync", "routes/sync.tsx"),
     route("records/:recordId", "routes/records/view.tsx"),
     // calculators
-    ...prefix("calculators", [index("routes/calculators/index.tsx"), route(":name", "routes/calculators/calculator.tsx")]),
+    ...prefix("calculators", [
+      index("routes/calculators/index.tsx"),
+      route(":name", "routes/calculators/calculator.tsx"),
+    ]),
     // library
     ...prefix("library", [
       index("routes/library/index.tsx"),

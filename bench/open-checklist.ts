@@ -28,33 +28,92 @@ await seedDemo(knex);
 const kinds = ["check", "measure", "choice", "text"] as const;
 const items = Array.from({ length: 200 }, (_, i) => {
   const kind = kinds[i % kinds.length]!;
-  const common = { key: `item-${i + 1}`, label: `Bench item ${i + 1}`, hint: "How to do it.", reference: "Benchmark" };
-  if (kind === "measure") return { kind, ...common, unit: "in", accepts: ["in", "mm"], rule: { max: 0.003, unit: "in" } };
-  if (kind === "choice") return { kind, ...common, options: [{ key: "a", label: "A" }, { key: "b", label: "B" }] };
+  const common = {
+    key: `item-${i + 1}`,
+    label: `Bench item ${i + 1}`,
+    hint: "How to do it.",
+    reference: "Benchmark",
+  };
+  if (kind === "measure")
+    return { kind, ...common, unit: "in", accepts: ["in", "mm"], rule: { max: 0.003, unit: "in" } };
+  if (kind === "choice")
+    return {
+      kind,
+      ...common,
+      options: [
+        { key: "a", label: "A" },
+        { key: "b", label: "B" },
+      ],
+    };
   return { kind, ...common };
 });
-const template = { key: "bench-200", version: 1, title: "Bench 200", purpose: "Benchmark of opening a large checklist.", sections: [{ key: "all", title: "All", items }] };
+const template = {
+  key: "bench-200",
+  version: 1,
+  title: "Bench 200",
+  purpose: "Benchmark of opening a large checklist.",
+  sections: [{ key: "all", title: "All", items }],
+};
 const body = JSON.stringify(template);
-const [versionId] = await knex("template_versions").insert({ template_key: "bench-200", version: 1, status: "published", title: "Bench 200", body, body_sha256: sha256(body), published_at: new Date() });
+const [versionId] = await knex("template_versions").insert({
+  template_key: "bench-200",
+  version: 1,
+  status: "published",
+  title: "Bench 200",
+  body,
+  body_sha256: sha256(body),
+  published_at: new Date(),
+});
 const job = await knex("jobs").where({ status: "underway" }).first();
 const checklistId = randomUUID();
-await knex("job_checklists").insert({ id: checklistId, job_id: job.id, template_version_id: versionId, template_key: "bench-200", started_by: job.lead_id });
+await knex("job_checklists").insert({
+  id: checklistId,
+  job_id: job.id,
+  template_version_id: versionId,
+  template_key: "bench-200",
+  started_by: job.lead_id,
+});
 await knex.destroy();
 
 const server = spawn("node", ["server.js"], {
-  env: { ...process.env, NODE_ENV: "production", PORT: String(PORT), DATABASE_URL: url, SESSION_SECRET: "benchmark-secret-0123456789abcdef", APP_URL: `http://localhost:${PORT}` },
+  env: {
+    ...process.env,
+    NODE_ENV: "production",
+    PORT: String(PORT),
+    DATABASE_URL: url,
+    SESSION_SECRET: "benchmark-secret-0123456789abcdef",
+    APP_URL: `http://localhost:${PORT}`,
+  },
   stdio: "ignore",
 });
 try {
   for (let i = 0; i < 100; i++) {
-    if (await fetch(`http://localhost:${PORT}/healthz`).then((r) => r.ok, () => false)) break;
+    if (
+      await fetch(`http://localhost:${PORT}/healthz`).then(
+        (r) => r.ok,
+        () => false,
+      )
+    )
+      break;
     await new Promise((r) => setTimeout(r, 100));
   }
   const browser = await chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
-    args: ["--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run", "--disable-background-networking", "--disable-component-update", "--disable-sync"],
+    args: [
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
+    ],
   });
-  const context = await browser.newContext({ baseURL: `http://localhost:${PORT}`, viewport: { width: 820, height: 1180 } });
+  const context = await browser.newContext({
+    baseURL: `http://localhost:${PORT}`,
+    viewport: { width: 820, height: 1180 },
+  });
   const page = await context.newPage();
   await page.goto("/login");
   await page.getByLabel("E-mail address").fill("tech@kittiwake-slip.example");
@@ -64,7 +123,10 @@ try {
   await page.waitForSelector("html[data-hydrated]", { state: "attached" });
   await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
   await page.getByRole("button", { name: /Make my jobs available offline/ }).click();
-  await page.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+  await page
+    .getByTestId("offline-readiness")
+    .getByText(/Ready offline/)
+    .waitFor();
   await context.setOffline(true);
 
   const time = async (path: string, ready: string) => {

@@ -23,25 +23,72 @@ const { sync } = await import("../app/server/sync.server.ts");
 const { startChecklists } = await import("../app/server/checklists.server.ts");
 const { findItem } = await import("../app/lib/templates/index.ts");
 
-const [lead] = await knex("users").insert({ email: "lead@bench.example", name: "Bench lead", role: "lead", password_hash: "x" });
-const [tech] = await knex("users").insert({ email: "tech@bench.example", name: "Bench tech", role: "technician", password_hash: "x" });
-const [vessel] = await knex("vessels").insert({ name: "Bench hull", length_value: 30, length_unit: "ft", length_m: 9.144, hull_type: "planing", owner_name: "Bench" });
+const [lead] = await knex("users").insert({
+  email: "lead@bench.example",
+  name: "Bench lead",
+  role: "lead",
+  password_hash: "x",
+});
+const [tech] = await knex("users").insert({
+  email: "tech@bench.example",
+  name: "Bench tech",
+  role: "technician",
+  password_hash: "x",
+});
+const [vessel] = await knex("vessels").insert({
+  name: "Bench hull",
+  length_value: 30,
+  length_unit: "ft",
+  length_m: 9.144,
+  hull_type: "planing",
+  owner_name: "Bench",
+});
 
 /** Enough checklists that one batch of OPS operations touches OPS different check items. */
 async function freshItems(count: number) {
   const items: { checklistId: string; itemKey: string }[] = [];
   while (items.length < count) {
     const [job] = await knex("jobs").insert({
-      vessel_id: vessel, scope: "repower", status: "underway", engine_model: "Bench", engine_serial: randomUUID().slice(0, 8), rated_power_hp: 200,
-      rated_rpm_min: 2600, rated_rpm_max: 2800, gear_ratio: 2, prop_diameter_in: 20, prop_pitch_in: 18, prop_blades: 3, shaft_diameter_in: 1.25,
-      shaft_material: "316", coupling_type: "Split", lead_id: lead,
+      vessel_id: vessel,
+      scope: "repower",
+      status: "underway",
+      engine_model: "Bench",
+      engine_serial: randomUUID().slice(0, 8),
+      rated_power_hp: 200,
+      rated_rpm_min: 2600,
+      rated_rpm_max: 2800,
+      gear_ratio: 2,
+      prop_diameter_in: 20,
+      prop_pitch_in: 18,
+      prop_blades: 3,
+      shaft_diameter_in: 1.25,
+      shaft_material: "316",
+      coupling_type: "Split",
+      lead_id: lead,
     });
     await knex("job_technicians").insert({ job_id: job, user_id: tech });
-    const ids = await startChecklists(job, ["propeller-shaft-and-coupling", "engine-alignment", "exhaust", "cooling", "instruments-and-electrical", "sea-trial"], lead);
+    const ids = await startChecklists(
+      job,
+      [
+        "propeller-shaft-and-coupling",
+        "engine-alignment",
+        "exhaust",
+        "cooling",
+        "instruments-and-electrical",
+        "sea-trial",
+      ],
+      lead,
+    );
     for (const id of ids) {
-      const row = await knex("job_checklists as c").join("template_versions as t", "t.id", "c.template_version_id").where("c.id", id).first("t.body");
+      const row = await knex("job_checklists as c")
+        .join("template_versions as t", "t.id", "c.template_version_id")
+        .where("c.id", id)
+        .first("t.body");
       const template = JSON.parse(row.body);
-      for (const section of template.sections) for (const item of section.items) if (findItem(template, item.key)?.kind === "check") items.push({ checklistId: id, itemKey: item.key });
+      for (const section of template.sections)
+        for (const item of section.items)
+          if (findItem(template, item.key)?.kind === "check")
+            items.push({ checklistId: id, itemKey: item.key });
     }
   }
   return items.slice(0, count);
@@ -56,14 +103,32 @@ const rawTimes: number[] = [];
 for (let round = 0; round < ROUNDS + 1; round++) {
   const items = await freshItems(OPS);
   const at = new Date().toISOString();
-  const ops = items.map((it, seq) => ({ opId: randomUUID(), seq, checklistId: it.checklistId, itemKey: it.itemKey, value: { result: "pass" as const }, baseRev: 0, at }));
+  const ops = items.map((it, seq) => ({
+    opId: randomUUID(),
+    seq,
+    checklistId: it.checklistId,
+    itemKey: it.itemKey,
+    value: { result: "pass" as const },
+    baseRev: 0,
+    at,
+  }));
   const { cursor } = await sync(actor, { deviceId: "bench-device", cursor: null, ops: [] });
   let t = performance.now();
   const answer = await sync(actor, { deviceId: "bench-device", cursor, ops });
   const syncMs = performance.now() - t;
-  if (answer.results.some((r) => r.status !== "applied")) throw new Error("the benchmark batch was not applied");
+  if (answer.results.some((r) => r.status !== "applied"))
+    throw new Error("the benchmark batch was not applied");
 
-  const rows = items.map((it) => ({ checklist_id: it.checklistId, item_key: it.itemKey, value: JSON.stringify({ result: "pass" }), rev: 1, updated_by: tech, device_id: "bench-device", updated_at: new Date(), change_seq: 1 }));
+  const rows = items.map((it) => ({
+    checklist_id: it.checklistId,
+    item_key: it.itemKey,
+    value: JSON.stringify({ result: "pass" }),
+    rev: 1,
+    updated_by: tech,
+    device_id: "bench-device",
+    updated_at: new Date(),
+    change_seq: 1,
+  }));
   t = performance.now();
   await knex.transaction(async (trx) => {
     await trx("bench_raw").insert(rows);

@@ -9,7 +9,9 @@ export async function createDatabase(databaseUrl: string) {
   url.pathname = "/";
   const admin = knexFactory(knexConfig(url.toString()));
   try {
-    await admin.raw(`CREATE DATABASE IF NOT EXISTS \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
+    await admin.raw(
+      `CREATE DATABASE IF NOT EXISTS \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`,
+    );
   } finally {
     await admin.destroy();
   }

@@ -11,7 +11,9 @@ const knex = connect(url);
 try {
   if (steps.includes("migrate")) {
     const [, applied] = await knex.migrate.latest();
-    console.log(applied.length ? `[sternpost] migrated: ${applied.join(", ")}` : "[sternpost] database is up to date");
+    console.log(
+      applied.length ? `[sternpost] migrated: ${applied.join(", ")}` : "[sternpost] database is up to date",
+    );
   }
   if (steps.includes("rollback")) {
     const [, undone] = await knex.migrate.rollback(undefined, true);

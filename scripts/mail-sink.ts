@@ -25,7 +25,10 @@ export async function startMailSink({ port, directory }: { port: number; directo
             subject: mail.subject ?? "",
             text: mail.text ?? "",
           };
-          writeFileSync(path.join(directory, `${message.receivedAt.replace(/[:.]/g, "-")}-${id}.json`), JSON.stringify(message, null, 2));
+          writeFileSync(
+            path.join(directory, `${message.receivedAt.replace(/[:.]/g, "-")}-${id}.json`),
+            JSON.stringify(message, null, 2),
+          );
           callback();
         })
         .catch(callback);
@@ -43,5 +46,6 @@ if (process.argv[1] && path.resolve(process.argv[1]) === fileURLToPath(import.me
   const directory = process.env.MAIL_SINK_DIR ?? path.resolve(".data/mail");
   const sink = await startMailSink({ port: Number(process.env.SMTP_PORT ?? 2525), directory });
   console.log(`SMTP sink on 127.0.0.1:${sink.port}, keeping mail in ${directory}`);
-  for (const signal of ["SIGTERM", "SIGINT"] as const) process.on(signal, () => void sink.close().then(() => process.exit(0)));
+  for (const signal of ["SIGTERM", "SIGINT"] as const)
+    process.on(signal, () => void sink.close().then(() => process.exit(0)));
 }

@@ -28,9 +28,23 @@ export interface S3Fake {
 }
 
 /** Starts s3rver on 127.0.0.1 (port 0: any free port) keeping its objects in `directory`. */
-export async function startS3Fake({ port, directory, bucket }: { port: number; directory: string; bucket: string }): Promise<S3Fake> {
+export async function startS3Fake({
+  port,
+  directory,
+  bucket,
+}: {
+  port: number;
+  directory: string;
+  bucket: string;
+}): Promise<S3Fake> {
   mkdirSync(directory, { recursive: true });
-  const server = new (S3rver as S3rverClass)({ address: "127.0.0.1", port, directory, silent: true, configureBuckets: [{ name: bucket }] });
+  const server = new (S3rver as S3rverClass)({
+    address: "127.0.0.1",
+    port,
+    directory,
+    silent: true,
+    configureBuckets: [{ name: bucket }],
+  });
   const address = await server.run();
   return { endpoint: `http://127.0.0.1:${address.port}`, port: address.port, close: () => server.close() };
 }
@@ -40,5 +54,6 @@ if (process.argv[1] && import.meta.url === pathToFileURL(path.resolve(process.ar
   const bucket = process.env.S3_BUCKET ?? "sternpost-photos";
   const fake = await startS3Fake({ port: Number(process.env.S3_PORT ?? 4569), directory, bucket });
   console.log(`S3 stand-in on ${fake.endpoint}, bucket "${bucket}", objects in ${directory}`);
-  for (const signal of ["SIGTERM", "SIGINT"] as const) process.on(signal, () => void fake.close().then(() => process.exit(0)));
+  for (const signal of ["SIGTERM", "SIGINT"] as const)
+    process.on(signal, () => void fake.close().then(() => process.exit(0)));
 }

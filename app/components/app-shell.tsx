@@ -4,7 +4,13 @@ import { roleLabels, type Role } from "~/lib/roles";
 import { SyncStatusBar } from "./sync-status.tsx";
 import { UpdatePrompt } from "./update-prompt.tsx";
 
-export function AppShell({ user, children }: { user: Actor & { name: string; role: Role }; children: React.ReactNode }) {
+export function AppShell({
+  user,
+  children,
+}: {
+  user: Actor & { name: string; role: Role };
+  children: React.ReactNode;
+}) {
   return (
     <div className="flex min-h-dvh flex-col">
       <header className="bg-ink text-paper">
@@ -51,8 +57,8 @@ export function AppShell({ user, children }: { user: Actor & { name: string; rol
       <UpdatePrompt />
       <main className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">{children}</main>
       <footer className="border-t border-rule px-4 py-3 text-center text-sm text-ink-soft">
-        Sternpost records and computes; the engine maker's installation instructions, the applicable standards, local
-        regulations and a qualified person's judgement govern the work.
+        Sternpost records and computes; the engine maker's installation instructions, the applicable
+        standards, local regulations and a qualified person's judgement govern the work.
       </footer>
     </div>
   );

@@ -1,7 +1,13 @@
 import { Form, Link } from "react-router";
 
 /** Issuing the job's record to surveyors, once every checklist is countersigned. */
-export function IssueRecord({ readiness, records, canIssue, error, issued }: {
+export function IssueRecord({
+  readiness,
+  records,
+  canIssue,
+  error,
+  issued,
+}: {
   readiness: { ready: boolean; open: string[]; count: number };
   records: { id: string; issued_at: string | Date; digest: string }[];
   canIssue: boolean;
@@ -10,28 +16,61 @@ export function IssueRecord({ readiness, records, canIssue, error, issued }: {
 }) {
   return (
     <section className="card mb-6" aria-labelledby="record-title">
-      <h2 id="record-title" className="mb-3 text-xl font-bold">Commissioning record</h2>
+      <h2 id="record-title" className="mb-3 text-xl font-bold">
+        Commissioning record
+      </h2>
       {records.length > 0 && (
         <ul className="mb-3 flex flex-col gap-1" data-testid="records">
           {records.map((r) => (
             <li key={r.id}>
-              <Link to={`/records/${r.id}`} className="font-bold text-harbour underline">Issued {new Date(r.issued_at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })}</Link>{" "}
+              <Link to={`/records/${r.id}`} className="font-bold text-harbour underline">
+                Issued{" "}
+                {new Date(r.issued_at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })}
+              </Link>{" "}
               <span className="font-mono text-sm">{r.digest.slice(0, 16)}…</span>
             </li>
           ))}
         </ul>
       )}
-      {issued && <p role="status" className="mb-3 font-bold">{issued}</p>}
+      {issued && (
+        <p role="status" className="mb-3 font-bold">
+          {issued}
+        </p>
+      )}
       {!readiness.ready ? (
-        <p>{readiness.count ? `It can be issued once every checklist is countersigned. Still open: ${readiness.open.join(", ")}.` : "Start the job's checklists first."}</p>
+        <p>
+          {readiness.count
+            ? `It can be issued once every checklist is countersigned. Still open: ${readiness.open.join(", ")}.`
+            : "Start the job's checklists first."}
+        </p>
       ) : canIssue ? (
         <Form method="post" className="flex flex-col gap-2">
           <input type="hidden" name="intent" value="issue-record" />
-          <label htmlFor="emails" className="font-bold">Surveyors' e-mail addresses</label>
-          <p id="emails-hint" className="text-sm text-ink-soft">One per line. Each gets a link to the record and its PDF; someone new gets an account limited to the records issued to them.</p>
-          <textarea id="emails" name="emails" rows={2} className="field-input" aria-describedby="emails-hint" aria-invalid={error ? true : undefined} />
-          {error && <p role="alert" className="font-bold text-fault">▲ {error}</p>}
-          <div><button className="btn btn-primary" type="submit">Issue the record</button></div>
+          <label htmlFor="emails" className="font-bold">
+            Surveyors' e-mail addresses
+          </label>
+          <p id="emails-hint" className="text-sm text-ink-soft">
+            One per line. Each gets a link to the record and its PDF; someone new gets an account limited to
+            the records issued to them.
+          </p>
+          <textarea
+            id="emails"
+            name="emails"
+            rows={2}
+            className="field-input"
+            aria-describedby="emails-hint"
+            aria-invalid={error ? true : undefined}
+          />
+          {error && (
+            <p role="alert" className="font-bold text-fault">
+              ▲ {error}
+            </p>
+          )}
+          <div>
+            <button className="btn btn-primary" type="submit">
+              Issue the record
+            </button>
+          </div>
         </Form>
       ) : (
         <p>Every checklist is countersigned; the manager or the job's lead issues the record.</p>

@@ -1,15 +1,32 @@
-import { getCollectionProps, getFormProps, getInputProps, getSelectProps, useForm, type SubmissionResult } from "@conform-to/react";
+import {
+  getCollectionProps,
+  getFormProps,
+  getInputProps,
+  getSelectProps,
+  useForm,
+  type SubmissionResult,
+} from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form } from "react-router";
 import { Field, FormErrors } from "./field.tsx";
-import { jobSchema, jobScopeLabels, jobScopes, jobStatusLabels, jobStatuses, type JobInput } from "~/lib/validation/jobs";
+import {
+  jobSchema,
+  jobScopeLabels,
+  jobScopes,
+  jobStatusLabels,
+  jobStatuses,
+  type JobInput,
+} from "~/lib/validation/jobs";
 
 interface Option {
   id: number;
   name: string;
 }
 
-type Defaults = Partial<Omit<JobInput, "startDate" | "dueDate">> & { startDate?: string | null; dueDate?: string | null };
+type Defaults = Partial<Omit<JobInput, "startDate" | "dueDate">> & {
+  startDate?: string | null;
+  dueDate?: string | null;
+};
 
 export function JobForm({
   defaults,
@@ -35,7 +52,12 @@ export function JobForm({
       scope: "repower",
       status: "planned",
       propBlades: "3",
-      ...Object.fromEntries(Object.entries(defaults ?? {}).map(([k, v]) => [k, Array.isArray(v) ? v.map(String) : v == null ? undefined : String(v)])),
+      ...Object.fromEntries(
+        Object.entries(defaults ?? {}).map(([k, v]) => [
+          k,
+          Array.isArray(v) ? v.map(String) : v == null ? undefined : String(v),
+        ]),
+      ),
       ...(leadFixed ? { leadId: String(leadFixed.id) } : {}),
     },
     onValidate: ({ formData }) => parseWithZod(formData, { schema: jobSchema }),
@@ -67,21 +89,27 @@ export function JobForm({
           <select {...getSelectProps(fields.vesselId)} className="field-input">
             <option value="">Choose…</option>
             {vessels.map((v) => (
-              <option key={v.id} value={v.id}>{v.name}</option>
+              <option key={v.id} value={v.id}>
+                {v.name}
+              </option>
             ))}
           </select>
         </Field>
         <Field id={fields.scope.id} label="Scope" errors={fields.scope.errors}>
           <select {...getSelectProps(fields.scope)} className="field-input">
             {jobScopes.map((s) => (
-              <option key={s} value={s}>{jobScopeLabels[s]}</option>
+              <option key={s} value={s}>
+                {jobScopeLabels[s]}
+              </option>
             ))}
           </select>
         </Field>
         <Field id={fields.status.id} label="Status" errors={fields.status.errors}>
           <select {...getSelectProps(fields.status)} className="field-input">
             {jobStatuses.map((s) => (
-              <option key={s} value={s}>{jobStatusLabels[s]}</option>
+              <option key={s} value={s}>
+                {jobStatusLabels[s]}
+              </option>
             ))}
           </select>
         </Field>
@@ -120,17 +148,27 @@ export function JobForm({
             <select {...getSelectProps(fields.leadId)} className="field-input">
               <option value="">Choose…</option>
               {leads.map((l) => (
-                <option key={l.id} value={l.id}>{l.name}</option>
+                <option key={l.id} value={l.id}>
+                  {l.name}
+                </option>
               ))}
             </select>
           </Field>
         )}
         <fieldset>
           <legend className="font-bold">Technicians</legend>
-          {fields.technicianIds.errors && <p className="font-bold text-fault">{fields.technicianIds.errors.join(" ")}</p>}
+          {fields.technicianIds.errors && (
+            <p className="font-bold text-fault">{fields.technicianIds.errors.join(" ")}</p>
+          )}
           <div className="mt-1 flex flex-wrap gap-2">
-            {getCollectionProps(fields.technicianIds, { type: "checkbox", options: technicians.map((t) => String(t.id)) }).map((props) => (
-              <label key={props.key} className="flex min-h-12 items-center gap-2 rounded-md border-2 border-rule px-3">
+            {getCollectionProps(fields.technicianIds, {
+              type: "checkbox",
+              options: technicians.map((t) => String(t.id)),
+            }).map((props) => (
+              <label
+                key={props.key}
+                className="flex min-h-12 items-center gap-2 rounded-md border-2 border-rule px-3"
+              >
                 <input {...props} key={props.key} className="size-6" />
                 {technicians.find((t) => String(t.id) === props.value)?.name}
               </label>
@@ -139,7 +177,9 @@ export function JobForm({
         </fieldset>
       </fieldset>
       <div>
-        <button type="submit" className="btn btn-primary">{submitLabel}</button>
+        <button type="submit" className="btn btn-primary">
+          {submitLabel}
+        </button>
       </div>
     </Form>
   );

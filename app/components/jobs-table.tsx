@@ -25,13 +25,17 @@ export interface JobRow {
 
 const column = createColumnHelper<JobRow>();
 
-const byDueDate = (a: string | null, b: string | null) => (a === b ? 0 : a === null ? 1 : b === null ? -1 : a < b ? -1 : 1);
+const byDueDate = (a: string | null, b: string | null) =>
+  a === b ? 0 : a === null ? 1 : b === null ? -1 : a < b ? -1 : 1;
 
 const columns = [
   column.accessor("vesselName", {
     header: "Vessel",
     cell: (c) => (
-      <Link to={`/jobs/${c.row.original.id}`} className="flex min-h-12 items-center font-bold text-harbour underline">
+      <Link
+        to={`/jobs/${c.row.original.id}`}
+        className="flex min-h-12 items-center font-bold text-harbour underline"
+      >
         {c.getValue()}
       </Link>
     ),
@@ -78,14 +82,26 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
       <div className="mb-4 flex flex-wrap items-end gap-4">
         <label className="flex flex-1 flex-col gap-1 font-bold">
           Search
-          <input type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="Vessel, engine, person…" className="field-input font-normal" />
+          <input
+            type="search"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            placeholder="Vessel, engine, person…"
+            className="field-input font-normal"
+          />
         </label>
         <label className="flex flex-col gap-1 font-bold">
           Status
-          <select value={status} onChange={(e) => setStatus(e.target.value)} className="field-input font-normal">
+          <select
+            value={status}
+            onChange={(e) => setStatus(e.target.value)}
+            className="field-input font-normal"
+          >
             <option value="">Any</option>
             {jobStatuses.map((s) => (
-              <option key={s} value={s}>{jobStatusLabels[s]}</option>
+              <option key={s} value={s}>
+                {jobStatusLabels[s]}
+              </option>
             ))}
           </select>
         </label>
@@ -98,10 +114,20 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
                 {group.headers.map((header) => {
                   const sorted = header.column.getIsSorted();
                   return (
-                    <th key={header.id} className="p-0" aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}>
-                      <button type="button" onClick={header.column.getToggleSortingHandler()} className="flex min-h-12 w-full items-center gap-1 px-2 text-left font-bold">
+                    <th
+                      key={header.id}
+                      className="p-0"
+                      aria-sort={sorted === "asc" ? "ascending" : sorted === "desc" ? "descending" : "none"}
+                    >
+                      <button
+                        type="button"
+                        onClick={header.column.getToggleSortingHandler()}
+                        className="flex min-h-12 w-full items-center gap-1 px-2 text-left font-bold"
+                      >
                         {flexRender(header.column.columnDef.header, header.getContext())}
-                        <span aria-hidden="true">{sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}</span>
+                        <span aria-hidden="true">
+                          {sorted === "asc" ? "▲" : sorted === "desc" ? "▼" : "↕"}
+                        </span>
                       </button>
                     </th>
                   );

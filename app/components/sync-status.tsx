@@ -2,7 +2,15 @@ import { useEffect, useState, useSyncExternalStore } from "react";
 import { Link } from "react-router";
 import type { SyncStatus } from "~/lib/offline/status.client";
 
-const initial: SyncStatus = { online: true, waiting: 0, conflicts: 0, refused: 0, lastSyncAt: null, syncing: false, problem: null };
+const initial: SyncStatus = {
+  online: true,
+  waiting: 0,
+  conflicts: 0,
+  refused: 0,
+  lastSyncAt: null,
+  syncing: false,
+  problem: null,
+};
 
 /** The status the brief asks to be always on screen: connection, waiting entries, last sync, conflicts. */
 export function SyncStatusBar() {
@@ -18,21 +26,35 @@ export function SyncStatusBar() {
     store?.syncStatus.get ?? (() => initial),
     () => initial,
   );
-  const last = status.lastSyncAt ? new Date(status.lastSyncAt).toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" }) : "not yet";
+  const last = status.lastSyncAt
+    ? new Date(status.lastSyncAt).toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" })
+    : "not yet";
   return (
-    <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm" data-testid="sync-status" aria-live="polite">
+    <div
+      className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm"
+      data-testid="sync-status"
+      aria-live="polite"
+    >
       <span className="flex items-center gap-1 font-bold" data-testid="connection">
         <span aria-hidden="true">{status.online ? "●" : "○"}</span>
         {status.online ? "Online" : "Offline"}
       </span>
-      <span data-testid="waiting">{status.waiting === 0 ? "All entries sent" : `${status.waiting} waiting to send`}</span>
+      <span data-testid="waiting">
+        {status.waiting === 0 ? "All entries sent" : `${status.waiting} waiting to send`}
+      </span>
       <span>Last sync {last}</span>
       {status.conflicts + status.refused > 0 && (
-        <Link to="/sync" className="rounded bg-brass-light px-2 py-1 font-bold text-ink" data-testid="conflict-badge">
+        <Link
+          to="/sync"
+          className="rounded bg-brass-light px-2 py-1 font-bold text-ink"
+          data-testid="conflict-badge"
+        >
           ⚑ {status.conflicts} to decide{status.refused ? `, ${status.refused} refused` : ""}
         </Link>
       )}
-      {status.problem && status.online && <span className="text-brass">Sync will retry: {status.problem}</span>}
+      {status.problem && status.online && (
+        <span className="text-brass">Sync will retry: {status.problem}</span>
+      )}
     </div>
   );
 }

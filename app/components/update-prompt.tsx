@@ -20,14 +20,17 @@ export function UpdatePrompt() {
       import("~/lib/pwa/register.client"),
     ]);
     const waiting = await outboxCount();
-    if (waiting > 0) return setBlocked(`${waiting} entries are still waiting to send; reload once they have synced.`);
+    if (waiting > 0)
+      return setBlocked(`${waiting} entries are still waiting to send; reload once they have synced.`);
     if (hasDirtyForms()) return setBlocked("Save or clear the entry you are typing first.");
     await applyUpdate();
   }
   return (
     <div role="status" className="flex flex-wrap items-center gap-3 bg-brass-light px-4 py-2 text-ink">
       <span className="font-bold">A new version of Sternpost is ready.</span>
-      <button type="button" className="btn" onClick={reload}>Reload now</button>
+      <button type="button" className="btn" onClick={reload}>
+        Reload now
+      </button>
       {blocked && <span>{blocked}</span>}
     </div>
   );

@@ -1,13 +1,33 @@
-import { getFormProps, getInputProps, getSelectProps, getTextareaProps, useForm, type SubmissionResult } from "@conform-to/react";
+import {
+  getFormProps,
+  getInputProps,
+  getSelectProps,
+  getTextareaProps,
+  useForm,
+  type SubmissionResult,
+} from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form } from "react-router";
 import { Field, FormErrors } from "./field.tsx";
 import { hullTypeLabels, hullTypes, vesselSchema, type VesselInput } from "~/lib/validation/vessels";
 
-export function VesselForm({ defaults, lastResult, submitLabel }: { defaults?: Partial<VesselInput>; lastResult?: SubmissionResult<string[]> | null; submitLabel: string }) {
+export function VesselForm({
+  defaults,
+  lastResult,
+  submitLabel,
+}: {
+  defaults?: Partial<VesselInput>;
+  lastResult?: SubmissionResult<string[]> | null;
+  submitLabel: string;
+}) {
   const [form, fields] = useForm({
     lastResult,
-    defaultValue: { lengthUnit: "ft", hullType: "planing", ...defaults, lengthValue: defaults?.lengthValue?.toString() },
+    defaultValue: {
+      lengthUnit: "ft",
+      hullType: "planing",
+      ...defaults,
+      lengthValue: defaults?.lengthValue?.toString(),
+    },
     onValidate: ({ formData }) => parseWithZod(formData, { schema: vesselSchema }),
     shouldValidate: "onBlur",
     shouldRevalidate: "onInput",
@@ -20,12 +40,26 @@ export function VesselForm({ defaults, lastResult, submitLabel }: { defaults?: P
       <Field id={fields.name.id} label="Vessel name" errors={fields.name.errors}>
         <input {...getInputProps(fields.name, { type: "text" })} className="field-input" />
       </Field>
-      <Field id={fields.hin.id} label="Hull identification number (HIN)" hint="12 characters, as on the transom, e.g. XKB4C017J526. Leave empty if the hull has none." errors={fields.hin.errors}>
-        <input {...getInputProps(fields.hin, { type: "text" })} className="field-input font-mono uppercase" autoCapitalize="characters" spellCheck={false} />
+      <Field
+        id={fields.hin.id}
+        label="Hull identification number (HIN)"
+        hint="12 characters, as on the transom, e.g. XKB4C017J526. Leave empty if the hull has none."
+        errors={fields.hin.errors}
+      >
+        <input
+          {...getInputProps(fields.hin, { type: "text" })}
+          className="field-input font-mono uppercase"
+          autoCapitalize="characters"
+          spellCheck={false}
+        />
       </Field>
       <div className="grid grid-cols-[1fr_auto] gap-2">
         <Field id={fields.lengthValue.id} label="Length overall" errors={fields.lengthValue.errors}>
-          <input {...getInputProps(fields.lengthValue, { type: "text" })} inputMode="decimal" className="field-input" />
+          <input
+            {...getInputProps(fields.lengthValue, { type: "text" })}
+            inputMode="decimal"
+            className="field-input"
+          />
         </Field>
         <Field id={fields.lengthUnit.id} label="Unit" errors={fields.lengthUnit.errors}>
           <select {...getSelectProps(fields.lengthUnit)} className="field-input">
@@ -53,12 +87,19 @@ export function VesselForm({ defaults, lastResult, submitLabel }: { defaults?: P
         <input {...getInputProps(fields.ownerPhone, { type: "tel" })} className="field-input" />
       </Field>
       <div className="md:col-span-2">
-        <Field id={fields.waterlineNotes.id} label="Waterline notes" hint="Marks, trim, how she sits loaded — what the exhaust and alignment work must know." errors={fields.waterlineNotes.errors}>
+        <Field
+          id={fields.waterlineNotes.id}
+          label="Waterline notes"
+          hint="Marks, trim, how she sits loaded — what the exhaust and alignment work must know."
+          errors={fields.waterlineNotes.errors}
+        >
           <textarea {...getTextareaProps(fields.waterlineNotes)} rows={3} className="field-input" />
         </Field>
       </div>
       <div className="md:col-span-2">
-        <button type="submit" className="btn btn-primary">{submitLabel}</button>
+        <button type="submit" className="btn btn-primary">
+          {submitLabel}
+        </button>
       </div>
     </Form>
   );

@@ -2,8 +2,22 @@ import type { JobInput } from "./validation/jobs.ts";
 
 /** The checklists a job of each scope usually needs: the default ticks on the job page. */
 export const defaultTemplatesFor: Record<JobInput["scope"], string[]> = {
-  repower: ["propeller-shaft-and-coupling", "engine-alignment", "exhaust", "cooling", "instruments-and-electrical", "sea-trial"],
-  "new-installation": ["propeller-shaft-and-coupling", "engine-alignment", "exhaust", "cooling", "instruments-and-electrical", "sea-trial"],
+  repower: [
+    "propeller-shaft-and-coupling",
+    "engine-alignment",
+    "exhaust",
+    "cooling",
+    "instruments-and-electrical",
+    "sea-trial",
+  ],
+  "new-installation": [
+    "propeller-shaft-and-coupling",
+    "engine-alignment",
+    "exhaust",
+    "cooling",
+    "instruments-and-electrical",
+    "sea-trial",
+  ],
   realignment: ["engine-alignment", "sea-trial"],
   "shaft-replacement": ["propeller-shaft-and-coupling", "engine-alignment", "sea-trial"],
 };

@@ -30,7 +30,17 @@ export type Capability =
 const capabilities: Record<Role, Capability[]> = {
   technician: ["jobs:view", "calculators:use", "library:view"],
   lead: ["jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view"],
-  manager: ["users:manage", "jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view", "library:edit", "audit:read"],
+  manager: [
+    "users:manage",
+    "jobs:view",
+    "jobs:create",
+    "vessels:view",
+    "vessels:create",
+    "calculators:use",
+    "library:view",
+    "library:edit",
+    "audit:read",
+  ],
   surveyor: [],
 };
 
@@ -58,11 +68,17 @@ export function canEditJob(actor: Actor, job: JobAccess): boolean {
 
 /** Who records entries on a job's checklists: its technicians and its lead. */
 export function canFillJob(actor: Actor, job: JobAccess): boolean {
-  return (actor.role === "technician" && job.technicianIds.includes(actor.id)) || (actor.role === "lead" && job.leadId === actor.id);
+  return (
+    (actor.role === "technician" && job.technicianIds.includes(actor.id)) ||
+    (actor.role === "lead" && job.leadId === actor.id)
+  );
 }
 
 /** A lead edits a vessel they registered or one that has a job they lead. */
-export function canEditVessel(actor: Actor, vessel: { createdBy: number | null; leadIds: number[] }): boolean {
+export function canEditVessel(
+  actor: Actor,
+  vessel: { createdBy: number | null; leadIds: number[] },
+): boolean {
   if (actor.role === "manager") return true;
   return actor.role === "lead" && (vessel.createdBy === actor.id || vessel.leadIds.includes(actor.id));
 }

@@ -1,4 +1,10 @@
-import { getFormProps, getInputProps, getSelectProps, useForm, type SubmissionResult } from "@conform-to/react";
+import {
+  getFormProps,
+  getInputProps,
+  getSelectProps,
+  useForm,
+  type SubmissionResult,
+} from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
 import { useEffect, useMemo, useState } from "react";
@@ -7,7 +13,14 @@ import type { Route } from "./+types/audit";
 import { PageHeader } from "~/components/app-shell";
 import { Field } from "~/components/field";
 import { roleLabels } from "~/lib/roles";
-import { actionInWords, auditActionGroups, auditActionLabels, auditEntityLabels, auditFiltersSchema, entityInWords } from "~/lib/validation/audit";
+import {
+  actionInWords,
+  auditActionGroups,
+  auditActionLabels,
+  auditEntityLabels,
+  auditFiltersSchema,
+  entityInWords,
+} from "~/lib/validation/audit";
 import { listAuditEntries, type AuditLogEntry } from "~/server/audit-log.server";
 import { requireCapability } from "~/server/permissions.server";
 import { listUsers } from "~/server/users.server";
@@ -19,9 +32,19 @@ export async function loader({ request }: Route.LoaderArgs) {
   // A form sends each filter once; of a repeated one in a typed address the last counts.
   const params = new URLSearchParams(Object.fromEntries(new URL(request.url).searchParams));
   const submission = parseWithZod(params, { schema: auditFiltersSchema });
-  const people = (await listUsers()).map((p) => ({ id: p.id, label: `${p.name} (${roleLabels[p.role]}${p.active ? "" : ", deactivated"})` }));
+  const people = (await listUsers()).map((p) => ({
+    id: p.id,
+    label: `${p.name} (${roleLabels[p.role]}${p.active ? "" : ", deactivated"})`,
+  }));
   // Bad filters answer the page with the message at the field, not an error page.
-  if (submission.status !== "success") return { people, reply: submission.reply() as SubmissionResult<string[]>, entries: [], olderThan: null, zone: null };
+  if (submission.status !== "success")
+    return {
+      people,
+      reply: submission.reply() as SubmissionResult<string[]>,
+      entries: [],
+      olderThan: null,
+      zone: null,
+    };
   return { people, reply: null, zone: submission.value.tz, ...(await listAuditEntries(submission.value)) };
 }
 
@@ -64,7 +87,11 @@ function auditColumns(zone: string, search: URLSearchParams) {
         if (!who) return <span className="text-ink-soft">The system</span>;
         return (
           <>
-            <Link to={withFilter(search, { person: String(who.id) })} className={cellLink} title="Only this person's entries">
+            <Link
+              to={withFilter(search, { person: String(who.id) })}
+              className={cellLink}
+              title="Only this person's entries"
+            >
               {who.name}
             </Link>
             <span className="block text-sm text-ink-soft">{roleLabels[who.role]}</span>
@@ -78,7 +105,11 @@ function auditColumns(zone: string, search: URLSearchParams) {
         const device = c.getValue();
         if (!device) return <span className="text-ink-soft">—</span>;
         return (
-          <Link to={withFilter(search, { device })} className={`${cellLink} break-all font-mono text-sm`} title="Only this device's entries">
+          <Link
+            to={withFilter(search, { device })}
+            className={`${cellLink} break-all font-mono text-sm`}
+            title="Only this device's entries"
+          >
             {device}
           </Link>
         );
@@ -100,7 +131,10 @@ function auditColumns(zone: string, search: URLSearchParams) {
         );
       },
     }),
-    column.accessor("detail", { header: "Detail", cell: (c) => <span className="text-sm">{c.getValue() ?? "—"}</span> }),
+    column.accessor("detail", {
+      header: "Detail",
+      cell: (c) => <span className="text-sm">{c.getValue() ?? "—"}</span>,
+    }),
   ];
 }
 
@@ -139,9 +173,20 @@ function AuditTable({ entries, zone }: { entries: AuditLogEntry[]; zone: string 
   );
 }
 
-const knownActions = new Set<string>([...Object.keys(auditActionLabels), ...auditActionGroups.map((g) => g.prefix)]);
+const knownActions = new Set<string>([
+  ...Object.keys(auditActionLabels),
+  ...auditActionGroups.map((g) => g.prefix),
+]);
 
-function AuditFilters({ people, reply, zone }: { people: { id: number; label: string }[]; reply: SubmissionResult<string[]> | null; zone: string }) {
+function AuditFilters({
+  people,
+  reply,
+  zone,
+}: {
+  people: { id: number; label: string }[];
+  reply: SubmissionResult<string[]> | null;
+  zone: string;
+}) {
   const [search] = useSearchParams();
   const current = Object.fromEntries(search);
   const [form, fields] = useForm({
@@ -155,7 +200,11 @@ function AuditFilters({ people, reply, zone }: { people: { id: number; label: st
   const action = current.action ?? "";
   const entity = current.entity ?? "";
   return (
-    <Form method="get" {...getFormProps(form)} className="card mb-6 grid gap-4 md:grid-cols-2 xl:grid-cols-4 md:items-start">
+    <Form
+      method="get"
+      {...getFormProps(form)}
+      className="card mb-6 grid gap-4 md:grid-cols-2 xl:grid-cols-4 md:items-start"
+    >
       <input type="hidden" name="tz" value={zone} />
       <Field id={fields.action.id} label="Action" errors={fields.action.errors}>
         <select {...getSelectProps(fields.action)} className="field-input">
@@ -194,8 +243,17 @@ function AuditFilters({ people, reply, zone }: { people: { id: number; label: st
           ))}
         </select>
       </Field>
-      <Field id={fields.entityId.id} label="Its id" hint="The number or code after the kind, e.g. 12." errors={fields.entityId.errors}>
-        <input {...getInputProps(fields.entityId, { type: "text" })} className="field-input" autoComplete="off" />
+      <Field
+        id={fields.entityId.id}
+        label="Its id"
+        hint="The number or code after the kind, e.g. 12."
+        errors={fields.entityId.errors}
+      >
+        <input
+          {...getInputProps(fields.entityId, { type: "text" })}
+          className="field-input"
+          autoComplete="off"
+        />
       </Field>
       <Field id={fields.from.id} label="First day" errors={fields.from.errors}>
         <input {...getInputProps(fields.from, { type: "date" })} className="field-input" />
@@ -203,8 +261,17 @@ function AuditFilters({ people, reply, zone }: { people: { id: number; label: st
       <Field id={fields.to.id} label="Last day" errors={fields.to.errors}>
         <input {...getInputProps(fields.to, { type: "date" })} className="field-input" />
       </Field>
-      <Field id={fields.device.id} label="Device" hint="A tablet's id, as shown in the Device column." errors={fields.device.errors}>
-        <input {...getInputProps(fields.device, { type: "text" })} className="field-input font-mono" autoComplete="off" />
+      <Field
+        id={fields.device.id}
+        label="Device"
+        hint="A tablet's id, as shown in the Device column."
+        errors={fields.device.errors}
+      >
+        <input
+          {...getInputProps(fields.device, { type: "text" })}
+          className="field-input font-mono"
+          autoComplete="off"
+        />
       </Field>
       <div className="flex flex-wrap items-end gap-2 self-end">
         <button type="submit" className="btn btn-primary">
@@ -235,7 +302,10 @@ export default function AuditLog({ loaderData }: Route.ComponentProps) {
         <>
           <p className="mb-2 text-sm text-ink-soft">
             Newest first. Times are shown in {zone}
-            {loaderData.zone !== zone && (search.get("from") || search.get("to")) ? `; the days above were read in ${loaderData.zone}` : ""}.
+            {loaderData.zone !== zone && (search.get("from") || search.get("to"))
+              ? `; the days above were read in ${loaderData.zone}`
+              : ""}
+            .
           </p>
           <AuditTable entries={entries} zone={zone} />
           {entries.length === 0 && <p className="mt-4 text-ink-soft">No entries match these filters.</p>}
@@ -246,7 +316,10 @@ export default function AuditLog({ loaderData }: Route.ComponentProps) {
               </Link>
             )}
             {olderThan !== null && (
-              <Link to={`?${new URLSearchParams({ ...Object.fromEntries(search), before: String(olderThan) })}`} className="btn">
+              <Link
+                to={`?${new URLSearchParams({ ...Object.fromEntries(search), before: String(olderThan) })}`}
+                className="btn"
+              >
                 Older entries
               </Link>
             )}

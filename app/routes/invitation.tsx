@@ -25,7 +25,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   const submission = parseWithZod(await request.formData(), { schema: newPasswordSchema });
   if (submission.status !== "success") return data(submission.reply(), { status: 400 });
   const outcome = await acceptInvitation(params.token, submission.value.password);
-  if (outcome.state !== "valid") return data(submission.reply({ formErrors: [refusals[outcome.state]] }), { status: 400 });
+  if (outcome.state !== "valid")
+    return data(submission.reply({ formErrors: [refusals[outcome.state]] }), { status: 400 });
   return redirect("/login?welcome=1");
 }
 
@@ -42,7 +43,9 @@ export default function Invitation({ loaderData, actionData }: Route.ComponentPr
       {loaderData.refusal ? (
         <div className="card">
           <FormErrors errors={[loaderData.refusal]} />
-          <a className="btn mt-4" href="/login">Go to sign in</a>
+          <a className="btn mt-4" href="/login">
+            Go to sign in
+          </a>
         </div>
       ) : (
         <Form method="post" {...getFormProps(form)} className="card flex flex-col gap-4">
@@ -50,13 +53,28 @@ export default function Invitation({ loaderData, actionData }: Route.ComponentPr
             {loaderData.name}, choose a password for <strong>{loaderData.email}</strong>.
           </p>
           <FormErrors errors={form.errors} />
-          <Field id={fields.password.id} label="New password" hint="At least 10 characters." errors={fields.password.errors}>
-            <input {...getInputProps(fields.password, { type: "password" })} autoComplete="new-password" className="field-input" />
+          <Field
+            id={fields.password.id}
+            label="New password"
+            hint="At least 10 characters."
+            errors={fields.password.errors}
+          >
+            <input
+              {...getInputProps(fields.password, { type: "password" })}
+              autoComplete="new-password"
+              className="field-input"
+            />
           </Field>
           <Field id={fields.confirm.id} label="Type it again" errors={fields.confirm.errors}>
-            <input {...getInputProps(fields.confirm, { type: "password" })} autoComplete="new-password" className="field-input" />
+            <input
+              {...getInputProps(fields.confirm, { type: "password" })}
+              autoComplete="new-password"
+              className="field-input"
+            />
           </Field>
-          <button className="btn btn-primary" type="submit">Set password</button>
+          <button className="btn btn-primary" type="submit">
+            Set password
+          </button>
         </Form>
       )}
     </main>

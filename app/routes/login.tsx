@@ -44,10 +44,25 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
         <FormErrors errors={actionData?.error ? [actionData.error] : null} />
         <input type="hidden" name="redirectTo" value={loaderData.redirectTo} />
         <Field id="email" label="E-mail address">
-          <input id="email" name="email" type="email" autoComplete="username" required className="field-input" defaultValue={actionData?.email} />
+          <input
+            id="email"
+            name="email"
+            type="email"
+            autoComplete="username"
+            required
+            className="field-input"
+            defaultValue={actionData?.email}
+          />
         </Field>
         <Field id="password" label="Password">
-          <input id="password" name="password" type="password" autoComplete="current-password" required className="field-input" />
+          <input
+            id="password"
+            name="password"
+            type="password"
+            autoComplete="current-password"
+            required
+            className="field-input"
+          />
         </Field>
         <button type="submit" className="btn btn-primary" disabled={busy}>
           {busy ? "Signing in…" : "Sign in"}

@@ -34,24 +34,47 @@ export async function action({ request }: Route.ActionArgs) {
   const formData = await request.formData();
   if (formData.get("intent") === "invite") {
     const submission = parseWithZod(formData, { schema: inviteSchema });
-    if (submission.status !== "success") return data({ invite: submission.reply(), notice: null }, { status: 400 });
+    if (submission.status !== "success")
+      return data({ invite: submission.reply(), notice: null }, { status: 400 });
     try {
       const { userId, token } = await inviteUser(submission.value, me.id);
       await sendInvitation(submission.value.email, submission.value.name, token);
-      await audit({ userId: me.id, action: "user.invited", entity: "user", entityId: userId, detail: { role: submission.value.role } });
-      return { invite: submission.reply({ resetForm: true }), notice: `Invitation sent to ${submission.value.email}.` };
+      await audit({
+        userId: me.id,
+        action: "user.invited",
+        entity: "user",
+        entityId: userId,
+        detail: { role: submission.value.role },
+      });
+      return {
+        invite: submission.reply({ resetForm: true }),
+        notice: `Invitation sent to ${submission.value.email}.`,
+      };
     } catch (error) {
       if (error instanceof InviteError)
-        return data({ invite: submission.reply({ fieldErrors: { [error.field]: [error.message] } }), notice: null }, { status: 400 });
+        return data(
+          { invite: submission.reply({ fieldErrors: { [error.field]: [error.message] } }), notice: null },
+          { status: 400 },
+        );
       throw error;
     }
   }
   const change = userChangeSchema.safeParse(Object.fromEntries(formData));
-  if (!change.success) return data({ invite: null, notice: "That change was not understood; reload the page and try again." }, { status: 400 });
+  if (!change.success)
+    return data(
+      { invite: null, notice: "That change was not understood; reload the page and try again." },
+      { status: 400 },
+    );
   const target = await findUserById(change.data.userId);
   if (!target) return data({ invite: null, notice: "That person no longer exists." }, { status: 404 });
   if (target.id === me.id && change.data.intent !== "reinvite")
-    return data({ invite: null, notice: "You cannot change your own role or deactivate yourself; ask another manager." }, { status: 400 });
+    return data(
+      {
+        invite: null,
+        notice: "You cannot change your own role or deactivate yourself; ask another manager.",
+      },
+      { status: 400 },
+    );
   switch (change.data.intent) {
     case "role":
       await updateUser(target.id, { role: change.data.role });
@@ -65,7 +88,10 @@ export async function action({ request }: Route.ActionArgs) {
       await updateUser(target.id, { active: true });
       break;
     case "reinvite": {
-      const { token } = await inviteUser({ email: target.email, name: target.name, role: target.role }, me.id).catch((e) => {
+      const { token } = await inviteUser(
+        { email: target.email, name: target.name, role: target.role },
+        me.id,
+      ).catch((e) => {
         if (e instanceof InviteError) throw data({ message: e.message }, { status: 400 });
         throw e;
       });
@@ -73,8 +99,17 @@ export async function action({ request }: Route.ActionArgs) {
       break;
     }
   }
-  await audit({ userId: me.id, action: `user.${change.data.intent}`, entity: "user", entityId: target.id, detail: change.data });
-  return { invite: null, notice: `${target.name}: ${change.data.intent === "role" ? "role changed" : change.data.intent + "d"}.` };
+  await audit({
+    userId: me.id,
+    action: `user.${change.data.intent}`,
+    entity: "user",
+    entityId: target.id,
+    detail: change.data,
+  });
+  return {
+    invite: null,
+    notice: `${target.name}: ${change.data.intent === "role" ? "role changed" : change.data.intent + "d"}.`,
+  };
 }
 
 export default function People({ loaderData, actionData }: Route.ComponentProps) {
@@ -137,15 +172,27 @@ export default function People({ loaderData, actionData }: Route.ComponentProps)
                 <Form method="post" className="flex gap-2">
                   <input type="hidden" name="intent" value="role" />
                   <input type="hidden" name="userId" value={p.id} />
-                  <label className="sr-only" htmlFor={`role-${p.id}`}>Role of {p.name}</label>
-                  <select id={`role-${p.id}`} name="role" defaultValue={p.role} className="field-input w-auto" disabled={p.id === loaderData.me}>
+                  <label className="sr-only" htmlFor={`role-${p.id}`}>
+                    Role of {p.name}
+                  </label>
+                  <select
+                    id={`role-${p.id}`}
+                    name="role"
+                    defaultValue={p.role}
+                    className="field-input w-auto"
+                    disabled={p.id === loaderData.me}
+                  >
                     {roles.map((r) => (
                       <option key={r} value={r}>
                         {roleLabels[r]}
                       </option>
                     ))}
                   </select>
-                  {p.id !== loaderData.me && <button className="btn" type="submit">Change</button>}
+                  {p.id !== loaderData.me && (
+                    <button className="btn" type="submit">
+                      Change
+                    </button>
+                  )}
                 </Form>
               </td>
               <td className="p-2">{!p.active ? "Deactivated" : p.hasPassword ? "Active" : "Invited"}</td>
@@ -154,11 +201,19 @@ export default function People({ loaderData, actionData }: Route.ComponentProps)
                   <Form method="post" className="flex gap-2">
                     <input type="hidden" name="userId" value={p.id} />
                     {p.active ? (
-                      <button className="btn btn-danger" name="intent" value="deactivate">Deactivate</button>
+                      <button className="btn btn-danger" name="intent" value="deactivate">
+                        Deactivate
+                      </button>
                     ) : (
-                      <button className="btn" name="intent" value="reactivate">Reactivate</button>
+                      <button className="btn" name="intent" value="reactivate">
+                        Reactivate
+                      </button>
                     )}
-                    {p.active && !p.hasPassword && <button className="btn" name="intent" value="reinvite">Send again</button>}
+                    {p.active && !p.hasPassword && (
+                      <button className="btn" name="intent" value="reinvite">
+                        Send again
+                      </button>
+                    )}
                   </Form>
                 )}
               </td>

@@ -15,15 +15,31 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
   } catch (error) {
     if (error instanceof Response) throw error;
     const { getMeta } = await import("~/lib/offline/store.client");
-    const user = await getMeta<{ id: number; name: string; role: "technician" | "lead" | "manager" | "surveyor"; email: string }>("user");
+    const user = await getMeta<{
+      id: number;
+      name: string;
+      role: "technician" | "lead" | "manager" | "surveyor";
+      email: string;
+    }>("user");
     if (!user) throw redirect("/login");
     return { user, offline: true };
   }
 }
 
 /** Entries are written locally; there is nothing to fetch again after one. */
-export function shouldRevalidate({ formMethod, currentUrl, nextUrl, defaultShouldRevalidate }: ShouldRevalidateFunctionArgs) {
-  if (formMethod && formMethod !== "GET" && currentUrl.pathname === nextUrl.pathname && nextUrl.pathname.startsWith("/checklists/")) return false;
+export function shouldRevalidate({
+  formMethod,
+  currentUrl,
+  nextUrl,
+  defaultShouldRevalidate,
+}: ShouldRevalidateFunctionArgs) {
+  if (
+    formMethod &&
+    formMethod !== "GET" &&
+    currentUrl.pathname === nextUrl.pathname &&
+    nextUrl.pathname.startsWith("/checklists/")
+  )
+    return false;
   return defaultShouldRevalidate;
 }
 

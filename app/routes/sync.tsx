@@ -20,7 +20,13 @@ export async function clientLoader() {
     conflicts: await Promise.all(
       conflicts.map(async (c) => {
         const { checklistTitle, item } = await describe(c.checklistId, c.itemKey);
-        return { ...c, checklistTitle, label: item?.label ?? c.itemKey, server: describeValue(item, c.serverValue), sent: describeValue(item, c.clientValue) };
+        return {
+          ...c,
+          checklistTitle,
+          label: item?.label ?? c.itemKey,
+          server: describeValue(item, c.serverValue),
+          sent: describeValue(item, c.clientValue),
+        };
       }),
     ),
     rejections: await Promise.all(
@@ -61,9 +67,12 @@ export default function ToDecide({ loaderData }: Route.ComponentProps) {
     <>
       <h1 className="mb-2 text-3xl font-bold">To decide</h1>
       <p className="mb-6 text-lg">
-        When two people changed the same entry while apart, both values are kept here until someone chooses. Nothing is overwritten on its own.
+        When two people changed the same entry while apart, both values are kept here until someone chooses.
+        Nothing is overwritten on its own.
       </p>
-      {conflicts.length === 0 && rejections.length === 0 && <p data-testid="nothing-to-decide">Nothing to decide.</p>}
+      {conflicts.length === 0 && rejections.length === 0 && (
+        <p data-testid="nothing-to-decide">Nothing to decide.</p>
+      )}
       <ul className="flex flex-col gap-4">
         {conflicts.map((c) => (
           <li key={c.id} className="card flex flex-col gap-3" data-testid="conflict">
@@ -72,18 +81,31 @@ export default function ToDecide({ loaderData }: Route.ComponentProps) {
             <div className="grid gap-3 md:grid-cols-2">
               <div className="rounded-md border-2 border-rule p-3">
                 <p className="text-sm font-bold">On the server now (revision {c.serverRev})</p>
-                <p className="num text-lg" data-testid="server-value">{c.server}</p>
+                <p className="num text-lg" data-testid="server-value">
+                  {c.server}
+                </p>
               </div>
               <div className="rounded-md border-2 border-rule p-3">
-                <p className="text-sm font-bold">Sent by {c.by}, {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}</p>
-                <p className="num text-lg" data-testid="sent-value">{c.sent}</p>
+                <p className="text-sm font-bold">
+                  Sent by {c.by},{" "}
+                  {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}
+                </p>
+                <p className="num text-lg" data-testid="sent-value">
+                  {c.sent}
+                </p>
               </div>
             </div>
             <fetcher.Form method="post" className="flex flex-wrap gap-2">
               <input type="hidden" name="conflictId" value={c.id} />
-              <button className="btn" name="keep" value="server">Keep the server's value</button>
-              <button className="btn" name="keep" value="sent">Use the value that was sent</button>
-              <Link className="btn" to={`/checklists/${c.checklistId}#item-${c.itemKey}`}>Enter a new value</Link>
+              <button className="btn" name="keep" value="server">
+                Keep the server's value
+              </button>
+              <button className="btn" name="keep" value="sent">
+                Use the value that was sent
+              </button>
+              <Link className="btn" to={`/checklists/${c.checklistId}#item-${c.itemKey}`}>
+                Enter a new value
+              </Link>
             </fetcher.Form>
           </li>
         ))}
@@ -91,11 +113,19 @@ export default function ToDecide({ loaderData }: Route.ComponentProps) {
           <li key={r.opId} className="card flex flex-col gap-2 border-fault" data-testid="rejection">
             <h2 className="text-xl font-bold">Refused: {r.label}</h2>
             <p className="text-ink-soft">{r.checklistTitle}</p>
-            <p><strong>Why: </strong>{r.reason}</p>
-            <p><strong>What was sent: </strong>{r.sent}</p>
+            <p>
+              <strong>Why: </strong>
+              {r.reason}
+            </p>
+            <p>
+              <strong>What was sent: </strong>
+              {r.sent}
+            </p>
             <fetcher.Form method="post">
               <input type="hidden" name="opId" value={r.opId} />
-              <button className="btn" name="intent" value="dismiss">Understood, remove</button>
+              <button className="btn" name="intent" value="dismiss">
+                Understood, remove
+              </button>
             </fetcher.Form>
           </li>
         ))}

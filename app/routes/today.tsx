@@ -20,12 +20,26 @@ interface TodayJob {
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  const jobs = can(user, "jobs:view") ? (await listVisibleJobs(user)).filter((j) => j.status !== "completed") : [];
-  const checklists = await listChecklistsOfJobs(jobs.map((j) => j.id));
-  const withChecklists: TodayJob[] = jobs.map((j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: checklists.get(j.id)! }));
-  const records = user.role === "surveyor"
-    ? (await recordsIssuedTo(user.id)).map((r: any) => ({ id: r.id as string, vesselName: r.vessel_name as string, engineModel: r.engine_model as string, issuedAt: new Date(r.issued_at).toISOString() }))
+  const jobs = can(user, "jobs:view")
+    ? (await listVisibleJobs(user)).filter((j) => j.status !== "completed")
     : [];
+  const checklists = await listChecklistsOfJobs(jobs.map((j) => j.id));
+  const withChecklists: TodayJob[] = jobs.map((j) => ({
+    id: j.id,
+    vesselName: j.vesselName,
+    engineModel: j.engineModel,
+    dueDate: j.dueDate,
+    checklists: checklists.get(j.id)!,
+  }));
+  const records =
+    user.role === "surveyor"
+      ? (await recordsIssuedTo(user.id)).map((r: any) => ({
+          id: r.id as string,
+          vesselName: r.vessel_name as string,
+          engineModel: r.engine_model as string,
+          issuedAt: new Date(r.issued_at).toISOString(),
+        }))
+      : [];
   return { name: user.name, role: user.role, jobs: withChecklists, records, offline: false };
 }
 
@@ -36,22 +50,43 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
   } catch (error) {
     if (error instanceof Response) throw error;
     const store = await import("~/lib/offline/store.client");
-    const user = await store.getMeta<{ name: string; role: "technician" | "lead" | "manager" | "surveyor" }>("user");
-    const jobs: TodayJob[] = (await store.listLocalJobs()).map((j) => ({ id: j.id, vesselName: j.vesselName, engineModel: j.engineModel, dueDate: j.dueDate, checklists: j.checklists }));
+    const user = await store.getMeta<{ name: string; role: "technician" | "lead" | "manager" | "surveyor" }>(
+      "user",
+    );
+    const jobs: TodayJob[] = (await store.listLocalJobs()).map((j) => ({
+      id: j.id,
+      vesselName: j.vesselName,
+      engineModel: j.engineModel,
+      dueDate: j.dueDate,
+      checklists: j.checklists,
+    }));
     return { name: user?.name ?? "", role: user?.role ?? "technician", jobs, records: [], offline: true };
   }
 }
 
 function OfflineReadiness() {
-  const [state, setState] = useState<{ busy: boolean; message: string | null; readyAt: string | null }>({ busy: false, message: null, readyAt: null });
+  const [state, setState] = useState<{ busy: boolean; message: string | null; readyAt: string | null }>({
+    busy: false,
+    message: null,
+    readyAt: null,
+  });
   const revalidator = useRevalidator();
   async function prepare(quiet = false) {
     setState((s) => ({ ...s, busy: true, message: quiet ? s.message : "Copying your jobs to this tablet…" }));
     try {
-      const [{ takeOffline }, { calculatorPages }] = await Promise.all([import("~/lib/offline/take-offline.client"), import("~/lib/offline/calculator-pages")]);
+      const [{ takeOffline }, { calculatorPages }] = await Promise.all([
+        import("~/lib/offline/take-offline.client"),
+        import("~/lib/offline/calculator-pages"),
+      ]);
       const done = await takeOffline(calculatorPages());
       const readyAt = localStorage.getItem("sternpost:offline-ready");
-      setState({ busy: false, readyAt, message: quiet ? null : `Ready offline: ${done.checklists} checklists and ${done.pages} pages on this tablet.` });
+      setState({
+        busy: false,
+        readyAt,
+        message: quiet
+          ? null
+          : `Ready offline: ${done.checklists} checklists and ${done.pages} pages on this tablet.`,
+      });
       revalidator.revalidate();
     } catch (error) {
       setState((s) => ({ ...s, busy: false, message: `Not ready offline: ${(error as Error).message}` }));
@@ -67,10 +102,17 @@ function OfflineReadiness() {
   return (
     <div className="card mb-6 flex flex-wrap items-center gap-4">
       <button type="button" className="btn btn-primary" disabled={state.busy} onClick={() => prepare()}>
-        {state.busy ? "Copying…" : state.readyAt ? "Refresh the offline copy" : "Make my jobs available offline"}
+        {state.busy
+          ? "Copying…"
+          : state.readyAt
+            ? "Refresh the offline copy"
+            : "Make my jobs available offline"}
       </button>
       <p role="status" data-testid="offline-readiness">
-        {state.message ?? (state.readyAt ? `Available offline since ${new Date(state.readyAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}.` : "Do this once with a connection before going aboard.")}
+        {state.message ??
+          (state.readyAt
+            ? `Available offline since ${new Date(state.readyAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}.`
+            : "Do this once with a connection before going aboard.")}
       </p>
     </div>
   );
@@ -83,13 +125,20 @@ export default function Today({ loaderData }: Route.ComponentProps) {
       <h1 className="mb-2 text-3xl font-bold">Good to see you, {name.split(" ")[0]}</h1>
       {role === "surveyor" ? (
         <>
-          <p className="mb-4 text-lg">{records.length ? "Commissioning records issued to you:" : "Commissioning records issued to you will appear here."}</p>
+          <p className="mb-4 text-lg">
+            {records.length
+              ? "Commissioning records issued to you:"
+              : "Commissioning records issued to you will appear here."}
+          </p>
           <ul className="flex flex-col gap-3" data-testid="issued-records">
             {records.map((r) => (
               <li key={r.id}>
                 <Link to={`/records/${r.id}`} className="card flex flex-col no-underline">
                   <span className="text-xl font-bold text-ink">{r.vesselName}</span>
-                  <span className="text-ink-soft">{r.engineModel} · issued {new Date(r.issuedAt).toLocaleDateString("en-GB", { dateStyle: "medium" })}</span>
+                  <span className="text-ink-soft">
+                    {r.engineModel} · issued{" "}
+                    {new Date(r.issuedAt).toLocaleDateString("en-GB", { dateStyle: "medium" })}
+                  </span>
                 </Link>
               </li>
             ))}
@@ -99,18 +148,33 @@ export default function Today({ loaderData }: Route.ComponentProps) {
         <>
           <OfflineReadiness />
           <p className="mb-4 text-lg">
-            {offline ? "No connection: the jobs on this tablet." : role === "technician" ? "The jobs you are assigned to:" : "Open jobs:"}
+            {offline
+              ? "No connection: the jobs on this tablet."
+              : role === "technician"
+                ? "The jobs you are assigned to:"
+                : "Open jobs:"}
           </p>
           {jobs.length === 0 && <p>No open jobs.</p>}
           <ul className="grid gap-4 md:grid-cols-2">
             {jobs.map((j) => (
               <li key={j.id} className="card flex flex-col gap-2" data-testid={`job-${j.id}`}>
-                {offline ? <span className="text-xl font-bold">{j.vesselName}</span> : <Link to={`/jobs/${j.id}`} className="text-xl font-bold text-harbour underline">{j.vesselName}</Link>}
-                <span className="text-ink-soft">{j.engineModel} · due {j.dueDate ?? "—"}</span>
+                {offline ? (
+                  <span className="text-xl font-bold">{j.vesselName}</span>
+                ) : (
+                  <Link to={`/jobs/${j.id}`} className="text-xl font-bold text-harbour underline">
+                    {j.vesselName}
+                  </Link>
+                )}
+                <span className="text-ink-soft">
+                  {j.engineModel} · due {j.dueDate ?? "—"}
+                </span>
                 <ul className="flex flex-col">
                   {j.checklists.map((c) => (
                     <li key={c.id}>
-                      <Link to={`/checklists/${c.id}`} className="flex min-h-12 items-center justify-between gap-2 border-t border-rule no-underline">
+                      <Link
+                        to={`/checklists/${c.id}`}
+                        className="flex min-h-12 items-center justify-between gap-2 border-t border-rule no-underline"
+                      >
                         <span className="font-bold text-ink">{c.title}</span>
                         <span className="text-sm text-ink-soft">{checklistStateLabels[c.state]}</span>
                       </Link>

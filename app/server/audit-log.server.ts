@@ -27,7 +27,11 @@ const pages: Record<string, (id: string) => string> = {
 
 const escapeLike = (text: string) => text.replace(/[\\%_]/g, "\\$&");
 
-const inWords = (key: string) => key.replace(/([a-z0-9])([A-Z])/g, "$1 $2").replace(/[_-]/g, " ").toLowerCase();
+const inWords = (key: string) =>
+  key
+    .replace(/([a-z0-9])([A-Z])/g, "$1 $2")
+    .replace(/[_-]/g, " ")
+    .toLowerCase();
 
 function valueLine(value: unknown): string {
   if (value === null) return "none";
@@ -56,13 +60,17 @@ export function detailLine(stored: unknown): string | null {
 }
 
 /** One page of the log, newest first; `olderThan` is the cursor of the next page when there is one. */
-export async function listAuditEntries(filters: AuditFilters, pageSize = AUDIT_PAGE_SIZE): Promise<{ entries: AuditLogEntry[]; olderThan: number | null }> {
+export async function listAuditEntries(
+  filters: AuditFilters,
+  pageSize = AUDIT_PAGE_SIZE,
+): Promise<{ entries: AuditLogEntry[]; olderThan: number | null }> {
   const query = db()("audit_log")
     .leftJoin("users", "users.id", "audit_log.user_id")
     .select("audit_log.*", "users.name as user_name", "users.role as user_role")
     .orderBy("audit_log.id", "desc")
     .limit(pageSize + 1);
-  if (filters.action?.endsWith(".")) query.where("audit_log.action", "like", `${escapeLike(filters.action)}%`);
+  if (filters.action?.endsWith("."))
+    query.where("audit_log.action", "like", `${escapeLike(filters.action)}%`);
   else if (filters.action) query.where("audit_log.action", filters.action);
   if (filters.person) query.where("audit_log.user_id", filters.person);
   if (filters.entity) query.where("audit_log.entity", filters.entity);

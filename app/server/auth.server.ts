@@ -8,7 +8,10 @@ import { clearFailedLogins, loginBlockedFor, recordFailedLogin } from "./rate-li
 
 /** A sign-in refusal worded for the person at the door. */
 export class LoginError extends Error {
-  constructor(message: string, public countsAsFailure = true) {
+  constructor(
+    message: string,
+    public countsAsFailure = true,
+  ) {
     super(message);
   }
 }
@@ -24,7 +27,8 @@ authenticator.use(
     if (!found?.passwordHash || !(await checkPassword(parsed.data.password, found.passwordHash))) {
       throw new LoginError("That e-mail address and password do not match.");
     }
-    if (!found.active) throw new LoginError("This account has been deactivated. Ask your shop manager.", false);
+    if (!found.active)
+      throw new LoginError("This account has been deactivated. Ask your shop manager.", false);
     const { passwordHash: _, ...user } = found;
     return user;
   }),
@@ -36,7 +40,10 @@ export async function signIn(request: Request, clientAddress: string) {
   const email = String((await request.clone().formData()).get("email") ?? "").trim();
   const minutes = await loginBlockedFor(email, clientAddress);
   if (minutes > 0) {
-    throw new LoginError(`Too many failed sign-ins. This account is locked for ${minutes} more minute${minutes === 1 ? "" : "s"}.`, false);
+    throw new LoginError(
+      `Too many failed sign-ins. This account is locked for ${minutes} more minute${minutes === 1 ? "" : "s"}.`,
+      false,
+    );
   }
   let user: User;
   try {

@@ -75,8 +75,23 @@ export async function startChecklists(jobId: number, keys: string[], userId: num
     for (const key of keys.filter((k) => !existing.includes(k))) {
       const version = latest.find((l) => l.key === key)!;
       const id = randomUUID();
-      await trx("job_checklists").insert({ id, job_id: jobId, template_version_id: version.id, template_key: key, started_by: userId });
-      await audit({ userId, action: "checklist.started", entity: "checklist", entityId: id, detail: { jobId, key, version: version.version } }, trx);
+      await trx("job_checklists").insert({
+        id,
+        job_id: jobId,
+        template_version_id: version.id,
+        template_key: key,
+        started_by: userId,
+      });
+      await audit(
+        {
+          userId,
+          action: "checklist.started",
+          entity: "checklist",
+          entityId: id,
+          detail: { jobId, key, version: version.version },
+        },
+        trx,
+      );
       ids.push(id);
     }
     return ids;
@@ -110,9 +125,20 @@ export async function findChecklist(id: string): Promise<JobChecklist | undefine
 
 /** The current responses of a checklist as the server holds them. */
 export async function checklistResponses(checklistId: string) {
-  const rows = await db()("checklist_responses as r").join("users as u", "u.id", "r.updated_by").where("r.checklist_id", checklistId)
+  const rows = await db()("checklist_responses as r")
+    .join("users as u", "u.id", "r.updated_by")
+    .where("r.checklist_id", checklistId)
     .select("r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
   return Object.fromEntries(
-    rows.map((r: any) => [r.item_key, { value: typeof r.value === "string" ? JSON.parse(r.value) : r.value, rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString(), pending: false }]),
+    rows.map((r: any) => [
+      r.item_key,
+      {
+        value: typeof r.value === "string" ? JSON.parse(r.value) : r.value,
+        rev: r.rev,
+        by: r.name,
+        at: new Date(r.updated_at).toISOString(),
+        pending: false,
+      },
+    ]),
   ) as Record<string, { value: unknown; rev: number; by: string; at: string; pending: boolean }>;
 }

@@ -22,9 +22,16 @@ const schema = z.object({
   S3_ACCESS_KEY_ID: z.string().min(1).default("S3RVER"),
   S3_SECRET_ACCESS_KEY: z.string().min(1).default("S3RVER"),
   /** Bucket in the path (http://host/bucket/key), as most stand-ins and self-hosted stores need. */
-  S3_FORCE_PATH_STYLE: z.enum(["true", "false"]).default("true").transform((v) => v === "true"),
+  S3_FORCE_PATH_STYLE: z
+    .enum(["true", "false"])
+    .default("true")
+    .transform((v) => v === "true"),
   /** The largest photo accepted, in bytes; the tablet compresses to well under it. */
-  PHOTO_MAX_BYTES: z.coerce.number().int().positive().default(5 * 1024 * 1024),
+  PHOTO_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .positive()
+    .default(5 * 1024 * 1024),
 });
 
 export type Env = z.infer<typeof schema>;

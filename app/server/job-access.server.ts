@@ -9,6 +9,9 @@ export async function requireJob(request: Request, jobId: string, need: "view" |
   const id = Number(jobId);
   const job = Number.isInteger(id) && id > 0 ? await findJob(id) : undefined;
   invariantFound(job, "There is no such job.");
-  invariantForbidden(need === "view" ? canViewJob(user, job) : canEditJob(user, job), "This job is not one of yours.");
+  invariantForbidden(
+    need === "view" ? canViewJob(user, job) : canEditJob(user, job),
+    "This job is not one of yours.",
+  );
   return { user, job };
 }

@@ -23,11 +23,18 @@ export async function parseJobForm(formData: FormData, actor: User) {
   const options = await jobFormOptions();
   return parseWithZod(formData, {
     schema: jobSchema
-      .refine((j) => options.vessels.some((v) => v.id === j.vesselId), { path: ["vesselId"], message: "Choose a vessel from the list." })
-      .refine((j) => (actor.role === "lead" ? j.leadId === actor.id : options.leads.some((l) => l.id === j.leadId)), {
-        path: ["leadId"],
-        message: actor.role === "lead" ? "A lead creates and edits the jobs they lead." : "Choose an active lead.",
+      .refine((j) => options.vessels.some((v) => v.id === j.vesselId), {
+        path: ["vesselId"],
+        message: "Choose a vessel from the list.",
       })
+      .refine(
+        (j) => (actor.role === "lead" ? j.leadId === actor.id : options.leads.some((l) => l.id === j.leadId)),
+        {
+          path: ["leadId"],
+          message:
+            actor.role === "lead" ? "A lead creates and edits the jobs they lead." : "Choose an active lead.",
+        },
+      )
       .refine((j) => j.technicianIds.every((id) => options.technicians.some((t) => t.id === id)), {
         path: ["technicianIds"],
         message: "Only active technicians can be assigned.",

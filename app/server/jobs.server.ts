@@ -22,7 +22,11 @@ export interface JobSummary {
 export interface Job extends JobSummary, Omit<JobInput, "technicianIds" | "startDate" | "dueDate"> {}
 
 const isoDate = (d: Date | string | null) =>
-  d === null ? null : typeof d === "string" ? d.slice(0, 10) : new Date(d.getTime() - d.getTimezoneOffset() * 60000).toISOString().slice(0, 10);
+  d === null
+    ? null
+    : typeof d === "string"
+      ? d.slice(0, 10)
+      : new Date(d.getTime() - d.getTimezoneOffset() * 60000).toISOString().slice(0, 10);
 
 function baseQuery(knex: Knex) {
   return knex("jobs")
@@ -74,7 +78,10 @@ function toJob(row: any, techs: { id: number; name: string }[]): Job {
 
 /** The jobs this person may see: managers all, leads theirs, technicians those assigned. */
 export async function listVisibleJobs(actor: Actor): Promise<Job[]> {
-  let query = baseQuery(db()).orderBy([{ column: "jobs.status", order: "asc" }, { column: "jobs.due_date", order: "asc" }]);
+  let query = baseQuery(db()).orderBy([
+    { column: "jobs.status", order: "asc" },
+    { column: "jobs.due_date", order: "asc" },
+  ]);
   if (actor.role === "lead") query = query.where("jobs.lead_id", actor.id);
   else if (actor.role === "technician")
     query = query.whereIn("jobs.id", db()("job_technicians").where({ user_id: actor.id }).select("job_id"));
@@ -124,7 +131,9 @@ export async function createJob(input: JobInput, createdBy: number): Promise<num
 
 export async function updateJob(id: number, input: JobInput) {
   await db().transaction(async (trx) => {
-    await trx("jobs").where({ id }).update({ ...toRow(input), updated_at: trx.fn.now(3) });
+    await trx("jobs")
+      .where({ id })
+      .update({ ...toRow(input), updated_at: trx.fn.now(3) });
     await trx("job_technicians").where({ job_id: id }).delete();
     if (input.technicianIds.length)
       await trx("job_technicians").insert(input.technicianIds.map((user_id) => ({ job_id: id, user_id })));

@@ -66,17 +66,33 @@ async function uses(knex: Knex, actor: Actor, versionIds?: number[]) {
     .join("jobs as j", "j.id", "c.job_id")
     .join("vessels as v", "v.id", "j.vessel_id")
     .orderBy("v.name")
-    .select("c.id as checklist_id", "c.template_version_id", "c.state", "j.id as job_id", "j.lead_id", "v.name as vessel_name");
+    .select(
+      "c.id as checklist_id",
+      "c.template_version_id",
+      "c.state",
+      "j.id as job_id",
+      "j.lead_id",
+      "v.name as vessel_name",
+    );
   if (versionIds) query = query.whereIn("c.template_version_id", versionIds);
   const rows = await query;
-  const crew = rows.length ? await knex("job_technicians").whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))]).select("job_id", "user_id") : [];
+  const crew = rows.length
+    ? await knex("job_technicians")
+        .whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))])
+        .select("job_id", "user_id")
+    : [];
   const byVersion = new Map<number, { count: number; visible: VersionUse[] }>();
   for (const r of rows as any[]) {
     const entry = byVersion.get(r.template_version_id) ?? { count: 0, visible: [] };
     entry.count++;
     const technicianIds = crew.filter((c: any) => c.job_id === r.job_id).map((c: any) => c.user_id);
     if (canViewJob(actor, { leadId: r.lead_id, technicianIds })) {
-      entry.visible.push({ checklistId: r.checklist_id, jobId: r.job_id, vesselName: r.vessel_name, state: r.state });
+      entry.visible.push({
+        checklistId: r.checklist_id,
+        jobId: r.job_id,
+        vesselName: r.vessel_name,
+        state: r.state,
+      });
     }
     byVersion.set(r.template_version_id, entry);
   }
@@ -86,7 +102,17 @@ async function uses(knex: Knex, actor: Actor, versionIds?: number[]) {
 function versionQuery(knex: Knex) {
   return knex("template_versions as t")
     .leftJoin("users as u", "u.id", "t.created_by")
-    .select("t.id", "t.template_key", "t.version", "t.status", "t.title", "t.published_at", "t.retired_at", "t.created_at", "u.name as created_by_name");
+    .select(
+      "t.id",
+      "t.template_key",
+      "t.version",
+      "t.status",
+      "t.title",
+      "t.published_at",
+      "t.retired_at",
+      "t.created_at",
+      "u.name as created_by_name",
+    );
 }
 
 function toVersion(row: any, used: Map<number, { count: number; visible: VersionUse[] }>): LibraryVersion {
@@ -131,12 +157,20 @@ export async function listLibrary(actor: Actor, knex: Knex = db()): Promise<Libr
 }
 
 /** One template's versions as this person may see them, or undefined when there is none to show. */
-export async function templateHistory(actor: Actor, key: string, knex: Knex = db()): Promise<LibraryTemplate | undefined> {
+export async function templateHistory(
+  actor: Actor,
+  key: string,
+  knex: Knex = db(),
+): Promise<LibraryTemplate | undefined> {
   let query = versionQuery(knex).where("t.template_key", key);
   if (!mayEdit(actor)) query = query.whereNot("t.status", "draft");
   const rows = await query;
   if (!rows.length) return undefined;
-  const used = await uses(knex, actor, rows.map((r: any) => r.id));
+  const used = await uses(
+    knex,
+    actor,
+    rows.map((r: any) => r.id),
+  );
   return groupByKey(rows.map((r: any) => toVersion(r, used)))[0];
 }
 
@@ -145,7 +179,11 @@ export async function readableVersion(actor: Actor, key: string, version: number
   if (!Number.isInteger(version) || version < 1) return undefined;
   const row = await knex("template_versions").where({ template_key: key, version }).first();
   if (!row || (row.status === "draft" && !mayEdit(actor))) return undefined;
-  return { id: row.id as number, status: row.status as VersionStatus, template: JSON.parse(row.body) as Template };
+  return {
+    id: row.id as number,
+    status: row.status as VersionStatus,
+    template: JSON.parse(row.body) as Template,
+  };
 }
 
 // ---- changes ---------------------------------------------------------------------------------
@@ -160,7 +198,11 @@ interface VersionRow {
 
 /** The key's versions, locked for the rest of the transaction so two managers cannot race. */
 async function lockedVersions(trx: Knex.Transaction, key: string): Promise<VersionRow[]> {
-  return trx("template_versions").where({ template_key: key }).orderBy("version").forUpdate().select("id", "version", "status", "body", "body_sha256");
+  return trx("template_versions")
+    .where({ template_key: key })
+    .orderBy("version")
+    .forUpdate()
+    .select("id", "version", "status", "body", "body_sha256");
 }
 
 function isDuplicate(error: unknown) {
@@ -181,46 +223,85 @@ async function insertDraft(trx: Knex.Transaction, template: Template, userId: nu
     });
     return id as number;
   } catch (error) {
-    if (isDuplicate(error)) throw new LibraryError("Someone else has just made this version. Reload the library and try again.");
+    if (isDuplicate(error))
+      throw new LibraryError("Someone else has just made this version. Reload the library and try again.");
     throw error;
   }
 }
 
 function mustParse(input: unknown): Template {
   const parsed = parseTemplate(input);
-  if (!parsed.ok) throw new LibraryError(`The template does not load: ${parsed.problems.map((p) => `${p.path}: ${p.message}`).join("; ")}`);
+  if (!parsed.ok)
+    throw new LibraryError(
+      `The template does not load: ${parsed.problems.map((p) => `${p.path}: ${p.message}`).join("; ")}`,
+    );
   return parsed.template;
 }
 
 /** A new template: version 1, a draft with one section and one item to start from. */
-export async function createTemplate(fields: { key: string; title: string; purpose: string }, userId: number): Promise<{ key: string; version: number }> {
+export async function createTemplate(
+  fields: { key: string; title: string; purpose: string },
+  userId: number,
+): Promise<{ key: string; version: number }> {
   const template = mustParse({
     key: fields.key,
     version: 1,
     title: fields.title,
     purpose: fields.purpose,
-    sections: [{ key: "first-section", title: "First section", items: [{ kind: "check", key: "first-check", label: "First check" }] }],
+    sections: [
+      {
+        key: "first-section",
+        title: "First section",
+        items: [{ kind: "check", key: "first-check", label: "First check" }],
+      },
+    ],
   });
   return db().transaction(async (trx) => {
-    if ((await lockedVersions(trx, template.key)).length) throw new LibraryError(`There is already a template with the key ${template.key}.`, "key");
+    if ((await lockedVersions(trx, template.key)).length)
+      throw new LibraryError(`There is already a template with the key ${template.key}.`, "key");
     const id = await insertDraft(trx, template, userId);
-    await audit({ userId, action: "template.created", entity: "template_version", entityId: id, detail: { key: template.key, version: 1 } }, trx);
+    await audit(
+      {
+        userId,
+        action: "template.created",
+        entity: "template_version",
+        entityId: id,
+        detail: { key: template.key, version: 1 },
+      },
+      trx,
+    );
     return { key: template.key, version: 1 };
   });
 }
 
 /** A new draft copied from any version of the key; a key has at most one draft at a time. */
-export async function createDraftFrom(key: string, version: number, userId: number): Promise<{ key: string; version: number }> {
+export async function createDraftFrom(
+  key: string,
+  version: number,
+  userId: number,
+): Promise<{ key: string; version: number }> {
   return db().transaction(async (trx) => {
     const versions = await lockedVersions(trx, key);
     const source = versions.find((v) => v.version === version);
     if (!source) throw new LibraryError("There is no such template version.");
     const draft = versions.find((v) => v.status === "draft");
-    if (draft) throw new LibraryError(`Version ${draft.version} is already a draft: edit it, publish it or discard it first.`);
+    if (draft)
+      throw new LibraryError(
+        `Version ${draft.version} is already a draft: edit it, publish it or discard it first.`,
+      );
     const next = Math.max(...versions.map((v) => v.version)) + 1;
     const template = mustParse({ ...JSON.parse(source.body), version: next });
     const id = await insertDraft(trx, template, userId);
-    await audit({ userId, action: "template.draft-created", entity: "template_version", entityId: id, detail: { key, version: next, from: version } }, trx);
+    await audit(
+      {
+        userId,
+        action: "template.draft-created",
+        entity: "template_version",
+        entityId: id,
+        detail: { key, version: next, from: version },
+      },
+      trx,
+    );
     return { key, version: next };
   });
 }
@@ -228,22 +309,42 @@ export async function createDraftFrom(key: string, version: number, userId: numb
 export type SaveResult = { ok: true } | { ok: false; problems: TemplateProblem[] };
 
 /** Saves the editor's draft if, and only if, it passes the schema; nothing is written otherwise. */
-export async function saveDraft(key: string, version: number, input: unknown, userId: number): Promise<SaveResult> {
+export async function saveDraft(
+  key: string,
+  version: number,
+  input: unknown,
+  userId: number,
+): Promise<SaveResult> {
   const parsed = parseTemplate(input);
   if (!parsed.ok) return parsed;
   const template = parsed.template;
   const misplaced: TemplateProblem[] = [];
   if (template.key !== key) misplaced.push({ path: "key", message: `stays ${key} in this draft` });
-  if (template.version !== version) misplaced.push({ path: "version", message: `stays ${version} in this draft` });
+  if (template.version !== version)
+    misplaced.push({ path: "version", message: `stays ${version} in this draft` });
   if (misplaced.length) return { ok: false, problems: misplaced };
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
     if (!row) throw new LibraryError("There is no such template version.");
-    if (row.status !== "draft") throw new LibraryError(`Version ${version} is ${row.status} and never changes; make a new draft from it.`);
+    if (row.status !== "draft")
+      throw new LibraryError(
+        `Version ${version} is ${row.status} and never changes; make a new draft from it.`,
+      );
     const body = templateBody(template);
     if (body === row.body) return;
-    await trx("template_versions").where({ id: row.id }).update({ body, body_sha256: sha256(body), title: template.title });
-    await audit({ userId, action: "template.draft-saved", entity: "template_version", entityId: row.id, detail: { key, version } }, trx);
+    await trx("template_versions")
+      .where({ id: row.id })
+      .update({ body, body_sha256: sha256(body), title: template.title });
+    await audit(
+      {
+        userId,
+        action: "template.draft-saved",
+        entity: "template_version",
+        entityId: row.id,
+        detail: { key, version },
+      },
+      trx,
+    );
   });
   return { ok: true };
 }
@@ -252,7 +353,11 @@ export async function saveDraft(key: string, version: number, input: unknown, us
  * Publishes a draft: from now on it never changes, and new jobs start from it. The versions
  * published before it stay as they are for the jobs that use them.
  */
-export async function publishDraft(key: string, version: number, userId: number): Promise<{ supersedes: number | null }> {
+export async function publishDraft(
+  key: string,
+  version: number,
+  userId: number,
+): Promise<{ supersedes: number | null }> {
   return db().transaction(async (trx) => {
     const versions = await lockedVersions(trx, key);
     const row = versions.find((v) => v.version === version);
@@ -260,11 +365,24 @@ export async function publishDraft(key: string, version: number, userId: number)
     if (row.status !== "draft") throw new LibraryError(`Version ${version} is already ${row.status}.`);
     mustParse(JSON.parse(row.body));
     if (versions.some((v) => v.version > version && v.status !== "draft")) {
-      throw new LibraryError(`A later version of this template is already published; make a new draft from it instead.`);
+      throw new LibraryError(
+        `A later version of this template is already published; make a new draft from it instead.`,
+      );
     }
     const previous = versions.filter((v) => v.status === "published").at(-1)?.version ?? null;
-    await trx("template_versions").where({ id: row.id }).update({ status: "published", published_at: new Date() });
-    await audit({ userId, action: "template.published", entity: "template_version", entityId: row.id, detail: { key, version, supersedes: previous } }, trx);
+    await trx("template_versions")
+      .where({ id: row.id })
+      .update({ status: "published", published_at: new Date() });
+    await audit(
+      {
+        userId,
+        action: "template.published",
+        entity: "template_version",
+        entityId: row.id,
+        detail: { key, version, supersedes: previous },
+      },
+      trx,
+    );
     return { supersedes: previous };
   });
 }
@@ -274,9 +392,21 @@ export async function retireVersion(key: string, version: number, userId: number
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
     if (!row) throw new LibraryError("There is no such template version.");
-    if (row.status !== "published") throw new LibraryError(`Only a published version can be retired; version ${version} is ${row.status}.`);
-    await trx("template_versions").where({ id: row.id }).update({ status: "retired", retired_at: new Date() });
-    await audit({ userId, action: "template.retired", entity: "template_version", entityId: row.id, detail: { key, version } }, trx);
+    if (row.status !== "published")
+      throw new LibraryError(`Only a published version can be retired; version ${version} is ${row.status}.`);
+    await trx("template_versions")
+      .where({ id: row.id })
+      .update({ status: "retired", retired_at: new Date() });
+    await audit(
+      {
+        userId,
+        action: "template.retired",
+        entity: "template_version",
+        entityId: row.id,
+        detail: { key, version },
+      },
+      trx,
+    );
   });
 }
 
@@ -285,15 +415,30 @@ export async function discardDraft(key: string, version: number, userId: number)
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
     if (!row) throw new LibraryError("There is no such template version.");
-    if (row.status !== "draft") throw new LibraryError(`Version ${version} is ${row.status}; only a draft can be discarded.`);
+    if (row.status !== "draft")
+      throw new LibraryError(`Version ${version} is ${row.status}; only a draft can be discarded.`);
     await trx("template_versions").where({ id: row.id }).delete();
-    await audit({ userId, action: "template.draft-discarded", entity: "template_version", entityId: row.id, detail: { key, version } }, trx);
+    await audit(
+      {
+        userId,
+        action: "template.draft-discarded",
+        entity: "template_version",
+        entityId: row.id,
+        detail: { key, version },
+      },
+      trx,
+    );
   });
 }
 
 /** What new jobs would start from once `version` is retired: the newest other published version. */
-export function fallbackAfterRetiring(versions: readonly { version: number; status: VersionStatus }[], version: number): number | null {
-  return versions.filter((v) => v.status === "published" && v.version !== version).reduce<number | null>((best, v) => (best === null || v.version > best ? v.version : best), null);
+export function fallbackAfterRetiring(
+  versions: readonly { version: number; status: VersionStatus }[],
+  version: number,
+): number | null {
+  return versions
+    .filter((v) => v.status === "published" && v.version !== version)
+    .reduce<number | null>((best, v) => (best === null || v.version > best ? v.version : best), null);
 }
 
 // ---- import ------------------------------------------------------------------------------------
@@ -318,9 +463,18 @@ type ImportPlan =
  * Where an imported file goes. It always lands as a draft — the next version of its key, or the
  * key's draft when asked to replace it — and never on a published or retired version.
  */
-export function planImport(versions: readonly Pick<VersionRow, "version" | "status" | "body_sha256">[], template: Template, options: ImportOptions): ImportPlan {
+export function planImport(
+  versions: readonly Pick<VersionRow, "version" | "status" | "body_sha256">[],
+  template: Template,
+  options: ImportOptions,
+): ImportPlan {
   const same = versions.find((v) => v.version === template.version);
-  if (same && same.status !== "draft" && !options.renumber && same.body_sha256 === sha256(templateBody(template))) {
+  if (
+    same &&
+    same.status !== "draft" &&
+    !options.renumber &&
+    same.body_sha256 === sha256(templateBody(template))
+  ) {
     return { action: "unchanged", version: same.version };
   }
   const draft = versions.find((v) => v.status === "draft");
@@ -328,12 +482,28 @@ export function planImport(versions: readonly Pick<VersionRow, "version" | "stat
   const target = options.renumber ? next : template.version;
   const renumberHint = `tick “take the next version number” to import it as version ${next}`;
   if (same && same.status !== "draft" && !options.renumber) {
-    return { problem: { path: "version", message: `version ${template.version} of ${template.key} is ${same.status} and never changes; ${renumberHint}` } };
+    return {
+      problem: {
+        path: "version",
+        message: `version ${template.version} of ${template.key} is ${same.status} and never changes; ${renumberHint}`,
+      },
+    };
   }
-  if (target !== next) return { problem: { path: "version", message: `the next version of ${template.key} is ${next}; ${renumberHint}` } };
+  if (target !== next)
+    return {
+      problem: {
+        path: "version",
+        message: `the next version of ${template.key} is ${next}; ${renumberHint}`,
+      },
+    };
   if (draft) {
     if (!options.replaceDraft) {
-      return { problem: { path: "version", message: `version ${draft.version} of ${template.key} is a draft already; tick “replace the draft” to overwrite it, or publish or discard it first` } };
+      return {
+        problem: {
+          path: "version",
+          message: `version ${draft.version} of ${template.key} is a draft already; tick “replace the draft” to overwrite it, or publish or discard it first`,
+        },
+      };
     }
     return { action: "replaced", version: draft.version };
   }
@@ -341,7 +511,11 @@ export function planImport(versions: readonly Pick<VersionRow, "version" | "stat
 }
 
 /** Imports a template file's text as a draft, or says what is wrong with the path of each problem. */
-export async function importTemplate(text: string, options: ImportOptions, userId: number): Promise<ImportResult> {
+export async function importTemplate(
+  text: string,
+  options: ImportOptions,
+  userId: number,
+): Promise<ImportResult> {
   const parsed = parseTemplateText(text);
   if (!parsed.ok) return parsed;
   const file = parsed.template;
@@ -349,18 +523,30 @@ export async function importTemplate(text: string, options: ImportOptions, userI
     const versions = await lockedVersions(trx, file.key);
     const plan = planImport(versions, file, options);
     if ("problem" in plan) return { ok: false, problems: [plan.problem] };
-    if (plan.action === "unchanged") return { ok: true, action: "unchanged", key: file.key, version: plan.version };
+    if (plan.action === "unchanged")
+      return { ok: true, action: "unchanged", key: file.key, version: plan.version };
     const template = mustParse({ ...file, version: plan.version });
     let id: number;
     if (plan.action === "replaced") {
       const draft = versions.find((v) => v.version === plan.version)!;
       const body = templateBody(template);
-      await trx("template_versions").where({ id: draft.id }).update({ body, body_sha256: sha256(body), title: template.title });
+      await trx("template_versions")
+        .where({ id: draft.id })
+        .update({ body, body_sha256: sha256(body), title: template.title });
       id = draft.id;
     } else {
       id = await insertDraft(trx, template, userId);
     }
-    await audit({ userId, action: "template.imported", entity: "template_version", entityId: id, detail: { key: file.key, version: plan.version, action: plan.action } }, trx);
+    await audit(
+      {
+        userId,
+        action: "template.imported",
+        entity: "template_version",
+        entityId: id,
+        detail: { key: file.key, version: plan.version, action: plan.action },
+      },
+      trx,
+    );
     return { ok: true, action: plan.action, key: file.key, version: plan.version };
   });
 }
@@ -391,19 +577,25 @@ const WIDTH = 120;
 const isScalar = (v: unknown) => v === null || typeof v !== "object";
 const isFlat = (v: unknown) => !isScalar(v) && Object.values(v as object).every(isScalar);
 /** Small leaves go on one line ({ "min": 0, "unit": "in" }), as the files in checklists/ are written. */
-const fitsOneLine = (v: unknown): boolean => isScalar(v) || isFlat(v) || (!isScalar(v) && Object.values(v as object).length === 1 && fitsOneLine(Object.values(v as object)[0]));
+const fitsOneLine = (v: unknown): boolean =>
+  isScalar(v) ||
+  isFlat(v) ||
+  (!isScalar(v) && Object.values(v as object).length === 1 && fitsOneLine(Object.values(v as object)[0]));
 
 function oneLine(v: unknown): string {
   if (Array.isArray(v)) return `[${v.map(oneLine).join(", ")}]`;
   if (!isScalar(v)) {
     const entries = Object.entries(v as object);
-    return entries.length ? `{ ${entries.map(([k, x]) => `${JSON.stringify(k)}: ${oneLine(x)}`).join(", ")} }` : "{}";
+    return entries.length
+      ? `{ ${entries.map(([k, x]) => `${JSON.stringify(k)}: ${oneLine(x)}`).join(", ")} }`
+      : "{}";
   }
   return JSON.stringify(v);
 }
 
 /** Sections and items are always written out, one field a line. */
-const isStructural = (v: unknown) => Array.isArray(v) && v.some((x) => !isScalar(x) && ("items" in (x as object) || "kind" in (x as object)));
+const isStructural = (v: unknown) =>
+  Array.isArray(v) && v.some((x) => !isScalar(x) && ("items" in (x as object) || "kind" in (x as object)));
 
 function written(v: unknown, indent: string, lead: number, expand = false): string {
   if (!expand && !isStructural(v) && fitsOneLine(v)) {

@@ -16,6 +16,8 @@ export async function listSunkMail(): Promise<SunkMessage[] | null> {
   const dir = env().MAIL_SINK_DIR;
   if (!dir) return null;
   const names = (await readdir(dir).catch(() => [])).filter((n) => n.endsWith(".json"));
-  const messages = await Promise.all(names.map(async (n) => JSON.parse(await readFile(path.join(dir, n), "utf8")) as SunkMessage));
+  const messages = await Promise.all(
+    names.map(async (n) => JSON.parse(await readFile(path.join(dir, n), "utf8")) as SunkMessage),
+  );
   return messages.sort((a, b) => b.receivedAt.localeCompare(a.receivedAt));
 }

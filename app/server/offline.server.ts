@@ -8,9 +8,18 @@ const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 
 /** The review comments on the given checklists, oldest first. */
 export async function commentsOn(checklistIds: string[], knex = db()) {
-  const rows = await knex("checklist_comments as m").join("users as u", "u.id", "m.user_id").whereIn("m.checklist_id", checklistIds).orderBy("m.id")
+  const rows = await knex("checklist_comments as m")
+    .join("users as u", "u.id", "m.user_id")
+    .whereIn("m.checklist_id", checklistIds)
+    .orderBy("m.id")
     .select("m.checklist_id", "m.item_key", "m.text", "m.at", "u.name");
-  return rows.map((r: any) => ({ checklistId: r.checklist_id as string, itemKey: r.item_key as string, by: r.name as string, at: new Date(r.at).toISOString(), text: r.text as string }));
+  return rows.map((r: any) => ({
+    checklistId: r.checklist_id as string,
+    itemKey: r.item_key as string,
+    by: r.name as string,
+    at: new Date(r.at).toISOString(),
+    text: r.text as string,
+  }));
 }
 
 /** Open conflicts on the given checklists, for the person who decides them. */
@@ -23,8 +32,15 @@ export async function openConflicts(checklistIds: string[]): Promise<ConflictRec
     .orderBy("k.id")
     .select("k.*", "u.name");
   return rows.map((r: any) => ({
-    id: r.id, checklistId: r.checklist_id, itemKey: r.item_key, serverValue: json(r.server_value), serverRev: r.server_rev,
-    clientValue: json(r.client_value), by: r.name, at: new Date(r.received_at).toISOString(), deviceId: r.device_id,
+    id: r.id,
+    checklistId: r.checklist_id,
+    itemKey: r.item_key,
+    serverValue: json(r.server_value),
+    serverRev: r.server_rev,
+    clientValue: json(r.client_value),
+    by: r.name,
+    at: new Date(r.received_at).toISOString(),
+    deviceId: r.device_id,
   }));
 }
 
@@ -38,29 +54,59 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
   return db().transaction(async (trx) => {
     const cursor = String((await trx("sync_clock").where({ id: 1 }).first()).seq);
     const checklistRows = jobIds.length
-      ? await trx("job_checklists as c").join("template_versions as t", "t.id", "c.template_version_id").whereIn("c.job_id", jobIds)
+      ? await trx("job_checklists as c")
+          .join("template_versions as t", "t.id", "c.template_version_id")
+          .whereIn("c.job_id", jobIds)
           .select("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version", "t.body")
       : [];
     const ids = checklistRows.map((c: any) => c.id);
     const responses = ids.length
-      ? await trx("checklist_responses as r").join("users as u", "u.id", "r.updated_by").whereIn("r.checklist_id", ids)
+      ? await trx("checklist_responses as r")
+          .join("users as u", "u.id", "r.updated_by")
+          .whereIn("r.checklist_id", ids)
           .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name")
       : [];
     const comments = ids.length ? await commentsOn(ids, trx) : [];
     const templates = new Map<string, OfflineBundle["templates"][number]>();
-    for (const c of checklistRows) templates.set(`${c.template_key}@${c.version}`, { key: c.template_key, version: c.version, template: JSON.parse(c.body) });
+    for (const c of checklistRows)
+      templates.set(`${c.template_key}@${c.version}`, {
+        key: c.template_key,
+        version: c.version,
+        template: JSON.parse(c.body),
+      });
     return {
       user: { id: user.id, name: user.name, email: user.email, role: user.role },
-      jobs: jobs.map((j) => ({ id: j.id, vesselName: j.vesselName, hin: j.hin, engineModel: j.engineModel, status: j.status, dueDate: j.dueDate, leadName: j.leadName })),
+      jobs: jobs.map((j) => ({
+        id: j.id,
+        vesselName: j.vesselName,
+        hin: j.hin,
+        engineModel: j.engineModel,
+        status: j.status,
+        dueDate: j.dueDate,
+        leadName: j.leadName,
+      })),
       checklists: checklistRows.map((c: any) => {
         const job = jobs.find((j) => j.id === c.job_id)!;
         return {
-          id: c.id, jobId: c.job_id, key: c.template_key, title: c.title, version: c.version, state: c.state, canFill: canFillJob(user, job),
+          id: c.id,
+          jobId: c.job_id,
+          key: c.template_key,
+          title: c.title,
+          version: c.version,
+          state: c.state,
+          canFill: canFillJob(user, job),
           comments: comments.filter((m) => m.checklistId === c.id).map(({ checklistId: _, ...m }) => m),
         };
       }),
       templates: [...templates.values()],
-      responses: responses.map((r: any) => ({ checklistId: r.checklist_id, itemKey: r.item_key, value: json(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString() })),
+      responses: responses.map((r: any) => ({
+        checklistId: r.checklist_id,
+        itemKey: r.item_key,
+        value: json(r.value),
+        rev: r.rev,
+        by: r.name,
+        at: new Date(r.updated_at).toISOString(),
+      })),
       conflicts: await openConflicts(ids),
       cursor,
     };

@@ -5,7 +5,10 @@ import type { User } from "./users.server.ts";
 import { requireApiUser, requireUser } from "./auth.server.ts";
 
 /** Throws a 403 page unless the condition holds. */
-export function invariantForbidden(condition: unknown, message = "This page is not part of your work."): asserts condition {
+export function invariantForbidden(
+  condition: unknown,
+  message = "This page is not part of your work.",
+): asserts condition {
   if (!condition) throw data({ message }, { status: 403 });
 }
 

@@ -59,9 +59,16 @@ async function checklistAccess(actor: Actor, checklistId: string) {
     .where("c.id", checklistId)
     .first("c.state", "c.job_id", "j.lead_id", "t.body");
   if (!row) return undefined;
-  const technicianIds: number[] = await db()("job_technicians").where({ job_id: row.job_id }).pluck("user_id");
+  const technicianIds: number[] = await db()("job_technicians")
+    .where({ job_id: row.job_id })
+    .pluck("user_id");
   const job = { leadId: row.lead_id, technicianIds };
-  return { state: row.state as string, body: row.body as string, canView: canViewJob(actor, job), canFill: canFillJob(actor, job) };
+  return {
+    state: row.state as string,
+    body: row.body as string,
+    canView: canViewJob(actor, job),
+    canFill: canFillJob(actor, job),
+  };
 }
 
 /**
@@ -70,13 +77,20 @@ async function checklistAccess(actor: Actor, checklistId: string) {
  * tablet sends photos only after the entries (and a submission queued offline) reached the
  * server. A countersigned one takes none: its digest covers the photos stored when it was signed.
  */
-function refuseUnlessFillable(access: Awaited<ReturnType<typeof checklistAccess>>, itemKey: string, listed: boolean): void {
+function refuseUnlessFillable(
+  access: Awaited<ReturnType<typeof checklistAccess>>,
+  itemKey: string,
+  listed: boolean,
+): void {
   if (!access) throw new PhotoRefusal(404, "There is no such checklist.");
   if (!access.canView) throw new PhotoRefusal(403, "This checklist belongs to a job that is not yours.");
   if (!access.canFill) throw new PhotoRefusal(403, "Only the job's technicians and its lead add photos.");
-  if (!findItem(JSON.parse(access.body) as Template, itemKey)) throw new PhotoRefusal(404, `The checklist has no item "${itemKey}".`);
-  if (access.state === "countersigned") throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
-  if (access.state === "submitted" && !listed) throw new PhotoRefusal(409, "The checklist has been submitted for review and takes no more photos.");
+  if (!findItem(JSON.parse(access.body) as Template, itemKey))
+    throw new PhotoRefusal(404, `The checklist has no item "${itemKey}".`);
+  if (access.state === "countersigned")
+    throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
+  if (access.state === "submitted" && !listed)
+    throw new PhotoRefusal(409, "The checklist has been submitted for review and takes no more photos.");
 }
 
 /** The photos a stored value (a JSON column) lists; none for values of other kinds. */
@@ -86,20 +100,38 @@ function photosListedIn(raw: unknown): PhotoValue["photos"] {
 }
 
 /** The SHA-256s that the item's applied entries (every revision) give for this photo id. */
-async function listedShas(checklistId: string, itemKey: string, id: string): Promise<{ listed: boolean; sha256s: Set<string> }> {
-  const revisions = await db()("response_history").where({ checklist_id: checklistId, item_key: itemKey }).pluck("value");
+async function listedShas(
+  checklistId: string,
+  itemKey: string,
+  id: string,
+): Promise<{ listed: boolean; sha256s: Set<string> }> {
+  const revisions = await db()("response_history")
+    .where({ checklist_id: checklistId, item_key: itemKey })
+    .pluck("value");
   const entries = revisions.flatMap((raw) => photosListedIn(raw).filter((p) => p.id === id));
-  return { listed: entries.length > 0, sha256s: new Set(entries.flatMap((p) => (p.sha256 ? [p.sha256] : []))) };
+  return {
+    listed: entries.length > 0,
+    sha256s: new Set(entries.flatMap((p) => (p.sha256 ? [p.sha256] : []))),
+  };
 }
 
 /** The answer to sending bytes for an id that is already stored: the same bytes, or a conflict. */
-async function repeated(existing: StoredPhoto, input: { checklistId: string; itemKey: string; bytes: Uint8Array }, sha256: string) {
+async function repeated(
+  existing: StoredPhoto,
+  input: { checklistId: string; itemKey: string; bytes: Uint8Array },
+  sha256: string,
+) {
   if (existing.checklistId !== input.checklistId || existing.itemKey !== input.itemKey) {
     throw new PhotoRefusal(409, "This photo id is already used for another item.");
   }
-  if (existing.sha256 !== sha256) throw new PhotoRefusal(409, "A different photo is already stored under this id; a photo never changes once stored.");
+  if (existing.sha256 !== sha256)
+    throw new PhotoRefusal(
+      409,
+      "A different photo is already stored under this id; a photo never changes once stored.",
+    );
   // A 200 promises the store has the bytes: put them back if the object went missing.
-  if (!(await headObject(storageKeyFor(sha256)))) await putObject(storageKeyFor(sha256), input.bytes, existing.contentType);
+  if (!(await headObject(storageKeyFor(sha256))))
+    await putObject(storageKeyFor(sha256), input.bytes, existing.contentType);
   return { created: false, photo: existing };
 }
 
@@ -107,9 +139,16 @@ async function repeated(existing: StoredPhoto, input: { checklistId: string; ite
  * Stores a photo's bytes for an item of a checklist the person may fill. Answers created: true
  * the first time, created: false when the same bytes were already stored under the id.
  */
-export async function storePhoto(actor: Actor, input: { id: string; checklistId: string; itemKey: string; bytes: Uint8Array }): Promise<{ created: boolean; photo: StoredPhoto }> {
+export async function storePhoto(
+  actor: Actor,
+  input: { id: string; checklistId: string; itemKey: string; bytes: Uint8Array },
+): Promise<{ created: boolean; photo: StoredPhoto }> {
   const max = env().PHOTO_MAX_BYTES;
-  if (input.bytes.byteLength > max) throw new PhotoRefusal(413, `A photo may be at most ${max} bytes; this one is ${input.bytes.byteLength}.`);
+  if (input.bytes.byteLength > max)
+    throw new PhotoRefusal(
+      413,
+      `A photo may be at most ${max} bytes; this one is ${input.bytes.byteLength}.`,
+    );
   if (input.bytes.byteLength === 0) throw new PhotoRefusal(400, "The photo is empty.");
   const sha256 = sha256Of(input.bytes);
 
@@ -121,7 +160,10 @@ export async function storePhoto(actor: Actor, input: { id: string; checklistId:
   ]);
   if (found) {
     const existing = toStored(found);
-    const owner = existing.checklistId === input.checklistId ? access : await checklistAccess(actor, existing.checklistId);
+    const owner =
+      existing.checklistId === input.checklistId
+        ? access
+        : await checklistAccess(actor, existing.checklistId);
     if (!owner?.canView) throw new PhotoRefusal(403, "This photo belongs to a job that is not yours.");
     return repeated(existing, input, sha256);
   }
@@ -129,7 +171,10 @@ export async function storePhoto(actor: Actor, input: { id: string; checklistId:
   refuseUnlessFillable(access, input.itemKey, listing.listed);
   const type = await fileTypeFromBuffer(input.bytes);
   if (!type || !ACCEPTED_TYPES.has(type.mime)) {
-    throw new PhotoRefusal(415, `Only JPEG, PNG and WebP photos are accepted; these bytes are ${type?.mime ?? "not an image"}.`);
+    throw new PhotoRefusal(
+      415,
+      `Only JPEG, PNG and WebP photos are accepted; these bytes are ${type?.mime ?? "not an image"}.`,
+    );
   }
   if (listing.sha256s.size && !listing.sha256s.has(sha256)) {
     throw new PhotoRefusal(409, "These bytes are not the photo the entry refers to (their SHA-256 differs).");
@@ -137,15 +182,33 @@ export async function storePhoto(actor: Actor, input: { id: string; checklistId:
 
   const key = storageKeyFor(sha256);
   await putObject(key, input.bytes, type.mime);
-  const photo: StoredPhoto = { id: input.id, checklistId: input.checklistId, itemKey: input.itemKey, sha256, bytes: input.bytes.byteLength, contentType: type.mime };
+  const photo: StoredPhoto = {
+    id: input.id,
+    checklistId: input.checklistId,
+    itemKey: input.itemKey,
+    sha256,
+    bytes: input.bytes.byteLength,
+    contentType: type.mime,
+  };
   try {
     await db().transaction(async (trx) => {
       // Under the checklist row's lock: a countersignature cannot slip in between the check and the row.
-      const { state } = await trx("job_checklists").where({ id: photo.checklistId }).forShare().first("state");
-      if (state === "countersigned") throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
+      const { state } = await trx("job_checklists")
+        .where({ id: photo.checklistId })
+        .forShare()
+        .first("state");
+      if (state === "countersigned")
+        throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
       await trx("photos").insert({
-        id: photo.id, checklist_id: photo.checklistId, item_key: photo.itemKey, sha256, bytes: photo.bytes, content_type: photo.contentType,
-        uploaded_by: actor.id, uploaded_at: new Date(), storage_key: key,
+        id: photo.id,
+        checklist_id: photo.checklistId,
+        item_key: photo.itemKey,
+        sha256,
+        bytes: photo.bytes,
+        content_type: photo.contentType,
+        uploaded_by: actor.id,
+        uploaded_at: new Date(),
+        storage_key: key,
       });
     });
   } catch (error) {
@@ -159,7 +222,8 @@ export async function storePhoto(actor: Actor, input: { id: string; checklistId:
 /** A photo's bytes for someone who may see its checklist. */
 export async function readPhoto(actor: Actor, id: string): Promise<StoredPhoto & { data: Uint8Array }> {
   const row = await db()("photos").where({ id }).first();
-  if (!row) throw new PhotoRefusal(404, "There is no such photo (it may not have been sent from the tablet yet).");
+  if (!row)
+    throw new PhotoRefusal(404, "There is no such photo (it may not have been sent from the tablet yet).");
   const photo = toStored(row);
   const access = await checklistAccess(actor, photo.checklistId);
   if (!access?.canView) throw new PhotoRefusal(403, "This photo belongs to a job that is not yours.");
@@ -170,7 +234,10 @@ export async function readPhoto(actor: Actor, id: string): Promise<StoredPhoto &
 
 /** The stored photos of a checklist, for the commissioning record (its digest covers them). */
 export async function checklistPhotos(checklistId: string, knex: Knex = db()): Promise<RecordPhoto[]> {
-  const rows = await knex("photos").where({ checklist_id: checklistId }).orderBy(["item_key", "id"]).select("item_key", "id", "sha256");
+  const rows = await knex("photos")
+    .where({ checklist_id: checklistId })
+    .orderBy(["item_key", "id"])
+    .select("item_key", "id", "sha256");
   return rows.map((r: any) => ({ itemKey: r.item_key, id: r.id, sha256: r.sha256 }));
 }
 

@@ -71,7 +71,9 @@ const BOLD = "Atkinson-Bold";
 let fontFiles: { regular: Buffer; bold: Buffer } | undefined;
 function fonts() {
   fontFiles ??= {
-    regular: readFileSync(nodeRequire.resolve(`${FONT_PACKAGE}/400Regular/AtkinsonHyperlegible_400Regular.ttf`)),
+    regular: readFileSync(
+      nodeRequire.resolve(`${FONT_PACKAGE}/400Regular/AtkinsonHyperlegible_400Regular.ttf`),
+    ),
     bold: readFileSync(nodeRequire.resolve(`${FONT_PACKAGE}/700Bold/AtkinsonHyperlegible_700Bold.ttf`)),
   };
   return fontFiles;
@@ -94,7 +96,20 @@ const TNUM = { features: ["tnum" as const] };
 
 // ---- words ----------------------------------------------------------------------------------
 
-const MONTHS = ["January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"];
+const MONTHS = [
+  "January",
+  "February",
+  "March",
+  "April",
+  "May",
+  "June",
+  "July",
+  "August",
+  "September",
+  "October",
+  "November",
+  "December",
+];
 
 /** "12 May 2025": a date no reader can take for another. */
 function day(iso: string): string {
@@ -151,37 +166,77 @@ function readVerdict(item: Item, verdict: Verdict): Reading {
   switch (verdict.status) {
     case "ok": {
       if (item.kind === "check") return { shape: "tick", colour: sound, words: "Passed", noteLabel: "Note" };
-      if (item.kind === "initials") return { shape: "tick", colour: sound, words: "Confirmed", noteLabel: "Note" };
+      if (item.kind === "initials")
+        return { shape: "tick", colour: sound, words: "Confirmed", noteLabel: "Note" };
       if (item.kind === "calc") {
         return verdict.outcome?.verdict === "pass"
           ? { shape: "tick", colour: sound, words: "Within limit", noteLabel: "Note" }
           : { shape: "square", colour: inkSoft, words: "Computed (no limit applies)", noteLabel: "Note" };
       }
       if (hasRule(item)) return { shape: "tick", colour: sound, words: "Within limit", noteLabel: "Note" };
-      const words = { measure: "Recorded", readings: "Recorded", choice: "Recorded", text: "Written", photo: "Photographed" } as const;
-      return { shape: "square", colour: inkSoft, words: words[item.kind as keyof typeof words] ?? "Recorded", noteLabel: "Note" };
+      const words = {
+        measure: "Recorded",
+        readings: "Recorded",
+        choice: "Recorded",
+        text: "Written",
+        photo: "Photographed",
+      } as const;
+      return {
+        shape: "square",
+        colour: inkSoft,
+        words: words[item.kind as keyof typeof words] ?? "Recorded",
+        noteLabel: "Note",
+      };
     }
     case "noted":
       switch (verdict.finding) {
         case "fail":
-          return { shape: "triangle", colour: brass, words: "Failed, action recorded", noteLabel: "Action taken" };
+          return {
+            shape: "triangle",
+            colour: brass,
+            words: "Failed, action recorded",
+            noteLabel: "Action taken",
+          };
         case "not-applicable":
           return { shape: "circle", colour: inkSoft, words: "Not applicable", noteLabel: "Reason" };
         case "flagged-option":
           return { shape: "triangle", colour: brass, words: "Finding recorded", noteLabel: "Note" };
         default:
-          return { shape: "triangle", colour: brass, words: "Outside limit, corrective action recorded", noteLabel: "Corrective action", detail };
+          return {
+            shape: "triangle",
+            colour: brass,
+            words: "Outside limit, corrective action recorded",
+            noteLabel: "Corrective action",
+            detail,
+          };
       }
     case "out-of-range":
-      return { shape: "triangle", colour: fault, words: "Outside limit, no corrective action recorded", noteLabel: "Note", detail };
+      return {
+        shape: "triangle",
+        colour: fault,
+        words: "Outside limit, no corrective action recorded",
+        noteLabel: "Note",
+        detail,
+      };
     case "needs-note":
       return { shape: "triangle", colour: fault, words: "Finding without its note", noteLabel: "Note" };
     case "unanswered":
-      return { shape: "circle", colour: inkSoft, words: item.required ? "Not answered" : "Not answered (optional)", noteLabel: "Note" };
+      return {
+        shape: "circle",
+        colour: inkSoft,
+        words: item.required ? "Not answered" : "Not answered (optional)",
+        noteLabel: "Note",
+      };
     case "incomplete":
       return { shape: "cross", colour: fault, words: "Incomplete", noteLabel: "Note", detail };
     case "invalid":
-      return { shape: "cross", colour: fault, words: "Entry does not fit the item", noteLabel: "Note", detail };
+      return {
+        shape: "cross",
+        colour: fault,
+        words: "Entry does not fit the item",
+        noteLabel: "Note",
+        detail,
+      };
   }
 }
 
@@ -199,7 +254,11 @@ const shapeLegend: [Shape, string, string][] = [
  * The diagram of a calc item as SVG markup, or undefined when its calculation has none: the same
  * pure SVG components the screens show (app/components/diagrams), rendered to static markup.
  */
-function svgForCalc(calc: string, detail: unknown, inputs: Record<string, CalcInput | undefined>): string | undefined {
+function svgForCalc(
+  calc: string,
+  detail: unknown,
+  inputs: Record<string, CalcInput | undefined>,
+): string | undefined {
   const element = diagramFor(calc, detail, inputs);
   return element ? renderToStaticMarkup(element) : undefined;
 }
@@ -263,7 +322,8 @@ class Writer {
     });
     this.pageTitles.push("");
     // fontkit's font behind pdfkit's: pdfkit has no public way to ask whether a glyph exists.
-    const font = (doc as unknown as { _font?: { font?: { hasGlyphForCodePoint?: (cp: number) => boolean } } })._font?.font;
+    const font = (doc as unknown as { _font?: { font?: { hasGlyphForCodePoint?: (cp: number) => boolean } } })
+      ._font?.font;
     this.hasGlyph = font?.hasGlyphForCodePoint ? (cp) => font.hasGlyphForCodePoint!(cp) : () => true;
   }
 
@@ -293,7 +353,10 @@ class Writer {
   }
 
   style(font: "regular" | "bold", fontSize: number, colour = ink): this {
-    this.doc.font(font === "bold" ? BOLD : REGULAR).fontSize(fontSize).fillColor(colour);
+    this.doc
+      .font(font === "bold" ? BOLD : REGULAR)
+      .fontSize(fontSize)
+      .fillColor(colour);
     return this;
   }
 
@@ -325,7 +388,11 @@ class Writer {
   }
 
   /** "Label: value" with the label in bold, wrapped as one paragraph. */
-  labelled(label: string, value: string, options: { indent?: number; colour?: string; fontSize?: number } = {}): void {
+  labelled(
+    label: string,
+    value: string,
+    options: { indent?: number; colour?: string; fontSize?: number } = {},
+  ): void {
     const fontSize = options.fontSize ?? size.body;
     const indent = options.indent ?? 0;
     const width = this.width - indent;
@@ -334,13 +401,24 @@ class Writer {
     const h = this.height(whole, width);
     if (this.y + h > this.bottom && h < (this.bottom - MARGIN.top) / 3) this.newPage();
     this.style("bold", fontSize, options.colour ?? ink);
-    this.doc.text(this.printable(`${label}: `), this.left + indent, this.y, { width, lineGap: 1.5, continued: true });
+    this.doc.text(this.printable(`${label}: `), this.left + indent, this.y, {
+      width,
+      lineGap: 1.5,
+      continued: true,
+    });
     this.style("regular", fontSize, ink);
     this.doc.text(this.printable(value), { width, lineGap: 1.5 });
   }
 
   rule(colour: string, weight: number): void {
-    this.doc.save().moveTo(this.left, this.y).lineTo(this.left + this.width, this.y).lineWidth(weight).strokeColor(colour).stroke().restore();
+    this.doc
+      .save()
+      .moveTo(this.left, this.y)
+      .lineTo(this.left + this.width, this.y)
+      .lineWidth(weight)
+      .strokeColor(colour)
+      .stroke()
+      .restore();
   }
 
   /** A verdict shape of side `s` with its centre at (cx, cy). */
@@ -350,7 +428,11 @@ class Writer {
     doc.save().lineWidth(1.4).strokeColor(colour).fillColor(colour).lineJoin("round").lineCap("round");
     switch (kind) {
       case "tick":
-        doc.moveTo(cx - h, cy).lineTo(cx - h * 0.25, cy + h * 0.75).lineTo(cx + h, cy - h * 0.8).stroke();
+        doc
+          .moveTo(cx - h, cy)
+          .lineTo(cx - h * 0.25, cy + h * 0.75)
+          .lineTo(cx + h, cy - h * 0.8)
+          .stroke();
         break;
       case "triangle":
         doc.polygon([cx, cy - h * 1.05], [cx + h * 1.1, cy + h * 0.9], [cx - h * 1.1, cy + h * 0.9]).fill();
@@ -362,8 +444,14 @@ class Writer {
         doc.rect(cx - h * 0.7, cy - h * 0.7, h * 1.4, h * 1.4).fill();
         break;
       case "cross":
-        doc.moveTo(cx - h * 0.8, cy - h * 0.8).lineTo(cx + h * 0.8, cy + h * 0.8).stroke();
-        doc.moveTo(cx + h * 0.8, cy - h * 0.8).lineTo(cx - h * 0.8, cy + h * 0.8).stroke();
+        doc
+          .moveTo(cx - h * 0.8, cy - h * 0.8)
+          .lineTo(cx + h * 0.8, cy + h * 0.8)
+          .stroke();
+        doc
+          .moveTo(cx + h * 0.8, cy - h * 0.8)
+          .lineTo(cx - h * 0.8, cy + h * 0.8)
+          .stroke();
         break;
     }
     doc.restore();
@@ -383,11 +471,19 @@ class Writer {
     const header = () => {
       const h = headerHeight();
       const top = this.y;
-      this.doc.save().rect(x0, top, sum(columns.map((c) => c.width)), h).fill(paper).restore();
+      this.doc
+        .save()
+        .rect(x0, top, sum(columns.map((c) => c.width)), h)
+        .fill(paper)
+        .restore();
       let x = x0;
       for (const c of columns) {
         this.style("bold", size.small, inkSoft);
-        this.doc.text(this.printable(c.label), x + pad, top + pad, { width: c.width - 2 * pad, align: c.align ?? "left", lineGap: 1.5 });
+        this.doc.text(this.printable(c.label), x + pad, top + pad, {
+          width: c.width - 2 * pad,
+          align: c.align ?? "left",
+          lineGap: 1.5,
+        });
         x += c.width;
       }
       this.y = top + h;
@@ -399,7 +495,8 @@ class Writer {
           this.style(cell.bold ? "bold" : "regular", fontSize);
           return this.height(cell.text, cellWidth(columns[i], cell), TNUM);
         }),
-      ) + 2 * pad;
+      ) +
+      2 * pad;
 
     this.ensure(headerHeight() + (rows[0] ? rowHeight(rows[0]) : 0));
     header();
@@ -419,7 +516,12 @@ class Writer {
           tx += markRoom;
         }
         this.style(cell.bold ? "bold" : "regular", fontSize, cell.colour ?? ink);
-        this.doc.text(this.printable(cell.text), tx, top + pad, { width: cellWidth(c, cell), align: c.align ?? "left", lineGap: 1.5, ...TNUM });
+        this.doc.text(this.printable(cell.text), tx, top + pad, {
+          width: cellWidth(c, cell),
+          align: c.align ?? "left",
+          lineGap: 1.5,
+          ...TNUM,
+        });
         x += c.width;
       });
       this.y = top + h;
@@ -430,7 +532,14 @@ class Writer {
 
   private hline(x0: number, columns: Column[], colour: string, weight: number): void {
     const w = sum(columns.map((c) => c.width));
-    this.doc.save().moveTo(x0, this.y).lineTo(x0 + w, this.y).lineWidth(weight).strokeColor(colour).stroke().restore();
+    this.doc
+      .save()
+      .moveTo(x0, this.y)
+      .lineTo(x0 + w, this.y)
+      .lineWidth(weight)
+      .strokeColor(colour)
+      .stroke()
+      .restore();
   }
 }
 
@@ -476,7 +585,14 @@ function boxTitle(w: Writer, x: number, width: number, title: string): void {
   w.style("bold", size.small, copper);
   w.doc.text(w.printable(title.toUpperCase()), x, w.y, { width });
   const y = w.y + 2;
-  w.doc.save().moveTo(x, y).lineTo(x + width, y).lineWidth(0.75).strokeColor(copper).stroke().restore();
+  w.doc
+    .save()
+    .moveTo(x, y)
+    .lineTo(x + width, y)
+    .lineWidth(0.75)
+    .strokeColor(copper)
+    .stroke()
+    .restore();
   w.y = y + 6;
 }
 
@@ -522,7 +638,14 @@ async function cover(w: Writer, record: CommissioningRecord, options: RecordPdfO
   doc.text(w.printable(vessel.name), w.left, w.y);
   w.y += 4;
   w.style("regular", size.body, inkSoft);
-  doc.text(w.printable(`${jobScopeLabels[job.scope]} · job ${job.id} · issued ${when(record.record.issuedAt)} · record ${record.record.id}`), w.left, w.y, TNUM);
+  doc.text(
+    w.printable(
+      `${jobScopeLabels[job.scope]} · job ${job.id} · issued ${when(record.record.issuedAt)} · record ${record.record.id}`,
+    ),
+    w.left,
+    w.y,
+    TNUM,
+  );
   w.y += 10;
   w.rule(ink, 1.2);
   w.y += 14;
@@ -543,7 +666,10 @@ async function cover(w: Writer, record: CommissioningRecord, options: RecordPdfO
   const rightEnd = keyValues(w, w.left + half + gap, half, [
     ["Job number", String(job.id)],
     ["Scope", jobScopeLabels[job.scope]],
-    ["Dates", `${job.startDate ? `started ${day(job.startDate)}` : "start not recorded"}${job.dueDate ? `, due ${day(job.dueDate)}` : ""}`],
+    [
+      "Dates",
+      `${job.startDate ? `started ${day(job.startDate)}` : "start not recorded"}${job.dueDate ? `, due ${day(job.dueDate)}` : ""}`,
+    ],
     ["Lead", job.leadName],
     ["Technicians", job.technicianNames.length ? listWords(job.technicianNames) : "none recorded"],
   ]);
@@ -561,7 +687,10 @@ async function cover(w: Writer, record: CommissioningRecord, options: RecordPdfO
   ]);
   w.y = below;
   const eqRight = keyValues(w, w.left + half + gap, half, [
-    ["Propeller", `${job.propDiameterIn} in diameter × ${job.propPitchIn} in pitch, ${job.propBlades} blades`],
+    [
+      "Propeller",
+      `${job.propDiameterIn} in diameter × ${job.propPitchIn} in pitch, ${job.propBlades} blades`,
+    ],
     ["Shaft", `${job.shaftDiameterIn} in, ${job.shaftMaterial}`],
     ["Coupling", job.couplingType],
   ]);
@@ -624,7 +753,12 @@ async function verification(w: Writer, { digest, verifyUrl }: RecordPdfOptions):
   doc.save().rect(w.left, top, w.width, boxHeight).fill(paper).restore();
   doc.save().rect(w.left, top, w.width, boxHeight).lineWidth(0.75).strokeColor(rule).stroke().restore();
 
-  const qr = await QRCode.toDataURL(verifyUrl, { errorCorrectionLevel: "M", margin: 1, width: 480, color: { dark: ink, light: "#ffffff" } });
+  const qr = await QRCode.toDataURL(verifyUrl, {
+    errorCorrectionLevel: "M",
+    margin: 1,
+    width: 480,
+    color: { dark: ink, light: "#ffffff" },
+  });
   doc.image(qr, w.left + pad, top + pad, { width: qrSize, height: qrSize });
 
   let y = top + pad;
@@ -664,15 +798,25 @@ function checklistHeader(w: Writer, checklist: RecordChecklist, index: number, c
   w.style("bold", size.h1, ink);
   w.paragraph(t.title);
   w.style("regular", size.body, inkSoft);
-  w.paragraph(`Template ${checklist.templateKey}, version ${checklist.templateVersion}`, { tnum: true, gap: 4 });
+  w.paragraph(`Template ${checklist.templateKey}, version ${checklist.templateVersion}`, {
+    tnum: true,
+    gap: 4,
+  });
   w.style("regular", size.body, ink);
   w.paragraph(t.purpose, { gap: 8 });
 
   const pairs: [string, string][] = [
-    ["Submitted", checklist.submittedBy ? `${checklist.submittedBy}, ${checklist.submittedAt ? when(checklist.submittedAt) : "time not recorded"}` : "not submitted"],
+    [
+      "Submitted",
+      checklist.submittedBy
+        ? `${checklist.submittedBy}, ${checklist.submittedAt ? when(checklist.submittedAt) : "time not recorded"}`
+        : "not submitted",
+    ],
     [
       "Countersigned",
-      checklist.countersignedBy ? `${checklist.countersignedBy}, ${checklist.countersignedAt ? when(checklist.countersignedAt) : "time not recorded"}` : "not countersigned",
+      checklist.countersignedBy
+        ? `${checklist.countersignedBy}, ${checklist.countersignedAt ? when(checklist.countersignedAt) : "time not recorded"}`
+        : "not countersigned",
     ],
     ["Checklist digest (SHA-256)", checklist.digest || "none stored"],
     ["In this checklist", tallyWords(tally(checklist))],
@@ -733,14 +877,20 @@ function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
   w.shape(reading.shape, reading.colour, x + 4.5, verdictTop + 5.5, 8.5);
   const ruleText = ruleOf(item, verdict);
   w.style("bold", size.body, reading.colour);
-  doc.text(w.printable(reading.words), x + 14, verdictTop, { width: width - 14, continued: ruleText !== undefined, lineGap: 1.5 });
+  doc.text(w.printable(reading.words), x + 14, verdictTop, {
+    width: width - 14,
+    continued: ruleText !== undefined,
+    lineGap: 1.5,
+  });
   if (ruleText !== undefined) {
     w.style("regular", size.body, inkSoft);
     doc.text(w.printable(`   Rule: ${ruleText}`), { lineGap: 1.5, ...TNUM });
   }
-  const meta = [item.phase ? phaseLabels[item.phase] : undefined, item.required ? undefined : "optional", item.reference ? `Reference: ${item.reference}` : undefined].filter(
-    (part): part is string => part !== undefined,
-  );
+  const meta = [
+    item.phase ? phaseLabels[item.phase] : undefined,
+    item.required ? undefined : "optional",
+    item.reference ? `Reference: ${item.reference}` : undefined,
+  ].filter((part): part is string => part !== undefined);
   if (meta.length) {
     w.style("regular", size.small, inkSoft);
     doc.text(w.printable(meta.join(" · ")), x, w.y + 1, { width, lineGap: 1 });
@@ -756,11 +906,18 @@ function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
   itemValue(w, ctx, item, response?.value, verdict, indent);
 
   const note = noteOf(response?.value);
-  if (note) w.labelled(reading.noteLabel, note, { indent, colour: reading.shape === "triangle" ? reading.colour : ink });
+  if (note)
+    w.labelled(reading.noteLabel, note, {
+      indent,
+      colour: reading.shape === "triangle" ? reading.colour : ink,
+    });
 
   if (response) {
     w.style("regular", size.small, inkSoft);
-    w.paragraph(`Entered by ${response.by}, ${when(response.at)} (revision ${response.rev})`, { indent, tnum: true });
+    w.paragraph(`Entered by ${response.by}, ${when(response.at)} (revision ${response.rev})`, {
+      indent,
+      tnum: true,
+    });
     earlierEntries(w, item, checklist.history[item.key] ?? [], response.rev, indent);
   }
 
@@ -773,27 +930,46 @@ function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
         { label: photos.length === 1 ? "Photo" : `Photos (${photos.length})`, width: widths[0] },
         { label: "SHA-256 of the stored file", width: widths[1] },
       ],
-      photos.map((photo) => [{ text: photo.id }, { text: photo.sha256 ?? "not yet recorded", colour: photo.sha256 ? ink : inkSoft }]),
+      photos.map((photo) => [
+        { text: photo.id },
+        { text: photo.sha256 ?? "not yet recorded", colour: photo.sha256 ? ink : inkSoft },
+      ]),
       { indent, fontSize: 7.2 },
     );
     w.y += 2;
     photoPictures(w, photos, ctx.photoFiles, indent);
   }
 
-  const comments = checklist.comments.filter((c) => c.itemKey === item.key).sort((a, b) => (a.at < b.at ? -1 : 1));
+  const comments = checklist.comments
+    .filter((c) => c.itemKey === item.key)
+    .sort((a, b) => (a.at < b.at ? -1 : 1));
   for (const comment of comments) {
     w.y += 2;
-    w.labelled(`Review comment, ${comment.by}, ${when(comment.at)}`, comment.text, { indent, colour: copper, fontSize: size.small + 0.5 });
+    w.labelled(`Review comment, ${comment.by}, ${when(comment.at)}`, comment.text, {
+      indent,
+      colour: copper,
+      fontSize: size.small + 0.5,
+    });
   }
 
   w.y += 9;
-  w.doc.save().moveTo(x, w.y - 4.5).lineTo(w.left + w.width, w.y - 4.5).lineWidth(0.4).strokeColor(rule).stroke().restore();
+  w.doc
+    .save()
+    .moveTo(x, w.y - 4.5)
+    .lineTo(w.left + w.width, w.y - 4.5)
+    .lineWidth(0.4)
+    .strokeColor(rule)
+    .stroke()
+    .restore();
 }
 
 /** Room for an item's heading and the first of its content, so a heading never ends a page alone. */
 function itemNeeds(w: Writer, ctx: ChecklistContext, item: Item): number {
   const width = w.width - GUTTER;
-  const verdict = evaluate(item, ctx.responses[item.key], { template: ctx.checklist.template, responses: ctx.responses });
+  const verdict = evaluate(item, ctx.responses[item.key], {
+    template: ctx.checklist.template,
+    responses: ctx.responses,
+  });
   w.style("bold", size.label);
   return w.height(item.label, width) + 44 + leadIn(w, item, readVerdict(item, verdict), width);
 }
@@ -809,7 +985,13 @@ function leadIn(w: Writer, item: Item, reading: Reading, width: number): number 
     case "calc": {
       const definition = calcDefinition(item.calc);
       w.style("regular", size.small);
-      return detail + (definition ? w.height(`${definition.title}: ${definition.summary} Source: ${definition.source}.`, width) : 0) + 60;
+      return (
+        detail +
+        (definition
+          ? w.height(`${definition.title}: ${definition.summary} Source: ${definition.source}.`, width)
+          : 0) +
+        60
+      );
     }
     default:
       return detail;
@@ -818,12 +1000,14 @@ function leadIn(w: Writer, item: Item, reading: Reading, width: number): number 
 
 function ruleOf(item: Item, verdict: Verdict): string | undefined {
   if ((item.kind === "measure" || item.kind === "readings") && item.rule) return describeRule(item.rule);
-  if (item.kind === "calc" && verdict.outcome && verdict.outcome.verdict !== "info") return verdict.outcome.rule;
+  if (item.kind === "calc" && verdict.outcome && verdict.outcome.verdict !== "info")
+    return verdict.outcome.rule;
   return undefined;
 }
 
 function noteOf(value: unknown): string | undefined {
-  const note = value && typeof value === "object" && "note" in value ? (value as { note?: unknown }).note : undefined;
+  const note =
+    value && typeof value === "object" && "note" in value ? (value as { note?: unknown }).note : undefined;
   return typeof note === "string" && note.trim() ? note.trim() : undefined;
 }
 
@@ -852,18 +1036,33 @@ function valueWords(item: Item, value: unknown): string {
 }
 
 /** Earlier revisions of items without attempts (a check that first failed, a changed choice). */
-function earlierEntries(w: Writer, item: Item, history: RecordRevision[], currentRev: number, indent: number): void {
+function earlierEntries(
+  w: Writer,
+  item: Item,
+  history: RecordRevision[],
+  currentRev: number,
+  indent: number,
+): void {
   if (item.kind === "measure" || item.kind === "readings" || item.kind === "calc") return;
   const earlier = history.filter((r) => r.rev < currentRev).sort((a, b) => a.rev - b.rev);
   for (const revision of earlier) {
     const note = noteOf(revision.value);
-    const words = [valueWords(item, revision.value), note ? `note: ${note}` : undefined].filter(Boolean).join("; ");
+    const words = [valueWords(item, revision.value), note ? `note: ${note}` : undefined]
+      .filter(Boolean)
+      .join("; ");
     w.style("regular", size.small, inkSoft);
-    w.paragraph(`Earlier, revision ${revision.rev}: ${words} (${revision.by}, ${when(revision.at)})`, { indent, tnum: true });
+    w.paragraph(`Earlier, revision ${revision.rev}: ${words} (${revision.by}, ${when(revision.at)})`, {
+      indent,
+      tnum: true,
+    });
   }
 }
 
-function photoReferences(checklist: RecordChecklist, item: Item, value: unknown): { id: string; sha256?: string }[] {
+function photoReferences(
+  checklist: RecordChecklist,
+  item: Item,
+  value: unknown,
+): { id: string; sha256?: string }[] {
   const stored = checklist.photos.filter((p) => p.itemKey === item.key);
   const listed = item.kind === "photo" && value ? ((value as PhotoValue).photos ?? []) : [];
   const out: { id: string; sha256?: string }[] = stored.map((p) => ({ id: p.id, sha256: p.sha256 }));
@@ -875,7 +1074,10 @@ function photoReferences(checklist: RecordChecklist, item: Item, value: unknown)
 type PhotoFiles = Map<string, Buffer | "differs">;
 
 /** Every photo the record refers to, read once before the pages are laid out. */
-async function readPhotoFiles(record: CommissioningRecord, photoBytes: RecordPdfOptions["photoBytes"]): Promise<PhotoFiles> {
+async function readPhotoFiles(
+  record: CommissioningRecord,
+  photoBytes: RecordPdfOptions["photoBytes"],
+): Promise<PhotoFiles> {
   const files: PhotoFiles = new Map();
   if (!photoBytes) return files;
   for (const checklist of record.checklists) {
@@ -898,7 +1100,9 @@ const PICTURE = { width: 140, height: 105, gap: 8, caption: 12 };
 /** The item's photos, scaled into a grid of boxes under their table, in the table's order. */
 function photoPictures(w: Writer, photos: { id: string }[], files: PhotoFiles, indent: number): void {
   const perRow = Math.max(1, Math.floor((w.width - indent + PICTURE.gap) / (PICTURE.width + PICTURE.gap)));
-  const shown = photos.map((photo, i) => ({ n: i + 1, file: files.get(photo.id) })).filter((p) => p.file !== undefined);
+  const shown = photos
+    .map((photo, i) => ({ n: i + 1, file: files.get(photo.id) }))
+    .filter((p) => p.file !== undefined);
   for (let start = 0; start < shown.length; start += perRow) {
     w.ensure(PICTURE.height + PICTURE.caption + 6);
     const top = w.y + 3;
@@ -909,8 +1113,18 @@ function photoPictures(w: Writer, photos: { id: string }[], files: PhotoFiles, i
         caption = `Photo ${n}: the stored file does not match its SHA-256; not shown`;
       } else {
         try {
-          w.doc.image(file!, x, top, { fit: [PICTURE.width, PICTURE.height], align: "center", valign: "center" });
-          w.doc.save().rect(x, top, PICTURE.width, PICTURE.height).lineWidth(0.4).strokeColor(rule).stroke().restore();
+          w.doc.image(file!, x, top, {
+            fit: [PICTURE.width, PICTURE.height],
+            align: "center",
+            valign: "center",
+          });
+          w.doc
+            .save()
+            .rect(x, top, PICTURE.width, PICTURE.height)
+            .lineWidth(0.4)
+            .strokeColor(rule)
+            .stroke()
+            .restore();
         } catch {
           // pdfkit embeds JPEG and PNG; a WebP photo is listed above but cannot be drawn.
           caption = `Photo ${n}: this file type cannot be shown in a PDF`;
@@ -924,7 +1138,14 @@ function photoPictures(w: Writer, photos: { id: string }[], files: PhotoFiles, i
   }
 }
 
-function itemValue(w: Writer, ctx: ChecklistContext, item: Item, value: unknown, verdict: Verdict, indent: number): void {
+function itemValue(
+  w: Writer,
+  ctx: ChecklistContext,
+  item: Item,
+  value: unknown,
+  verdict: Verdict,
+  indent: number,
+): void {
   if (value === undefined && item.kind !== "calc") return;
   switch (item.kind) {
     case "measure":
@@ -1000,7 +1221,10 @@ function readingsAttempts(w: Writer, item: ReadingsItem, value: ReadingsValue, i
     w.style(last ? "bold" : "regular", size.small + 0.5, last ? ink : inkSoft);
     w.ensure(w.height(caption, width) + 40);
     w.paragraph(caption, { indent, tnum: true, gap: 2 });
-    const columns: Column[] = [{ label: "", width: labelWidth }, ...item.columns.map((c) => ({ label: c.label, width: cellWidth, align: "right" as const }))];
+    const columns: Column[] = [
+      { label: "", width: labelWidth },
+      ...item.columns.map((c) => ({ label: c.label, width: cellWidth, align: "right" as const })),
+    ];
     const rows = item.rows.map((row, r): Cell[] => {
       const wholeRow = offending.some((o) => o.row === r && o.column === undefined);
       return [
@@ -1027,7 +1251,13 @@ function readingsAttempts(w: Writer, item: ReadingsItem, value: ReadingsValue, i
   });
 }
 
-function calcResult(w: Writer, ctx: ChecklistContext, item: CalcItem, verdict: Verdict, indent: number): void {
+function calcResult(
+  w: Writer,
+  ctx: ChecklistContext,
+  item: CalcItem,
+  verdict: Verdict,
+  indent: number,
+): void {
   const { checklist } = ctx;
   const definition = calcDefinition(item.calc);
   const outcome = verdict.outcome;
@@ -1044,7 +1274,10 @@ function calcResult(w: Writer, ctx: ChecklistContext, item: CalcItem, verdict: V
   const labels = keyLabels(checklist.template, item);
   const rows = Object.entries(outcome.values).map(([name, v]): Cell[] => {
     const unit = outcome.units[name];
-    const text = typeof v === "number" ? minus(unit ? formatNumberWithUnit(v, unit) : String(Number(v.toPrecision(6)))) : (labels.get(v) ?? v);
+    const text =
+      typeof v === "number"
+        ? minus(unit ? formatNumberWithUnit(v, unit) : String(Number(v.toPrecision(6))))
+        : (labels.get(v) ?? v);
     return [{ text: name }, { text, bold: true }];
   });
   // The description, the table's head and its first rows stay on one page.
@@ -1071,7 +1304,8 @@ function calcResult(w: Writer, ctx: ChecklistContext, item: CalcItem, verdict: V
     }
     const unit = spec?.unit;
     const v = binding.value;
-    const shown = typeof v === "number" ? (unit ? quantity(v, unit) : String(v)) : Array.isArray(v) ? v.join(", ") : v;
+    const shown =
+      typeof v === "number" ? (unit ? quantity(v, unit) : String(v)) : Array.isArray(v) ? v.join(", ") : v;
     return `${label}, ${shown} (set by the template)`;
   });
   w.y += 3;
@@ -1119,12 +1353,20 @@ function placeSvg(w: Writer, svg: string, indent: number, width: number): void {
   w.doc.x = w.left;
 }
 
-function checklistPages(w: Writer, checklist: RecordChecklist, index: number, count: number, photoFiles: PhotoFiles): void {
+function checklistPages(
+  w: Writer,
+  checklist: RecordChecklist,
+  index: number,
+  count: number,
+  photoFiles: PhotoFiles,
+): void {
   w.currentTitle = `${index + 1}. ${checklist.template.title}`;
   w.newPage();
   checklistHeader(w, checklist, index, count);
   const numbers = new Map<string, string>();
-  checklist.template.sections.forEach((section, s) => section.items.forEach((item, i) => numbers.set(item.key, `${s + 1}.${i + 1}`)));
+  checklist.template.sections.forEach((section, s) =>
+    section.items.forEach((item, i) => numbers.set(item.key, `${s + 1}.${i + 1}`)),
+  );
   const ctx: ChecklistContext = { checklist, responses: valuesOf(checklist), numbers, photoFiles };
   checklist.template.sections.forEach((section, s) => {
     sectionHeading(w, s, section.title, itemNeeds(w, ctx, section.items[0]));
@@ -1145,24 +1387,59 @@ function pageFurniture(w: Writer, record: CommissioningRecord): void {
     const pageNumber = i - range.start + 1;
     if (pageNumber > 1) {
       w.style("regular", size.small, inkSoft);
-      doc.text(w.printable(`${record.yardName} · ${record.vessel.name} · Commissioning record`), MARGIN.left, 34, { width: w.width * 0.6, lineBreak: false });
-      doc.text(w.printable(w.pageTitles[i - range.start] ?? ""), MARGIN.left + w.width * 0.6, 34, { width: w.width * 0.4, align: "right", lineBreak: false });
-      doc.save().moveTo(MARGIN.left, 47).lineTo(MARGIN.left + w.width, 47).lineWidth(0.5).strokeColor(rule).stroke().restore();
+      doc.text(
+        w.printable(`${record.yardName} · ${record.vessel.name} · Commissioning record`),
+        MARGIN.left,
+        34,
+        { width: w.width * 0.6, lineBreak: false },
+      );
+      doc.text(w.printable(w.pageTitles[i - range.start] ?? ""), MARGIN.left + w.width * 0.6, 34, {
+        width: w.width * 0.4,
+        align: "right",
+        lineBreak: false,
+      });
+      doc
+        .save()
+        .moveTo(MARGIN.left, 47)
+        .lineTo(MARGIN.left + w.width, 47)
+        .lineWidth(0.5)
+        .strokeColor(rule)
+        .stroke()
+        .restore();
     }
     const footTop = doc.page.height - MARGIN.bottom + 14;
-    doc.save().moveTo(MARGIN.left, footTop - 6).lineTo(MARGIN.left + w.width, footTop - 6).lineWidth(0.5).strokeColor(rule).stroke().restore();
+    doc
+      .save()
+      .moveTo(MARGIN.left, footTop - 6)
+      .lineTo(MARGIN.left + w.width, footTop - 6)
+      .lineWidth(0.5)
+      .strokeColor(rule)
+      .stroke()
+      .restore();
     w.style("regular", size.tiny, inkSoft);
     doc.text(GOVERNING_STATEMENT, MARGIN.left, footTop, { width: w.width, lineGap: 1 });
     w.style("regular", size.small, ink);
-    doc.text(w.printable(`Record ${record.record.id}`), MARGIN.left, footTop + 22, { width: w.width / 2, lineBreak: false, ...TNUM });
-    doc.text(`Page ${pageNumber} of ${range.count}`, MARGIN.left + w.width / 2, footTop + 22, { width: w.width / 2, align: "right", lineBreak: false, ...TNUM });
+    doc.text(w.printable(`Record ${record.record.id}`), MARGIN.left, footTop + 22, {
+      width: w.width / 2,
+      lineBreak: false,
+      ...TNUM,
+    });
+    doc.text(`Page ${pageNumber} of ${range.count}`, MARGIN.left + w.width / 2, footTop + 22, {
+      width: w.width / 2,
+      align: "right",
+      lineBreak: false,
+      ...TNUM,
+    });
     doc.page.margins = margins;
   }
 }
 
 // ---- the document ---------------------------------------------------------------------------
 
-export async function renderRecordPdf(record: CommissioningRecord, options: RecordPdfOptions): Promise<Buffer> {
+export async function renderRecordPdf(
+  record: CommissioningRecord,
+  options: RecordPdfOptions,
+): Promise<Buffer> {
   const { regular, bold } = fonts();
   const doc = new PDFDocument({
     size: "A4",
@@ -1194,7 +1471,9 @@ export async function renderRecordPdf(record: CommissioningRecord, options: Reco
   const photoFiles = await readPhotoFiles(record, options.photoBytes);
   const w = new Writer(doc);
   await cover(w, record, options);
-  record.checklists.forEach((checklist, i) => checklistPages(w, checklist, i, record.checklists.length, photoFiles));
+  record.checklists.forEach((checklist, i) =>
+    checklistPages(w, checklist, i, record.checklists.length, photoFiles),
+  );
   pageFurniture(w, record);
   doc.end();
   return done;

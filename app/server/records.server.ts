@@ -15,16 +15,28 @@ import { findVessel } from "./vessels.server.ts";
 
 /** The checklists a record is made of: for each template, the newest of its amendment chain. */
 export async function currentChecklists(jobId: number) {
-  const rows = await db()("job_checklists as c").join("template_versions as t", "t.id", "c.template_version_id").where("c.job_id", jobId)
+  const rows = await db()("job_checklists as c")
+    .join("template_versions as t", "t.id", "c.template_version_id")
+    .where("c.job_id", jobId)
     .select("c.id", "c.state", "c.amends_id", "c.template_key", "t.title");
   const amended = new Set(rows.map((r: any) => r.amends_id).filter(Boolean));
-  return rows.filter((r: any) => !amended.has(r.id)) as { id: string; state: string; amends_id: string | null; template_key: string; title: string }[];
+  return rows.filter((r: any) => !amended.has(r.id)) as {
+    id: string;
+    state: string;
+    amends_id: string | null;
+    template_key: string;
+    title: string;
+  }[];
 }
 
 export async function recordReadiness(jobId: number) {
   const current = await currentChecklists(jobId);
   const open = current.filter((c) => c.state !== "countersigned");
-  return { ready: current.length > 0 && open.length === 0, open: open.map((c) => c.title), count: current.length };
+  return {
+    ready: current.length > 0 && open.length === 0,
+    open: open.map((c) => c.title),
+    count: current.length,
+  };
 }
 
 const verifyUrl = (id: string) => `${env().APP_URL}/verify/${id}`;
@@ -36,16 +48,25 @@ const verifyUrl = (id: string) => `${env().APP_URL}/verify/${id}`;
 export async function issueRecord(actor: Actor, jobId: number, emails: string[]): Promise<string> {
   const job = await findJob(jobId);
   if (!job) throw new ReviewError("There is no such job.", 404);
-  if (!(actor.role === "manager" || (actor.role === "lead" && job.leadId === actor.id))) throw new ReviewError("Only the manager or the job's lead issues its record.", 403);
+  if (!(actor.role === "manager" || (actor.role === "lead" && job.leadId === actor.id)))
+    throw new ReviewError("Only the manager or the job's lead issues its record.", 403);
   const readiness = await recordReadiness(jobId);
   if (!readiness.ready) {
-    throw new ReviewError(readiness.count ? `Every checklist must be countersigned first; still open: ${readiness.open.join(", ")}.` : "The job has no checklists yet.");
+    throw new ReviewError(
+      readiness.count
+        ? `Every checklist must be countersigned first; still open: ${readiness.open.join(", ")}.`
+        : "The job has no checklists yet.",
+    );
   }
   const people = await db()("users").whereIn("email", emails);
   const staff = people.filter((p: any) => p.role !== "surveyor");
-  if (staff.length) throw new ReviewError(`${staff.map((p: any) => p.email).join(", ")} belongs to a yard account, not a surveyor's; use the surveyor's own address.`);
+  if (staff.length)
+    throw new ReviewError(
+      `${staff.map((p: any) => p.email).join(", ")} belongs to a yard account, not a surveyor's; use the surveyor's own address.`,
+    );
   const inactive = people.filter((p: any) => !p.active);
-  if (inactive.length) throw new ReviewError(`${inactive.map((p: any) => p.email).join(", ")} is deactivated.`);
+  if (inactive.length)
+    throw new ReviewError(`${inactive.map((p: any) => p.email).join(", ")} is deactivated.`);
 
   const vessel = (await findVessel(job.vesselId))!;
   const id = randomUUID();
@@ -53,14 +74,37 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
   const record: CommissioningRecord = {
     record: { id, issuedAt: issuedAt.toISOString() },
     yardName: env().YARD_NAME,
-    vessel: { name: vessel.name, ...(vessel.hin ? { hin: vessel.hin } : {}), lengthValue: vessel.lengthValue, lengthUnit: vessel.lengthUnit, hullType: vessel.hullType, ownerName: vessel.ownerName },
-    job: {
-      id: job.id, scope: job.scope, engineModel: job.engineModel, engineSerial: job.engineSerial, ratedPowerHp: job.ratedPowerHp, ratedRpmMin: job.ratedRpmMin,
-      ratedRpmMax: job.ratedRpmMax, gearRatio: job.gearRatio, propDiameterIn: job.propDiameterIn, propPitchIn: job.propPitchIn, propBlades: job.propBlades,
-      shaftDiameterIn: job.shaftDiameterIn, shaftMaterial: job.shaftMaterial, couplingType: job.couplingType, startDate: job.startDate, dueDate: job.dueDate,
-      leadName: job.leadName, technicianNames: job.technicianNames,
+    vessel: {
+      name: vessel.name,
+      ...(vessel.hin ? { hin: vessel.hin } : {}),
+      lengthValue: vessel.lengthValue,
+      lengthUnit: vessel.lengthUnit,
+      hullType: vessel.hullType,
+      ownerName: vessel.ownerName,
     },
-    checklists: await Promise.all((await currentChecklists(jobId)).map(async (c) => (await loadRecordChecklist(c.id))!)),
+    job: {
+      id: job.id,
+      scope: job.scope,
+      engineModel: job.engineModel,
+      engineSerial: job.engineSerial,
+      ratedPowerHp: job.ratedPowerHp,
+      ratedRpmMin: job.ratedRpmMin,
+      ratedRpmMax: job.ratedRpmMax,
+      gearRatio: job.gearRatio,
+      propDiameterIn: job.propDiameterIn,
+      propPitchIn: job.propPitchIn,
+      propBlades: job.propBlades,
+      shaftDiameterIn: job.shaftDiameterIn,
+      shaftMaterial: job.shaftMaterial,
+      couplingType: job.couplingType,
+      startDate: job.startDate,
+      dueDate: job.dueDate,
+      leadName: job.leadName,
+      technicianNames: job.technicianNames,
+    },
+    checklists: await Promise.all(
+      (await currentChecklists(jobId)).map(async (c) => (await loadRecordChecklist(c.id))!),
+    ),
     verifyUrl: verifyUrl(id),
   };
   const digest = recordDigest(record);
@@ -73,10 +117,28 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
     }
   }
   await db().transaction(async (trx) => {
-    await trx("records").insert({ id, job_id: jobId, content: JSON.stringify(record), digest, issued_by: actor.id, issued_at: issuedAt });
+    await trx("records").insert({
+      id,
+      job_id: jobId,
+      content: JSON.stringify(record),
+      digest,
+      issued_by: actor.id,
+      issued_at: issuedAt,
+    });
     const recipients = await trx("users").whereIn("email", emails).select("id", "email");
-    await trx("record_recipients").insert(recipients.map((r: any) => ({ record_id: id, user_id: r.id, email: r.email, sent_at: issuedAt })));
-    await audit({ userId: actor.id, action: "record.issued", entity: "record", entityId: id, detail: { jobId, to: emails, digest } }, trx);
+    await trx("record_recipients").insert(
+      recipients.map((r: any) => ({ record_id: id, user_id: r.id, email: r.email, sent_at: issuedAt })),
+    );
+    await audit(
+      {
+        userId: actor.id,
+        action: "record.issued",
+        entity: "record",
+        entityId: id,
+        detail: { jobId, to: emails, digest },
+      },
+      trx,
+    );
   });
   for (const email of emails) {
     const invitation = invitations.get(email);
@@ -86,7 +148,9 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
       text: [
         `${env().YARD_NAME} has issued the commissioning record of ${vessel.name} (${job.engineModel}, serial ${job.engineSerial}) to you.`,
         "",
-        invitation ? `You have a new Sternpost account for the records issued to you. Choose your password first:\n${env().APP_URL}/invitation/${invitation}\n` : "",
+        invitation
+          ? `You have a new Sternpost account for the records issued to you. Choose your password first:\n${env().APP_URL}/invitation/${invitation}\n`
+          : "",
         `Read and download the record: ${env().APP_URL}/records/${id}`,
         `Check it is genuine: ${verifyUrl(id)}`,
         `Record digest (SHA-256): ${digest}`,
@@ -100,24 +164,40 @@ export async function findRecord(id: string) {
   const row = await db()("records").where({ id }).first();
   if (!row) return undefined;
   const content = JSON.parse(row.content) as CommissioningRecord;
-  return { id: row.id as string, jobId: row.job_id as number, digest: row.digest as string, issuedAt: new Date(row.issued_at).toISOString(), content };
+  return {
+    id: row.id as string,
+    jobId: row.job_id as number,
+    digest: row.digest as string,
+    issuedAt: new Date(row.issued_at).toISOString(),
+    content,
+  };
 }
 
 /** Surveyors see the records issued to them; the manager and the job's lead see the job's. */
 export async function canReadRecord(actor: Actor, record: { id: string; jobId: number }) {
   if (actor.role === "manager") return true;
-  if (actor.role === "lead") return !!(await db()("jobs").where({ id: record.jobId, lead_id: actor.id }).first());
-  if (actor.role === "surveyor") return !!(await db()("record_recipients").where({ record_id: record.id, user_id: actor.id }).first());
+  if (actor.role === "lead")
+    return !!(await db()("jobs").where({ id: record.jobId, lead_id: actor.id }).first());
+  if (actor.role === "surveyor")
+    return !!(await db()("record_recipients").where({ record_id: record.id, user_id: actor.id }).first());
   return false;
 }
 
 export async function recordsIssuedTo(userId: number) {
-  return db()("record_recipients as r").join("records as d", "d.id", "r.record_id").join("jobs as j", "j.id", "d.job_id").join("vessels as v", "v.id", "j.vessel_id")
-    .where("r.user_id", userId).orderBy("d.issued_at", "desc").select("d.id", "d.issued_at", "v.name as vessel_name", "j.engine_model");
+  return db()("record_recipients as r")
+    .join("records as d", "d.id", "r.record_id")
+    .join("jobs as j", "j.id", "d.job_id")
+    .join("vessels as v", "v.id", "j.vessel_id")
+    .where("r.user_id", userId)
+    .orderBy("d.issued_at", "desc")
+    .select("d.id", "d.issued_at", "v.name as vessel_name", "j.engine_model");
 }
 
 export async function recordsOfJob(jobId: number) {
-  return db()("records").where({ job_id: jobId }).orderBy("issued_at", "desc").select("id", "issued_at", "digest");
+  return db()("records")
+    .where({ job_id: jobId })
+    .orderBy("issued_at", "desc")
+    .select("id", "issued_at", "digest");
 }
 
 export interface Verification {
@@ -142,17 +222,23 @@ export async function verifyRecord(id: string): Promise<Verification | undefined
   } catch {
     problems.push("The stored record can no longer be read.");
   }
-  if (content && sha256Hex(recordCanonical(content)) !== row.digest) problems.push("The stored record does not match the digest it was issued with.");
+  if (content && sha256Hex(recordCanonical(content)) !== row.digest)
+    problems.push("The stored record does not match the digest it was issued with.");
   for (const checklist of content?.checklists ?? []) {
     const live = await loadRecordChecklist(checklist.id);
     if (!live) problems.push(`The checklist "${checklist.template.title}" is missing.`);
-    else if (checklistDigest(live) !== checklist.digest || live.digest !== checklist.digest) problems.push(`"${checklist.template.title}" has changed since it was countersigned.`);
+    else if (checklistDigest(live) !== checklist.digest || live.digest !== checklist.digest)
+      problems.push(`"${checklist.template.title}" has changed since it was countersigned.`);
   }
   return {
     genuine: problems.length === 0,
     issuedAt: new Date(row.issued_at).toISOString(),
     digest: row.digest,
-    signers: (content?.checklists ?? []).map((c) => ({ checklist: c.template.title, countersignedBy: c.countersignedBy, countersignedAt: c.countersignedAt })),
+    signers: (content?.checklists ?? []).map((c) => ({
+      checklist: c.template.title,
+      countersignedBy: c.countersignedBy,
+      countersignedAt: c.countersignedAt,
+    })),
     problems,
   };
 }

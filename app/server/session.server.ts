@@ -32,7 +32,12 @@ export function sessionStorage() {
     cookie: cookie(),
     async createData(data, expires) {
       const id = randomBytes(24).toString("base64url");
-      await db()("sessions").insert({ id, user_id: data.userId ?? null, data: JSON.stringify(data), expires_at: expires ?? null });
+      await db()("sessions").insert({
+        id,
+        user_id: data.userId ?? null,
+        data: JSON.stringify(data),
+        expires_at: expires ?? null,
+      });
       return id;
     },
     async readData(id) {

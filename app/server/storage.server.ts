@@ -1,4 +1,10 @@
-import { GetObjectCommand, HeadObjectCommand, PutObjectCommand, S3Client, S3ServiceException } from "@aws-sdk/client-s3";
+import {
+  GetObjectCommand,
+  HeadObjectCommand,
+  PutObjectCommand,
+  S3Client,
+  S3ServiceException,
+} from "@aws-sdk/client-s3";
 import { env } from "./env.server.ts";
 
 /**
@@ -30,10 +36,19 @@ export function s3Client(): S3Client {
 const bucket = () => env().S3_BUCKET;
 
 const isMissing = (error: unknown) =>
-  error instanceof S3ServiceException && (error.name === "NoSuchKey" || error.name === "NotFound" || error.$metadata.httpStatusCode === 404);
+  error instanceof S3ServiceException &&
+  (error.name === "NoSuchKey" || error.name === "NotFound" || error.$metadata.httpStatusCode === 404);
 
 export async function putObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
-  await s3Client().send(new PutObjectCommand({ Bucket: bucket(), Key: key, Body: body, ContentType: contentType, ContentLength: body.byteLength }));
+  await s3Client().send(
+    new PutObjectCommand({
+      Bucket: bucket(),
+      Key: key,
+      Body: body,
+      ContentType: contentType,
+      ContentLength: body.byteLength,
+    }),
+  );
 }
 
 /** The object's bytes, or undefined when the store has no such key. */

@@ -1,6 +1,13 @@
 import type { Knex } from "knex";
 import { canFillJob, canViewJob, type Actor } from "~/lib/permissions";
-import { sameJson, type Change, type Operation, type OpResult, type SyncRequest, type SyncResponse } from "~/lib/sync/protocol";
+import {
+  sameJson,
+  type Change,
+  type Operation,
+  type OpResult,
+  type SyncRequest,
+  type SyncResponse,
+} from "~/lib/sync/protocol";
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { db } from "./db.server.ts";
@@ -22,25 +29,45 @@ function visibleChecklists(knex: Knex, actor: Actor) {
   const q = knex("job_checklists as c").join("jobs as j", "j.id", "c.job_id");
   if (actor.role === "manager") return q;
   if (actor.role === "lead") return q.where("j.lead_id", actor.id);
-  if (actor.role === "technician") return q.whereIn("j.id", knex("job_technicians").where({ user_id: actor.id }).select("job_id"));
+  if (actor.role === "technician")
+    return q.whereIn("j.id", knex("job_technicians").where({ user_id: actor.id }).select("job_id"));
   return q.whereRaw("1 = 0");
 }
 
 /** Who may do what on each checklist the batch touches, read in two queries. */
-async function loadAccess(trx: Knex.Transaction, actor: Actor, checklistIds: string[]): Promise<Map<string, ChecklistAccess>> {
+async function loadAccess(
+  trx: Knex.Transaction,
+  actor: Actor,
+  checklistIds: string[],
+): Promise<Map<string, ChecklistAccess>> {
   const rows = await trx("job_checklists as c")
     .join("jobs as j", "j.id", "c.job_id")
     .whereIn("c.id", checklistIds)
     .select("c.id", "c.state", "c.template_version_id", "j.id as job_id", "j.lead_id");
   const [crew, bodies] = await Promise.all([
-    trx("job_technicians").whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))]).select("job_id", "user_id"),
-    trx("template_versions").whereIn("id", [...new Set(rows.map((r: any) => r.template_version_id))]).select("id", "body"),
+    trx("job_technicians")
+      .whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))])
+      .select("job_id", "user_id"),
+    trx("template_versions")
+      .whereIn("id", [...new Set(rows.map((r: any) => r.template_version_id))])
+      .select("id", "body"),
   ]);
   const templates = new Map<number, Template>(bodies.map((b: any) => [b.id, JSON.parse(b.body)]));
   return new Map(
     rows.map((r: any) => {
-      const job = { leadId: r.lead_id, technicianIds: crew.filter((c: any) => c.job_id === r.job_id).map((c: any) => c.user_id) };
-      return [r.id, { state: r.state, template: templates.get(r.template_version_id)!, canView: canViewJob(actor, job), canFill: canFillJob(actor, job) }];
+      const job = {
+        leadId: r.lead_id,
+        technicianIds: crew.filter((c: any) => c.job_id === r.job_id).map((c: any) => c.user_id),
+      };
+      return [
+        r.id,
+        {
+          state: r.state,
+          template: templates.get(r.template_version_id)!,
+          canView: canViewJob(actor, job),
+          canFill: canFillJob(actor, job),
+        },
+      ];
     }),
   );
 }
@@ -50,12 +77,24 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
   const answers = new Map<string, { userId: number; result: OpResult }>();
   const [applied, conflicted, others] = await Promise.all([
     trx("response_history").whereIn("op_id", opIds).select("op_id", "user_id", "rev"),
-    trx("sync_conflicts").whereIn("op_id", opIds).select("op_id", "user_id", "id", "server_rev", "server_value"),
+    trx("sync_conflicts")
+      .whereIn("op_id", opIds)
+      .select("op_id", "user_id", "id", "server_rev", "server_value"),
     trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
   ]);
-  for (const r of applied) answers.set(r.op_id, { userId: r.user_id, result: { opId: r.op_id, status: "applied", rev: r.rev } });
+  for (const r of applied)
+    answers.set(r.op_id, { userId: r.user_id, result: { opId: r.op_id, status: "applied", rev: r.rev } });
   for (const r of conflicted) {
-    answers.set(r.op_id, { userId: r.user_id, result: { opId: r.op_id, status: "conflict", rev: r.server_rev, serverValue: r.server_value === null ? null : json(r.server_value), conflictId: r.id } });
+    answers.set(r.op_id, {
+      userId: r.user_id,
+      result: {
+        opId: r.op_id,
+        status: "conflict",
+        rev: r.server_rev,
+        serverValue: r.server_value === null ? null : json(r.server_value),
+        conflictId: r.id,
+      },
+    });
   }
   for (const r of others) answers.set(r.op_id, { userId: r.user_id, result: json(r.result) });
   return answers;
@@ -64,14 +103,19 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
 function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
   if (!access || !access.canView) return reject(op, "This checklist is not on one of your jobs.");
   if (!access.canFill) return reject(op, "Only the job's technicians and its lead record entries.");
-  if (access.state === "submitted") return reject(op, "The checklist has been submitted for review and takes no more entries.");
-  if (access.state === "countersigned") return reject(op, "The checklist is countersigned and locked; a correction is an amendment.");
+  if (access.state === "submitted")
+    return reject(op, "The checklist has been submitted for review and takes no more entries.");
+  if (access.state === "countersigned")
+    return reject(op, "The checklist is countersigned and locked; a correction is an amendment.");
   const item = findItem(access.template, op.itemKey);
   if (!item) return reject(op, `The checklist has no item "${op.itemKey}".`);
   const parsed = valueSchemaFor(item).safeParse(op.value);
   if (!parsed.success) {
     const first = parsed.error.issues[0]!;
-    return reject(op, `The entry for "${item.label}" is not valid: ${[...first.path].join(".") || "value"} ${first.message}.`);
+    return reject(
+      op,
+      `The entry for "${item.label}" is not valid: ${[...first.path].join(".") || "value"} ${first.message}.`,
+    );
   }
   return null;
 }
@@ -98,13 +142,24 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       await trx("sync_clock").where({ id: 1 }).update({ seq: clock });
       const now = new Date();
 
-      const known = await answersGiven(trx, request.ops.map((o) => o.opId));
+      const known = await answersGiven(
+        trx,
+        request.ops.map((o) => o.opId),
+      );
       const checklistIds = [...new Set(request.ops.map((o) => o.checklistId))];
       const access = await loadAccess(trx, actor, checklistIds);
       const currentRows = await trx("checklist_responses")
         // No row locks needed: every applier holds the clock lock, so none runs beside this one.
-        .whereIn(["checklist_id", "item_key"], [...new Set(request.ops.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")));
-      const current = new Map<string, { rev: number; value: unknown }>(currentRows.map((r: any) => [itemId(r.checklist_id, r.item_key), { rev: r.rev, value: json(r.value) }]));
+        .whereIn(
+          ["checklist_id", "item_key"],
+          [...new Set(request.ops.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
+        );
+      const current = new Map<string, { rev: number; value: unknown }>(
+        currentRows.map((r: any) => [
+          itemId(r.checklist_id, r.item_key),
+          { rev: r.rev, value: json(r.value) },
+        ]),
+      );
 
       const responses = new Map<string, any>();
       const history: any[] = [];
@@ -117,7 +172,11 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         const seen = known.get(op.opId);
         if (seen) {
           // A retry: the first answer, unchanged (another person's opId is simply refused).
-          results.push(seen.userId === actor.id ? { ...seen.result, opId: op.opId } : reject(op, "This operation id was used by someone else."));
+          results.push(
+            seen.userId === actor.id
+              ? { ...seen.result, opId: op.opId }
+              : reject(op, "This operation id was used by someone else."),
+          );
           continue;
         }
         if (op.itemKey === SUBMIT_KEY) {
@@ -135,8 +194,27 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           if (op.baseRev === rev) {
             const value = JSON.stringify(op.value);
             current.set(key, { rev: rev + 1, value: op.value });
-            responses.set(key, { checklist_id: op.checklistId, item_key: op.itemKey, value, rev: rev + 1, updated_by: actor.id, device_id: request.deviceId, updated_at: now, change_seq: clock });
-            history.push({ checklist_id: op.checklistId, item_key: op.itemKey, rev: rev + 1, value, user_id: actor.id, device_id: request.deviceId, op_id: op.opId, at: now, client_at: new Date(op.at) });
+            responses.set(key, {
+              checklist_id: op.checklistId,
+              item_key: op.itemKey,
+              value,
+              rev: rev + 1,
+              updated_by: actor.id,
+              device_id: request.deviceId,
+              updated_at: now,
+              change_seq: clock,
+            });
+            history.push({
+              checklist_id: op.checklistId,
+              item_key: op.itemKey,
+              rev: rev + 1,
+              value,
+              user_id: actor.id,
+              device_id: request.deviceId,
+              op_id: op.opId,
+              at: now,
+              client_at: new Date(op.at),
+            });
             result = { opId: op.opId, status: "applied", rev: rev + 1 };
             if (op.resolves?.length) resolutions.push({ op });
           } else if (now_ && sameJson(now_.value, op.value)) {
@@ -148,9 +226,17 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
               op,
               resultIndex: results.length,
               row: {
-                checklist_id: op.checklistId, item_key: op.itemKey, op_id: op.opId, base_rev: op.baseRev, server_rev: rev,
-                server_value: now_ ? JSON.stringify(now_.value) : null, client_value: JSON.stringify(op.value), user_id: actor.id,
-                device_id: request.deviceId, client_at: new Date(op.at), received_at: now,
+                checklist_id: op.checklistId,
+                item_key: op.itemKey,
+                op_id: op.opId,
+                base_rev: op.baseRev,
+                server_rev: rev,
+                server_value: now_ ? JSON.stringify(now_.value) : null,
+                client_value: JSON.stringify(op.value),
+                user_id: actor.id,
+                device_id: request.deviceId,
+                client_at: new Date(op.at),
+                received_at: now,
               },
             });
           }
@@ -158,7 +244,10 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         results.push(result);
         known.set(op.opId, { userId: actor.id, result });
         // Applied values and conflicts are their own record; only the rest needs a row of its own.
-        if (result.status === "rejected" || (result.status === "applied" && !history.some((h) => h.op_id === op.opId))) {
+        if (
+          result.status === "rejected" ||
+          (result.status === "applied" && !history.some((h) => h.op_id === op.opId))
+        ) {
           recorded.push({ op, resultIndex: results.length - 1 });
         }
       }
@@ -166,10 +255,20 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       // Conflict ids come from one multi-row insert: InnoDB gives such an insert consecutive ids.
       if (conflicts.length) {
         const [firstId] = await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
-        conflicts.forEach((c, i) => (results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: Number(firstId) + i }));
+        conflicts.forEach(
+          (c, i) =>
+            (results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: Number(firstId) + i }),
+        );
       }
       for (const r of responses.values()) {
-        wrote.push({ checklistId: r.checklist_id, itemKey: r.item_key, value: JSON.parse(r.value), rev: r.rev, by: actor.name, at: now.toISOString() });
+        wrote.push({
+          checklistId: r.checklist_id,
+          itemKey: r.item_key,
+          value: JSON.parse(r.value),
+          rev: r.rev,
+          by: actor.name,
+          at: now.toISOString(),
+        });
       }
       if (responses.size) {
         await trx("checklist_responses")
@@ -177,7 +276,8 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           .onConflict(["checklist_id", "item_key"])
           .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
       }
-      for (let i = 0; i < history.length; i += 500) await trx("response_history").insert(history.slice(i, i + 500));
+      for (let i = 0; i < history.length; i += 500)
+        await trx("response_history").insert(history.slice(i, i + 500));
       for (const { op } of resolutions) {
         await trx("sync_conflicts")
           .whereIn("id", op.resolves!)
@@ -191,8 +291,15 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         recorded.push({ op, resultIndex });
       }
       const opRows = recorded.map(({ op, resultIndex }) => ({
-        op_id: op.opId, device_id: request.deviceId, seq: op.seq, user_id: actor.id, checklist_id: op.checklistId, item_key: op.itemKey,
-        status: results[resultIndex]!.status, result: JSON.stringify(results[resultIndex]), received_at: now,
+        op_id: op.opId,
+        device_id: request.deviceId,
+        seq: op.seq,
+        user_id: actor.id,
+        checklist_id: op.checklistId,
+        item_key: op.itemKey,
+        status: results[resultIndex]!.status,
+        result: JSON.stringify(results[resultIndex]),
+        received_at: now,
       }));
       for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
     } else {
@@ -209,7 +316,12 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       .orderBy("r.change_seq")
       .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
     const changes: Change[] = rows.map((r: any) => ({
-      checklistId: r.checklist_id, itemKey: r.item_key, value: json(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString(),
+      checklistId: r.checklist_id,
+      itemKey: r.item_key,
+      value: json(r.value),
+      rev: r.rev,
+      by: r.name,
+      at: new Date(r.updated_at).toISOString(),
     }));
     if (since < clock) changes.push(...wrote);
     return { results, changes, cursor: String(clock) };

@@ -25,7 +25,10 @@ export async function latestPublished(knex: Knex = db()): Promise<TemplateVersio
   const rows = await knex("template_versions as t")
     .where("t.status", "published")
     .whereNotExists(
-      knex("template_versions as n").whereRaw("n.template_key = t.template_key").where("n.status", "published").whereRaw("n.version > t.version"),
+      knex("template_versions as n")
+        .whereRaw("n.template_key = t.template_key")
+        .where("n.status", "published")
+        .whereRaw("n.version > t.version"),
     )
     .orderBy("t.template_key");
   return rows.map(toRow);

@@ -15,7 +15,14 @@ export interface User {
 const INVITATION_DAYS = 7;
 
 function toUser(row: any): User {
-  return { id: row.id, email: row.email, name: row.name, role: row.role, active: !!row.active, hasPassword: !!row.password_hash };
+  return {
+    id: row.id,
+    email: row.email,
+    name: row.name,
+    role: row.role,
+    active: !!row.active,
+    hasPassword: !!row.password_hash,
+  };
 }
 
 export async function findUserById(id: number): Promise<User | undefined> {
@@ -42,11 +49,15 @@ export const checkPassword = (password: string, hash: string) => bcrypt.compare(
 const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
 
 /** Creates (or re-invites) a user without a password and returns the one-time token. */
-export async function inviteUser(input: { email: string; name: string; role: Role }, invitedBy: number | null) {
+export async function inviteUser(
+  input: { email: string; name: string; role: Role },
+  invitedBy: number | null,
+) {
   return db().transaction(async (trx) => {
     const email = input.email.toLowerCase();
     let user = await trx("users").where({ email }).first();
-    if (user?.password_hash) throw new InviteError("email", "Someone with this e-mail address already has an account.");
+    if (user?.password_hash)
+      throw new InviteError("email", "Someone with this e-mail address already has an account.");
     if (!user) {
       const [id] = await trx("users").insert({ email, name: input.name, role: input.role, active: true });
       user = { id };
@@ -66,17 +77,21 @@ export async function inviteUser(input: { email: string; name: string; role: Rol
 }
 
 export class InviteError extends Error {
-  constructor(public field: string, message: string) {
+  constructor(
+    public field: string,
+    message: string,
+  ) {
     super(message);
   }
 }
 
 export type InvitationState =
-  | { state: "valid"; user: User }
-  | { state: "expired" | "used" | "unknown" | "deactivated" };
+  { state: "valid"; user: User } | { state: "expired" | "used" | "unknown" | "deactivated" };
 
 export async function lookUpInvitation(token: string): Promise<InvitationState> {
-  const row = await db()("invitations").where({ token_hash: hashToken(token) }).first();
+  const row = await db()("invitations")
+    .where({ token_hash: hashToken(token) })
+    .first();
   if (!row) return { state: "unknown" };
   if (row.used_at) return { state: "used" };
   if (new Date(row.expires_at) < new Date()) return { state: "expired" };
@@ -90,15 +105,22 @@ export async function lookUpInvitation(token: string): Promise<InvitationState> 
 export async function acceptInvitation(token: string, password: string): Promise<InvitationState> {
   const hash = await hashPassword(password);
   return db().transaction(async (trx) => {
-    const row = await trx("invitations").where({ token_hash: hashToken(token) }).forUpdate().first();
+    const row = await trx("invitations")
+      .where({ token_hash: hashToken(token) })
+      .forUpdate()
+      .first();
     const current = await lookUpInvitation(token);
     if (current.state !== "valid" || !row) return current;
-    await trx("users").where({ id: row.user_id }).update({ password_hash: hash, updated_at: trx.fn.now(3) });
+    await trx("users")
+      .where({ id: row.user_id })
+      .update({ password_hash: hash, updated_at: trx.fn.now(3) });
     await trx("invitations").where({ id: row.id }).update({ used_at: new Date() });
     return current;
   });
 }
 
 export async function updateUser(id: number, changes: { role?: Role; active?: boolean; name?: string }) {
-  await db()("users").where({ id }).update({ ...changes, updated_at: db().fn.now(3) });
+  await db()("users")
+    .where({ id })
+    .update({ ...changes, updated_at: db().fn.now(3) });
 }

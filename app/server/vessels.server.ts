@@ -47,7 +47,12 @@ export async function listVessels(): Promise<Vessel[]> {
     db()("vessels").orderBy("name"),
     db()("jobs").select("vessel_id", "lead_id"),
   ]);
-  return rows.map((r: any) => toVessel(r, leads.filter((l: any) => l.vessel_id === r.id).map((l: any) => l.lead_id)));
+  return rows.map((r: any) =>
+    toVessel(
+      r,
+      leads.filter((l: any) => l.vessel_id === r.id).map((l: any) => l.lead_id),
+    ),
+  );
 }
 
 export async function findVessel(id: number): Promise<Vessel | undefined> {
@@ -63,7 +68,8 @@ async function guardHin<T>(work: () => Promise<T>): Promise<T> {
   try {
     return await work();
   } catch (error: any) {
-    if (error?.code === "ER_DUP_ENTRY") throw new DuplicateHinError("Another vessel already has this hull identification number.");
+    if (error?.code === "ER_DUP_ENTRY")
+      throw new DuplicateHinError("Another vessel already has this hull identification number.");
     throw error;
   }
 }
@@ -76,5 +82,9 @@ export function createVessel(input: VesselInput, createdBy: number) {
 }
 
 export function updateVessel(id: number, input: VesselInput) {
-  return guardHin(() => db()("vessels").where({ id }).update({ ...toRow(input), updated_at: db().fn.now(3) }));
+  return guardHin(() =>
+    db()("vessels")
+      .where({ id })
+      .update({ ...toRow(input), updated_at: db().fn.now(3) }),
+  );
 }

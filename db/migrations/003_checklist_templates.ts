@@ -43,7 +43,9 @@ export async function up(knex: Knex) {
     t.integer("job_id").unsigned().notNullable().references("jobs.id").onDelete("CASCADE");
     t.integer("template_version_id").unsigned().notNullable().references("template_versions.id");
     t.string("template_key", 80).notNullable();
-    t.enu("state", ["in-progress", "submitted", "returned", "countersigned"]).notNullable().defaultTo("in-progress");
+    t.enu("state", ["in-progress", "submitted", "returned", "countersigned"])
+      .notNullable()
+      .defaultTo("in-progress");
     t.integer("started_by").unsigned().nullable().references("users.id");
     t.timestamp("created_at", { precision: 3 }).notNullable().defaultTo(knex.fn.now(3));
     t.timestamp("updated_at", { precision: 3 }).notNullable().defaultTo(knex.fn.now(3));

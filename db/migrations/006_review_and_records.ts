@@ -1,7 +1,9 @@
 import type { Knex } from "knex";
 
-const LOCKED = "SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'A countersigned checklist cannot be changed; record an amendment.'";
-const lockedChecklist = (column: string) => `EXISTS (SELECT 1 FROM job_checklists c WHERE c.id = ${column} AND c.state = 'countersigned')`;
+const LOCKED =
+  "SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'A countersigned checklist cannot be changed; record an amendment.'";
+const lockedChecklist = (column: string) =>
+  `EXISTS (SELECT 1 FROM job_checklists c WHERE c.id = ${column} AND c.state = 'countersigned')`;
 
 export async function up(knex: Knex) {
   await knex.schema.alterTable("job_checklists", (t) => {
@@ -35,7 +37,17 @@ export async function up(knex: Knex) {
     BEGIN IF OLD.state = 'countersigned' THEN ${LOCKED}; END IF; END`);
   await knex.raw(`CREATE TRIGGER job_checklists_kept BEFORE DELETE ON job_checklists FOR EACH ROW
     BEGIN IF OLD.state = 'countersigned' THEN ${LOCKED}; END IF; END`);
-  for (const [table, when] of [["checklist_responses", "INSERT"], ["checklist_responses", "UPDATE"], ["checklist_responses", "DELETE"], ["response_history", "INSERT"], ["response_history", "UPDATE"], ["response_history", "DELETE"], ["checklist_comments", "INSERT"], ["checklist_comments", "UPDATE"], ["checklist_comments", "DELETE"]] as const) {
+  for (const [table, when] of [
+    ["checklist_responses", "INSERT"],
+    ["checklist_responses", "UPDATE"],
+    ["checklist_responses", "DELETE"],
+    ["response_history", "INSERT"],
+    ["response_history", "UPDATE"],
+    ["response_history", "DELETE"],
+    ["checklist_comments", "INSERT"],
+    ["checklist_comments", "UPDATE"],
+    ["checklist_comments", "DELETE"],
+  ] as const) {
     const row = when === "DELETE" ? "OLD" : "NEW";
     await knex.raw(`CREATE TRIGGER ${table}_sealed_${when.toLowerCase()} BEFORE ${when} ON ${table} FOR EACH ROW
       BEGIN IF ${lockedChecklist(`${row}.checklist_id`)} THEN ${LOCKED}; END IF; END`);
@@ -63,7 +75,8 @@ export async function down(knex: Knex) {
   await knex.schema.dropTable("record_recipients");
   await knex.schema.dropTable("records");
   for (const table of ["checklist_responses", "response_history", "checklist_comments"]) {
-    for (const when of ["insert", "update", "delete"]) await knex.raw(`DROP TRIGGER IF EXISTS ${table}_sealed_${when}`);
+    for (const when of ["insert", "update", "delete"])
+      await knex.raw(`DROP TRIGGER IF EXISTS ${table}_sealed_${when}`);
   }
   await knex.raw("DROP TRIGGER IF EXISTS job_checklists_kept");
   await knex.raw("DROP TRIGGER IF EXISTS job_checklists_sealed");
@@ -76,6 +89,13 @@ export async function down(knex: Knex) {
     t.dropForeign(["amends_id"]);
     t.dropForeign(["submitted_by"]);
     t.dropForeign(["countersigned_by"]);
-    t.dropColumns("submitted_by", "submitted_at", "countersigned_by", "countersigned_at", "digest", "amends_id");
+    t.dropColumns(
+      "submitted_by",
+      "submitted_at",
+      "countersigned_by",
+      "countersigned_at",
+      "digest",
+      "amends_id",
+    );
   });
 }

@@ -17,12 +17,16 @@ export const sha256 = (text: string) => createHash("sha256").update(text).digest
  */
 export async function seedLibrary(knex: Knex, dir = LIBRARY_DIR): Promise<string> {
   const names = (await readdir(dir)).filter((n) => n.endsWith(".json")).sort();
-  const templates = await Promise.all(names.map(async (n) => loadTemplateFile(n, await readFile(path.join(dir, n), "utf8"))));
+  const templates = await Promise.all(
+    names.map(async (n) => loadTemplateFile(n, await readFile(path.join(dir, n), "utf8"))),
+  );
   let added = 0;
   await knex.transaction(async (trx) => {
     for (const template of templates) {
       const body = templateBody(template);
-      const existing = await trx("template_versions").where({ template_key: template.key, version: template.version }).first();
+      const existing = await trx("template_versions")
+        .where({ template_key: template.key, version: template.version })
+        .first();
       if (existing) {
         if (existing.body_sha256 !== sha256(body) && existing.status !== "draft") {
           throw new Error(

@@ -36,7 +36,9 @@ describe("the calculators on a tablet", () => {
     await page.getByLabel("Engine rpm", { exact: true }).fill("2800");
     await page.getByLabel("Gear ratio (e.g. 2.5 for 2.5 : 1)", { exact: true }).fill("1.96");
     // Not yet complete: the screen says what it is waiting for, and shows no number.
-    expect(await page.getByRole("region", { name: "Result" }).innerText()).toMatch(/Waiting for: Speed through the water/);
+    expect(await page.getByRole("region", { name: "Result" }).innerText()).toMatch(
+      /Waiting for: Speed through the water/,
+    );
     await page.getByLabel("Speed through the water", { exact: true }).fill("27");
 
     const expected = slipByHand(24, 2800, 1.96, 27);
@@ -48,10 +50,21 @@ describe("the calculators on a tablet", () => {
     };
     // The screen shows slip to 0.1 %, speed to 0.01 kn and shaft rpm to the nearest rpm.
     expect(Math.abs(reading(await slip.innerText(), "%") - expected.slipPercent)).toBeLessThanOrEqual(0.05);
-    expect(Math.abs(reading(await page.locator('[data-result="theoretical speed"]').innerText(), "kn") - expected.theoreticalKnots)).toBeLessThanOrEqual(0.005);
-    expect(Math.abs(reading(await page.locator('[data-result="shaft rpm"]').innerText(), "rpm") - expected.shaftRpm)).toBeLessThanOrEqual(0.5);
+    expect(
+      Math.abs(
+        reading(await page.locator('[data-result="theoretical speed"]').innerText(), "kn") -
+          expected.theoreticalKnots,
+      ),
+    ).toBeLessThanOrEqual(0.005);
+    expect(
+      Math.abs(
+        reading(await page.locator('[data-result="shaft rpm"]').innerText(), "rpm") - expected.shaftRpm,
+      ),
+    ).toBeLessThanOrEqual(0.5);
     // The rule and its source are on the screen; the diagram names the run and its slip.
-    expect(await page.getByTestId("calc-result").innerText()).toMatch(/Source: Gerr, Propeller Handbook, apparent slip/);
+    expect(await page.getByTestId("calc-result").innerText()).toMatch(
+      /Source: Gerr, Propeller Handbook, apparent slip/,
+    );
     expect(await page.getByTestId("calc-diagram").getByRole("img").locator("title").textContent()).toContain(
       `2800 rpm, 27 kn, slip ${expected.slipPercent.toFixed(1)}%`,
     );
@@ -61,13 +74,19 @@ describe("the calculators on a tablet", () => {
     await page.locator("#calc-gearRatio-error").waitFor();
     expect(await page.locator("#calc-gearRatio-error").innerText()).toMatch(/greater than zero/);
     expect(await page.locator('[data-result="slip"]').count()).toBe(0);
-    expect(await page.getByLabel("Gear ratio (e.g. 2.5 for 2.5 : 1)", { exact: true }).getAttribute("aria-invalid")).toBe("true");
+    expect(
+      await page
+        .getByLabel("Gear ratio (e.g. 2.5 for 2.5 : 1)", { exact: true })
+        .getAttribute("aria-invalid"),
+    ).toBe("true");
 
     // Readable on a tablet: nothing wider than the screen, touch targets at least 48 px high.
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(820);
     const pitch = await page.getByLabel("Propeller pitch", { exact: true }).boundingBox();
     expect(pitch!.height).toBeGreaterThanOrEqual(48);
-    expect(await page.getByLabel("Propeller pitch", { exact: true }).getAttribute("inputmode")).toBe("decimal");
+    expect(await page.getByLabel("Propeller pitch", { exact: true }).getAttribute("inputmode")).toBe(
+      "decimal",
+    );
     expectNoConsoleErrors(errors);
     await context.close();
   });
@@ -96,8 +115,13 @@ describe("the calculators on a tablet", () => {
     const page = await context.newPage();
     await signIn(page, "tech@kittiwake-slip.example");
     await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
-    await page.getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ }).click();
-    await page.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+    await page
+      .getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ })
+      .click();
+    await page
+      .getByTestId("offline-readiness")
+      .getByText(/Ready offline/)
+      .waitFor();
     await context.setOffline(true);
     const response = await page.goto("/calculators/propSlip");
     expect(response?.fromServiceWorker()).toBe(true);

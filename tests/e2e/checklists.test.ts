@@ -21,7 +21,9 @@ describe("starting and reading a job's checklists", () => {
     expect(await page.getByLabel(/Sea trial/).isChecked()).toBe(true);
     expect(await page.getByLabel(/Exhaust/).isChecked()).toBe(false);
     await page.getByRole("button", { name: "Start the ticked checklists" }).click();
-    await expect.poll(() => page.getByTestId("job-checklists").innerText()).toMatch(/Engine alignment[\s\S]*Version 1[\s\S]*Sea trial/);
+    await expect
+      .poll(() => page.getByTestId("job-checklists").innerText())
+      .toMatch(/Engine alignment[\s\S]*Version 1[\s\S]*Sea trial/);
     expectNoConsoleErrors(errors);
     await context.close();
 
@@ -32,11 +34,16 @@ describe("starting and reading a job's checklists", () => {
     await techPage.getByRole("link", { name: "Merrow" }).click();
     await techPage.getByRole("link", { name: "Engine alignment" }).click();
     await techPage.getByRole("heading", { level: 1, name: "Engine alignment" }).waitFor();
-    await techPage.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Final alignment afloat/ }).click();
+    await techPage
+      .getByRole("navigation", { name: "Sections" })
+      .getByRole("button", { name: /Final alignment afloat/ })
+      .click();
     const faceGaps = techPage.locator('[data-item="face-gaps"]');
     expect(await faceGaps.getByRole("note", { name: "Caution" }).innerText()).toMatch(/Isolate the engine/);
     expect(await faceGaps.innerText()).toMatch(/Accept:/);
-    expect(await techPage.getByRole("navigation", { name: "Sections" }).getByRole("button").count()).toBeGreaterThan(2);
+    expect(
+      await techPage.getByRole("navigation", { name: "Sections" }).getByRole("button").count(),
+    ).toBeGreaterThan(2);
     // Readable on a tablet: nothing wider than the screen.
     expect(await techPage.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(820);
     expectNoConsoleErrors(tech.errors);

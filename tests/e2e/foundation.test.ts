@@ -25,7 +25,9 @@ describe("signing in", () => {
       await signIn(page, person.email);
       const nav = page.getByRole("navigation", { name: "Main" });
       expect(await nav.getByRole("link").allInnerTexts()).toEqual(expectedNavigation[person.role]);
-      expect(await page.getByTestId("role").innerText()).toBe(person.role[0]!.toUpperCase() + person.role.slice(1));
+      expect(await page.getByTestId("role").innerText()).toBe(
+        person.role[0]!.toUpperCase() + person.role.slice(1),
+      );
       expectNoConsoleErrors(errors);
       await context.close();
     });

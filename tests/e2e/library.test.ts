@@ -14,12 +14,18 @@ beforeAll(async () => {
 afterAll(async () => {
   // Other files expect the starter library: whatever this test published is retired again.
   await knex?.("template_versions").where({ template_key: "engine-alignment", status: "draft" }).delete();
-  await knex?.("template_versions").where({ template_key: "engine-alignment", status: "published" }).where("version", ">", 1).update({ status: "retired", retired_at: new Date() });
+  await knex?.("template_versions")
+    .where({ template_key: "engine-alignment", status: "published" })
+    .where("version", ">", 1)
+    .update({ status: "retired", retired_at: new Date() });
   await knex?.destroy();
   await browser?.close();
 });
 
-const itemKeys = (page: Page, section: string) => page.locator(`[data-section-key="${section}"] [data-item-key]`).evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.itemKey));
+const itemKeys = (page: Page, section: string) =>
+  page
+    .locator(`[data-section-key="${section}"] [data-item-key]`)
+    .evaluateAll((els) => els.map((e) => (e as HTMLElement).dataset.itemKey));
 
 async function jobChecklists(page: Page, jobId: number) {
   await open(page, `/jobs/${jobId}`);
@@ -45,18 +51,28 @@ describe("keeping the template library current", () => {
     await page.keyboard.type("Coupling bolt torque");
     const item = final.locator('[data-item-key="coupling-bolt-torque"]');
     await item.getByLabel("Unit", { exact: true }).selectOption("lbfFt");
-    await item.getByLabel("How (hint)").fill("Torque the coupling bolts in a cross pattern, in two stages, to the coupling maker's figure.");
+    await item
+      .getByLabel("How (hint)")
+      .fill("Torque the coupling bolts in a cross pattern, in two stages, to the coupling maker's figure.");
     await item.getByLabel("Reference").fill("Coupling maker's installation instructions");
 
     // Limits the wrong way round are refused at the field, and nothing is saved.
     await item.getByLabel("Judge the reading against limits").check();
     await item.getByLabel("Minimum").fill("50");
     await item.getByLabel("Maximum").fill("45");
-    await expect.poll(() => item.locator('[data-path$="rule.min"]').innerText()).toMatch(/the minimum \(50\) is above the maximum \(45\)/);
+    await expect
+      .poll(() => item.locator('[data-path$="rule.min"]').innerText())
+      .toMatch(/the minimum \(50\) is above the maximum \(45\)/);
     await page.getByRole("button", { name: "Save draft" }).click();
     expect(await page.getByTestId("save-status").innerText()).toMatch(/1 problem to fix/);
-    const stored = await knex("template_versions").where({ template_key: "engine-alignment", version: 2 }).first();
-    expect(JSON.parse(stored.body).sections[2].items.some((i: { key: string }) => i.key === "coupling-bolt-torque")).toBe(false);
+    const stored = await knex("template_versions")
+      .where({ template_key: "engine-alignment", version: 2 })
+      .first();
+    expect(
+      JSON.parse(stored.body).sections[2].items.some(
+        (i: { key: string }) => i.key === "coupling-bolt-torque",
+      ),
+    ).toBe(false);
 
     // 40 ± 2 lbf·ft instead.
     await item.getByLabel("Minimum").fill("");
@@ -67,7 +83,10 @@ describe("keeping the template library current", () => {
 
     // Reordered by keyboard, then by dragging its handle onto the adjuster's threads per inch.
     await item.getByRole("button", { name: "Move “Coupling bolt torque” up" }).click();
-    expect((await itemKeys(page, "final-alignment")).slice(-2)).toEqual(["coupling-bolt-torque", "shaft-free-after"]);
+    expect((await itemKeys(page, "final-alignment")).slice(-2)).toEqual([
+      "coupling-bolt-torque",
+      "shaft-free-after",
+    ]);
     await item.getByRole("button", { name: /Coupling bolt torque/, expanded: true }).click();
     const handle = item.getByRole("button", { name: /drag/ });
     const target = final.locator('[data-item-key="adjuster-tpi"]');
@@ -78,7 +97,13 @@ describe("keeping the template library current", () => {
     await page.mouse.down();
     await page.mouse.move(to.x + to.width / 2, to.y + 6, { steps: 8 });
     await page.mouse.up();
-    expect((await itemKeys(page, "final-alignment")).slice(-5)).toEqual(["rear-mount-distance", "coupling-bolt-torque", "adjuster-tpi", "mount-moves", "shaft-free-after"]);
+    expect((await itemKeys(page, "final-alignment")).slice(-5)).toEqual([
+      "rear-mount-distance",
+      "coupling-bolt-torque",
+      "adjuster-tpi",
+      "mount-moves",
+      "shaft-free-after",
+    ]);
 
     await page.getByRole("button", { name: "Save and review" }).click();
     await page.waitForURL(/\/library\/engine-alignment\/2$/);
@@ -86,40 +111,68 @@ describe("keeping the template library current", () => {
 
     // The difference against version 1, item by item.
     const review = page.getByRole("region", { name: "Before you publish" });
-    expect(await review.getByTestId("diff-summary").innerText()).toMatch(/Version 1 → version 2: 1 added · 0 removed · 0 moved · 0 changed/);
+    expect(await review.getByTestId("diff-summary").innerText()).toMatch(
+      /Version 1 → version 2: 1 added · 0 removed · 0 moved · 0 changed/,
+    );
     const added = review.locator('[data-change="added"][data-item="coupling-bolt-torque"]');
-    expect(await added.innerText()).toMatch(/Added[\s\S]*Coupling bolt torque[\s\S]*In Final alignment afloat, place 10[\s\S]*Accept: 40 ± 2 lbf·ft/);
+    expect(await added.innerText()).toMatch(
+      /Added[\s\S]*Coupling bolt torque[\s\S]*In Final alignment afloat, place 10[\s\S]*Accept: 40 ± 2 lbf·ft/,
+    );
 
     await review.getByRole("button", { name: "Publish version 2…" }).click();
     expect(await review.innerText()).toMatch(/The \d+ jobs? on version 1 keeps? version 1\./);
     await review.getByRole("button", { name: "Publish version 2", exact: true }).click();
-    await expect.poll(() => page.locator('[data-status="published"]').first().innerText()).toMatch(/new jobs start here/);
-    await expect(knex("template_versions").where({ template_key: "engine-alignment", version: 2 }).update({ title: "Edited" })).rejects.toThrow(/cannot be changed/);
+    await expect
+      .poll(() => page.locator('[data-status="published"]').first().innerText())
+      .toMatch(/new jobs start here/);
+    await expect(
+      knex("template_versions")
+        .where({ template_key: "engine-alignment", version: 2 })
+        .update({ title: "Edited" }),
+    ).rejects.toThrow(/cannot be changed/);
 
     // A new job gets version 2; Tern of Helvick keeps version 1.
     const lead = await knex("users").where({ email: "lead@kittiwake-slip.example" }).first();
     const job = await makeJob(knex, lead.id);
     await open(page, `/jobs/${job.id}`);
     await page.getByRole("button", { name: "Start the ticked checklists" }).click();
-    await expect.poll(() => page.getByTestId("job-checklists").innerText()).toMatch(/Engine alignment\s*Version 2/);
-    const checklist = await knex("job_checklists as c").join("template_versions as t", "t.id", "c.template_version_id").where({ "c.job_id": job.id, "c.template_key": "engine-alignment" }).first("t.version");
+    await expect
+      .poll(() => page.getByTestId("job-checklists").innerText())
+      .toMatch(/Engine alignment\s*Version 2/);
+    const checklist = await knex("job_checklists as c")
+      .join("template_versions as t", "t.id", "c.template_version_id")
+      .where({ "c.job_id": job.id, "c.template_key": "engine-alignment" })
+      .first("t.version");
     expect(checklist.version).toBe(2);
 
-    const tern = await knex("jobs").join("vessels", "vessels.id", "jobs.vessel_id").where("vessels.name", "Tern of Helvick").first("jobs.id");
-    expect(await jobChecklists(page, tern.id)).toMatch(/Engine alignment\s*Version 1\s*Version 2 published since/);
+    const tern = await knex("jobs")
+      .join("vessels", "vessels.id", "jobs.vessel_id")
+      .where("vessels.name", "Tern of Helvick")
+      .first("jobs.id");
+    expect(await jobChecklists(page, tern.id)).toMatch(
+      /Engine alignment\s*Version 1\s*Version 2 published since/,
+    );
 
     await open(page, "/library");
-    expect(await alignment.getByTestId("newest-published").innerText()).toBe("New jobs start from version 2.");
-    expect(await alignment.locator('tr[data-version="1"]').innerText()).toMatch(/Published · superseded[\s\S]*\d+ jobs?[\s\S]*Tern of Helvick/);
+    expect(await alignment.getByTestId("newest-published").innerText()).toBe(
+      "New jobs start from version 2.",
+    );
+    expect(await alignment.locator('tr[data-version="1"]').innerText()).toMatch(
+      /Published · superseded[\s\S]*\d+ jobs?[\s\S]*Tern of Helvick/,
+    );
 
     // Retiring version 2 sends new jobs back to version 1 (and leaves the demo library as it was).
     await open(page, "/library/engine-alignment/2");
     await page.getByRole("button", { name: "Retire version 2…" }).click();
-    expect(await page.getByRole("group", { name: "Retire version 2…" }).innerText()).toMatch(/New jobs will start from version 1 again/);
+    expect(await page.getByRole("group", { name: "Retire version 2…" }).innerText()).toMatch(
+      /New jobs will start from version 1 again/,
+    );
     await page.getByRole("button", { name: "Retire version 2", exact: true }).click();
     await expect.poll(() => page.locator('[data-status="retired"]').count()).toBe(1);
     await open(page, "/library");
-    expect(await alignment.getByTestId("newest-published").innerText()).toBe("New jobs start from version 1.");
+    expect(await alignment.getByTestId("newest-published").innerText()).toBe(
+      "New jobs start from version 1.",
+    );
 
     expectNoConsoleErrors(errors);
     await context.close();

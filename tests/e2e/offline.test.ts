@@ -18,12 +18,18 @@ const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 async function goOfflineReady(page: Page) {
   await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
   await page.getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ }).click();
-  await page.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+  await page
+    .getByTestId("offline-readiness")
+    .getByText(/Ready offline/)
+    .waitFor();
 }
 
 async function openChecklist(page: Page, title: string) {
   await page.getByRole("link", { name: "Today" }).click();
-  await page.getByRole("link", { name: new RegExp(`^${title}`) }).first().click();
+  await page
+    .getByRole("link", { name: new RegExp(`^${title}`) })
+    .first()
+    .click();
   await page.getByRole("heading", { level: 1, name: title }).waitFor();
 }
 
@@ -51,13 +57,19 @@ describe("working with no connection", () => {
 
     await context.setOffline(true);
     await openChecklist(page, "Engine alignment");
-    await page.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Final alignment afloat/ }).click();
+    await page
+      .getByRole("navigation", { name: "Sections" })
+      .getByRole("button", { name: /Final alignment afloat/ })
+      .click();
 
     // measure: two attempts, both kept
     const afloat = item(page, "time-afloat");
     await afloat.getByLabel("Reading").fill("twenty");
     await afloat.getByRole("button", { name: "Record reading" }).click();
-    await afloat.getByRole("alert").getByText(/as a number/).waitFor();
+    await afloat
+      .getByRole("alert")
+      .getByText(/as a number/)
+      .waitFor();
     await afloat.getByLabel("Reading").fill("20");
     await afloat.getByRole("button", { name: "Record reading" }).click();
     await afloat.locator('[data-verdict="out-of-range"]').waitFor();
@@ -78,7 +90,10 @@ describe("working with no connection", () => {
     await gaps.getByLabel(/Bottom/).fill("0.010");
     await gaps.getByLabel(/Port/).fill("0.011");
     await gaps.getByRole("button", { name: "Record readings" }).click();
-    await gaps.getByRole("alert").getByText(/Fill every cell/).waitFor();
+    await gaps
+      .getByRole("alert")
+      .getByText(/Fill every cell/)
+      .waitFor();
     await gaps.getByLabel(/Starboard/).fill("0.011");
     await gaps.getByRole("button", { name: "Record readings" }).click();
     await gaps.locator('[data-verdict="ok"]').waitFor();
@@ -87,12 +102,23 @@ describe("working with no connection", () => {
 
     // choice and initials on another checklist
     await openChecklist(page, "Cooling");
-    await page.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Raw-water pump flow/ }).click();
-    await item(page, "flow-against-maker").getByRole("button", { name: "At or above the maker's figure" }).click();
-    await page.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Temperatures under load/ }).click();
+    await page
+      .getByRole("navigation", { name: "Sections" })
+      .getByRole("button", { name: /Raw-water pump flow/ })
+      .click();
+    await item(page, "flow-against-maker")
+      .getByRole("button", { name: "At or above the maker's figure" })
+      .click();
+    await page
+      .getByRole("navigation", { name: "Sections" })
+      .getByRole("button", { name: /Temperatures under load/ })
+      .click();
     await item(page, "cooling-done").getByLabel("Your initials").fill("ta");
     await item(page, "cooling-done").getByRole("button", { name: "Confirm" }).click();
-    await item(page, "cooling-done").getByText(/Confirmed by TA/).first().waitFor();
+    await item(page, "cooling-done")
+      .getByText(/Confirmed by TA/)
+      .first()
+      .waitFor();
 
     // text on a third
     await openChecklist(page, "Sea trial");
@@ -112,17 +138,24 @@ describe("working with no connection", () => {
     expect(reloaded?.fromServiceWorker()).toBe(true);
     await hydrated(again);
     await openChecklist(again, "Engine alignment");
-    await again.getByRole("navigation", { name: "Sections" }).getByRole("button", { name: /Final alignment afloat/ }).click();
+    await again
+      .getByRole("navigation", { name: "Sections" })
+      .getByRole("button", { name: /Final alignment afloat/ })
+      .click();
     expect(await item(again, "time-afloat").getByTestId("attempts").locator("tr").count()).toBe(2);
     await item(again, "face-angularity").locator('[data-verdict="ok"]').waitFor();
 
     // The connection returns: everything reaches the server, once.
     await context.setOffline(false);
-    await expect.poll(() => again.getByTestId("waiting").innerText(), { timeout: 20_000 }).toBe("All entries sent");
+    await expect
+      .poll(() => again.getByTestId("waiting").innerText(), { timeout: 20_000 })
+      .toBe("All entries sent");
     const afloatOnServer = await response("Engine alignment", "time-afloat");
     expect(afloatOnServer?.value.attempts.map((a: any) => a.value)).toEqual([20, 26]);
     expect(afloatOnServer?.rev).toBe(2);
-    expect((await response("Engine alignment", "face-gaps"))?.value.attempts[0].cells).toEqual([[0.012, 0.01, 0.011, 0.011]]);
+    expect((await response("Engine alignment", "face-gaps"))?.value.attempts[0].cells).toEqual([
+      [0.012, 0.01, 0.011, 0.011],
+    ]);
     expect((await response("Engine alignment", "usual-trim"))?.value).toEqual({ result: "pass" });
     expect((await response("Cooling", "flow-against-maker"))?.value.option).toBeTruthy();
     expect((await response("Cooling", "cooling-done"))?.value.initials).toBe("TA");
@@ -145,16 +178,23 @@ describe("working with no connection", () => {
     await techTablet.context.setOffline(true);
     await leadTablet.context.setOffline(true);
 
-    for (const [page, button] of [[tech, "✓ Pass"], [lead, "✕ Fail"]] as const) {
+    for (const [page, button] of [
+      [tech, "✓ Pass"],
+      [lead, "✕ Fail"],
+    ] as const) {
       await openChecklist(page, "Cooling");
       await item(page, "seacock").getByRole("button", { name: button }).click();
       await item(page, "seacock").getByTestId("pending").waitFor();
     }
 
     await techTablet.context.setOffline(false);
-    await expect.poll(() => tech.getByTestId("waiting").innerText(), { timeout: 20_000 }).toBe("All entries sent");
+    await expect
+      .poll(() => tech.getByTestId("waiting").innerText(), { timeout: 20_000 })
+      .toBe("All entries sent");
     await leadTablet.context.setOffline(false);
-    await expect.poll(() => lead.getByTestId("waiting").innerText(), { timeout: 20_000 }).toBe("All entries sent");
+    await expect
+      .poll(() => lead.getByTestId("waiting").innerText(), { timeout: 20_000 })
+      .toBe("All entries sent");
     await lead.getByTestId("conflict-badge").click();
     const conflict = lead.getByTestId("conflict").first();
     await conflict.waitFor();
@@ -165,7 +205,9 @@ describe("working with no connection", () => {
 
     await conflict.getByRole("button", { name: "Use the value that was sent" }).click();
     await lead.getByTestId("nothing-to-decide").waitFor();
-    await expect.poll(async () => (await response("Cooling", "seacock"))?.value, { timeout: 20_000 }).toEqual({ result: "fail" });
+    await expect
+      .poll(async () => (await response("Cooling", "seacock"))?.value, { timeout: 20_000 })
+      .toEqual({ result: "fail" });
     const row = await knex("sync_conflicts").where({ item_key: "seacock" }).first();
     expect(row.resolved_at).not.toBeNull();
     await techTablet.context.close();

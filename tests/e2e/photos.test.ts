@@ -21,7 +21,10 @@ const sha256 = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest(
 async function goOfflineReady(page: Page) {
   await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
   await page.getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ }).click();
-  await page.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+  await page
+    .getByTestId("offline-readiness")
+    .getByText(/Ready offline/)
+    .waitFor();
 }
 
 async function openAlignmentPhotos(page: Page): Promise<Locator> {
@@ -36,7 +39,9 @@ async function openAlignmentPhotos(page: Page): Promise<Locator> {
 /** Every thumbnail of the item has loaded a picture (not just its alt text). */
 async function picturesShown(item: Locator): Promise<number> {
   const images = item.getByTestId("photo").locator("img");
-  const sizes = await images.evaluateAll((all) => all.map((img) => ((img as HTMLImageElement).complete ? (img as HTMLImageElement).naturalWidth : 0)));
+  const sizes = await images.evaluateAll((all) =>
+    all.map((img) => ((img as HTMLImageElement).complete ? (img as HTMLImageElement).naturalWidth : 0)),
+  );
   return sizes.filter((w) => w > 0).length;
 }
 
@@ -45,7 +50,11 @@ async function alignmentPhotoValue() {
     .join("job_checklists as c", "c.id", "r.checklist_id")
     .join("jobs as j", "j.id", "c.job_id")
     .join("vessels as v", "v.id", "j.vessel_id")
-    .where({ "v.name": "Tern of Helvick", "c.template_key": "engine-alignment", "r.item_key": "alignment-photo" })
+    .where({
+      "v.name": "Tern of Helvick",
+      "c.template_key": "engine-alignment",
+      "r.item_key": "alignment-photo",
+    })
     .first("r.value");
   return row ? (parse(row.value) as { photos: { id: string; sha256: string }[] }) : undefined;
 }
@@ -73,18 +82,27 @@ describe("photos taken with no connection", () => {
 
     await tablet.context.setOffline(true);
     const photos = await openAlignmentPhotos(page);
-    await photos.getByLabel("Take or add a photo").setInputFiles({ name: "coupling.png", mimeType: "image/png", buffer: png });
+    await photos
+      .getByLabel("Take or add a photo")
+      .setInputFiles({ name: "coupling.png", mimeType: "image/png", buffer: png });
     await photos.getByTestId("photo-count").getByText("1 photo · at least 1 needed").waitFor();
-    await photos.getByLabel("Take or add another photo").setInputFiles({ name: "mount.jpg", mimeType: "image/jpeg", buffer: jpeg });
+    await photos
+      .getByLabel("Take or add another photo")
+      .setInputFiles({ name: "mount.jpg", mimeType: "image/jpeg", buffer: jpeg });
     await photos.getByTestId("photo-count").getByText("2 photos · at least 1 needed").waitFor();
     // A third, taken by mistake and removed again before submitting.
-    await photos.getByLabel("Take or add another photo").setInputFiles({ name: "blurred.png", mimeType: "image/png", buffer: gradientPng(60, 40, 9) });
+    await photos
+      .getByLabel("Take or add another photo")
+      .setInputFiles({ name: "blurred.png", mimeType: "image/png", buffer: gradientPng(60, 40, 9) });
     await photos.getByTestId("photo-count").getByText("3 photos · at least 1 needed").waitFor();
     await photos.getByRole("button", { name: "Remove photo 3" }).click();
     await photos.getByRole("button", { name: "Remove it" }).click();
     await photos.getByTestId("photo-count").getByText("2 photos · at least 1 needed").waitFor();
     await expect.poll(() => picturesShown(photos)).toBe(2);
-    expect(await photos.getByTestId("photo-state").allInnerTexts()).toEqual(["On this tablet · waiting to send", "On this tablet · waiting to send"]);
+    expect(await photos.getByTestId("photo-state").allInnerTexts()).toEqual([
+      "On this tablet · waiting to send",
+      "On this tablet · waiting to send",
+    ]);
     expect(await alignmentPhotoValue()).toBeUndefined();
 
     // Close the tab and open the app again, still offline: the photos come from the tablet.
@@ -97,8 +115,12 @@ describe("photos taken with no connection", () => {
 
     // The connection returns: the entry goes first, then both photos, and the tablet says so.
     await tablet.context.setOffline(false);
-    await expect.poll(() => again.getByTestId("waiting").innerText(), { timeout: 20_000 }).toBe("All entries sent");
-    await expect.poll(() => reopened.getByTestId("photo-state").allInnerTexts(), { timeout: 20_000 }).toEqual(["Sent", "Sent"]);
+    await expect
+      .poll(() => again.getByTestId("waiting").innerText(), { timeout: 20_000 })
+      .toBe("All entries sent");
+    await expect
+      .poll(() => reopened.getByTestId("photo-state").allInnerTexts(), { timeout: 20_000 })
+      .toEqual(["Sent", "Sent"]);
     const value = await alignmentPhotoValue();
     expect(value?.photos).toHaveLength(2);
     for (const photo of value!.photos) {
@@ -110,12 +132,30 @@ describe("photos taken with no connection", () => {
       expect((await knex("photos").where({ id: photo.id }).first("sha256"))?.sha256).toBe(photo.sha256);
     }
     // The removed photo reaches the store too: the item's history lists it.
-    const history = await knex("response_history as h").join("job_checklists as c", "c.id", "h.checklist_id")
-      .join("jobs as j", "j.id", "c.job_id").join("vessels as v", "v.id", "j.vessel_id")
-      .where({ "v.name": "Tern of Helvick", "c.template_key": "engine-alignment", "h.item_key": "alignment-photo" }).pluck("h.value");
-    const everListed = new Set(history.flatMap((v) => (parse(v) as { photos: { id: string }[] }).photos.map((p) => p.id)));
+    const history = await knex("response_history as h")
+      .join("job_checklists as c", "c.id", "h.checklist_id")
+      .join("jobs as j", "j.id", "c.job_id")
+      .join("vessels as v", "v.id", "j.vessel_id")
+      .where({
+        "v.name": "Tern of Helvick",
+        "c.template_key": "engine-alignment",
+        "h.item_key": "alignment-photo",
+      })
+      .pluck("h.value");
+    const everListed = new Set(
+      history.flatMap((v) => (parse(v) as { photos: { id: string }[] }).photos.map((p) => p.id)),
+    );
     expect(everListed.size).toBe(3);
-    await expect.poll(() => knex("photos").whereIn("id", [...everListed]).count({ n: "*" }).then(([r]) => Number(r!.n)), { timeout: 20_000 }).toBe(3);
+    await expect
+      .poll(
+        () =>
+          knex("photos")
+            .whereIn("id", [...everListed])
+            .count({ n: "*" })
+            .then(([r]) => Number(r!.n)),
+        { timeout: 20_000 },
+      )
+      .toBe(3);
     // After the confirmation the small copy still shows the photos on this tablet.
     await again.reload();
     await hydrated(again);
@@ -131,7 +171,10 @@ describe("photos taken with no connection", () => {
     const seen = await openAlignmentPhotos(lead);
     await seen.getByTestId("photo-count").getByText("2 photos · at least 1 needed").waitFor();
     await expect.poll(() => picturesShown(seen)).toBe(2);
-    const sources = await seen.getByTestId("photo").locator("img").evaluateAll((all) => all.map((img) => img.getAttribute("src")));
+    const sources = await seen
+      .getByTestId("photo")
+      .locator("img")
+      .evaluateAll((all) => all.map((img) => img.getAttribute("src")));
     expect(sources).toEqual(value!.photos.map((p) => `/api/photos/${p.id}`));
     expectNoConsoleErrors(leadTablet.errors);
     await leadTablet.context.close();

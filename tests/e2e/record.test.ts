@@ -16,29 +16,82 @@ let jobId: number;
 
 // A short checklist for this test only, so the whole path fits in one run.
 const template = {
-  key: "handover-check", version: 1, title: "Handover check", purpose: "A short end-to-end checklist.",
-  sections: [{ key: "main", title: "Main", items: [
-    { kind: "check", key: "bilge-dry", label: "Bilge dry after the run", required: true },
-    { kind: "measure", key: "face-runout", label: "Coupling face runout after facing", unit: "in", accepts: ["in", "mm"], rule: { max: 0.002, unit: "in" }, required: true },
-    { kind: "text", key: "remarks", label: "Remarks", required: true },
-  ] }],
+  key: "handover-check",
+  version: 1,
+  title: "Handover check",
+  purpose: "A short end-to-end checklist.",
+  sections: [
+    {
+      key: "main",
+      title: "Main",
+      items: [
+        { kind: "check", key: "bilge-dry", label: "Bilge dry after the run", required: true },
+        {
+          kind: "measure",
+          key: "face-runout",
+          label: "Coupling face runout after facing",
+          unit: "in",
+          accepts: ["in", "mm"],
+          rule: { max: 0.002, unit: "in" },
+          required: true,
+        },
+        { kind: "text", key: "remarks", label: "Remarks", required: true },
+      ],
+    },
+  ],
 };
 
 beforeAll(async () => {
   browser = await launch();
   const body = JSON.stringify(template);
-  const [versionId] = await knex("template_versions").insert({ template_key: template.key, version: 1, status: "published", title: template.title, body, body_sha256: sha256(body), published_at: new Date() });
+  const [versionId] = await knex("template_versions").insert({
+    template_key: template.key,
+    version: 1,
+    status: "published",
+    title: template.title,
+    body,
+    body_sha256: sha256(body),
+    published_at: new Date(),
+  });
   const lead = await knex("users").where({ email: "lead2@kittiwake-slip.example" }).first();
   const tech = await knex("users").where({ email: "tech2@kittiwake-slip.example" }).first();
   // A hull of its own, so other tests' "Merrow" and "Tern of Helvick" links stay unique.
-  const [vesselId] = await knex("vessels").insert({ name: "Fulmar Rock", hin: null, length_value: 28, length_unit: "ft", length_m: 8.534, hull_type: "displacement", owner_name: "Ines Mallory" });
+  const [vesselId] = await knex("vessels").insert({
+    name: "Fulmar Rock",
+    hin: null,
+    length_value: 28,
+    length_unit: "ft",
+    length_m: 8.534,
+    hull_type: "displacement",
+    owner_name: "Ines Mallory",
+  });
   const vessel = { id: vesselId };
   [jobId] = await knex("jobs").insert({
-    vessel_id: vessel.id, scope: "realignment", status: "underway", engine_model: "R4-110 diesel", engine_serial: "R4N-E2E", rated_power_hp: 110, rated_rpm_min: 2500,
-    rated_rpm_max: 2600, gear_ratio: 2.5, prop_diameter_in: 20, prop_pitch_in: 14, prop_blades: 3, shaft_diameter_in: 1.25, shaft_material: "316 stainless", coupling_type: "Solid", lead_id: lead.id,
+    vessel_id: vessel.id,
+    scope: "realignment",
+    status: "underway",
+    engine_model: "R4-110 diesel",
+    engine_serial: "R4N-E2E",
+    rated_power_hp: 110,
+    rated_rpm_min: 2500,
+    rated_rpm_max: 2600,
+    gear_ratio: 2.5,
+    prop_diameter_in: 20,
+    prop_pitch_in: 14,
+    prop_blades: 3,
+    shaft_diameter_in: 1.25,
+    shaft_material: "316 stainless",
+    coupling_type: "Solid",
+    lead_id: lead.id,
   });
   await knex("job_technicians").insert({ job_id: jobId, user_id: tech.id });
-  await knex("job_checklists").insert({ id: randomUUID(), job_id: jobId, template_version_id: versionId, template_key: template.key, started_by: lead.id });
+  await knex("job_checklists").insert({
+    id: randomUUID(),
+    job_id: jobId,
+    template_version_id: versionId,
+    template_key: template.key,
+    started_by: lead.id,
+  });
 });
 afterAll(async () => {
   await browser?.close();
@@ -55,7 +108,10 @@ describe("from submission to the surveyor's verified PDF", () => {
     const techPage = await tech.context.newPage();
     await signIn(techPage, "tech2@kittiwake-slip.example");
     await techPage.getByRole("button", { name: /Make my jobs available offline/ }).click();
-    await techPage.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+    await techPage
+      .getByTestId("offline-readiness")
+      .getByText(/Ready offline/)
+      .waitFor();
     await techPage.getByRole("link", { name: /^Handover check/ }).click();
     await techPage.getByRole("heading", { level: 1, name: "Handover check" }).waitFor();
     expect(await techPage.getByTestId("submit-panel").innerText()).toMatch(/Bilge dry after the run/);
@@ -75,7 +131,9 @@ describe("from submission to the surveyor's verified PDF", () => {
     await open(leadPage, `/jobs/${jobId}`);
     await leadPage.getByRole("link", { name: "Review" }).click();
     await leadPage.getByRole("heading", { name: /Review: Handover check/ }).waitFor();
-    await item(leadPage, "remarks").getByLabel("Comment on this item").fill("Say which bolts and the torque used");
+    await item(leadPage, "remarks")
+      .getByLabel("Comment on this item")
+      .fill("Say which bolts and the torque used");
     await item(leadPage, "remarks").getByRole("button", { name: "Add comment" }).click();
     await item(leadPage, "remarks").getByTestId("review-comment").waitFor();
     await leadPage.getByRole("button", { name: /Return to the technician/ }).click();
@@ -85,19 +143,31 @@ describe("from submission to the surveyor's verified PDF", () => {
     // The technician sees the comment at the item, fixes it and submits again.
     await open(techPage, "/");
     await techPage.getByRole("button", { name: /Refresh the offline copy/ }).click();
-    await techPage.getByTestId("offline-readiness").getByText(/Ready offline/).waitFor();
+    await techPage
+      .getByTestId("offline-readiness")
+      .getByText(/Ready offline/)
+      .waitFor();
     await techPage.getByRole("link", { name: /^Handover check/ }).click();
-    await item(techPage, "remarks").getByTestId("review-comment").getByText(/torque used/).waitFor();
+    await item(techPage, "remarks")
+      .getByTestId("review-comment")
+      .getByText(/torque used/)
+      .waitFor();
     await item(techPage, "remarks").getByRole("textbox").fill("Couplings faced; four M12 bolts at 85 N·m");
     await item(techPage, "remarks").getByRole("button", { name: "Save" }).click();
     await techPage.getByRole("button", { name: "Submit for review" }).click();
     await expect.poll(state, { timeout: 20_000 }).toBe("submitted");
 
     // The lead countersigns with the password (a wrong one is refused first).
-    await open(leadPage, `/checklists/${(await knex("job_checklists").where({ job_id: jobId }).first()).id}/review`);
+    await open(
+      leadPage,
+      `/checklists/${(await knex("job_checklists").where({ job_id: jobId }).first()).id}/review`,
+    );
     await leadPage.getByLabel("Your password, to countersign").fill("not-my-password");
     await leadPage.getByRole("button", { name: "Countersign and lock" }).click();
-    await leadPage.getByRole("alert").getByText(/password is not right/).waitFor();
+    await leadPage
+      .getByRole("alert")
+      .getByText(/password is not right/)
+      .waitFor();
     await leadPage.getByLabel("Your password, to countersign").fill("slipway-demo-2026");
     await leadPage.getByRole("button", { name: "Countersign and lock" }).click();
     await leadPage.waitForURL(new RegExp(`/jobs/${jobId}$`));
@@ -113,10 +183,16 @@ describe("from submission to the surveyor's verified PDF", () => {
     const surveyorEmail = `surveyor.${Date.now()}@harbourmark-survey.example`;
     await managerPage.getByLabel("Surveyors' e-mail addresses").fill("not an address");
     await managerPage.getByRole("button", { name: "Issue the record" }).click();
-    await managerPage.getByRole("alert").getByText(/not an e-mail address/).waitFor();
+    await managerPage
+      .getByRole("alert")
+      .getByText(/not an e-mail address/)
+      .waitFor();
     await managerPage.getByLabel("Surveyors' e-mail addresses").fill(surveyorEmail);
     await managerPage.getByRole("button", { name: "Issue the record" }).click();
-    await managerPage.getByRole("status").getByText(/Record issued/).waitFor();
+    await managerPage
+      .getByRole("status")
+      .getByText(/Record issued/)
+      .waitFor();
 
     // The e-mail arrives with the links; the surveyor sets a password and reads the record.
     const mail = await waitForMail(surveyorEmail);
@@ -132,7 +208,10 @@ describe("from submission to the surveyor's verified PDF", () => {
     await surveyorPage.waitForURL(/\/login/);
     await signIn(surveyorPage, surveyorEmail, "surveyor-password-1");
     await open(surveyorPage, new URL(recordUrl).pathname);
-    await surveyorPage.getByTestId("record-checklist").getByText(/countersigned by/).waitFor();
+    await surveyorPage
+      .getByTestId("record-checklist")
+      .getByText(/countersigned by/)
+      .waitFor();
     // Everything else stays closed to the surveyor.
     expect((await surveyorPage.request.get(`/jobs/${jobId}`)).status()).toBe(403);
     expect((await surveyorPage.request.get(`/checklists/${signed.id}`)).status()).toBe(403);
@@ -153,7 +232,9 @@ describe("from submission to the surveyor's verified PDF", () => {
     expect(await visitor.getByTestId("verdict").innerText()).toMatch(/Genuine and unchanged/);
     expect(await visitor.locator("main").innerText()).not.toContain("R4N-E2E");
     const stored = await knex("records").where({ job_id: jobId }).first();
-    await knex("records").where({ id: stored.id }).update({ content: stored.content.replace("0.0015", "0.0009") });
+    await knex("records")
+      .where({ id: stored.id })
+      .update({ content: stored.content.replace("0.0015", "0.0009") });
     await open(visitor, new URL(verifyUrl).pathname);
     expect(await visitor.getByTestId("verdict").innerText()).toMatch(/Changed/);
     await knex("records").where({ id: stored.id }).update({ content: stored.content });

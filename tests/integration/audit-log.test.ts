@@ -16,39 +16,108 @@ const bowTablet = `tablet-bow-${run}`;
 const sternTablet = `tablet-stern-${run}`;
 const checklistId = randomUUID();
 const recordId = `rec-${run}`;
-let manager: Awaited<ReturnType<typeof makeUser>>, lead: typeof manager, tech: typeof manager, surveyor: typeof manager;
+let manager: Awaited<ReturnType<typeof makeUser>>,
+  lead: typeof manager,
+  tech: typeof manager,
+  surveyor: typeof manager;
 let job: { id: number; vesselId: number };
 const ids: Record<string, number> = {};
 
 const page = (params: Record<string, string | number>, pageSize?: number) =>
-  listAuditEntries(auditFiltersSchema.parse(Object.fromEntries(Object.entries(params).map(([k, v]) => [k, String(v)]))), pageSize);
+  listAuditEntries(
+    auditFiltersSchema.parse(Object.fromEntries(Object.entries(params).map(([k, v]) => [k, String(v)]))),
+    pageSize,
+  );
 
 async function write(name: string, entry: Parameters<typeof audit>[0]) {
   await audit(entry);
-  ids[name] = Number((await knex("audit_log").max({ id: "id" }).where({ action: entry.action, entity_id: String(entry.entityId) }))[0]!.id);
+  ids[name] = Number(
+    (
+      await knex("audit_log")
+        .max({ id: "id" })
+        .where({ action: entry.action, entity_id: String(entry.entityId) })
+    )[0]!.id,
+  );
 }
 
 beforeAll(async () => {
-  [manager, lead, tech, surveyor] = [await makeUser(knex, "manager"), await makeUser(knex, "lead"), await makeUser(knex, "technician"), await makeUser(knex, "surveyor")];
+  [manager, lead, tech, surveyor] = [
+    await makeUser(knex, "manager"),
+    await makeUser(knex, "lead"),
+    await makeUser(knex, "technician"),
+    await makeUser(knex, "surveyor"),
+  ];
   job = await makeJob(knex, lead.id, [tech.id]);
-  await write("started", { userId: lead.id, deviceId: bowTablet, action: "checklist.started", entity: "checklist", entityId: checklistId, detail: { jobId: job.id, key: "cooling", version: 1 } });
-  await write("submitted1", { userId: tech.id, deviceId: sternTablet, action: "checklist.submitted", entity: "checklist", entityId: checklistId });
-  await write("returned", { userId: lead.id, deviceId: bowTablet, action: "checklist.returned", entity: "checklist", entityId: checklistId, detail: { comments: 2 } });
-  await write("submitted2", { userId: tech.id, deviceId: sternTablet, action: "checklist.submitted", entity: "checklist", entityId: checklistId });
-  await write("countersigned", { userId: lead.id, deviceId: bowTablet, action: "checklist.countersigned", entity: "checklist", entityId: checklistId, detail: { digest: "9f2c" } });
-  await write("issued", { userId: manager.id, action: "record.issued", entity: "record", entityId: recordId, detail: { to: ["surveyor@test.example"], sent: true } });
-  await write("viewed", { userId: surveyor.id, action: "record.viewed", entity: "record", entityId: recordId });
+  await write("started", {
+    userId: lead.id,
+    deviceId: bowTablet,
+    action: "checklist.started",
+    entity: "checklist",
+    entityId: checklistId,
+    detail: { jobId: job.id, key: "cooling", version: 1 },
+  });
+  await write("submitted1", {
+    userId: tech.id,
+    deviceId: sternTablet,
+    action: "checklist.submitted",
+    entity: "checklist",
+    entityId: checklistId,
+  });
+  await write("returned", {
+    userId: lead.id,
+    deviceId: bowTablet,
+    action: "checklist.returned",
+    entity: "checklist",
+    entityId: checklistId,
+    detail: { comments: 2 },
+  });
+  await write("submitted2", {
+    userId: tech.id,
+    deviceId: sternTablet,
+    action: "checklist.submitted",
+    entity: "checklist",
+    entityId: checklistId,
+  });
+  await write("countersigned", {
+    userId: lead.id,
+    deviceId: bowTablet,
+    action: "checklist.countersigned",
+    entity: "checklist",
+    entityId: checklistId,
+    detail: { digest: "9f2c" },
+  });
+  await write("issued", {
+    userId: manager.id,
+    action: "record.issued",
+    entity: "record",
+    entityId: recordId,
+    detail: { to: ["surveyor@test.example"], sent: true },
+  });
+  await write("viewed", {
+    userId: surveyor.id,
+    action: "record.viewed",
+    entity: "record",
+    entityId: recordId,
+  });
   await write("jobUpdated", { userId: manager.id, action: "job.updated", entity: "job", entityId: job.id });
-  await write("vesselUpdated", { userId: manager.id, action: "vessel.updated", entity: "vessel", entityId: job.vesselId });
+  await write("vesselUpdated", {
+    userId: manager.id,
+    action: "vessel.updated",
+    entity: "vessel",
+    entityId: job.vesselId,
+  });
 });
 
 /** The rendered table alone: the filter's action list names every action too. */
-const tableOf = (html: string) => html.slice(html.indexOf('data-testid="audit-table"'), html.indexOf("</table>"));
+const tableOf = (html: string) =>
+  html.slice(html.indexOf('data-testid="audit-table"'), html.indexOf("</table>"));
 const shown = (result: { entries: { id: number }[] }) => result.entries.map((e) => e.id);
 
 describe("the audit log query", () => {
   it("gives an entry with its person, device, link and readable detail", async () => {
-    const [started] = (await page({ action: "checklist.started", entity: "checklist", entityId: checklistId })).entries;
+    const [started] = (
+      await page({ action: "checklist.started", entity: "checklist", entityId: checklistId })
+    ).entries;
     expect(started).toMatchObject({
       id: ids.started,
       who: { id: lead.id, name: lead.name, role: "lead" },
@@ -59,21 +128,37 @@ describe("the audit log query", () => {
     expect(Date.parse(started!.at)).not.toBeNaN();
     const [jobEntry] = (await page({ entity: "job", entityId: job.id })).entries;
     expect(jobEntry).toMatchObject({ href: `/jobs/${job.id}`, detail: null });
-    expect((await page({ entity: "vessel", entityId: job.vesselId })).entries[0]?.href).toBe(`/vessels/${job.vesselId}`);
+    expect((await page({ entity: "vessel", entityId: job.vesselId })).entries[0]?.href).toBe(
+      `/vessels/${job.vesselId}`,
+    );
     const [issued] = (await page({ action: "record.issued", entity: "record", entityId: recordId })).entries;
-    expect(issued).toMatchObject({ href: null, deviceId: null, detail: "to: surveyor@test.example · sent: yes" });
+    expect(issued).toMatchObject({
+      href: null,
+      deviceId: null,
+      detail: "to: surveyor@test.example · sent: yes",
+    });
   });
 
   it("filters by one action and by a family of actions, newest first", async () => {
-    expect(shown(await page({ action: "checklist.submitted", entity: "checklist", entityId: checklistId }))).toEqual([ids.submitted2, ids.submitted1]);
-    expect(shown(await page({ action: "checklist.", person: lead.id }))).toEqual([ids.countersigned, ids.returned, ids.started]);
+    expect(
+      shown(await page({ action: "checklist.submitted", entity: "checklist", entityId: checklistId })),
+    ).toEqual([ids.submitted2, ids.submitted1]);
+    expect(shown(await page({ action: "checklist.", person: lead.id }))).toEqual([
+      ids.countersigned,
+      ids.returned,
+      ids.started,
+    ]);
     // An underscore in the family is a letter, not LIKE's any-character wildcard.
     expect(shown(await page({ action: "checklis_.", person: lead.id }))).toEqual([]);
   });
 
   it("filters by person, by thing and by device", async () => {
     expect(shown(await page({ person: tech.id }))).toEqual([ids.submitted2, ids.submitted1]);
-    expect(shown(await page({ person: manager.id }))).toEqual([ids.vesselUpdated, ids.jobUpdated, ids.issued]);
+    expect(shown(await page({ person: manager.id }))).toEqual([
+      ids.vesselUpdated,
+      ids.jobUpdated,
+      ids.issued,
+    ]);
     expect(shown(await page({ entity: "record", entityId: recordId }))).toEqual([ids.viewed, ids.issued]);
     expect(shown(await page({ entity: "checklist", entityId: recordId }))).toEqual([]);
     expect(shown(await page({ device: bowTablet }))).toEqual([ids.countersigned, ids.returned, ids.started]);
@@ -81,13 +166,27 @@ describe("the audit log query", () => {
   });
 
   it("filters by whole days in the reader's time zone", async () => {
-    const at = { started: "2026-03-01T12:00:00.000Z", returned: "2026-03-02T03:30:00.000Z", countersigned: "2026-03-03T12:00:00.000Z" };
-    for (const [name, when] of Object.entries(at)) await knex("audit_log").where({ id: ids[name] }).update({ at: new Date(when) });
-    expect(shown(await page({ device: bowTablet, from: "2026-03-02", to: "2026-03-02", tz: "UTC" }))).toEqual([ids.returned]);
+    const at = {
+      started: "2026-03-01T12:00:00.000Z",
+      returned: "2026-03-02T03:30:00.000Z",
+      countersigned: "2026-03-03T12:00:00.000Z",
+    };
+    for (const [name, when] of Object.entries(at))
+      await knex("audit_log")
+        .where({ id: ids[name] })
+        .update({ at: new Date(when) });
+    expect(shown(await page({ device: bowTablet, from: "2026-03-02", to: "2026-03-02", tz: "UTC" }))).toEqual(
+      [ids.returned],
+    );
     // From memory: US Eastern time is UTC-5 in early March (daylight time starts on the second
     // Sunday, 2026-03-08), so 03:30 UTC on the 2nd is 22:30 on the 1st in New York.
-    expect(shown(await page({ device: bowTablet, from: "2026-03-01", to: "2026-03-01", tz: "America/New_York" }))).toEqual([ids.returned, ids.started]);
-    expect(shown(await page({ device: bowTablet, from: "2026-03-02", tz: "UTC" }))).toEqual([ids.countersigned, ids.returned]);
+    expect(
+      shown(await page({ device: bowTablet, from: "2026-03-01", to: "2026-03-01", tz: "America/New_York" })),
+    ).toEqual([ids.returned, ids.started]);
+    expect(shown(await page({ device: bowTablet, from: "2026-03-02", tz: "UTC" }))).toEqual([
+      ids.countersigned,
+      ids.returned,
+    ]);
     expect(shown(await page({ device: bowTablet, to: "2026-03-01", tz: "UTC" }))).toEqual([ids.started]);
   });
 
@@ -95,14 +194,26 @@ describe("the audit log query", () => {
     const device = `tablet-paging-${run}`;
     const written: number[] = [];
     for (let i = 0; i < 7; i++) {
-      await audit({ userId: tech.id, deviceId: device, action: "job.updated", entity: "job", entityId: job.id, detail: { step: i } });
-      written.unshift(Number((await knex("audit_log").max({ id: "id" }).where({ device_id: device }))[0]!.id));
+      await audit({
+        userId: tech.id,
+        deviceId: device,
+        action: "job.updated",
+        entity: "job",
+        entityId: job.id,
+        detail: { step: i },
+      });
+      written.unshift(
+        Number((await knex("audit_log").max({ id: "id" }).where({ device_id: device }))[0]!.id),
+      );
     }
     const seen: number[] = [];
     let before: number | null = null;
     const sizes: number[] = [];
     do {
-      const result: Awaited<ReturnType<typeof page>> = await page(before === null ? { device } : { device, before }, 3);
+      const result: Awaited<ReturnType<typeof page>> = await page(
+        before === null ? { device } : { device, before },
+        3,
+      );
       seen.push(...shown(result));
       sizes.push(result.entries.length);
       before = result.olderThan;
@@ -124,15 +235,19 @@ describe("the audit log page", () => {
   });
   beforeAll(async () => {
     app = await appHandler();
-    for (const person of [manager, lead, tech, surveyor]) cookies[person.role] = await signInCookie(app, person.email);
+    for (const person of [manager, lead, tech, surveyor])
+      cookies[person.role] = await signInCookie(app, person.email);
   });
 
   it("answers the manager only", async () => {
     const anonymous = await app("/audit");
     expect(anonymous.status).toBe(302);
     expect(anonymous.headers.get("Location")).toMatch(/^\/login/);
-    for (const role of ["lead", "technician", "surveyor"]) expect((await app("/audit", { cookie: cookies[role] })).status, role).toBe(403);
-    const response = await app(`/audit?entity=checklist&entityId=${checklistId}`, { cookie: cookies.manager });
+    for (const role of ["lead", "technician", "surveyor"])
+      expect((await app("/audit", { cookie: cookies[role] })).status, role).toBe(403);
+    const response = await app(`/audit?entity=checklist&entityId=${checklistId}`, {
+      cookie: cookies.manager,
+    });
     expect(response.status).toBe(200);
     const html = tableOf(await response.text());
     expect(html).toContain("Countersigned a checklist");
@@ -143,7 +258,9 @@ describe("the audit log page", () => {
   });
 
   it("shows a bad filter's message at its field instead of failing", async () => {
-    const response = await app("/audit?person=Ana&from=2026-13-01&action=DROP%20TABLE&before=x", { cookie: cookies.manager });
+    const response = await app("/audit?person=Ana&from=2026-13-01&action=DROP%20TABLE&before=x", {
+      cookie: cookies.manager,
+    });
     expect(response.status).toBe(200);
     const html = await response.text();
     expect(html).toContain("Choose a person from the list.");
@@ -161,7 +278,14 @@ describe("the audit log page", () => {
 
   it("links to the older entries past the first hundred", async () => {
     const device = `tablet-hundred-${run}`;
-    for (let i = 0; i < 101; i++) await audit({ userId: manager.id, deviceId: device, action: "vessel.updated", entity: "vessel", entityId: job.vesselId });
+    for (let i = 0; i < 101; i++)
+      await audit({
+        userId: manager.id,
+        deviceId: device,
+        action: "vessel.updated",
+        entity: "vessel",
+        entityId: job.vesselId,
+      });
     const first = await (await app(`/audit?device=${device}`, { cookie: cookies.manager })).text();
     const older = first.match(/href="\/audit\?device=[^"]*&amp;before=(\d+)"/);
     expect(older, "an Older entries link").not.toBeNull();

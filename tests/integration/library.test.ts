@@ -53,8 +53,15 @@ async function importPublished(name: string, change?: (t: any) => void): Promise
   return result.key;
 }
 
-const rowOf = (key: string, version: number) => knex("template_versions").where({ template_key: key, version }).first();
-const bolt = { kind: "measure", key: "coupling-bolt-torque", label: "Coupling bolt torque", unit: "lbfFt", rule: { nominal: 40, tolerance: 2, unit: "lbfFt" } };
+const rowOf = (key: string, version: number) =>
+  knex("template_versions").where({ template_key: key, version }).first();
+const bolt = {
+  kind: "measure",
+  key: "coupling-bolt-torque",
+  label: "Coupling bolt torque",
+  unit: "lbfFt",
+  rule: { nominal: 40, tolerance: 2, unit: "lbfFt" },
+};
 
 beforeAll(async () => {
   await seedLibrary(knex);
@@ -66,7 +73,10 @@ beforeAll(async () => {
 afterAll(async () => {
   if (ownKeys.length) {
     await knex("template_versions").whereIn("template_key", ownKeys).where({ status: "draft" }).delete();
-    await knex("template_versions").whereIn("template_key", ownKeys).where({ status: "published" }).update({ status: "retired", retired_at: new Date() });
+    await knex("template_versions")
+      .whereIn("template_key", ownKeys)
+      .where({ status: "published" })
+      .update({ status: "retired", retired_at: new Date() });
   }
   await knex.destroy();
 });
@@ -83,10 +93,19 @@ describe("publishing", () => {
 
     const published = await rowOf(key, 2);
     expect(published.status).toBe("published");
-    expect(JSON.parse(published.body).sections[2].items.at(-1)).toMatchObject({ key: "coupling-bolt-torque", rule: { nominal: 40, tolerance: 2 } });
-    await expect(knex("template_versions").where({ id: published.id }).update({ body: "{}" })).rejects.toThrow(/cannot be changed/);
-    await expect(knex("template_versions").where({ id: published.id }).update({ title: "Changed behind its back" })).rejects.toThrow(/cannot be changed/);
-    await expect(saveDraft(key, 2, { ...v2, title: "Edited after publishing" }, manager.id)).rejects.toThrow(LibraryError);
+    expect(JSON.parse(published.body).sections[2].items.at(-1)).toMatchObject({
+      key: "coupling-bolt-torque",
+      rule: { nominal: 40, tolerance: 2 },
+    });
+    await expect(
+      knex("template_versions").where({ id: published.id }).update({ body: "{}" }),
+    ).rejects.toThrow(/cannot be changed/);
+    await expect(
+      knex("template_versions").where({ id: published.id }).update({ title: "Changed behind its back" }),
+    ).rejects.toThrow(/cannot be changed/);
+    await expect(saveDraft(key, 2, { ...v2, title: "Edited after publishing" }, manager.id)).rejects.toThrow(
+      LibraryError,
+    );
     await expect(publishDraft(key, 2, manager.id)).rejects.toThrow(/already published/);
     expect((await rowOf(key, 2)).body_sha256).toBe(published.body_sha256);
     expect(sha256(published.body)).toBe(published.body_sha256);
@@ -94,8 +113,13 @@ describe("publishing", () => {
     // The version before stays published, for the jobs on it; new jobs take the newest.
     expect((await rowOf(key, 1)).status).toBe("published");
     expect((await latestPublished()).find((l) => l.key === key)?.version).toBe(2);
-    const actions = await knex("audit_log").where({ user_id: manager.id }).whereIn("action", ["template.draft-created", "template.draft-saved", "template.published"]).pluck("action");
-    expect(actions).toEqual(expect.arrayContaining(["template.draft-created", "template.draft-saved", "template.published"]));
+    const actions = await knex("audit_log")
+      .where({ user_id: manager.id })
+      .whereIn("action", ["template.draft-created", "template.draft-saved", "template.published"])
+      .pluck("action");
+    expect(actions).toEqual(
+      expect.arrayContaining(["template.draft-created", "template.draft-saved", "template.published"]),
+    );
   });
 
   it("saves a draft only when the schema passes, and says where it does not", async () => {
@@ -110,7 +134,11 @@ describe("publishing", () => {
     const saved = await saveDraft(key, 1, draft, manager.id);
     expect(saved.ok).toBe(false);
     expect(!saved.ok && saved.problems.map((p) => p.path)).toEqual(
-      expect.arrayContaining(["sections[2].items[0].rule.min", "sections[0].items[1].key", "sections[2].items[4].inputs.diameter.item"]),
+      expect.arrayContaining([
+        "sections[2].items[0].rule.min",
+        "sections[0].items[1].key",
+        "sections[2].items[4].inputs.diameter.item",
+      ]),
     );
     const after = await rowOf(key, 1);
     expect(after.body_sha256).toBe(before.body_sha256);
@@ -130,11 +158,16 @@ describe("publishing", () => {
   it("starts a new template as a valid version-1 draft and refuses a key already taken", async () => {
     const key = `lib-new-${run}`;
     ownKeys.push(key);
-    await createTemplate({ key, title: "Stern gland", purpose: "Packing or dripless seal fitted and adjusted." }, manager.id);
+    await createTemplate(
+      { key, title: "Stern gland", purpose: "Packing or dripless seal fitted and adjusted." },
+      manager.id,
+    );
     const found = await readableVersion(manager, key, 1);
     expect(found?.status).toBe("draft");
     expect(found?.template.sections[0].items).toHaveLength(1);
-    await expect(createTemplate({ key, title: "Again", purpose: "Again." }, manager.id)).rejects.toThrow(/already a template with the key/);
+    await expect(createTemplate({ key, title: "Again", purpose: "Again." }, manager.id)).rejects.toThrow(
+      /already a template with the key/,
+    );
   });
 });
 
@@ -159,7 +192,9 @@ describe("retiring", () => {
     const none = await makeJob(knex, lead.id);
     await expect(startChecklists(none.id, [key], lead.id)).rejects.toThrow(ChecklistStartError);
     await expect(retireVersion(key, 1, manager.id)).rejects.toThrow(/Only a published version/);
-    await expect(knex("template_versions").where({ template_key: key, version: 1 }).update({ status: "published" })).rejects.toThrow(/cannot be changed/);
+    await expect(
+      knex("template_versions").where({ template_key: key, version: 1 }).update({ status: "published" }),
+    ).rejects.toThrow(/cannot be changed/);
   });
 
   it("the library lists each version with its state and the jobs on it, drafts for managers only", async () => {
@@ -169,7 +204,10 @@ describe("retiring", () => {
     await createDraftFrom(key, 1, manager.id);
 
     const forManager = (await listLibrary(manager)).find((t) => t.key === key)!;
-    expect(forManager.versions.map((v) => [v.version, v.status, v.jobCount])).toEqual([[2, "draft", 0], [1, "published", 1]]);
+    expect(forManager.versions.map((v) => [v.version, v.status, v.jobCount])).toEqual([
+      [2, "draft", 0],
+      [1, "published", 1],
+    ]);
     expect(forManager.newestPublished).toBe(1);
     expect(forManager.versions[1].jobs.map((j) => j.jobId)).toEqual([job.id]);
 
@@ -193,7 +231,14 @@ describe("export and import", () => {
   });
 
   it("exports every starter version to a file that loads as the same template", async () => {
-    for (const key of ["cooling", "engine-alignment", "exhaust", "instruments-and-electrical", "propeller-shaft-and-coupling", "sea-trial"]) {
+    for (const key of [
+      "cooling",
+      "engine-alignment",
+      "exhaust",
+      "instruments-and-electrical",
+      "propeller-shaft-and-coupling",
+      "sea-trial",
+    ]) {
       const stored = (await readableVersion(manager, key, 1))!.template;
       const back = parseTemplateText(templateFileText(stored));
       expect(back.ok && back.template).toEqual(stored);
@@ -204,7 +249,12 @@ describe("export and import", () => {
     const key = await importPublished("round-trip", (t) => t.sections[2].items.push(bolt));
     const exported = templateFileText((await readableVersion(manager, key, 1))!.template);
     // The same file again: nothing to do.
-    expect(await importTemplate(exported, {}, manager.id)).toEqual({ ok: true, action: "unchanged", key, version: 1 });
+    expect(await importTemplate(exported, {}, manager.id)).toEqual({
+      ok: true,
+      action: "unchanged",
+      key,
+      version: 1,
+    });
     // The same content as the next version: a draft that says exactly what version 1 says.
     const renumbered = await importTemplate(exported, { renumber: true }, manager.id);
     expect(renumbered).toEqual({ ok: true, action: "created", key, version: 2 });
@@ -224,13 +274,29 @@ describe("export and import", () => {
     const text = JSON.stringify(changed);
 
     const refused = await importTemplate(text, {}, manager.id);
-    expect(refused).toEqual({ ok: false, problems: [{ path: "version", message: expect.stringMatching(/version 1 of .* is published and never changes/) }] });
+    expect(refused).toEqual({
+      ok: false,
+      problems: [
+        { path: "version", message: expect.stringMatching(/version 1 of .* is published and never changes/) },
+      ],
+    });
     expect(await rowOf(key, 1)).toEqual(published);
 
-    expect(await importTemplate(text, { renumber: true }, manager.id)).toMatchObject({ ok: true, action: "created", version: 2 });
+    expect(await importTemplate(text, { renumber: true }, manager.id)).toMatchObject({
+      ok: true,
+      action: "created",
+      version: 2,
+    });
     const second = JSON.stringify({ ...changed, version: 2, title: "Engine alignment (second shop edit)" });
-    expect(await importTemplate(second, {}, manager.id)).toMatchObject({ ok: false, problems: [{ path: "version", message: expect.stringMatching(/is a draft already/) }] });
-    expect(await importTemplate(second, { replaceDraft: true }, manager.id)).toMatchObject({ ok: true, action: "replaced", version: 2 });
+    expect(await importTemplate(second, {}, manager.id)).toMatchObject({
+      ok: false,
+      problems: [{ path: "version", message: expect.stringMatching(/is a draft already/) }],
+    });
+    expect(await importTemplate(second, { replaceDraft: true }, manager.id)).toMatchObject({
+      ok: true,
+      action: "replaced",
+      version: 2,
+    });
     expect((await rowOf(key, 2)).title).toBe("Engine alignment (second shop edit)");
     expect(await rowOf(key, 1)).toEqual(published);
   });
@@ -246,13 +312,22 @@ describe("export and import", () => {
     const result = await importTemplate(JSON.stringify(broken), {}, manager.id);
     expect(result.ok).toBe(false);
     // The structure is checked first: the label that is not text stops the cross-checks.
-    expect(!result.ok && result.problems).toEqual([{ path: "sections[0].items[0].label", message: "expected a string" }]);
+    expect(!result.ok && result.problems).toEqual([
+      { path: "sections[0].items[0].label", message: "expected a string" },
+    ]);
     broken.sections[0].items[0].label = "Beds sound";
     const again = await importTemplate(JSON.stringify(broken), {}, manager.id);
     expect(!again.ok && again.problems.map((p) => p.path)).toEqual(
-      expect.arrayContaining(["sections[1].items[1].key", "sections[2].items[0].rule.min", "sections[2].items[4].inputs.diameter.item"]),
+      expect.arrayContaining([
+        "sections[1].items[1].key",
+        "sections[2].items[0].rule.min",
+        "sections[2].items[4].inputs.diameter.item",
+      ]),
     );
-    expect(await importTemplate("{ not json", {}, manager.id)).toMatchObject({ ok: false, problems: [{ path: "", message: expect.stringMatching(/not valid JSON/) }] });
+    expect(await importTemplate("{ not json", {}, manager.id)).toMatchObject({
+      ok: false,
+      problems: [{ path: "", message: expect.stringMatching(/not valid JSON/) }],
+    });
     expect(await count()).toBe(before);
   });
 });
@@ -264,7 +339,8 @@ describe("over HTTP, by role", () => {
 
   beforeAll(async () => {
     app = await appHandler();
-    for (const role of ["technician", "lead", "manager", "surveyor"] as const) cookies[role] = await signInCookie(app, (await makeUser(knex, role)).email);
+    for (const role of ["technician", "lead", "manager", "surveyor"] as const)
+      cookies[role] = await signInCookie(app, (await makeUser(knex, role)).email);
     draftKey = await importPublished("http");
     await createDraftFrom(draftKey, 1, manager.id);
   });
@@ -291,7 +367,9 @@ describe("over HTTP, by role", () => {
 
   it("serves the export as a file named after the key and version", async () => {
     const response = await app("/api/templates/engine-alignment/1/export", { cookie: cookies.technician });
-    expect(response.headers.get("Content-Disposition")).toBe('attachment; filename="engine-alignment.v1.json"');
+    expect(response.headers.get("Content-Disposition")).toBe(
+      'attachment; filename="engine-alignment.v1.json"',
+    );
     expect(await response.text()).toBe(starterText("engine-alignment"));
   });
 
@@ -299,15 +377,27 @@ describe("over HTTP, by role", () => {
     const key = `lib-form-${run}`;
     ownKeys.push(key);
     const post = (fields: Record<string, string>) =>
-      app("/library?index", { method: "POST", body: new URLSearchParams({ intent: "create-template", ...fields }), cookie: cookies.manager });
+      app("/library?index", {
+        method: "POST",
+        body: new URLSearchParams({ intent: "create-template", ...fields }),
+        cookie: cookies.manager,
+      });
     const bad = await post({ key: "Stern Gland", title: "Stern gland", purpose: "" });
     expect(bad.status).toBe(400);
     expect(await bad.text()).toMatch(/expected a key in lower-case words joined by hyphens/);
-    const good = await post({ key, title: "Stern gland", purpose: "Packing or a dripless seal fitted and adjusted." });
+    const good = await post({
+      key,
+      title: "Stern gland",
+      purpose: "Packing or a dripless seal fitted and adjusted.",
+    });
     expect(good.status).toBe(302);
     expect(good.headers.get("Location")).toBe(`/library/${key}/1/edit`);
     expect((await rowOf(key, 1)).status).toBe("draft");
-    const technician = await app("/library?index", { method: "POST", body: new URLSearchParams({ intent: "create-template", key: `${key}-x`, title: "x", purpose: "x" }), cookie: cookies.technician });
+    const technician = await app("/library?index", {
+      method: "POST",
+      body: new URLSearchParams({ intent: "create-template", key: `${key}-x`, title: "x", purpose: "x" }),
+      cookie: cookies.technician,
+    });
     expect(technician.status).toBe(403);
   });
 
@@ -332,7 +422,12 @@ describe("over HTTP, by role", () => {
   });
 
   it("lets only a manager publish", async () => {
-    const publish = (w: string) => app(`/library/${draftKey}/2`, { method: "POST", body: new URLSearchParams({ intent: "publish" }), cookie: cookies[w] });
+    const publish = (w: string) =>
+      app(`/library/${draftKey}/2`, {
+        method: "POST",
+        body: new URLSearchParams({ intent: "publish" }),
+        cookie: cookies[w],
+      });
     for (const w of ["technician", "lead", "surveyor"]) expect((await publish(w)).status).toBe(403);
     expect((await rowOf(draftKey, 2)).status).toBe("draft");
     const response = await publish("manager");

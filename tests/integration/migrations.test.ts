@@ -10,9 +10,20 @@ describe("migrations", () => {
     await createDatabase(url);
     const knex = connect(url);
     try {
-      const tables = async () => (await knex.raw("SHOW TABLES"))[0].map((r: any) => Object.values(r)[0]).sort();
+      const tables = async () =>
+        (await knex.raw("SHOW TABLES"))[0].map((r: any) => Object.values(r)[0]).sort();
       await knex.migrate.latest();
-      expect(await tables()).toEqual(expect.arrayContaining(["users", "sessions", "rate_limits", "vessels", "jobs", "job_technicians", "audit_log"]));
+      expect(await tables()).toEqual(
+        expect.arrayContaining([
+          "users",
+          "sessions",
+          "rate_limits",
+          "vessels",
+          "jobs",
+          "job_technicians",
+          "audit_log",
+        ]),
+      );
       await knex.migrate.rollback(undefined, true);
       expect((await tables()).filter((t: string) => !t.startsWith("knex_"))).toEqual([]);
       const [, again] = await knex.migrate.latest();

@@ -21,12 +21,19 @@ describe("invitations", () => {
     expect((await acceptInvitation(token, "a-new-password-1")).state).toBe("valid");
     expect((await lookUpInvitation(token)).state).toBe("used");
     expect((await acceptInvitation(token, "another-password")).state).toBe("used");
-    await expect(signIn(loginRequest(email, "a-new-password-1"), "10.0.0.1")).resolves.toContain("__sternpost=");
+    await expect(signIn(loginRequest(email, "a-new-password-1"), "10.0.0.1")).resolves.toContain(
+      "__sternpost=",
+    );
   });
 
   it("refuse an expired invitation", async () => {
-    const { userId, token } = await inviteUser({ email: `late-${Date.now()}@test.example`, name: "Late", role: "lead" }, null);
-    await knex("invitations").where({ user_id: userId }).update({ expires_at: new Date(Date.now() - 1000) });
+    const { userId, token } = await inviteUser(
+      { email: `late-${Date.now()}@test.example`, name: "Late", role: "lead" },
+      null,
+    );
+    await knex("invitations")
+      .where({ user_id: userId })
+      .update({ expires_at: new Date(Date.now() - 1000) });
     expect((await lookUpInvitation(token)).state).toBe("expired");
     expect((await acceptInvitation(token, "whatever-password")).state).toBe("expired");
     expect((await knex("users").where({ id: userId }).first()).password_hash).toBeNull();
@@ -35,7 +42,9 @@ describe("invitations", () => {
   it("refuse an unknown token and an already registered address", async () => {
     expect((await lookUpInvitation("not-a-token")).state).toBe("unknown");
     const existing = await makeUser(knex, "lead");
-    await expect(inviteUser({ email: existing.email, name: "Again", role: "lead" }, null)).rejects.toThrow(/already has an account/);
+    await expect(inviteUser({ email: existing.email, name: "Again", role: "lead" }, null)).rejects.toThrow(
+      /already has an account/,
+    );
   });
 });
 
@@ -71,26 +80,38 @@ describe("sign-in rate limits", () => {
     }
     const locked = signIn(loginRequest(user.email, TEST_PASSWORD), "10.1.1.1");
     await expect(locked).rejects.toBeInstanceOf(LoginError);
-    await expect(signIn(loginRequest(user.email, TEST_PASSWORD), "10.1.1.1")).rejects.toThrow(/locked for \d+ more minute/);
+    await expect(signIn(loginRequest(user.email, TEST_PASSWORD), "10.1.1.1")).rejects.toThrow(
+      /locked for \d+ more minute/,
+    );
     // The count is a row in MariaDB, so every app instance sees it.
-    const row = await knex("rate_limits").where({ key: `login:account:${user.email}` }).first();
+    const row = await knex("rate_limits")
+      .where({ key: `login:account:${user.email}` })
+      .first();
     expect(row.points).toBeGreaterThanOrEqual(5);
   });
 
   it("limit an address that tries many accounts", async () => {
     const address = "10.2.0.9";
     for (let i = 0; i < 5; i++) {
-      await expect(signIn(loginRequest(`nobody-${i}@test.example`, "x"), address)).rejects.toThrow(/do not match/);
+      await expect(signIn(loginRequest(`nobody-${i}@test.example`, "x"), address)).rejects.toThrow(
+        /do not match/,
+      );
     }
     const user = await makeUser(knex, "manager");
     await expect(signIn(loginRequest(user.email, TEST_PASSWORD), address)).rejects.toThrow(/locked/);
-    await expect(signIn(loginRequest(user.email, TEST_PASSWORD), "10.2.0.10")).resolves.toContain("__sternpost=");
+    await expect(signIn(loginRequest(user.email, TEST_PASSWORD), "10.2.0.10")).resolves.toContain(
+      "__sternpost=",
+    );
   });
 
   it("clear the account's count after a successful sign-in", async () => {
     const user = await makeUser(knex, "technician");
     await expect(signIn(loginRequest(user.email, "wrong"), "10.3.0.1")).rejects.toThrow();
     await signIn(loginRequest(user.email, TEST_PASSWORD), "10.3.0.2");
-    expect(await knex("rate_limits").where({ key: `login:account:${user.email}` }).first()).toBeUndefined();
+    expect(
+      await knex("rate_limits")
+        .where({ key: `login:account:${user.email}` })
+        .first(),
+    ).toBeUndefined();
   });
 });

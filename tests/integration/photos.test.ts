@@ -33,13 +33,29 @@ const BUCKET = process.env.S3_BUCKET!;
 const sha256 = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
 
 /** Magic numbers of other formats: "GIF89a" (GIF89a specification, section 17) and "%PDF-" (ISO 32000-1, 7.5.2). */
-const GIF = Buffer.concat([Buffer.from("GIF89a", "latin1"), Buffer.from([1, 0, 1, 0, 0x80, 0, 0, 0, 0, 0, 0xff, 0xff, 0xff, 0x21, 0xf9, 4, 1, 0, 0, 0, 0, 0x2c, 0, 0, 0, 0, 1, 0, 1, 0, 0, 2, 2, 0x44, 1, 0, 0x3b])]);
-const PDF = Buffer.from("%PDF-1.7\n%âãÏÓ\n1 0 obj\n<< >>\nendobj\ntrailer\n<< /Root 1 0 R >>\n%%EOF\n", "latin1");
+const GIF = Buffer.concat([
+  Buffer.from("GIF89a", "latin1"),
+  Buffer.from([
+    1, 0, 1, 0, 0x80, 0, 0, 0, 0, 0, 0xff, 0xff, 0xff, 0x21, 0xf9, 4, 1, 0, 0, 0, 0, 0x2c, 0, 0, 0, 0, 1, 0,
+    1, 0, 0, 2, 2, 0x44, 1, 0, 0x3b,
+  ]),
+]);
+const PDF = Buffer.from(
+  "%PDF-1.7\n%âãÏÓ\n1 0 obj\n<< >>\nendobj\ntrailer\n<< /Root 1 0 R >>\n%%EOF\n",
+  "latin1",
+);
 /** A JPEG begins with the SOI marker FF D8 and a marker segment, here APP0 "JFIF" (JFIF 1.02, ITU-T T.871). */
-const JPEG_START = Buffer.from([0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01, 0x01, 0x00, 0x00, 0x01, 0x00, 0x01, 0x00, 0x00]);
+const JPEG_START = Buffer.from([
+  0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01, 0x01, 0x00, 0x00, 0x01, 0x00, 0x01,
+  0x00, 0x00,
+]);
 
 let app: Awaited<ReturnType<typeof appHandler>>;
-let tech: Awaited<ReturnType<typeof makeUser>>, otherTech: typeof tech, lead: typeof tech, manager: typeof tech, surveyor: typeof tech;
+let tech: Awaited<ReturnType<typeof makeUser>>,
+  otherTech: typeof tech,
+  lead: typeof tech,
+  manager: typeof tech,
+  surveyor: typeof tech;
 const cookie: Record<string, string> = {};
 let checklist: string, submitted: string;
 let dir: string;
@@ -47,13 +63,18 @@ let dir: string;
 beforeAll(async () => {
   await seedLibrary(knex);
   [tech, otherTech, lead, manager, surveyor] = await Promise.all([
-    makeUser(knex, "technician"), makeUser(knex, "technician"), makeUser(knex, "lead"), makeUser(knex, "manager"), makeUser(knex, "surveyor"),
+    makeUser(knex, "technician"),
+    makeUser(knex, "technician"),
+    makeUser(knex, "lead"),
+    makeUser(knex, "manager"),
+    makeUser(knex, "surveyor"),
   ]);
   const job = await makeJob(knex, lead.id, [tech.id]);
   [checklist, submitted] = await startChecklists(job.id, ["engine-alignment", "cooling"], lead.id);
   await knex("job_checklists").where({ id: submitted }).update({ state: "submitted" });
   app = await appHandler();
-  for (const person of [tech, otherTech, lead, manager, surveyor]) cookie[person.email] = await signInCookie(app, person.email);
+  for (const person of [tech, otherTech, lead, manager, surveyor])
+    cookie[person.email] = await signInCookie(app, person.email);
   dir = mkdtempSync(join(tmpdir(), "sternpost-photos-"));
 });
 
@@ -70,11 +91,26 @@ interface Put {
   itemKey?: string;
   contentType?: string;
 }
-function put(bytes: Uint8Array, { as = tech, id = randomUUID(), checklistId = checklist, itemKey = "alignment-photo", contentType = "image/jpeg" }: Put = {}) {
+function put(
+  bytes: Uint8Array,
+  {
+    as = tech,
+    id = randomUUID(),
+    checklistId = checklist,
+    itemKey = "alignment-photo",
+    contentType = "image/jpeg",
+  }: Put = {},
+) {
   const query = new URLSearchParams({ checklistId, itemKey });
-  return app(`/api/photos/${id}?${query}`, { method: "PUT", body: new Uint8Array(bytes), headers: { "Content-Type": contentType }, cookie: cookie[as.email] });
+  return app(`/api/photos/${id}?${query}`, {
+    method: "PUT",
+    body: new Uint8Array(bytes),
+    headers: { "Content-Type": contentType },
+    cookie: cookie[as.email],
+  });
 }
-const get = (id: string, as: { email: string } | null = tech) => app(`/api/photos/${id}`, { cookie: as ? cookie[as.email] : undefined });
+const get = (id: string, as: { email: string } | null = tech) =>
+  app(`/api/photos/${id}`, { cookie: as ? cookie[as.email] : undefined });
 
 async function storedKeys(): Promise<string[]> {
   const listing = await s3.send(new ListObjectsV2Command({ Bucket: BUCKET }));
@@ -89,9 +125,22 @@ describe("PUT /api/photos/:id", () => {
     const response = await put(png, { id, contentType: "image/png" });
     expect(response.status).toBe(201);
     const body = await response.json();
-    expect(body).toEqual({ id, checklistId: checklist, itemKey: "alignment-photo", sha256: sha256(png), bytes: png.length, contentType: "image/png" });
+    expect(body).toEqual({
+      id,
+      checklistId: checklist,
+      itemKey: "alignment-photo",
+      sha256: sha256(png),
+      bytes: png.length,
+      contentType: "image/png",
+    });
     const [row] = await rows(id);
-    expect(row).toMatchObject({ checklist_id: checklist, item_key: "alignment-photo", sha256: sha256(png), bytes: png.length, uploaded_by: tech.id });
+    expect(row).toMatchObject({
+      checklist_id: checklist,
+      item_key: "alignment-photo",
+      sha256: sha256(png),
+      bytes: png.length,
+      uploaded_by: tech.id,
+    });
     const object = await s3.send(new GetObjectCommand({ Bucket: BUCKET, Key: row.storage_key }));
     expect(sha256(await object.Body!.transformToByteArray())).toBe(sha256(png));
   });
@@ -126,7 +175,9 @@ describe("PUT /api/photos/:id", () => {
     const response = await put(png, { contentType: "image/jpeg" });
     expect(response.status).toBe(201);
     expect((await response.json()).contentType).toBe("image/png");
-    const jpeg = await put(Buffer.concat([JPEG_START, Buffer.alloc(64, 7)]), { contentType: "application/octet-stream" });
+    const jpeg = await put(Buffer.concat([JPEG_START, Buffer.alloc(64, 7)]), {
+      contentType: "application/octet-stream",
+    });
     expect(jpeg.status).toBe(201);
     expect((await jpeg.json()).contentType).toBe("image/jpeg");
   });
@@ -169,21 +220,46 @@ describe("PUT /api/photos/:id", () => {
     expect((await locked.json()).error).toMatch(/submitted/);
     expect((await put(png, { checklistId: randomUUID() })).status).toBe(404);
     expect((await put(png, { itemKey: "no-such-item" })).status).toBe(404);
-    const anonymous = await app(`/api/photos/${randomUUID()}?checklistId=${checklist}&itemKey=alignment-photo`, { method: "PUT", body: new Uint8Array(png) });
+    const anonymous = await app(
+      `/api/photos/${randomUUID()}?checklistId=${checklist}&itemKey=alignment-photo`,
+      { method: "PUT", body: new Uint8Array(png) },
+    );
     expect(anonymous.status).toBe(401);
   });
 
   it("answers malformed requests with 400", async () => {
     const png = gradientPng(4, 4, 8);
-    expect((await app(`/api/photos/not-a-uuid?checklistId=${checklist}&itemKey=alignment-photo`, { method: "PUT", body: new Uint8Array(png), cookie: cookie[tech.email] })).status).toBe(400);
-    expect((await app(`/api/photos/${randomUUID()}?itemKey=alignment-photo`, { method: "PUT", body: new Uint8Array(png), cookie: cookie[tech.email] })).status).toBe(400);
+    expect(
+      (
+        await app(`/api/photos/not-a-uuid?checklistId=${checklist}&itemKey=alignment-photo`, {
+          method: "PUT",
+          body: new Uint8Array(png),
+          cookie: cookie[tech.email],
+        })
+      ).status,
+    ).toBe(400);
+    expect(
+      (
+        await app(`/api/photos/${randomUUID()}?itemKey=alignment-photo`, {
+          method: "PUT",
+          body: new Uint8Array(png),
+          cookie: cookie[tech.email],
+        })
+      ).status,
+    ).toBe(400);
     expect((await put(new Uint8Array(0))).status).toBe(400);
   });
 
   it("refuses bytes whose SHA-256 is not the one the item's entry gives for the id", async () => {
     const id = randomUUID();
     const png = gradientPng(12, 12, 9);
-    const [result] = (await sync(tech, { deviceId: "photo-test-device", cursor: null, ops: [op(checklist, "alignment-photo", { photos: [{ id, sha256: sha256(png) }] }, 0)] })).results;
+    const [result] = (
+      await sync(tech, {
+        deviceId: "photo-test-device",
+        cursor: null,
+        ops: [op(checklist, "alignment-photo", { photos: [{ id, sha256: sha256(png) }] }, 0)],
+      })
+    ).results;
     expect(result!.status).toBe("applied");
     expect((await put(gradientPng(12, 12, 10), { id })).status).toBe(409);
     expect((await put(png, { id })).status).toBe(201);
@@ -195,7 +271,11 @@ describe("PUT /api/photos/:id", () => {
     const [listed, unlisted] = [gradientPng(14, 14, 20), gradientPng(14, 14, 21)];
     const id = randomUUID();
     // Entered offline, then submitted offline: the entry and the submission reach the server before the photo.
-    await sync(tech, { deviceId: "photo-test-device", cursor: null, ops: [op(own!, "alignment-photo", { photos: [{ id, sha256: sha256(listed) }] }, 0)] });
+    await sync(tech, {
+      deviceId: "photo-test-device",
+      cursor: null,
+      ops: [op(own!, "alignment-photo", { photos: [{ id, sha256: sha256(listed) }] }, 0)],
+    });
     await knex("job_checklists").where({ id: own }).update({ state: "submitted" });
     expect((await put(unlisted, { id, checklistId: own })).status).toBe(409);
     expect((await put(listed, { id, checklistId: own })).status).toBe(201);
@@ -210,7 +290,23 @@ describe("PUT /api/photos/:id", () => {
     const [own] = await startChecklists(job.id, ["engine-alignment"], lead.id);
     const [sent, onTablet] = [gradientPng(14, 14, 22), gradientPng(14, 14, 23)];
     const ids = [randomUUID(), randomUUID()] as const;
-    await sync(tech, { deviceId: "photo-test-device", cursor: null, ops: [op(own!, "alignment-photo", { photos: [{ id: ids[0], sha256: sha256(sent) }, { id: ids[1], sha256: sha256(onTablet) }] }, 0)] });
+    await sync(tech, {
+      deviceId: "photo-test-device",
+      cursor: null,
+      ops: [
+        op(
+          own!,
+          "alignment-photo",
+          {
+            photos: [
+              { id: ids[0], sha256: sha256(sent) },
+              { id: ids[1], sha256: sha256(onTablet) },
+            ],
+          },
+          0,
+        ),
+      ],
+    });
     expect(await photosNotYetStored(own!)).toEqual([...ids].sort());
     expect((await put(sent, { id: ids[0], checklistId: own })).status).toBe(201);
     expect(await photosNotYetStored(own!)).toEqual([ids[1]]);
@@ -257,7 +353,10 @@ async function pdfFile(name: string, pdf: Buffer) {
 
 /** `pdfimages -list` (poppler-utils): a line per image after two header lines; columns 4 and 5 are its width and height in pixels. */
 function embeddedImages(file: string): string[] {
-  const lines = execFileSync("pdfimages", ["-list", file], { encoding: "utf8" }).split("\n").slice(2).filter((l) => l.trim());
+  const lines = execFileSync("pdfimages", ["-list", file], { encoding: "utf8" })
+    .split("\n")
+    .slice(2)
+    .filter((l) => l.trim());
   return lines.map((l) => l.trim().split(/\s+/)).map((cols) => `${cols[3]}x${cols[4]}`);
 }
 
@@ -271,13 +370,21 @@ describe("photos in the commissioning record", () => {
     await put(b, { id: ids[1], checklistId: own });
     const photos = await checklistPhotos(own!);
     expect(photos).toEqual(
-      [{ itemKey: "alignment-photo", id: ids[0], sha256: sha256(a) }, { itemKey: "alignment-photo", id: ids[1], sha256: sha256(b) }].sort((x, y) => (x.id < y.id ? -1 : 1)),
+      [
+        { itemKey: "alignment-photo", id: ids[0], sha256: sha256(a) },
+        { itemKey: "alignment-photo", id: ids[1], sha256: sha256(b) },
+      ].sort((x, y) => (x.id < y.id ? -1 : 1)),
     );
     const record = commissioningRecordFixture().checklists[0]!;
     const digest = checklistDigest({ ...record, photos });
     // Any other bytes under the first id would give another digest.
     const otherBytes = sha256(gradientPng(30, 20, 99));
-    expect(checklistDigest({ ...record, photos: photos.map((p, i) => (i === 0 ? { ...p, sha256: otherBytes } : p)) })).not.toBe(digest);
+    expect(
+      checklistDigest({
+        ...record,
+        photos: photos.map((p, i) => (i === 0 ? { ...p, sha256: otherBytes } : p)),
+      }),
+    ).not.toBe(digest);
   });
 
   it("shows the stored photos in the PDF, and not a file whose SHA-256 differs from the record's", async () => {
@@ -287,15 +394,28 @@ describe("photos in the commissioning record", () => {
     const ids: string[] = [randomUUID(), randomUUID()];
     for (const [i, bytes] of pictures.entries()) expect((await put(bytes, { id: ids[i] })).status).toBe(201);
     const listed = ids.map((id, i) => ({ id, sha256: sha256(pictures[i]!) }));
-    alignment.responses["alignment-photo"] = { value: { photos: listed }, rev: 1, by: "Tadhg Mulcair", at: "2025-05-20T11:00:00Z" };
+    alignment.responses["alignment-photo"] = {
+      value: { photos: listed },
+      rev: 1,
+      by: "Tadhg Mulcair",
+      at: "2025-05-20T11:00:00Z",
+    };
     alignment.photos.push(...listed.map((p) => ({ itemKey: "alignment-photo", ...p })));
     // The fixture's other photo ids get bytes that are not theirs: the PDF must not show them as those photos.
     const impostor = gradientPng(10, 10, 16);
     const options = { digest: "0".repeat(64), verifyUrl: record.verifyUrl };
     const without = await pdfFile("without-photos.pdf", await renderRecordPdf(record, options));
-    const withPhotos = await pdfFile("with-photos.pdf", await renderRecordPdf(record, { ...options, photoBytes: async (id) => (ids.includes(id) ? photoBytes(id) : impostor) }));
+    const withPhotos = await pdfFile(
+      "with-photos.pdf",
+      await renderRecordPdf(record, {
+        ...options,
+        photoBytes: async (id) => (ids.includes(id) ? photoBytes(id) : impostor),
+      }),
+    );
     // The two stored photos are the only images added (the cover's QR code is in both), at their own pixel size.
     expect(embeddedImages(withPhotos).sort()).toEqual([...embeddedImages(without), "48x64", "64x48"].sort());
-    expect(execFileSync("pdftotext", ["-layout", withPhotos, "-"], { encoding: "utf8" })).toMatch(/does\s+not\s+match\s+its\s+SHA-256/);
+    expect(execFileSync("pdftotext", ["-layout", withPhotos, "-"], { encoding: "utf8" })).toMatch(
+      /does\s+not\s+match\s+its\s+SHA-256/,
+    );
   });
 });

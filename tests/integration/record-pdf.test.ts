@@ -48,7 +48,10 @@ describe("the commissioning record PDF", () => {
   });
 
   test("embeds the Atkinson Hyperlegible regular and bold faces, and no other font", () => {
-    const rows = fonts.split("\n").slice(2).filter((line) => line.trim());
+    const rows = fonts
+      .split("\n")
+      .slice(2)
+      .filter((line) => line.trim());
     expect(rows.map((row) => row.split(/\s+/)[0].replace(/^[A-Z]{6}\+/, "")).sort()).toEqual([
       "AtkinsonHyperlegible-Bold",
       "AtkinsonHyperlegible-Regular",
@@ -58,7 +61,15 @@ describe("the commissioning record PDF", () => {
   });
 
   test("names the yard, the vessel and the installed equipment", () => {
-    for (const words of ["Kittiwake Slip", "Tern of Helvick", "KSL31007F405", "Declan Ó Briain", "D480-0041977", "2.47 : 1", "Róisín Keohane"]) {
+    for (const words of [
+      "Kittiwake Slip",
+      "Tern of Helvick",
+      "KSL31007F405",
+      "Declan Ó Briain",
+      "D480-0041977",
+      "2.47 : 1",
+      "Róisín Keohane",
+    ]) {
       expect(text).toContain(words);
     }
   });
@@ -113,7 +124,9 @@ describe("the commissioning record PDF", () => {
   test("keeps every word inside the side margins and off the last 5 mm of the paper", () => {
     const file = join(dir, "record.pdf");
     const boxes = poppler("pdftotext", "-bbox", file, "-");
-    const words = [...boxes.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">/g)];
+    const words = [
+      ...boxes.matchAll(/<word xMin="([\d.]+)" yMin="([\d.]+)" xMax="([\d.]+)" yMax="([\d.]+)">/g),
+    ];
     expect(words.length).toBeGreaterThan(1000);
     for (const [, xMin, yMin, xMax, yMax] of words) {
       // Words inside the 56 pt side margins; header and footer in the top and bottom margins.

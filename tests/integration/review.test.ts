@@ -16,30 +16,57 @@ const knex = testDb();
 afterAll(() => knex.destroy());
 
 const template = {
-  key: "review-test", version: 1, title: "Review test", purpose: "Integration tests of review.",
-  sections: [{ key: "s", title: "S", items: [
-    { kind: "check", key: "a", label: "A", required: true },
-    { kind: "text", key: "b", label: "B", required: true },
-  ] }],
+  key: "review-test",
+  version: 1,
+  title: "Review test",
+  purpose: "Integration tests of review.",
+  sections: [
+    {
+      key: "s",
+      title: "S",
+      items: [
+        { kind: "check", key: "a", label: "A", required: true },
+        { kind: "text", key: "b", label: "B", required: true },
+      ],
+    },
+  ],
 };
 
-let tech: Awaited<ReturnType<typeof makeUser>>, lead: Awaited<ReturnType<typeof makeUser>>, otherLead: Awaited<ReturnType<typeof makeUser>>, manager: Awaited<ReturnType<typeof makeUser>>;
+let tech: Awaited<ReturnType<typeof makeUser>>,
+  lead: Awaited<ReturnType<typeof makeUser>>,
+  otherLead: Awaited<ReturnType<typeof makeUser>>,
+  manager: Awaited<ReturnType<typeof makeUser>>;
 let jobId: number;
 
 beforeAll(async () => {
   await seedLibrary(knex);
   const body = JSON.stringify(template);
   if (!(await knex("template_versions").where({ template_key: template.key }).first())) {
-    await knex("template_versions").insert({ template_key: template.key, version: 1, status: "published", title: template.title, body, body_sha256: sha256(body), published_at: new Date() });
+    await knex("template_versions").insert({
+      template_key: template.key,
+      version: 1,
+      status: "published",
+      title: template.title,
+      body,
+      body_sha256: sha256(body),
+      published_at: new Date(),
+    });
   }
-  [tech, lead, otherLead, manager] = [await makeUser(knex, "technician"), await makeUser(knex, "lead"), await makeUser(knex, "lead"), await makeUser(knex, "manager")];
+  [tech, lead, otherLead, manager] = [
+    await makeUser(knex, "technician"),
+    await makeUser(knex, "lead"),
+    await makeUser(knex, "lead"),
+    await makeUser(knex, "manager"),
+  ];
   jobId = (await makeJob(knex, lead.id, [tech.id])).id;
 });
 
 const device = "review-device";
-const push = (actor: typeof tech, ops: ReturnType<typeof op>[]) => sync(actor, { deviceId: device, cursor: null, ops });
+const push = (actor: typeof tech, ops: ReturnType<typeof op>[]) =>
+  sync(actor, { deviceId: device, cursor: null, ops });
 const stateOf = async (id: string) => (await knex("job_checklists").where({ id }).first()).state;
-const actions = async (id: string) => (await knex("audit_log").where({ entity_id: id }).orderBy("id").pluck("action")) as string[];
+const actions = async (id: string) =>
+  (await knex("audit_log").where({ entity_id: id }).orderBy("id").pluck("action")) as string[];
 
 async function freshJobChecklist() {
   jobId = (await makeJob(knex, lead.id, [tech.id])).id;
@@ -50,9 +77,16 @@ describe("submitting, returning and countersigning", () => {
   it("refuses an incomplete submission with the reason, and accepts a complete one after its entries", async () => {
     const id = await freshJobChecklist();
     const early = await push(tech, [op(id, SUBMIT_KEY, submitValue, 0)]);
-    expect(early.results[0]).toMatchObject({ status: "rejected", reason: expect.stringMatching(/2 required item/) });
+    expect(early.results[0]).toMatchObject({
+      status: "rejected",
+      reason: expect.stringMatching(/2 required item/),
+    });
     // Entries and the submission in one batch, as a tablet sends them after working offline.
-    const batch = await push(tech, [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "ok" }, 0), op(id, SUBMIT_KEY, submitValue, 0)]);
+    const batch = await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
     expect(batch.results.map((r) => r.status)).toEqual(["applied", "applied", "applied"]);
     expect(await stateOf(id)).toBe("submitted");
     const late = await push(tech, [op(id, "b", { text: "changed" }, 1)]);
@@ -61,7 +95,11 @@ describe("submitting, returning and countersigning", () => {
 
   it("lets only the job's lead comment, return and countersign, with the right password", async () => {
     const id = await freshJobChecklist();
-    await push(tech, [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "ok" }, 0), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
     await expect(addComment(otherLead, id, "b", "nope")).rejects.toThrow(/Only the job's lead/);
     await addComment(lead, id, "b", "Say more");
     await returnChecklist(lead, id);
@@ -76,7 +114,13 @@ describe("submitting, returning and countersigning", () => {
     const content = (await loadRecordChecklist(id, knex))!;
     expect(digest).toBe(sha256Hex(checklistCanonical(content)));
     expect(digest).toBe(checklistDigest(content));
-    expect(await actions(id)).toEqual(["checklist.started", "checklist.submitted", "checklist.returned", "checklist.submitted", "checklist.countersigned"]);
+    expect(await actions(id)).toEqual([
+      "checklist.started",
+      "checklist.submitted",
+      "checklist.returned",
+      "checklist.submitted",
+      "checklist.countersigned",
+    ]);
     await expect(countersign(lead, id, TEST_PASSWORD)).rejects.toThrow(/waiting for review/);
   });
 });
@@ -84,22 +128,44 @@ describe("submitting, returning and countersigning", () => {
 describe("the lock", () => {
   it("holds against direct UPDATE and DELETE in the database", async () => {
     const id = await freshJobChecklist();
-    await push(tech, [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "ok" }, 0), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
     await countersign(lead, id, TEST_PASSWORD);
     const refused = /countersigned checklist cannot be changed/;
-    await expect(knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).update({ value: JSON.stringify({ text: "edited" }) })).rejects.toThrow(refused);
+    await expect(
+      knex("checklist_responses")
+        .where({ checklist_id: id, item_key: "b" })
+        .update({ value: JSON.stringify({ text: "edited" }) }),
+    ).rejects.toThrow(refused);
     await expect(knex("checklist_responses").where({ checklist_id: id }).delete()).rejects.toThrow(refused);
     await expect(knex("response_history").where({ checklist_id: id }).delete()).rejects.toThrow(refused);
-    await expect(knex("job_checklists").where({ id }).update({ state: "in-progress" })).rejects.toThrow(refused);
+    await expect(knex("job_checklists").where({ id }).update({ state: "in-progress" })).rejects.toThrow(
+      refused,
+    );
     await expect(knex("job_checklists").where({ id }).delete()).rejects.toThrow(refused);
-    await expect(knex("checklist_comments").insert({ checklist_id: id, item_key: "b", user_id: lead.id, text: "late", at: new Date() })).rejects.toThrow(refused);
+    await expect(
+      knex("checklist_comments").insert({
+        checklist_id: id,
+        item_key: "b",
+        user_id: lead.id,
+        text: "late",
+        at: new Date(),
+      }),
+    ).rejects.toThrow(refused);
     const { value } = await knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).first();
     expect(typeof value === "string" ? JSON.parse(value) : value).toEqual({ text: "ok" });
   });
 
   it("leaves the original as it was when an amendment corrects it", async () => {
     const id = await freshJobChecklist();
-    await push(tech, [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "first" }, 0), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "first" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
     const digest = await countersign(lead, id, TEST_PASSWORD);
     const amendment = await startAmendment(lead, id);
     await push(tech, [op(amendment, "b", { text: "corrected" }, 1)]);
@@ -114,17 +180,27 @@ describe("the lock", () => {
 describe("issuing and verifying a record", () => {
   it("needs every checklist countersigned, then verifies until a stored row is changed", async () => {
     const id = await freshJobChecklist();
-    await expect(issueRecord(manager, jobId, ["s@survey.example"])).rejects.toThrow(/still open: Review test/);
-    await push(tech, [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "ok" }, 0), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await expect(issueRecord(manager, jobId, ["s@survey.example"])).rejects.toThrow(
+      /still open: Review test/,
+    );
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
     await countersign(lead, id, TEST_PASSWORD);
     await expect(issueRecord(manager, jobId, [tech.email])).rejects.toThrow(/yard account/);
-    await expect(issueRecord(otherLead, jobId, ["s@survey.example"])).rejects.toThrow(/manager or the job's lead/);
+    await expect(issueRecord(otherLead, jobId, ["s@survey.example"])).rejects.toThrow(
+      /manager or the job's lead/,
+    );
     // (Mail goes to the SMTP stand-in the integration setup starts.)
     const recordId = await issueRecord(manager, jobId, [`surveyor-${Date.now()}@survey.example`]);
     expect((await verifyRecord(recordId))!.genuine).toBe(true);
     expect(await knex("audit_log").where({ action: "record.issued", entity_id: recordId })).toHaveLength(1);
     const row = await knex("records").where({ id: recordId }).first();
-    await knex("records").where({ id: recordId }).update({ content: row.content.replace('"text":"ok"', '"text":"OK"') });
+    await knex("records")
+      .where({ id: recordId })
+      .update({ content: row.content.replace('"text":"ok"', '"text":"OK"') });
     const changed = (await verifyRecord(recordId))!;
     expect(changed.genuine).toBe(false);
     expect(changed.problems.join(" ")).toMatch(/does not match/);

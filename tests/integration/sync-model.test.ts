@@ -26,13 +26,30 @@ const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 const ITEMS = ["seacock", "strainer", "impeller", "thermostat"] as const;
 const valueArb = fc.oneof(
   fc.constant({ result: "pass" }),
-  fc.constantFrom("Weeping at the flange", "Replaced", "Seized handle").map((note) => ({ result: "fail", note })),
+  fc
+    .constantFrom("Weeping at the flange", "Replaced", "Seized handle")
+    .map((note) => ({ result: "fail", note })),
   fc.constant({ result: "na", note: "Not fitted on this boat" }),
 );
 type Fault = "none" | "drop" | "lose-answer" | "duplicate" | "replay-old";
 const stepArb = fc.oneof(
-  { weight: 3, arbitrary: fc.record({ kind: fc.constant("edit" as const), device: fc.nat(2), item: fc.constantFrom(...ITEMS), value: valueArb }) },
-  { weight: 2, arbitrary: fc.record({ kind: fc.constant("sync" as const), device: fc.nat(2), fault: fc.constantFrom<Fault>("none", "drop", "lose-answer", "duplicate", "replay-old") }) },
+  {
+    weight: 3,
+    arbitrary: fc.record({
+      kind: fc.constant("edit" as const),
+      device: fc.nat(2),
+      item: fc.constantFrom(...ITEMS),
+      value: valueArb,
+    }),
+  },
+  {
+    weight: 2,
+    arbitrary: fc.record({
+      kind: fc.constant("sync" as const),
+      device: fc.nat(2),
+      fault: fc.constantFrom<Fault>("none", "drop", "lose-answer", "duplicate", "replay-old"),
+    }),
+  },
 );
 
 let app: Awaited<ReturnType<typeof appHandler>>;
@@ -47,11 +64,19 @@ async function setUpRun() {
   run++;
   const lead = await makeUser(knex, "lead");
   const techs = [await makeUser(knex, "technician"), await makeUser(knex, "technician")];
-  const job = await makeJob(knex, lead.id, techs.map((t) => t.id));
+  const job = await makeJob(
+    knex,
+    lead.id,
+    techs.map((t) => t.id),
+  );
   const [checklist] = await startChecklists(job.id, ["cooling"], lead.id);
   const people = [techs[0]!, techs[1]!, lead];
   const devices = await Promise.all(
-    people.map(async (p, i) => ({ name: `model-${run}-${i}`, cookie: await signInCookie(app, p.email), lastBody: null as string | null })),
+    people.map(async (p, i) => ({
+      name: `model-${run}-${i}`,
+      cookie: await signInCookie(app, p.email),
+      lastBody: null as string | null,
+    })),
   );
   for (const d of devices) {
     forgetLocalDb(d.name);
@@ -65,7 +90,13 @@ async function setUpRun() {
 function network(device: { cookie: string; lastBody: string | null }, fault: Fault): typeof fetch {
   return (async (_url: string, init: RequestInit) => {
     const body = String(init.body);
-    const send = (b: string) => app("/api/sync", { method: "POST", body: b, headers: { "Content-Type": "application/json" }, cookie: device.cookie });
+    const send = (b: string) =>
+      app("/api/sync", {
+        method: "POST",
+        body: b,
+        headers: { "Content-Type": "application/json" },
+        cookie: device.cookie,
+      });
     const previous = device.lastBody;
     device.lastBody = body;
     switch (fault) {
@@ -116,7 +147,11 @@ describe("offline sync under a bad network (model test)", () => {
         const current = await knex("checklist_responses").where({ checklist_id: checklist });
 
         // Each edit reached the server exactly once: its answer is kept in exactly one place.
-        const answered = [...history.map((h: any) => h.op_id), ...conflicts.map((c: any) => c.op_id), ...ops.map((o: any) => o.op_id)];
+        const answered = [
+          ...history.map((h: any) => h.op_id),
+          ...conflicts.map((c: any) => c.op_id),
+          ...ops.map((o: any) => o.op_id),
+        ];
         expect(answered.sort()).toEqual(made.map((m) => m.opId).sort());
         // No replay applied anything twice: one history row per applied operation, revisions 1..n per item.
         expect(new Set(history.map((h: any) => h.op_id)).size).toBe(history.length);
@@ -126,8 +161,12 @@ describe("offline sync under a bad network (model test)", () => {
         }
         // Nothing lost: every edit is in the item's history or kept in a conflict row.
         for (const m of made) {
-          const inHistory = history.some((h: any) => h.item_key === m.item && sameJson(parse(h.value), m.value));
-          const inConflict = conflicts.some((c: any) => c.op_id === m.opId && sameJson(parse(c.client_value), m.value));
+          const inHistory = history.some(
+            (h: any) => h.item_key === m.item && sameJson(parse(h.value), m.value),
+          );
+          const inConflict = conflicts.some(
+            (c: any) => c.op_id === m.opId && sameJson(parse(c.client_value), m.value),
+          );
           expect(inHistory || inConflict, `edit ${m.opId} on ${m.item} was lost`).toBe(true);
         }
         // The server's value is the last applied one.
@@ -141,7 +180,10 @@ describe("offline sync under a bad network (model test)", () => {
           const local = (await readChecklist(checklist))!;
           expect(local.waiting).toBe(0);
           for (const row of current) {
-            expect(sameJson(local.responses[row.item_key]?.value, parse(row.value)), `${device.name} differs on ${row.item_key}`).toBe(true);
+            expect(
+              sameJson(local.responses[row.item_key]?.value, parse(row.value)),
+              `${device.name} differs on ${row.item_key}`,
+            ).toBe(true);
             expect(local.responses[row.item_key]?.rev).toBe(row.rev);
           }
         }

@@ -11,7 +11,9 @@ const knex = testDb();
 const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 afterAll(() => knex.destroy());
 
-let tech: { id: number; email: string; name: string; role: "technician" }, otherTech: typeof tech, lead: { id: number; email: string; name: string; role: "lead" };
+let tech: { id: number; email: string; name: string; role: "technician" },
+  otherTech: typeof tech,
+  lead: { id: number; email: string; name: string; role: "lead" };
 let checklist: string, otherChecklist: string;
 beforeAll(async () => {
   await seedLibrary(knex);
@@ -25,15 +27,22 @@ beforeAll(async () => {
 });
 
 const device = "device-under-test-1";
-const push = (actor: { id: number; name: string; role: any }, ops: ReturnType<typeof op>[], cursor: string | null = null) => sync(actor, { deviceId: device, cursor, ops });
-const history = (item: string, id = checklist) => knex("response_history").where({ checklist_id: id, item_key: item }).orderBy("rev");
+const push = (
+  actor: { id: number; name: string; role: any },
+  ops: ReturnType<typeof op>[],
+  cursor: string | null = null,
+) => sync(actor, { deviceId: device, cursor, ops });
+const history = (item: string, id = checklist) =>
+  knex("response_history").where({ checklist_id: id, item_key: item }).orderBy("rev");
 
 describe("the sync rules on MariaDB", () => {
   it("applies an operation on the current revision and counts the revision up", async () => {
     const first = op(checklist, "seacock", check("pass"), 0);
     const answer = await push(tech, [first]);
     expect(answer.results).toEqual([{ opId: first.opId, status: "applied", rev: 1 }]);
-    expect(answer.changes).toEqual([expect.objectContaining({ checklistId: checklist, itemKey: "seacock", value: check("pass"), rev: 1 })]);
+    expect(answer.changes).toEqual([
+      expect.objectContaining({ checklistId: checklist, itemKey: "seacock", value: check("pass"), rev: 1 }),
+    ]);
     const second = op(checklist, "seacock", check("fail", "Handle seized"), 1);
     expect((await push(tech, [second])).results[0]).toMatchObject({ status: "applied", rev: 2 });
     expect((await history("seacock")).map((h: any) => h.rev)).toEqual([1, 2]);
@@ -64,19 +73,30 @@ describe("the sync rules on MariaDB", () => {
     const row = await knex("sync_conflicts").where({ op_id: stale.opId }).first();
     expect(parse(row.client_value)).toEqual(check("fail", "Cracked at the clamp"));
     expect(row.user_id).toBe(lead.id);
-    const current = await knex("checklist_responses").where({ checklist_id: checklist, item_key: "intake-hose" }).first();
+    const current = await knex("checklist_responses")
+      .where({ checklist_id: checklist, item_key: "intake-hose" })
+      .first();
     expect(parse(current.value)).toEqual(check("pass"));
 
     // The resolution is an ordinary operation on the current revision that names the conflict.
-    const decide = op(checklist, "intake-hose", check("fail", "Cracked at the clamp"), 1, { resolves: [answer.results[0]!.conflictId!] });
+    const decide = op(checklist, "intake-hose", check("fail", "Cracked at the clamp"), 1, {
+      resolves: [answer.results[0]!.conflictId!],
+    });
     expect((await push(lead, [decide])).results[0]).toMatchObject({ status: "applied", rev: 2 });
-    expect((await knex("sync_conflicts").where({ op_id: stale.opId }).first()).resolution_op_id).toBe(decide.opId);
+    expect((await knex("sync_conflicts").where({ op_id: stale.opId }).first()).resolution_op_id).toBe(
+      decide.opId,
+    );
   });
 
   it("refuses entries on other people's checklists, unknown items, bad values and locked checklists, without blocking the rest", async () => {
     const notMine = op(otherChecklist, "seacock", check("pass"), 0);
     const noItem = op(checklist, "no-such-item", check("pass"), 0);
-    const badUnit = op(checklist, "raw-water-flow", { attempts: [{ value: 30, unit: "psi", at: new Date().toISOString(), by: "T" }] }, 0);
+    const badUnit = op(
+      checklist,
+      "raw-water-flow",
+      { attempts: [{ value: 30, unit: "psi", at: new Date().toISOString(), by: "T" }] },
+      0,
+    );
     const fine = op(checklist, "thermostat", check("pass"), 0);
     const answer = await push(tech, [notMine, noItem, badUnit, fine]);
     expect(answer.results.map((r) => r.status)).toEqual(["rejected", "rejected", "rejected", "applied"]);
@@ -104,7 +124,10 @@ describe("the sync rules on MariaDB", () => {
   it("orders concurrent pushes to one item from two connections: one applies, the other conflicts", async () => {
     const a = op(checklist, "cooling-hoses", check("pass"), 0);
     const b = op(checklist, "cooling-hoses", check("fail", "Soft hose at the pump"), 0);
-    const [ra, rb] = await Promise.all([push(tech, [a]), sync(lead, { deviceId: "another-device", cursor: null, ops: [b] })]);
+    const [ra, rb] = await Promise.all([
+      push(tech, [a]),
+      sync(lead, { deviceId: "another-device", cursor: null, ops: [b] }),
+    ]);
     expect([ra.results[0]!.status, rb.results[0]!.status].sort()).toEqual(["applied", "conflict"]);
     expect(await history("cooling-hoses")).toHaveLength(1);
     expect(await knex("sync_conflicts").whereIn("op_id", [a.opId, b.opId])).toHaveLength(1);
@@ -115,12 +138,21 @@ describe("the sync rules on MariaDB", () => {
     await knex.raw(`CREATE TRIGGER slow_history BEFORE INSERT ON response_history FOR EACH ROW
       BEGIN IF NEW.item_key = 'no-cooling-leaks' THEN DO SLEEP(5); END IF; END`);
     try {
-      const ops = [op(checklist, "coolant-type", check("pass"), 0), op(checklist, "flow-against-maker", { option: "meets" }, 0), op(checklist, "no-cooling-leaks", check("pass"), 0)];
-      const running = push(tech, ops).then(() => "finished", (e) => String(e));
+      const ops = [
+        op(checklist, "coolant-type", check("pass"), 0),
+        op(checklist, "flow-against-maker", { option: "meets" }, 0),
+        op(checklist, "no-cooling-leaks", check("pass"), 0),
+      ];
+      const running = push(tech, ops).then(
+        () => "finished",
+        (e) => String(e),
+      );
       let killed = false;
       for (let i = 0; i < 50 && !killed; i++) {
         await new Promise((r) => setTimeout(r, 100));
-        const [rows] = await knex.raw("SELECT id FROM information_schema.processlist WHERE info = 'DO SLEEP(5)'");
+        const [rows] = await knex.raw(
+          "SELECT id FROM information_schema.processlist WHERE info = 'DO SLEEP(5)'",
+        );
         for (const row of rows) {
           await knex.raw(`KILL ${Number(row.id)}`);
           killed = true;
@@ -133,7 +165,11 @@ describe("the sync rules on MariaDB", () => {
         expect(await knex("sync_conflicts").where({ op_id: o.opId })).toHaveLength(0);
         expect(await knex("response_history").where({ op_id: o.opId })).toHaveLength(0);
       }
-      expect(await knex("checklist_responses").where({ checklist_id: checklist }).whereIn("item_key", ["coolant-type", "flow-against-maker", "no-cooling-leaks"])).toHaveLength(0);
+      expect(
+        await knex("checklist_responses")
+          .where({ checklist_id: checklist })
+          .whereIn("item_key", ["coolant-type", "flow-against-maker", "no-cooling-leaks"]),
+      ).toHaveLength(0);
     } finally {
       await knex.raw("DROP TRIGGER IF EXISTS slow_history");
     }
@@ -148,18 +184,34 @@ describe("POST /api/sync", () => {
     cookie = await signInCookie(app, tech.email);
   });
   const post = (body: unknown, withCookie = true) =>
-    app("/api/sync", { method: "POST", body: typeof body === "string" ? body : JSON.stringify(body), headers: { "Content-Type": "application/json" }, cookie: withCookie ? cookie : undefined });
+    app("/api/sync", {
+      method: "POST",
+      body: typeof body === "string" ? body : JSON.stringify(body),
+      headers: { "Content-Type": "application/json" },
+      cookie: withCookie ? cookie : undefined,
+    });
 
   it("needs a session", async () => {
     expect((await post({ deviceId: device, cursor: null, ops: [] }, false)).status).toBe(401);
   });
 
   it("answers 400 naming the bad fields, and applies nothing of a malformed batch", async () => {
-    const good = op(checklist, "freeze-protection", { attempts: [{ value: -30, unit: "degF", at: new Date().toISOString(), by: "T" }] }, 0);
-    const response = await post({ deviceId: device, cursor: null, ops: [good, { ...op(checklist, "x", 1, 0), opId: "not-a-uuid", baseRev: -1 }] });
+    const good = op(
+      checklist,
+      "freeze-protection",
+      { attempts: [{ value: -30, unit: "degF", at: new Date().toISOString(), by: "T" }] },
+      0,
+    );
+    const response = await post({
+      deviceId: device,
+      cursor: null,
+      ops: [good, { ...op(checklist, "x", 1, 0), opId: "not-a-uuid", baseRev: -1 }],
+    });
     expect(response.status).toBe(400);
     const body = await response.json();
-    expect(body.fields.map((f: any) => f.path)).toEqual(expect.arrayContaining(["ops[1].opId", "ops[1].baseRev"]));
+    expect(body.fields.map((f: any) => f.path)).toEqual(
+      expect.arrayContaining(["ops[1].opId", "ops[1].baseRev"]),
+    );
     expect(await knex("response_history").where({ op_id: good.opId })).toHaveLength(0);
     expect((await post("{not json")).status).toBe(400);
   });
@@ -170,7 +222,12 @@ describe("POST /api/sync", () => {
   });
 
   it("applies a well-formed batch", async () => {
-    const entry = op(checklist, "coolant-temperature-cruise", { attempts: [{ value: 180, unit: "degF", at: new Date().toISOString(), by: "T" }] }, 0);
+    const entry = op(
+      checklist,
+      "coolant-temperature-cruise",
+      { attempts: [{ value: 180, unit: "degF", at: new Date().toISOString(), by: "T" }] },
+      0,
+    );
     const response = await post({ deviceId: device, cursor: null, ops: [entry] });
     expect(response.status).toBe(200);
     expect((await response.json()).results[0]).toMatchObject({ opId: entry.opId, status: "applied", rev: 1 });

@@ -12,14 +12,35 @@ const knex = testDb();
 afterAll(() => knex.destroy());
 beforeAll(() => seedLibrary(knex));
 
-const snapshot = async () => knex("template_versions").orderBy("id").select("id", "template_key", "version", "status", "body_sha256", "published_at");
+const snapshot = async () =>
+  knex("template_versions")
+    .orderBy("id")
+    .select("id", "template_key", "version", "status", "body_sha256", "published_at");
 
 describe("the template library in MariaDB", () => {
   it("holds the six starter templates, published", async () => {
     // Other test files add templates of their own to the shared database; the six are there, published.
     const keys = (await latestPublished()).map((t) => t.key);
-    expect(keys).toEqual(expect.arrayContaining(["cooling", "engine-alignment", "exhaust", "instruments-and-electrical", "propeller-shaft-and-coupling", "sea-trial"]));
-    const files = await knex("template_versions").whereIn("template_key", ["cooling", "engine-alignment", "exhaust", "instruments-and-electrical", "propeller-shaft-and-coupling", "sea-trial"]).where({ version: 1 });
+    expect(keys).toEqual(
+      expect.arrayContaining([
+        "cooling",
+        "engine-alignment",
+        "exhaust",
+        "instruments-and-electrical",
+        "propeller-shaft-and-coupling",
+        "sea-trial",
+      ]),
+    );
+    const files = await knex("template_versions")
+      .whereIn("template_key", [
+        "cooling",
+        "engine-alignment",
+        "exhaust",
+        "instruments-and-electrical",
+        "propeller-shaft-and-coupling",
+        "sea-trial",
+      ])
+      .where({ version: 1 });
     expect(files.every((f: any) => f.status === "published")).toBe(true);
   });
 
@@ -31,19 +52,40 @@ describe("the template library in MariaDB", () => {
 
   it("refuses a direct UPDATE or DELETE of a published version", async () => {
     const row = await knex("template_versions").where({ status: "published" }).first();
-    await expect(knex("template_versions").where({ id: row.id }).update({ body: "{}" })).rejects.toThrow(/cannot be changed/);
-    await expect(knex("template_versions").where({ id: row.id }).update({ title: "Changed" })).rejects.toThrow(/cannot be changed/);
-    await expect(knex("template_versions").where({ id: row.id }).update({ status: "draft" })).rejects.toThrow(/cannot be changed/);
-    await expect(knex("template_versions").where({ id: row.id }).delete()).rejects.toThrow(/cannot be deleted/);
-    expect((await knex("template_versions").where({ id: row.id }).first()).body_sha256).toBe(sha256(row.body));
+    await expect(knex("template_versions").where({ id: row.id }).update({ body: "{}" })).rejects.toThrow(
+      /cannot be changed/,
+    );
+    await expect(
+      knex("template_versions").where({ id: row.id }).update({ title: "Changed" }),
+    ).rejects.toThrow(/cannot be changed/);
+    await expect(knex("template_versions").where({ id: row.id }).update({ status: "draft" })).rejects.toThrow(
+      /cannot be changed/,
+    );
+    await expect(knex("template_versions").where({ id: row.id }).delete()).rejects.toThrow(
+      /cannot be deleted/,
+    );
+    expect((await knex("template_versions").where({ id: row.id }).first()).body_sha256).toBe(
+      sha256(row.body),
+    );
   });
 
   it("lets a draft change and a published version retire, but never come back", async () => {
-    const [id] = await knex("template_versions").insert({ template_key: "scratch", version: 1, status: "draft", title: "Scratch", body: "{}", body_sha256: sha256("{}") });
-    await knex("template_versions").where({ id }).update({ body: '{"a":1}', body_sha256: sha256('{"a":1}') });
+    const [id] = await knex("template_versions").insert({
+      template_key: "scratch",
+      version: 1,
+      status: "draft",
+      title: "Scratch",
+      body: "{}",
+      body_sha256: sha256("{}"),
+    });
+    await knex("template_versions")
+      .where({ id })
+      .update({ body: '{"a":1}', body_sha256: sha256('{"a":1}') });
     await knex("template_versions").where({ id }).update({ status: "published", published_at: new Date() });
     await knex("template_versions").where({ id }).update({ status: "retired", retired_at: new Date() });
-    await expect(knex("template_versions").where({ id }).update({ status: "published" })).rejects.toThrow(/cannot be changed/);
+    await expect(knex("template_versions").where({ id }).update({ status: "published" })).rejects.toThrow(
+      /cannot be changed/,
+    );
   });
 
   it("stops the seed with the bad file's path and field, loading nothing", async () => {
@@ -55,7 +97,9 @@ describe("the template library in MariaDB", () => {
     broken.sections[0].items[0].label = 42;
     writeFileSync(path.join(dir, "cooling-copy.v1.json"), JSON.stringify(broken));
     const before = await snapshot();
-    await expect(seedLibrary(knex, dir)).rejects.toThrow(/cooling-copy\.v1\.json: sections\[0\]\.items\[0\]\.label/);
+    await expect(seedLibrary(knex, dir)).rejects.toThrow(
+      /cooling-copy\.v1\.json: sections\[0\]\.items\[0\]\.label/,
+    );
     expect(await snapshot()).toEqual(before);
   });
 
@@ -79,9 +123,19 @@ describe("a job's checklists", () => {
     expect(pinned?.version).toBe(1);
 
     // The manager publishes version 2 of the template (same content, a new title).
-    const v1 = await knex("template_versions").where({ template_key: "engine-alignment", version: 1 }).first();
+    const v1 = await knex("template_versions")
+      .where({ template_key: "engine-alignment", version: 1 })
+      .first();
     const body = JSON.stringify({ ...JSON.parse(v1.body), version: 2, title: "Engine alignment (rev. 2)" });
-    await knex("template_versions").insert({ template_key: "engine-alignment", version: 2, status: "published", title: "Engine alignment (rev. 2)", body, body_sha256: sha256(body), published_at: new Date() });
+    await knex("template_versions").insert({
+      template_key: "engine-alignment",
+      version: 2,
+      status: "published",
+      title: "Engine alignment (rev. 2)",
+      body,
+      body_sha256: sha256(body),
+      published_at: new Date(),
+    });
 
     const after = await findChecklist(first!);
     expect(after?.version).toBe(1);
@@ -101,7 +155,11 @@ describe("a job's checklists", () => {
     expect(await startChecklists(job.id, ["exhaust", "cooling"], lead.id)).toHaveLength(2);
     expect(await startChecklists(job.id, ["exhaust", "sea-trial"], lead.id)).toHaveLength(1);
     expect((await listJobChecklists(job.id)).map((c) => c.key)).toEqual(["exhaust", "cooling", "sea-trial"]);
-    expect(await knex("audit_log").where({ action: "checklist.started", user_id: lead.id }).count({ n: "*" })).toEqual([{ n: 3 }]);
-    await expect(startChecklists(job.id, ["no-such-template"], lead.id)).rejects.toThrow(/No published template/);
+    expect(
+      await knex("audit_log").where({ action: "checklist.started", user_id: lead.id }).count({ n: "*" }),
+    ).toEqual([{ n: 3 }]);
+    await expect(startChecklists(job.id, ["no-such-template"], lead.id)).rejects.toThrow(
+      /No published template/,
+    );
   });
 });

@@ -35,7 +35,11 @@ export default async function setup() {
   await knex.destroy();
 
   const mailDir = mkdtempSync(path.join(tmpdir(), "sternpost-mail-"));
-  const s3 = await startS3Fake({ port: S3_PORT, directory: mkdtempSync(path.join(tmpdir(), "sternpost-s3-")), bucket: "sternpost-photos" });
+  const s3 = await startS3Fake({
+    port: S3_PORT,
+    directory: mkdtempSync(path.join(tmpdir(), "sternpost-s3-")),
+    bucket: "sternpost-photos",
+  });
   const env = {
     ...process.env,
     NODE_ENV: "production",

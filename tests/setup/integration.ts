@@ -13,8 +13,18 @@ export default async function setup() {
 
   // Any free port unless INTEGRATION_S3_PORT says (suites run side by side on one machine).
   const s3Dir = mkdtempSync(path.join(tmpdir(), "sternpost-s3-"));
-  const s3 = await startS3Fake({ port: Number(process.env.INTEGRATION_S3_PORT ?? 0), directory: s3Dir, bucket: "sternpost-photos-test" });
-  Object.assign(process.env, { S3_ENDPOINT: s3.endpoint, S3_BUCKET: "sternpost-photos-test", S3_ACCESS_KEY_ID: "S3RVER", S3_SECRET_ACCESS_KEY: "S3RVER", S3_FORCE_PATH_STYLE: "true" });
+  const s3 = await startS3Fake({
+    port: Number(process.env.INTEGRATION_S3_PORT ?? 0),
+    directory: s3Dir,
+    bucket: "sternpost-photos-test",
+  });
+  Object.assign(process.env, {
+    S3_ENDPOINT: s3.endpoint,
+    S3_BUCKET: "sternpost-photos-test",
+    S3_ACCESS_KEY_ID: "S3RVER",
+    S3_SECRET_ACCESS_KEY: "S3RVER",
+    S3_FORCE_PATH_STYLE: "true",
+  });
   // Mail the code under test sends lands in a sink of its own.
   const mailDir = mkdtempSync(path.join(tmpdir(), "sternpost-mail-"));
   const sink = await startMailSink({ port: 0, directory: mailDir });

@@ -9,15 +9,27 @@ export async function launch(): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
     args: [
-      "--headless", "--no-sandbox", "--disable-gpu", "--disable-quic", "--no-first-run",
-      "--disable-background-networking", "--disable-component-update", "--disable-sync",
+      "--headless",
+      "--no-sandbox",
+      "--disable-gpu",
+      "--disable-quic",
+      "--no-first-run",
+      "--disable-background-networking",
+      "--disable-component-update",
+      "--disable-sync",
     ],
   });
 }
 
 /** A tablet-sized context whose pages fail the test on any console error. */
-export async function tabletContext(browser: Browser): Promise<{ context: BrowserContext; errors: string[] }> {
-  const context = await browser.newContext({ viewport: { width: 820, height: 1180 }, baseURL: baseUrl(), hasTouch: true });
+export async function tabletContext(
+  browser: Browser,
+): Promise<{ context: BrowserContext; errors: string[] }> {
+  const context = await browser.newContext({
+    viewport: { width: 820, height: 1180 },
+    baseURL: baseUrl(),
+    hasTouch: true,
+  });
   const errors: string[] = [];
   context.on("page", (page) => watch(page, errors));
   return { context, errors };
@@ -26,7 +38,8 @@ export async function tabletContext(browser: Browser): Promise<{ context: Browse
 function watch(page: Page, errors: string[]) {
   page.on("console", (m) => {
     // A refused page load (403/404) logs a resource error; the tests check those statuses themselves.
-    if (m.type() === "error" && !/Failed to load resource/.test(m.text())) errors.push(`${page.url()}: ${m.text()}`);
+    if (m.type() === "error" && !/Failed to load resource/.test(m.text()))
+      errors.push(`${page.url()}: ${m.text()}`);
   });
   page.on("pageerror", (e) => errors.push(`${page.url()}: ${String(e)}`));
 }

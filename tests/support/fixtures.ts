@@ -10,7 +10,13 @@ let counter = 0;
 export async function makeUser(knex: Knex, role: Role, overrides: { active?: boolean; name?: string } = {}) {
   const email = `${role}-${Date.now()}-${++counter}@test.example`;
   const name = overrides.name ?? `Test ${role} ${counter}`;
-  const [id] = await knex("users").insert({ email, name, role, password_hash: hash, active: overrides.active ?? true });
+  const [id] = await knex("users").insert({
+    email,
+    name,
+    role,
+    password_hash: hash,
+    active: overrides.active ?? true,
+  });
   return { id: id as number, email, role, name };
 }
 
@@ -47,6 +53,7 @@ export async function makeJob(knex: Knex, leadId: number, technicianIds: number[
     coupling_type: "Split clamp",
     lead_id: leadId,
   });
-  if (technicianIds.length) await knex("job_technicians").insert(technicianIds.map((user_id) => ({ job_id: id, user_id })));
+  if (technicianIds.length)
+    await knex("job_technicians").insert(technicianIds.map((user_id) => ({ job_id: id, user_id })));
   return { id: id as number, vesselId: vessel };
 }

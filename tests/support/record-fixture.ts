@@ -3,7 +3,13 @@ import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import type { Unit } from "~/lib/calc/units";
 import { checklistDigest } from "~/lib/record/digest.server";
-import type { CommissioningRecord, RecordChecklist, RecordComment, RecordPhoto, RecordRevision } from "~/lib/record/types";
+import type {
+  CommissioningRecord,
+  RecordChecklist,
+  RecordComment,
+  RecordPhoto,
+  RecordRevision,
+} from "~/lib/record/types";
 import { evaluateAll, loadTemplateFile, placedItems, type Item, type Template } from "~/lib/templates";
 
 /**
@@ -58,7 +64,12 @@ export function measureSteps(clock: Clock, by: string, unit: Unit, values: numbe
 }
 
 /** A readings grid entered set by set (each straightening or adjustment is a new set). */
-export function readingsSteps(clock: Clock, by: string, sets: { unit: Unit; cells: (number | null)[][] }[], note?: string): Step[] {
+export function readingsSteps(
+  clock: Clock,
+  by: string,
+  sets: { unit: Unit; cells: (number | null)[][] }[],
+  note?: string,
+): Step[] {
   const attempts: { cells: (number | null)[][]; unit: Unit; at: string; by: string }[] = [];
   return sets.map((set, i) => {
     const at = clock.next(i === 0 ? 7 : 55);
@@ -132,12 +143,15 @@ export function countersignedChecklist(spec: ChecklistSpec): RecordChecklist {
   for (const { item } of placedItems(template)) {
     let steps = spec.steps[item.key];
     if (!steps && item.kind === "photo") {
-      const ids = spec.photoIds?.[item.key] ?? Array.from({ length: item.minPhotos }, (_, i) => photoId(spec.id, item.key, i));
+      const ids =
+        spec.photoIds?.[item.key] ??
+        Array.from({ length: item.minPhotos }, (_, i) => photoId(spec.id, item.key, i));
       steps = oneStep(clock, by, defaultValue(item, by, "", ids));
     } else if (!steps && item.required && item.kind !== "calc") {
       const at = clock.next();
       const value = defaultValue(item, by, at, []);
-      if (value === undefined) throw new Error(`the fixture must spell out ${template.key}/${item.key} (${item.kind})`);
+      if (value === undefined)
+        throw new Error(`the fixture must spell out ${template.key}/${item.key} (${item.kind})`);
       steps = [{ value, by, at }];
     }
     if (!steps) continue;
@@ -155,10 +169,14 @@ export function countersignedChecklist(spec: ChecklistSpec): RecordChecklist {
     }),
   );
 
-  const verdicts = evaluateAll(template, Object.fromEntries(Object.entries(responses).map(([k, r]) => [k, r.value])));
+  const verdicts = evaluateAll(
+    template,
+    Object.fromEntries(Object.entries(responses).map(([k, r]) => [k, r.value])),
+  );
   const problems = placedItems(template).flatMap(({ item }) => {
     const verdict = verdicts[item.key];
-    if (verdict.status === "invalid" || (item.required && !verdict.done)) return [`${item.key}: ${verdict.message}`];
+    if (verdict.status === "invalid" || (item.required && !verdict.done))
+      return [`${item.key}: ${verdict.message}`];
     return [];
   });
   if (problems.length) throw new Error(`${template.key} could not be countersigned: ${problems.join(" | ")}`);
@@ -195,18 +213,56 @@ export function shaftChecklist(): RecordChecklist {
     clock,
     steps: {
       "shaft-material": oneStep(clock, tech, { option: "duplex-stainless" }),
-      "seat-roundness": readingsSteps(clock, tech, [{ unit: "in", cells: [[1.2512, 1.2514], [1.2513, 1.2512]] }]),
+      "seat-roundness": readingsSteps(clock, tech, [
+        {
+          unit: "in",
+          cells: [
+            [1.2512, 1.2514],
+            [1.2513, 1.2512],
+          ],
+        },
+      ]),
       "shaft-diameter": measureSteps(clock, tech, "in", [1.2512]),
       "runout-support": oneStep(clock, tech, { option: "lathe" }),
       "runout-readings": readingsSteps(clock, tech, [
         // As received: bowed at mid-length, 0.008 in TIR.
-        { unit: "in", cells: [[0, 0.0005, 0.001, 0.0005], [0, 0.002, 0.0045, 0.0025], [0, 0.0035, 0.008, 0.004], [0, 0.002, 0.005, 0.0025], [0, 0.0005, 0.0015, 0.001]] },
+        {
+          unit: "in",
+          cells: [
+            [0, 0.0005, 0.001, 0.0005],
+            [0, 0.002, 0.0045, 0.0025],
+            [0, 0.0035, 0.008, 0.004],
+            [0, 0.002, 0.005, 0.0025],
+            [0, 0.0005, 0.0015, 0.001],
+          ],
+        },
         // After the first press: still 0.0035 in at mid-length.
-        { unit: "in", cells: [[0, 0.0005, 0.001, 0.0005], [0, 0.001, 0.002, 0.001], [0, 0.0015, 0.0035, 0.002], [0, 0.001, 0.0025, 0.001], [0, 0.0005, 0.001, 0.0005]] },
+        {
+          unit: "in",
+          cells: [
+            [0, 0.0005, 0.001, 0.0005],
+            [0, 0.001, 0.002, 0.001],
+            [0, 0.0015, 0.0035, 0.002],
+            [0, 0.001, 0.0025, 0.001],
+            [0, 0.0005, 0.001, 0.0005],
+          ],
+        },
         // After the second press, read in thousandths.
-        { unit: "thou", cells: [[0, 0.5, 1, 0.5], [0, 0.5, 1, 0.5], [0, 1, 1.5, 0.5], [0, 0.5, 1, 0.5], [0, 0.5, 1, 0.5]] },
+        {
+          unit: "thou",
+          cells: [
+            [0, 0.5, 1, 0.5],
+            [0, 0.5, 1, 0.5],
+            [0, 1, 1.5, 0.5],
+            [0, 0.5, 1, 0.5],
+            [0, 0.5, 1, 0.5],
+          ],
+        },
       ]),
-      straightening: oneStep(clock, tech, { option: "press", note: "Two presses at mid-length, supported 18 in either side." }),
+      straightening: oneStep(clock, tech, {
+        option: "press",
+        note: "Two presses at mid-length, supported 18 in either side.",
+      }),
       "coupling-type": oneStep(clock, tech, { option: "keyed-straight" }),
       "coupling-bore": measureSteps(clock, tech, "in", [1.25]),
       "face-runout": measureSteps(clock, tech, "in", [0.0016, 0.0008]),
@@ -221,7 +277,10 @@ export function shaftChecklist(): RecordChecklist {
       "stern-bearing": [
         { value: { result: "fail" }, by: tech, at: clock.next() },
         {
-          value: { result: "fail", note: "Rubber stern bearing worn oval, 0.020 in play at the strut. Replaced with a new 1 1/4 in bearing; no play after." },
+          value: {
+            result: "fail",
+            note: "Rubber stern bearing worn oval, 0.020 in play at the strut. Replaced with a new 1 1/4 in bearing; no play after.",
+          },
           by: tech,
           at: clock.next(50),
         },
@@ -229,7 +288,11 @@ export function shaftChecklist(): RecordChecklist {
     },
     photoIds: { "locking-photo": ["c2d4e6f8-1a3b-4c5d-8e7f-90a1b2c3d4e5"] },
     comments: [
-      { itemKey: "runout-readings", by: people.lead, text: "Checked the third set with my own dial at mid-length: agrees within half a thou." },
+      {
+        itemKey: "runout-readings",
+        by: people.lead,
+        text: "Checked the third set with my own dial at mid-length: agrees within half a thou.",
+      },
       { itemKey: "stern-bearing", by: people.lead, text: "Old bearing kept in the job bin for the owner." },
     ],
   });
@@ -260,7 +323,13 @@ export function alignmentChecklist(): RecordChecklist {
       "adjuster-tpi": measureSteps(clock, tech, "tpi", [13]),
       "recheck-gaps": readingsSteps(clock, tech, [{ unit: "thou", cells: [[4.5, 4, 4.5, 4]] }]),
     },
-    comments: [{ itemKey: "face-gaps", by: people.lead, text: "Second set taken with the boat in her usual trim: accepted." }],
+    comments: [
+      {
+        itemKey: "face-gaps",
+        by: people.lead,
+        text: "Second set taken with the boat in her usual trim: accepted.",
+      },
+    ],
   });
 }
 

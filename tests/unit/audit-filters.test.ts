@@ -1,8 +1,10 @@
 import { describe, expect, it } from "vitest";
 import { actionInWords, auditActionGroups, auditFiltersSchema, startOfDayIn } from "~/lib/validation/audit";
 
-const messages = (result: { success: boolean; error?: { issues: { path: PropertyKey[]; message: string }[] } }) =>
-  Object.fromEntries((result.error?.issues ?? []).map((i) => [i.path.join("."), i.message]));
+const messages = (result: {
+  success: boolean;
+  error?: { issues: { path: PropertyKey[]; message: string }[] };
+}) => Object.fromEntries((result.error?.issues ?? []).map((i) => [i.path.join("."), i.message]));
 
 /** What a GET form sends: every field, the untouched ones empty. */
 const blank = { action: "", person: "", entity: "", entityId: "", device: "", from: "", to: "", tz: "UTC" };
@@ -11,7 +13,19 @@ describe("audit log filters", () => {
   it("read an untouched form as no filter at all", () => {
     const f = auditFiltersSchema.parse(blank);
     expect(f).toMatchObject({ tz: "UTC" });
-    for (const key of ["action", "person", "entity", "entityId", "device", "from", "to", "since", "until", "before"] as const) expect(f[key]).toBeUndefined();
+    for (const key of [
+      "action",
+      "person",
+      "entity",
+      "entityId",
+      "device",
+      "from",
+      "to",
+      "since",
+      "until",
+      "before",
+    ] as const)
+      expect(f[key]).toBeUndefined();
     expect(auditFiltersSchema.parse({}).tz).toBe("UTC");
   });
 
@@ -25,15 +39,29 @@ describe("audit log filters", () => {
       device: "tablet-aft-cabin-01",
       before: "1234",
     });
-    expect(f).toMatchObject({ action: "checklist.countersigned", person: 7, entity: "checklist", entityId: "3f1c2a9e-0000-4000-8000-000000000001", device: "tablet-aft-cabin-01", before: 1234 });
+    expect(f).toMatchObject({
+      action: "checklist.countersigned",
+      person: 7,
+      entity: "checklist",
+      entityId: "3f1c2a9e-0000-4000-8000-000000000001",
+      device: "tablet-aft-cabin-01",
+      before: 1234,
+    });
     expect(auditFiltersSchema.parse({ ...blank, action: "checklist." }).action).toBe("checklist.");
-    expect(auditFiltersSchema.parse({ ...blank, action: "template.draft-saved" }).action).toBe("template.draft-saved");
+    expect(auditFiltersSchema.parse({ ...blank, action: "template.draft-saved" }).action).toBe(
+      "template.draft-saved",
+    );
   });
 
   it("turn whole days into instants in the reader's time zone, the last day included", () => {
     // From memory: US Eastern time is UTC-5 in winter and UTC-4 from the second Sunday of
     // March to the first Sunday of November (Energy Policy Act of 2005, 15 U.S.C. 260a).
-    const f = auditFiltersSchema.parse({ ...blank, from: "2026-01-15", to: "2026-07-01", tz: "America/New_York" });
+    const f = auditFiltersSchema.parse({
+      ...blank,
+      from: "2026-01-15",
+      to: "2026-07-01",
+      tz: "America/New_York",
+    });
     expect(f.since?.toISOString()).toBe("2026-01-15T05:00:00.000Z");
     expect(f.until?.toISOString()).toBe("2026-07-02T04:00:00.000Z");
     const oneDay = auditFiltersSchema.parse({ ...blank, from: "2026-05-04", to: "2026-05-04" });
@@ -66,11 +94,23 @@ describe("audit log filters", () => {
   });
 
   it("refuse an id without its kind, a range that ends before it starts, and a fractional person", () => {
-    expect(messages(auditFiltersSchema.safeParse({ ...blank, entityId: "12" }))).toEqual({ entity: "Choose what kind of thing the id belongs to." });
-    expect(messages(auditFiltersSchema.safeParse({ ...blank, from: "2026-05-10", to: "2026-05-01" }))).toEqual({ to: "The last day is before the first day." });
-    expect(Object.keys(messages(auditFiltersSchema.safeParse({ ...blank, person: "2.5" })))).toEqual(["person"]);
-    expect(Object.keys(messages(auditFiltersSchema.safeParse({ ...blank, entityId: "12; DELETE", entity: "job" })))).toEqual(["entityId"]);
-    expect(Object.keys(messages(auditFiltersSchema.safeParse({ ...blank, action: "checklist" })))).toEqual(["action"]);
+    expect(messages(auditFiltersSchema.safeParse({ ...blank, entityId: "12" }))).toEqual({
+      entity: "Choose what kind of thing the id belongs to.",
+    });
+    expect(
+      messages(auditFiltersSchema.safeParse({ ...blank, from: "2026-05-10", to: "2026-05-01" })),
+    ).toEqual({ to: "The last day is before the first day." });
+    expect(Object.keys(messages(auditFiltersSchema.safeParse({ ...blank, person: "2.5" })))).toEqual([
+      "person",
+    ]);
+    expect(
+      Object.keys(
+        messages(auditFiltersSchema.safeParse({ ...blank, entityId: "12; DELETE", entity: "job" })),
+      ),
+    ).toEqual(["entityId"]);
+    expect(Object.keys(messages(auditFiltersSchema.safeParse({ ...blank, action: "checklist" })))).toEqual([
+      "action",
+    ]);
   });
 });
 

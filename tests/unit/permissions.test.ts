@@ -47,7 +47,15 @@ describe("permissions", () => {
 
   it("derive each role's navigation from the same capabilities", () => {
     const labels = (who: Parameters<typeof navigationFor>[0]) => navigationFor(who).map((i) => i.label);
-    expect(labels(manager)).toEqual(["Today", "Jobs", "Vessels", "Calculators", "Library", "People", "Audit log"]);
+    expect(labels(manager)).toEqual([
+      "Today",
+      "Jobs",
+      "Vessels",
+      "Calculators",
+      "Library",
+      "People",
+      "Audit log",
+    ]);
     expect(labels(lead)).toEqual(["Today", "Jobs", "Vessels", "Calculators", "Library"]);
     expect(labels(tech)).toEqual(["Today", "Jobs", "Calculators", "Library"]);
     expect(labels(surveyor)).toEqual(["Today"]);

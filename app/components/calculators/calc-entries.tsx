@@ -11,7 +11,14 @@ export type ClockPosition = (typeof CLOCK)[number];
 export type Entry =
   | { shape: "number"; text: string; unit?: Unit }
   | { shape: "clock"; texts: Record<ClockPosition, string>; unit: Unit }
-  | { shape: "grid"; rows: string[]; columns: string[]; texts: string[][]; positions?: { texts: string[]; unit: Unit }; unit: Unit }
+  | {
+      shape: "grid";
+      rows: string[];
+      columns: string[];
+      texts: string[][];
+      positions?: { texts: string[]; unit: Unit };
+      unit: Unit;
+    }
   | { shape: "list"; texts: string[]; unit: Unit }
   | { shape: "text"; text: string };
 
@@ -45,7 +52,11 @@ export function initialEntries(calcName: string, specs: Record<string, CalcInput
         entries[name] = { shape: "text", text: "" };
         break;
       case "clock":
-        entries[name] = { shape: "clock", texts: { top: "", bottom: "", port: "", starboard: "" }, unit: unit ?? "in" };
+        entries[name] = {
+          shape: "clock",
+          texts: { top: "", bottom: "", port: "", starboard: "" },
+          unit: unit ?? "in",
+        };
         break;
       case "grid": {
         const carries = Object.entries(carried).some(([, owner]) => owner === name);
@@ -77,7 +88,9 @@ export function resizeGrid(entry: Extract<Entry, { shape: "grid" }>, count: numb
     ...entry,
     rows,
     texts: rows.map((_, i) => entry.texts[i] ?? entry.columns.map(() => "")),
-    ...(entry.positions ? { positions: { ...entry.positions, texts: rows.map((_, i) => entry.positions!.texts[i] ?? "") } } : {}),
+    ...(entry.positions
+      ? { positions: { ...entry.positions, texts: rows.map((_, i) => entry.positions!.texts[i] ?? "") } }
+      : {}),
   };
 }
 
@@ -131,7 +144,16 @@ export function withUnit(entry: Entry, unit: Unit): Entry {
     case "number":
       return { ...entry, text: c(entry.text), unit };
     case "clock":
-      return { ...entry, texts: { top: c(entry.texts.top), bottom: c(entry.texts.bottom), port: c(entry.texts.port), starboard: c(entry.texts.starboard) }, unit };
+      return {
+        ...entry,
+        texts: {
+          top: c(entry.texts.top),
+          bottom: c(entry.texts.bottom),
+          port: c(entry.texts.port),
+          starboard: c(entry.texts.starboard),
+        },
+        unit,
+      };
     case "grid":
       return { ...entry, texts: entry.texts.map((row) => row.map(c)), unit };
     case "list":
@@ -145,7 +167,10 @@ export type LengthSystem = "inch" | "metric";
 export function withPositionsUnit(entry: Extract<Entry, { shape: "grid" }>, unit: Unit): Entry {
   if (!entry.positions) return entry;
   const from = entry.positions.unit;
-  return { ...entry, positions: { texts: entry.positions.texts.map((t) => convertText(t, from, unit)), unit } };
+  return {
+    ...entry,
+    positions: { texts: entry.positions.texts.map((t) => convertText(t, from, unit)), unit },
+  };
 }
 
 /**
@@ -162,7 +187,11 @@ function lengthIn(system: LengthSystem, specUnit: Unit, current: Unit): Unit {
 }
 
 /** Every length entry switched to inches or to millimetres. */
-export function withLengthSystem(entries: Entries, specs: Record<string, CalcInputSpec>, system: LengthSystem): Entries {
+export function withLengthSystem(
+  entries: Entries,
+  specs: Record<string, CalcInputSpec>,
+  system: LengthSystem,
+): Entries {
   const next: Entries = {};
   for (const [name, entry] of Object.entries(entries)) {
     const specUnit = specs[name]?.unit;
@@ -170,7 +199,8 @@ export function withLengthSystem(entries: Entries, specs: Record<string, CalcInp
     if (specUnit && entry.shape !== "text" && entry.unit && dimensionOf(entry.unit) === "length") {
       updated = withUnit(entry, lengthIn(system, specUnit, entry.unit));
     }
-    if (updated.shape === "grid" && updated.positions) updated = withPositionsUnit(updated, lengthIn(system, "in", updated.positions.unit));
+    if (updated.shape === "grid" && updated.positions)
+      updated = withPositionsUnit(updated, lengthIn(system, "in", updated.positions.unit));
     next[name] = updated;
   }
   return next;
@@ -202,7 +232,11 @@ export interface ReadEntries {
 const NOT_A_NUMBER = "Enter a number, like 0.003 or 24.";
 
 /** The registry's inputs from what is typed, or what is still missing and what cannot be read. */
-export function readEntries(calcName: string, specs: Record<string, CalcInputSpec>, entries: Entries): ReadEntries {
+export function readEntries(
+  calcName: string,
+  specs: Record<string, CalcInputSpec>,
+  entries: Entries,
+): ReadEntries {
   const inputs: Record<string, CalcInput | undefined> = {};
   const waiting: string[] = [];
   const invalid: Record<string, string> = {};
@@ -216,7 +250,13 @@ export function readEntries(calcName: string, specs: Record<string, CalcInputSpe
     if (values.some((v) => v === null)) return "partial";
     return values as number[];
   };
-  const settle = (name: string, label: string, optional: boolean | undefined, result: ReturnType<typeof readAll>, make: (values: number[]) => CalcInput) => {
+  const settle = (
+    name: string,
+    label: string,
+    optional: boolean | undefined,
+    result: ReturnType<typeof readAll>,
+    make: (values: number[]) => CalcInput,
+  ) => {
     if (result === "invalid") invalid[name] = NOT_A_NUMBER;
     else if (result === "partial") waiting.push(`${label} (some are blank)`);
     else if (result === undefined) {
@@ -236,14 +276,26 @@ export function readEntries(calcName: string, specs: Record<string, CalcInputSpe
         break;
       }
       case "number":
-        settle(name, spec.label, spec.optional, readAll([entry.text]), ([value]) => ({ kind: "number", value, unit: entry.unit ?? "1" }));
+        settle(name, spec.label, spec.optional, readAll([entry.text]), ([value]) => ({
+          kind: "number",
+          value,
+          unit: entry.unit ?? "1",
+        }));
         break;
       case "clock":
-        settle(name, spec.label, spec.optional, readAll(CLOCK.map((p) => entry.texts[p])), (values) => ({ kind: "numbers", values, unit: entry.unit }));
+        settle(name, spec.label, spec.optional, readAll(CLOCK.map((p) => entry.texts[p])), (values) => ({
+          kind: "numbers",
+          values,
+          unit: entry.unit,
+        }));
         break;
       case "list": {
         const filled = entry.texts.filter((t) => t.trim() !== "");
-        settle(name, spec.label, spec.optional, filled.length ? readAll(filled) : undefined, (values) => ({ kind: "numbers", values, unit: entry.unit }));
+        settle(name, spec.label, spec.optional, filled.length ? readAll(filled) : undefined, (values) => ({
+          kind: "numbers",
+          values,
+          unit: entry.unit,
+        }));
         break;
       }
       case "grid": {
@@ -251,14 +303,22 @@ export function readEntries(calcName: string, specs: Record<string, CalcInputSpe
           kind: "grid",
           rows: entry.rows,
           columns: entry.columns,
-          values: entry.rows.map((_, r) => flat.slice(r * entry.columns.length, (r + 1) * entry.columns.length)),
+          values: entry.rows.map((_, r) =>
+            flat.slice(r * entry.columns.length, (r + 1) * entry.columns.length),
+          ),
           unit: entry.unit,
         }));
         const positionsName = Object.keys(carried).find((n) => carried[n] === name);
         if (positionsName && entry.positions) {
           const positionsSpec = specs[positionsName];
           const positionsUnit = entry.positions.unit;
-          settle(positionsName, positionsSpec.label, positionsSpec.optional, readAll(entry.positions.texts), (values) => ({ kind: "numbers", values, unit: positionsUnit }));
+          settle(
+            positionsName,
+            positionsSpec.label,
+            positionsSpec.optional,
+            readAll(entry.positions.texts),
+            (values) => ({ kind: "numbers", values, unit: positionsUnit }),
+          );
           if (invalid[positionsName]) invalid[name] = invalid[positionsName];
         }
         break;

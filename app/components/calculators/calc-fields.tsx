@@ -1,6 +1,14 @@
 import type { CalcInputSpec, Unit } from "~/lib/calc";
 import { Field } from "~/components/field";
-import { choicesFor, resizeGrid, unitText, withPositionsUnit, withUnit, type ClockPosition, type Entry } from "./calc-entries";
+import {
+  choicesFor,
+  resizeGrid,
+  unitText,
+  withPositionsUnit,
+  withUnit,
+  type ClockPosition,
+  type Entry,
+} from "./calc-entries";
 
 /** Free-text inputs that take one of a few words, and classes offered as suggestions. */
 const textChoices: Record<string, { options: string[]; only: boolean }> = {
@@ -9,7 +17,12 @@ const textChoices: Record<string, { options: string[]; only: boolean }> = {
   "isoFit.shaft": { options: ["k6", "h6", "f7", "g6", "js6", "m6", "n6", "p6", "r6", "s6"], only: false },
 };
 
-const clockWords: Record<ClockPosition, string> = { top: "Top", bottom: "Bottom", port: "Port", starboard: "Starboard" };
+const clockWords: Record<ClockPosition, string> = {
+  top: "Top",
+  bottom: "Bottom",
+  port: "Port",
+  starboard: "Starboard",
+};
 
 interface EntryFieldProps {
   calcName: string;
@@ -45,14 +58,32 @@ const fieldId = (name: string) => `calc-${name}`;
 const errorProps = (name: string, error?: string) =>
   error ? { "aria-invalid": true, "aria-describedby": `${fieldId(name)}-error` } : {};
 
-function UnitPicker({ name, label, spec, unit, onPick }: { name: string; label: string; spec: CalcInputSpec; unit?: Unit; onPick(unit: Unit): void }) {
+function UnitPicker({
+  name,
+  label,
+  spec,
+  unit,
+  onPick,
+}: {
+  name: string;
+  label: string;
+  spec: CalcInputSpec;
+  unit?: Unit;
+  onPick(unit: Unit): void;
+}) {
   const choices = choicesFor(spec);
   if (!unit || choices.length === 0) return null;
   if (choices.length === 1) {
     return unit === "1" ? null : <span className="num min-w-12 self-center font-bold">{unitText(unit)}</span>;
   }
   return (
-    <select aria-label={`${label}: unit`} id={`${fieldId(name)}-unit`} className="field-input w-auto min-w-24" value={unit} onChange={(e) => onPick(e.target.value as Unit)}>
+    <select
+      aria-label={`${label}: unit`}
+      id={`${fieldId(name)}-unit`}
+      className="field-input w-auto min-w-24"
+      value={unit}
+      onChange={(e) => onPick(e.target.value as Unit)}
+    >
       {choices.map((u) => (
         <option key={u} value={u}>
           {unitText(u)}
@@ -62,7 +93,13 @@ function UnitPicker({ name, label, spec, unit, onPick }: { name: string; label: 
   );
 }
 
-function NumberField({ name, spec, entry, error, onChange }: EntryFieldProps & { entry: Extract<Entry, { shape: "number" }> }) {
+function NumberField({
+  name,
+  spec,
+  entry,
+  error,
+  onChange,
+}: EntryFieldProps & { entry: Extract<Entry, { shape: "number" }> }) {
   return (
     <Field id={fieldId(name)} label={labelOf(spec)} errors={error ? [error] : undefined}>
       <div className="flex gap-2">
@@ -75,14 +112,26 @@ function NumberField({ name, spec, entry, error, onChange }: EntryFieldProps & {
           onChange={(e) => onChange({ ...entry, text: e.target.value })}
           {...errorProps(name, error)}
         />
-        <UnitPicker name={name} label={spec.label} spec={spec} unit={entry.unit} onPick={(unit) => onChange(withUnit(entry, unit))} />
+        <UnitPicker
+          name={name}
+          label={spec.label}
+          spec={spec}
+          unit={entry.unit}
+          onPick={(unit) => onChange(withUnit(entry, unit))}
+        />
       </div>
     </Field>
   );
 }
 
 /** The four positions laid out as seen from aft: top above, port left, starboard right, bottom below. */
-function ClockField({ name, spec, entry, error, onChange }: EntryFieldProps & { entry: Extract<Entry, { shape: "clock" }> }) {
+function ClockField({
+  name,
+  spec,
+  entry,
+  error,
+  onChange,
+}: EntryFieldProps & { entry: Extract<Entry, { shape: "clock" }> }) {
   const cell = (position: ClockPosition, area: string) => (
     <label className={`flex flex-col gap-1 ${area}`}>
       <span className="text-sm font-bold">{clockWords[position]}</span>
@@ -105,7 +154,13 @@ function ClockField({ name, spec, entry, error, onChange }: EntryFieldProps & { 
         {cell("top", "col-start-2")}
         {cell("port", "col-start-1 row-start-2")}
         <div className="col-start-2 row-start-2 flex items-center justify-center">
-          <UnitPicker name={name} label={spec.label} spec={spec} unit={entry.unit} onPick={(unit) => onChange(withUnit(entry, unit))} />
+          <UnitPicker
+            name={name}
+            label={spec.label}
+            spec={spec}
+            unit={entry.unit}
+            onPick={(unit) => onChange(withUnit(entry, unit))}
+          />
         </div>
         {cell("starboard", "col-start-3 row-start-2")}
         {cell("bottom", "col-start-2 row-start-3")}
@@ -115,21 +170,47 @@ function ClockField({ name, spec, entry, error, onChange }: EntryFieldProps & { 
   );
 }
 
-function GridField({ name, spec, carried, entry, error, onChange }: EntryFieldProps & { entry: Extract<Entry, { shape: "grid" }> }) {
+function GridField({
+  name,
+  spec,
+  carried,
+  entry,
+  error,
+  onChange,
+}: EntryFieldProps & { entry: Extract<Entry, { shape: "grid" }> }) {
   const setCell = (r: number, c: number, text: string) =>
-    onChange({ ...entry, texts: entry.texts.map((row, i) => (i === r ? row.map((t, j) => (j === c ? text : t)) : row)) });
+    onChange({
+      ...entry,
+      texts: entry.texts.map((row, i) => (i === r ? row.map((t, j) => (j === c ? text : t)) : row)),
+    });
   const setPosition = (r: number, text: string) =>
-    entry.positions && onChange({ ...entry, positions: { ...entry.positions, texts: entry.positions.texts.map((t, i) => (i === r ? text : t)) } });
+    entry.positions &&
+    onChange({
+      ...entry,
+      positions: { ...entry.positions, texts: entry.positions.texts.map((t, i) => (i === r ? text : t)) },
+    });
   return (
     <fieldset className="flex flex-col gap-2" id={fieldId(name)}>
       <legend className="font-bold">{labelOf(spec)}</legend>
       <div className="flex flex-wrap items-center gap-2 text-sm">
         <span>Readings in</span>
-        <UnitPicker name={name} label={spec.label} spec={spec} unit={entry.unit} onPick={(unit) => onChange(withUnit(entry, unit))} />
+        <UnitPicker
+          name={name}
+          label={spec.label}
+          spec={spec}
+          unit={entry.unit}
+          onPick={(unit) => onChange(withUnit(entry, unit))}
+        />
         {entry.positions && carried && (
           <>
             <span>positions in</span>
-            <UnitPicker name={`${name}-positions`} label={carried.label} spec={carried} unit={entry.positions.unit} onPick={(unit) => onChange(withPositionsUnit(entry, unit))} />
+            <UnitPicker
+              name={`${name}-positions`}
+              label={carried.label}
+              spec={carried}
+              unit={entry.positions.unit}
+              onPick={(unit) => onChange(withPositionsUnit(entry, unit))}
+            />
           </>
         )}
       </div>
@@ -187,10 +268,19 @@ function GridField({ name, spec, carried, entry, error, onChange }: EntryFieldPr
         </table>
       </div>
       <div className="flex flex-wrap gap-2">
-        <button type="button" className="btn" onClick={() => onChange(resizeGrid(entry, entry.rows.length + 1))}>
+        <button
+          type="button"
+          className="btn"
+          onClick={() => onChange(resizeGrid(entry, entry.rows.length + 1))}
+        >
           Add a station
         </button>
-        <button type="button" className="btn" disabled={entry.rows.length <= 1} onClick={() => onChange(resizeGrid(entry, entry.rows.length - 1))}>
+        <button
+          type="button"
+          className="btn"
+          disabled={entry.rows.length <= 1}
+          onClick={() => onChange(resizeGrid(entry, entry.rows.length - 1))}
+        >
           Remove the last station
         </button>
       </div>
@@ -199,7 +289,13 @@ function GridField({ name, spec, carried, entry, error, onChange }: EntryFieldPr
   );
 }
 
-function ListField({ name, spec, entry, error, onChange }: EntryFieldProps & { entry: Extract<Entry, { shape: "list" }> }) {
+function ListField({
+  name,
+  spec,
+  entry,
+  error,
+  onChange,
+}: EntryFieldProps & { entry: Extract<Entry, { shape: "list" }> }) {
   return (
     <fieldset className="flex flex-col gap-2" id={fieldId(name)}>
       <legend className="font-bold">{labelOf(spec)}</legend>
@@ -212,17 +308,34 @@ function ListField({ name, spec, entry, error, onChange }: EntryFieldProps & { e
             className="field-input num w-28"
             aria-label={`${spec.label}: ${i + 1}`}
             value={text}
-            onChange={(e) => onChange({ ...entry, texts: entry.texts.map((t, j) => (j === i ? e.target.value : t)) })}
+            onChange={(e) =>
+              onChange({ ...entry, texts: entry.texts.map((t, j) => (j === i ? e.target.value : t)) })
+            }
             {...errorProps(name, error)}
           />
         ))}
-        <UnitPicker name={name} label={spec.label} spec={spec} unit={entry.unit} onPick={(unit) => onChange(withUnit(entry, unit))} />
+        <UnitPicker
+          name={name}
+          label={spec.label}
+          spec={spec}
+          unit={entry.unit}
+          onPick={(unit) => onChange(withUnit(entry, unit))}
+        />
       </div>
       <div className="flex flex-wrap gap-2">
-        <button type="button" className="btn" onClick={() => onChange({ ...entry, texts: [...entry.texts, ""] })}>
+        <button
+          type="button"
+          className="btn"
+          onClick={() => onChange({ ...entry, texts: [...entry.texts, ""] })}
+        >
           Add one more
         </button>
-        <button type="button" className="btn" disabled={entry.texts.length <= 1} onClick={() => onChange({ ...entry, texts: entry.texts.slice(0, -1) })}>
+        <button
+          type="button"
+          className="btn"
+          disabled={entry.texts.length <= 1}
+          onClick={() => onChange({ ...entry, texts: entry.texts.slice(0, -1) })}
+        >
           Remove the last
         </button>
       </div>
@@ -231,7 +344,14 @@ function ListField({ name, spec, entry, error, onChange }: EntryFieldProps & { e
   );
 }
 
-function TextField({ calcName, name, spec, entry, error, onChange }: EntryFieldProps & { entry: Extract<Entry, { shape: "text" }> }) {
+function TextField({
+  calcName,
+  name,
+  spec,
+  entry,
+  error,
+  onChange,
+}: EntryFieldProps & { entry: Extract<Entry, { shape: "text" }> }) {
   const choices = textChoices[`${calcName}.${name}`];
   if (choices?.only) {
     return (

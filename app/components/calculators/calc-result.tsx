@@ -5,7 +5,11 @@ import { unitText, type LengthSystem } from "./calc-entries";
 
 const verdictLooks: Record<CalcOutcome["verdict"], { mark: string; word: string; className: string }> = {
   pass: { mark: "✓", word: "Pass: meets the rule", className: "border-sound bg-sound-light text-sound" },
-  fail: { mark: "▲", word: "Fail: does not meet the rule", className: "border-fault bg-fault-light text-fault" },
+  fail: {
+    mark: "▲",
+    word: "Fail: does not meet the rule",
+    className: "border-fault bg-fault-light text-fault",
+  },
   info: { mark: "●", word: "Result: no limit to check against", className: "border-rule bg-paper text-ink" },
 };
 
@@ -13,10 +17,14 @@ const verdictLooks: Record<CalcOutcome["verdict"], { mark: string; word: string;
 function Quantity({ value, unit, system }: { value: number | string; unit?: string; system: LengthSystem }) {
   if (typeof value === "string") return <>{unit ? `${value} ${unitText(unit)}` : value}</>;
   const tight = unit === "%" || unit === "1" || !unit;
-  const write = (n: number, u?: string) => (tight ? `${formatNumber(n)}${u === "%" ? "%" : ""}` : `${formatNumber(n)} ${unitText(u!)}`);
+  const write = (n: number, u?: string) =>
+    tight ? `${formatNumber(n)}${u === "%" ? "%" : ""}` : `${formatNumber(n)} ${unitText(u!)}`;
   if (unit && isUnit(unit) && (unit === "in" || unit === "ft")) {
     const other = unit === "in" ? "mm" : "m";
-    const [first, second] = system === "metric" ? [write(convert(value, unit, other), other), write(value, unit)] : [write(value, unit), write(convert(value, unit, other), other)];
+    const [first, second] =
+      system === "metric"
+        ? [write(convert(value, unit, other), other), write(value, unit)]
+        : [write(value, unit), write(convert(value, unit, other), other)];
     return (
       <>
         {first} <span className="text-base font-normal text-ink-soft">({second})</span>
@@ -28,7 +36,11 @@ function Quantity({ value, unit, system }: { value: number | string; unit?: stri
 
 export function Caution({ children }: { children: ReactNode }) {
   return (
-    <p className="flex gap-2 rounded-md border-2 border-brass bg-brass-light p-2" role="note" aria-label="Caution">
+    <p
+      className="flex gap-2 rounded-md border-2 border-brass bg-brass-light p-2"
+      role="note"
+      aria-label="Caution"
+    >
       <span aria-hidden="true" className="font-bold">
         ⚠
       </span>
@@ -41,7 +53,15 @@ export function Caution({ children }: { children: ReactNode }) {
 }
 
 /** The outcome: its verdict in a word and a shape, each value with its unit, the rule applied and its source. */
-export function CalcResult({ definition, outcome, system }: { definition: CalcDefinition; outcome: CalcOutcome; system: LengthSystem }) {
+export function CalcResult({
+  definition,
+  outcome,
+  system,
+}: {
+  definition: CalcDefinition;
+  outcome: CalcOutcome;
+  system: LengthSystem;
+}) {
   const look = verdictLooks[outcome.verdict];
   return (
     <div className="flex flex-col gap-3" data-testid="calc-result" data-verdict={outcome.verdict}>

@@ -3,8 +3,14 @@ import type { CalcDefinition } from "~/lib/calc";
 
 /** The calculations grouped by the part of the job they serve; any the groups do not name come last. */
 const groups: { title: string; names: string[] }[] = [
-  { title: "Shaft and coupling", names: ["shaftRunout", "couplingFace", "couplingRim", "couplingFit", "isoFit"] },
-  { title: "Keys, tapers and threads", names: ["keyForShaft", "keyForShaftMm", "propellerTaper", "threadPitch"] },
+  {
+    title: "Shaft and coupling",
+    names: ["shaftRunout", "couplingFace", "couplingRim", "couplingFit", "isoFit"],
+  },
+  {
+    title: "Keys, tapers and threads",
+    names: ["keyForShaft", "keyForShaftMm", "propellerTaper", "threadPitch"],
+  },
   { title: "Engine alignment", names: ["mountMoves", "shimStack"] },
   { title: "Shaft size and bearings", names: ["shaftDiameter", "bearingSpacing"] },
   { title: "Propeller and sea trial", names: ["propSlip", "seaTrialLoading"] },
@@ -16,7 +22,10 @@ const groups: { title: string; names: string[] }[] = [
 export function CalculatorList({ calculations }: { calculations: Record<string, CalcDefinition> }) {
   const grouped = new Set(groups.flatMap((g) => g.names));
   const sections = [
-    ...groups.map((g) => ({ title: g.title, items: g.names.filter((n) => Object.hasOwn(calculations, n)).map((n) => calculations[n]) })),
+    ...groups.map((g) => ({
+      title: g.title,
+      items: g.names.filter((n) => Object.hasOwn(calculations, n)).map((n) => calculations[n]),
+    })),
     { title: "Other", items: Object.values(calculations).filter((c) => !grouped.has(c.name)) },
   ].filter((s) => s.items.length > 0);
   return (
@@ -29,7 +38,10 @@ export function CalculatorList({ calculations }: { calculations: Record<string, 
           <ul className="grid gap-3 md:grid-cols-2">
             {section.items.map((c) => (
               <li key={c.name}>
-                <Link to={`/calculators/${c.name}`} className="card flex min-h-12 flex-col gap-1 no-underline hover:border-copper">
+                <Link
+                  to={`/calculators/${c.name}`}
+                  className="card flex min-h-12 flex-col gap-1 no-underline hover:border-copper"
+                >
                   <span className="text-lg font-bold text-harbour underline">{c.title}</span>
                   <span className="text-ink">{c.summary}</span>
                 </Link>

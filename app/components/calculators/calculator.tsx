@@ -1,7 +1,16 @@
 import { useEffect, useMemo, useState } from "react";
 import { convert, runCalc, type CalcDefinition, type RunoutResult } from "~/lib/calc";
 import { diagramFor, type LengthUnit } from "~/components/diagrams";
-import { carriedBy, entryFor, hasInchLengths, initialEntries, readEntries, withLengthSystem, type Entries, type LengthSystem } from "./calc-entries";
+import {
+  carriedBy,
+  entryFor,
+  hasInchLengths,
+  initialEntries,
+  readEntries,
+  withLengthSystem,
+  type Entries,
+  type LengthSystem,
+} from "./calc-entries";
 import { EntryField } from "./calc-fields";
 import { CalcResult, Caution } from "./calc-result";
 import { plottableRuns, SpeedRuns, type SpeedRun } from "./speed-runs";
@@ -17,9 +26,12 @@ const conventions: Record<string, string> = {
     "Dial clamped to the shaft's half, plunger on the rim of the engine's half, both halves turned together. The offset is half the difference of opposite readings; the two side readings added should equal top and bottom added.",
   mountMoves:
     "The engine moves, the shaft does not. Distances are measured forward from the coupling face to the front and rear mounts. Offset: how far the engine's coupling centre sits above the shaft's (negative: below) and to starboard (negative: to port), or give the rim readings instead. A gap larger at the top means the engine's nose is low. A positive raise lifts that pair of mounts, a positive move to starboard shifts it to starboard; nut turns are the move times the adjuster's threads per inch.",
-  propSlip: "Speed through the water: the average of two runs in opposite directions takes out the current (common practice).",
-  seaTrialLoading: "Wide-open-throttle rpm with the boat at its normal load; the rated band is the engine maker's.",
-  wireSize: "Round-trip length: from the source to the load and back again. 3 % drop for critical circuits, 10 % for others (ABYC E-11).",
+  propSlip:
+    "Speed through the water: the average of two runs in opposite directions takes out the current (common practice).",
+  seaTrialLoading:
+    "Wide-open-throttle rpm with the boat at its normal load; the rated band is the engine maker's.",
+  wireSize:
+    "Round-trip length: from the source to the load and back again. 3 % drop for critical circuits, 10 % for others (ABYC E-11).",
 };
 
 const LENGTHS_KEY = "sternpost.calculator-lengths";
@@ -31,7 +43,10 @@ const LENGTHS_KEY = "sternpost.calculator-lengths";
 export function Calculator({ definition }: { definition: CalcDefinition }) {
   const { name } = definition;
   const [entries, setEntries] = useState<Entries>(() => initialEntries(name, definition.inputs));
-  const [runs, setRuns] = useState<SpeedRun[]>([{ rpm: "", knots: "" }, { rpm: "", knots: "" }]);
+  const [runs, setRuns] = useState<SpeedRun[]>([
+    { rpm: "", knots: "" },
+    { rpm: "", knots: "" },
+  ]);
   // Inches first: the library's own unit and the one most of its inputs default to.
   const [system, setSystem] = useState<LengthSystem>("inch");
 
@@ -60,9 +75,13 @@ export function Calculator({ definition }: { definition: CalcDefinition }) {
   const unplaced = failure && !Object.hasOwn(entries, entryFor(name, failure.field)) ? failure.message : null;
 
   const lengthUnit: LengthUnit = system === "metric" ? "mm" : "in";
-  const diagram = outcome ? diagramFor(name, outcome.detail, read.inputs, { lengthUnit, speedRuns: plottableRuns(runs) }) : null;
+  const diagram = outcome
+    ? diagramFor(name, outcome.detail, read.inputs, { lengthUnit, speedRuns: plottableRuns(runs) })
+    : null;
   const limitTirIn =
-    name === "shaftRunout" && read.inputs.limitTir?.kind === "number" ? convert(read.inputs.limitTir.value, read.inputs.limitTir.unit, "in") : undefined;
+    name === "shaftRunout" && read.inputs.limitTir?.kind === "number"
+      ? convert(read.inputs.limitTir.value, read.inputs.limitTir.unit, "in")
+      : undefined;
 
   const carried = carriedBy[name] ?? {};
   // A table of readings needs the full width; the result then follows the inputs.
@@ -71,7 +90,11 @@ export function Calculator({ definition }: { definition: CalcDefinition }) {
     <div className="flex flex-col gap-6">
       {definition.caution && <Caution>{definition.caution}</Caution>}
       <div className={`grid items-start gap-6 ${wide ? "" : "md:grid-cols-2"}`}>
-        <form className="card flex flex-col gap-5" onSubmit={(e) => e.preventDefault()} aria-label={`${definition.title}: inputs`}>
+        <form
+          className="card flex flex-col gap-5"
+          onSubmit={(e) => e.preventDefault()}
+          aria-label={`${definition.title}: inputs`}
+        >
           {conventions[name] && <p className="text-ink-soft">{conventions[name]}</p>}
           {hasInchLengths(definition.inputs) && (
             <div className="flex flex-wrap items-center gap-2" role="group" aria-label="Lengths in">
@@ -109,7 +132,11 @@ export function Calculator({ definition }: { definition: CalcDefinition }) {
           {name === "seaTrialLoading" && <SpeedRuns runs={runs} onChange={setRuns} />}
         </form>
 
-        <section className={`card flex flex-col gap-4 ${wide ? "" : "md:sticky md:top-4"}`} aria-labelledby="result-heading" aria-live="polite">
+        <section
+          className={`card flex flex-col gap-4 ${wide ? "" : "md:sticky md:top-4"}`}
+          aria-labelledby="result-heading"
+          aria-live="polite"
+        >
           <h2 id="result-heading" className="text-xl font-bold">
             Result
           </h2>
@@ -145,7 +172,11 @@ export function Calculator({ definition }: { definition: CalcDefinition }) {
         </section>
       )}
       {name === "shaftRunout" && (
-        <StraighteningLog worstTirIn={outcome ? (outcome.detail as RunoutResult).maxTirIn : undefined} limitTirIn={limitTirIn} lengthUnit={lengthUnit} />
+        <StraighteningLog
+          worstTirIn={outcome ? (outcome.detail as RunoutResult).maxTirIn : undefined}
+          limitTirIn={limitTirIn}
+          lengthUnit={lengthUnit}
+        />
       )}
     </div>
   );

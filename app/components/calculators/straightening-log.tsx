@@ -6,16 +6,28 @@ import { StraighteningDiagram, formatLength, type LengthUnit } from "~/component
  * The worst TIR after each straightening attempt, kept while the page is open: read the shaft,
  * keep the result, straighten, read again. The diagram shows the attempts coming down to the limit.
  */
-export function StraighteningLog({ worstTirIn, limitTirIn, lengthUnit }: { worstTirIn?: number; limitTirIn?: number; lengthUnit: LengthUnit }) {
+export function StraighteningLog({
+  worstTirIn,
+  limitTirIn,
+  lengthUnit,
+}: {
+  worstTirIn?: number;
+  limitTirIn?: number;
+  lengthUnit: LengthUnit;
+}) {
   const [attempts, setAttempts] = useState<number[]>([]);
-  const history = attempts.length && limitTirIn !== undefined ? straighteningHistory({ attemptsTirIn: attempts, limitTirIn }) : null;
+  const history =
+    attempts.length && limitTirIn !== undefined
+      ? straighteningHistory({ attemptsTirIn: attempts, limitTirIn })
+      : null;
   return (
     <section aria-labelledby="straightening-heading" className="card flex flex-col gap-3">
       <h2 id="straightening-heading" className="text-xl font-bold">
         Straightening attempts
       </h2>
       <p className="text-ink-soft">
-        Keep the worst TIR of each full set of readings, straighten at the high spot, read again and keep the new result.
+        Keep the worst TIR of each full set of readings, straighten at the high spot, read again and keep the
+        new result.
       </p>
       <div className="flex flex-wrap gap-2">
         <button
@@ -35,8 +47,16 @@ export function StraighteningLog({ worstTirIn, limitTirIn, lengthUnit }: { worst
         )}
       </div>
       {history && limitTirIn !== undefined && (
-        <div className="mx-auto w-full max-w-3xl [&_svg]:h-auto [&_svg]:w-full" data-testid="straightening-diagram">
-          <StraighteningDiagram history={history} limitTirIn={limitTirIn} attemptLabels={["As found"]} lengthUnit={lengthUnit} />
+        <div
+          className="mx-auto w-full max-w-3xl [&_svg]:h-auto [&_svg]:w-full"
+          data-testid="straightening-diagram"
+        >
+          <StraighteningDiagram
+            history={history}
+            limitTirIn={limitTirIn}
+            attemptLabels={["As found"]}
+            lengthUnit={lengthUnit}
+          />
         </div>
       )}
     </section>

@@ -35,15 +35,41 @@ export function readNumber(text: string): number | null {
 const now = () => new Date().toISOString();
 const choiceButton = (active: boolean) => `btn ${active ? "btn-primary" : ""}`;
 
-function NoteField({ id, label, note, disabled, onSave }: { id: string; label: string; note?: string; disabled: boolean; onSave: (note: string) => void }) {
+function NoteField({
+  id,
+  label,
+  note,
+  disabled,
+  onSave,
+}: {
+  id: string;
+  label: string;
+  note?: string;
+  disabled: boolean;
+  onSave: (note: string) => void;
+}) {
   const [text, setText] = useState(note ?? "");
   useDirtyMark(id, text !== (note ?? ""));
   return (
     <div className="flex flex-col gap-1">
-      <label htmlFor={id} className="font-bold">{label}</label>
-      <textarea id={id} className="field-input" rows={2} value={text} disabled={disabled} onChange={(e) => setText(e.target.value)} />
+      <label htmlFor={id} className="font-bold">
+        {label}
+      </label>
+      <textarea
+        id={id}
+        className="field-input"
+        rows={2}
+        value={text}
+        disabled={disabled}
+        onChange={(e) => setText(e.target.value)}
+      />
       <div>
-        <button type="button" className="btn" disabled={disabled || text === (note ?? "")} onClick={() => onSave(text)}>
+        <button
+          type="button"
+          className="btn"
+          disabled={disabled || text === (note ?? "")}
+          onClick={() => onSave(text)}
+        >
           Save note
         </button>
       </div>
@@ -53,18 +79,35 @@ function NoteField({ id, label, note, disabled, onSave }: { id: string; label: s
 
 export function CheckEditor({ item, value, verdict, disabled, onSave }: EditorProps) {
   const v = value as CheckValue | undefined;
-  const options: [CheckValue["result"], string][] = [["pass", "✓ Pass"], ["fail", "✕ Fail"], ["na", "– Not applicable"]];
+  const options: [CheckValue["result"], string][] = [
+    ["pass", "✓ Pass"],
+    ["fail", "✕ Fail"],
+    ["na", "– Not applicable"],
+  ];
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap gap-2" role="group" aria-label={`${item.label}: result`}>
         {options.map(([result, label]) => (
-          <button key={result} type="button" aria-pressed={v?.result === result} className={choiceButton(v?.result === result)} disabled={disabled} onClick={() => onSave({ result, ...(v?.note ? { note: v.note } : {}) })}>
+          <button
+            key={result}
+            type="button"
+            aria-pressed={v?.result === result}
+            className={choiceButton(v?.result === result)}
+            disabled={disabled}
+            onClick={() => onSave({ result, ...(v?.note ? { note: v.note } : {}) })}
+          >
             {label}
           </button>
         ))}
       </div>
       {v && (
-        <NoteField id={`${item.key}-note`} label={v.result === "pass" ? "Note (optional)" : "Note (required: what was found, what was done)"} note={v.note} disabled={disabled} onSave={(note) => onSave({ ...v, note })} />
+        <NoteField
+          id={`${item.key}-note`}
+          label={v.result === "pass" ? "Note (optional)" : "Note (required: what was found, what was done)"}
+          note={v.note}
+          disabled={disabled}
+          onSave={(note) => onSave({ ...v, note })}
+        />
       )}
       {verdict.finding && !v?.note && <p className="text-sm">A fail or not-applicable needs a note.</p>}
     </div>
@@ -83,22 +126,46 @@ export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: Ed
     if (reading === null) return setError("Enter the reading as a number, like 0.002.");
     setError(null);
     setText("");
-    onSave({ attempts: [...(v?.attempts ?? []), { value: reading, unit, at: now(), by }], ...(v?.note ? { note: v.note } : {}) });
+    onSave({
+      attempts: [...(v?.attempts ?? []), { value: reading, unit, at: now(), by }],
+      ...(v?.note ? { note: v.note } : {}),
+    });
   }
   return (
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap items-end gap-2">
         <div className="flex flex-col gap-1">
-          <label htmlFor={`${item.key}-value`} className="font-bold">Reading</label>
-          <input id={`${item.key}-value`} inputMode="decimal" autoComplete="off" className="field-input num w-40" value={text} disabled={disabled}
-            aria-invalid={error ? true : undefined} aria-describedby={error ? `${item.key}-value-error` : undefined}
-            onChange={(e) => setText(e.target.value)} onKeyDown={(e) => e.key === "Enter" && record()} />
+          <label htmlFor={`${item.key}-value`} className="font-bold">
+            Reading
+          </label>
+          <input
+            id={`${item.key}-value`}
+            inputMode="decimal"
+            autoComplete="off"
+            className="field-input num w-40"
+            value={text}
+            disabled={disabled}
+            aria-invalid={error ? true : undefined}
+            aria-describedby={error ? `${item.key}-value-error` : undefined}
+            onChange={(e) => setText(e.target.value)}
+            onKeyDown={(e) => e.key === "Enter" && record()}
+          />
         </div>
         <div className="flex flex-col gap-1">
-          <label htmlFor={`${item.key}-unit`} className="font-bold">Unit</label>
-          <select id={`${item.key}-unit`} className="field-input w-28" value={unit} disabled={disabled || units.length === 1} onChange={(e) => setUnit(e.target.value as Unit)}>
+          <label htmlFor={`${item.key}-unit`} className="font-bold">
+            Unit
+          </label>
+          <select
+            id={`${item.key}-unit`}
+            className="field-input w-28"
+            value={unit}
+            disabled={disabled || units.length === 1}
+            onChange={(e) => setUnit(e.target.value as Unit)}
+          >
             {units.map((u) => (
-              <option key={u} value={u}>{unitSymbol(u)}</option>
+              <option key={u} value={u}>
+                {unitSymbol(u)}
+              </option>
             ))}
           </select>
         </div>
@@ -106,10 +173,24 @@ export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: Ed
           {v?.attempts.length ? "Record a new attempt" : "Record reading"}
         </button>
       </div>
-      {error && <p id={`${item.key}-value-error`} role="alert" className="font-bold text-fault">▲ {error}</p>}
-      {v && v.attempts.length > 0 && <Attempts attempts={v.attempts.map((a) => ({ text: formatQuantity(a.value, a.unit), by: a.by, at: a.at }))} />}
+      {error && (
+        <p id={`${item.key}-value-error`} role="alert" className="font-bold text-fault">
+          ▲ {error}
+        </p>
+      )}
+      {v && v.attempts.length > 0 && (
+        <Attempts
+          attempts={v.attempts.map((a) => ({ text: formatQuantity(a.value, a.unit), by: a.by, at: a.at }))}
+        />
+      )}
       {v && (verdict.finding === "out-of-range" || v.note) && (
-        <NoteField id={`${item.key}-note`} label="Corrective action" note={v.note} disabled={disabled} onSave={(note) => onSave({ ...v, note })} />
+        <NoteField
+          id={`${item.key}-note`}
+          label="Corrective action"
+          note={v.note}
+          disabled={disabled}
+          onSave={(note) => onSave({ ...v, note })}
+        />
       )}
     </div>
   );
@@ -121,11 +202,16 @@ function Attempts({ attempts }: { attempts: { text: string; by: string; at: stri
       <caption className="text-left font-bold">Attempts (the last is reported)</caption>
       <tbody>
         {attempts.map((a, i) => (
-          <tr key={i} className={`border-b border-rule ${i === attempts.length - 1 ? "font-bold" : "text-ink-soft"}`}>
+          <tr
+            key={i}
+            className={`border-b border-rule ${i === attempts.length - 1 ? "font-bold" : "text-ink-soft"}`}
+          >
             <td className="py-1 pr-2">#{i + 1}</td>
             <td className="num py-1 pr-2">{a.text}</td>
             <td className="py-1 pr-2">{a.by}</td>
-            <td className="py-1">{new Date(a.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}</td>
+            <td className="py-1">
+              {new Date(a.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}
+            </td>
           </tr>
         ))}
       </tbody>
@@ -138,16 +224,29 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
   const last = v?.attempts.at(-1);
   const units = acceptedUnits(item);
   const [unit, setUnit] = useState<Unit>(last?.unit ?? item.unit);
-  const blank = () => item.rows.map((_, r) => item.columns.map((__, c) => (last?.cells[r]?.[c] ?? "") === "" ? "" : String(last!.cells[r]![c])));
+  const blank = () =>
+    item.rows.map((_, r) =>
+      item.columns.map((__, c) => ((last?.cells[r]?.[c] ?? "") === "" ? "" : String(last!.cells[r]![c]))),
+    );
   const [cells, setCells] = useState<string[][]>(blank);
   const [error, setError] = useState<string | null>(null);
   const offending = new Set((verdict.offending ?? []).map((o) => `${o.row}:${o.column ?? "*"}`));
   function record() {
     const numbers = cells.map((row) => row.map(readNumber));
-    const missing = numbers.flatMap((row, r) => row.map((n, c) => (n === null ? `${item.rows[r]!.label} / ${item.columns[c]!.label}` : null))).filter(Boolean);
-    if (missing.length) return setError(`Fill every cell with a number; missing or not a number: ${missing.slice(0, 4).join(", ")}${missing.length > 4 ? "…" : ""}.`);
+    const missing = numbers
+      .flatMap((row, r) =>
+        row.map((n, c) => (n === null ? `${item.rows[r]!.label} / ${item.columns[c]!.label}` : null)),
+      )
+      .filter(Boolean);
+    if (missing.length)
+      return setError(
+        `Fill every cell with a number; missing or not a number: ${missing.slice(0, 4).join(", ")}${missing.length > 4 ? "…" : ""}.`,
+      );
     setError(null);
-    onSave({ attempts: [...(v?.attempts ?? []), { cells: numbers, unit, at: now(), by }], ...(v?.note ? { note: v.note } : {}) });
+    onSave({
+      attempts: [...(v?.attempts ?? []), { cells: numbers, unit, at: now(), by }],
+      ...(v?.note ? { note: v.note } : {}),
+    });
   }
   return (
     <div className="flex flex-col gap-3">
@@ -157,21 +256,38 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
             <tr>
               <th className="p-1"></th>
               {item.columns.map((c) => (
-                <th key={c.key} scope="col" className="p-1 text-sm">{c.label}</th>
+                <th key={c.key} scope="col" className="p-1 text-sm">
+                  {c.label}
+                </th>
               ))}
             </tr>
           </thead>
           <tbody>
             {item.rows.map((row, r) => (
               <tr key={row.key}>
-                <th scope="row" className="p-1 pr-2 text-left text-sm">{row.label}</th>
+                <th scope="row" className="p-1 pr-2 text-left text-sm">
+                  {row.label}
+                </th>
                 {item.columns.map((col, c) => {
                   const bad = offending.has(`${r}:${c}`) || offending.has(`${r}:*`);
                   return (
                     <td key={col.key} className="p-1">
-                      <input aria-label={`${row.label}, ${col.label} (${unitSymbol(unit)})`} inputMode="decimal" autoComplete="off" className="field-input num w-24"
-                        aria-invalid={bad || undefined} disabled={disabled} value={cells[r]![c]!}
-                        onChange={(e) => setCells((all) => all.map((line, i) => (i === r ? line.map((cell, j) => (j === c ? e.target.value : cell)) : line)))} />
+                      <input
+                        aria-label={`${row.label}, ${col.label} (${unitSymbol(unit)})`}
+                        inputMode="decimal"
+                        autoComplete="off"
+                        className="field-input num w-24"
+                        aria-invalid={bad || undefined}
+                        disabled={disabled}
+                        value={cells[r]![c]!}
+                        onChange={(e) =>
+                          setCells((all) =>
+                            all.map((line, i) =>
+                              i === r ? line.map((cell, j) => (j === c ? e.target.value : cell)) : line,
+                            ),
+                          )
+                        }
+                      />
                       {bad && <span className="sr-only">outside limit</span>}
                     </td>
                   );
@@ -183,10 +299,20 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
       </div>
       <div className="flex flex-wrap items-end gap-2">
         <div className="flex flex-col gap-1">
-          <label htmlFor={`${item.key}-unit`} className="font-bold">Unit</label>
-          <select id={`${item.key}-unit`} className="field-input w-28" value={unit} disabled={disabled || units.length === 1} onChange={(e) => setUnit(e.target.value as Unit)}>
+          <label htmlFor={`${item.key}-unit`} className="font-bold">
+            Unit
+          </label>
+          <select
+            id={`${item.key}-unit`}
+            className="field-input w-28"
+            value={unit}
+            disabled={disabled || units.length === 1}
+            onChange={(e) => setUnit(e.target.value as Unit)}
+          >
             {units.map((u) => (
-              <option key={u} value={u}>{unitSymbol(u)}</option>
+              <option key={u} value={u}>
+                {unitSymbol(u)}
+              </option>
             ))}
           </select>
         </div>
@@ -194,12 +320,30 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
           {v?.attempts.length ? "Record a new set of readings" : "Record readings"}
         </button>
       </div>
-      {error && <p role="alert" className="font-bold text-fault">▲ {error}</p>}
+      {error && (
+        <p role="alert" className="font-bold text-fault">
+          ▲ {error}
+        </p>
+      )}
       {v && v.attempts.length > 1 && (
-        <Attempts attempts={v.attempts.map((a) => ({ text: a.cells.map((row) => row.map((n) => (n === null ? "–" : String(n))).join(" ")).join(" | ") + ` ${unitSymbol(a.unit)}`, by: a.by, at: a.at }))} />
+        <Attempts
+          attempts={v.attempts.map((a) => ({
+            text:
+              a.cells.map((row) => row.map((n) => (n === null ? "–" : String(n))).join(" ")).join(" | ") +
+              ` ${unitSymbol(a.unit)}`,
+            by: a.by,
+            at: a.at,
+          }))}
+        />
       )}
       {v && (verdict.finding === "out-of-range" || v.note) && (
-        <NoteField id={`${item.key}-note`} label="Corrective action" note={v.note} disabled={disabled} onSave={(note) => onSave({ ...v, note })} />
+        <NoteField
+          id={`${item.key}-note`}
+          label="Corrective action"
+          note={v.note}
+          disabled={disabled}
+          onSave={(note) => onSave({ ...v, note })}
+        />
       )}
     </div>
   );
@@ -211,12 +355,27 @@ export function ChoiceEditor({ item, value, verdict, disabled, onSave }: EditorP
     <div className="flex flex-col gap-3">
       <div className="flex flex-wrap gap-2" role="group" aria-label={item.label}>
         {item.options.map((o) => (
-          <button key={o.key} type="button" aria-pressed={v?.option === o.key} className={choiceButton(v?.option === o.key)} disabled={disabled} onClick={() => onSave({ option: o.key, ...(v?.note ? { note: v.note } : {}) })}>
+          <button
+            key={o.key}
+            type="button"
+            aria-pressed={v?.option === o.key}
+            className={choiceButton(v?.option === o.key)}
+            disabled={disabled}
+            onClick={() => onSave({ option: o.key, ...(v?.note ? { note: v.note } : {}) })}
+          >
             {o.label}
           </button>
         ))}
       </div>
-      {v && (verdict.finding || v.note) && <NoteField id={`${item.key}-note`} label="Note" note={v.note} disabled={disabled} onSave={(note) => onSave({ ...v, note })} />}
+      {v && (verdict.finding || v.note) && (
+        <NoteField
+          id={`${item.key}-note`}
+          label="Note"
+          note={v.note}
+          disabled={disabled}
+          onSave={(note) => onSave({ ...v, note })}
+        />
+      )}
     </div>
   );
 }
@@ -226,10 +385,26 @@ export function TextEditor({ item, value, disabled, onSave }: EditorProps) {
   useDirtyMark(`${item.key}-text`, text !== (value?.text ?? ""));
   return (
     <div className="flex flex-col gap-2">
-      <label htmlFor={`${item.key}-text`} className="sr-only">{item.label}</label>
-      <textarea id={`${item.key}-text`} className="field-input" rows={3} value={text} disabled={disabled} onChange={(e) => setText(e.target.value)} />
+      <label htmlFor={`${item.key}-text`} className="sr-only">
+        {item.label}
+      </label>
+      <textarea
+        id={`${item.key}-text`}
+        className="field-input"
+        rows={3}
+        value={text}
+        disabled={disabled}
+        onChange={(e) => setText(e.target.value)}
+      />
       <div>
-        <button type="button" className="btn btn-primary" disabled={disabled || text === (value?.text ?? "")} onClick={() => onSave({ text })}>Save</button>
+        <button
+          type="button"
+          className="btn btn-primary"
+          disabled={disabled || text === (value?.text ?? "")}
+          onClick={() => onSave({ text })}
+        >
+          Save
+        </button>
       </div>
     </div>
   );
@@ -238,23 +413,56 @@ export function TextEditor({ item, value, disabled, onSave }: EditorProps) {
 export function InitialsEditor({ item, value, by, disabled, onSave }: EditorProps) {
   const [initials, setInitials] = useState("");
   const [error, setError] = useState<string | null>(null);
-  if (value) return <p className="font-bold">Confirmed by {value.initials} ({value.by}), {new Date(value.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}.</p>;
+  if (value)
+    return (
+      <p className="font-bold">
+        Confirmed by {value.initials} ({value.by}),{" "}
+        {new Date(value.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}.
+      </p>
+    );
   return (
     <div className="flex flex-wrap items-end gap-2">
       <div className="flex flex-col gap-1">
-        <label htmlFor={`${item.key}-initials`} className="font-bold">Your initials</label>
-        <input id={`${item.key}-initials`} className="field-input w-32 uppercase" maxLength={8} value={initials} disabled={disabled} onChange={(e) => setInitials(e.target.value)} />
+        <label htmlFor={`${item.key}-initials`} className="font-bold">
+          Your initials
+        </label>
+        <input
+          id={`${item.key}-initials`}
+          className="field-input w-32 uppercase"
+          maxLength={8}
+          value={initials}
+          disabled={disabled}
+          onChange={(e) => setInitials(e.target.value)}
+        />
       </div>
-      <button type="button" className="btn btn-primary" disabled={disabled} onClick={() => {
-        if (!initials.trim()) return setError("Type your initials to confirm this step.");
-        onSave({ initials: initials.trim().toUpperCase(), at: now(), by });
-      }}>Confirm</button>
-      {error && <p role="alert" className="w-full font-bold text-fault">▲ {error}</p>}
+      <button
+        type="button"
+        className="btn btn-primary"
+        disabled={disabled}
+        onClick={() => {
+          if (!initials.trim()) return setError("Type your initials to confirm this step.");
+          onSave({ initials: initials.trim().toUpperCase(), at: now(), by });
+        }}
+      >
+        Confirm
+      </button>
+      {error && (
+        <p role="alert" className="w-full font-bold text-fault">
+          ▲ {error}
+        </p>
+      )}
     </div>
   );
 }
 
-export function CalcPanel({ item, value, verdict, disabled, onSave, diagram }: EditorProps & { diagram?: React.ReactNode }) {
+export function CalcPanel({
+  item,
+  value,
+  verdict,
+  disabled,
+  onSave,
+  diagram,
+}: EditorProps & { diagram?: React.ReactNode }) {
   const outcome = verdict.outcome;
   return (
     <div className="flex flex-col gap-3">
@@ -264,17 +472,30 @@ export function CalcPanel({ item, value, verdict, disabled, onSave, diagram }: E
             {Object.entries(outcome.values).map(([label, v]) => (
               <div key={label}>
                 <dt className="text-sm text-ink-soft">{label}</dt>
-                <dd className="num text-lg font-bold">{typeof v === "number" ? `${Number(v.toPrecision(4))} ${outcome.units[label] ?? ""}` : v}</dd>
+                <dd className="num text-lg font-bold">
+                  {typeof v === "number" ? `${Number(v.toPrecision(4))} ${outcome.units[label] ?? ""}` : v}
+                </dd>
               </div>
             ))}
           </dl>
-          <p className="text-sm"><strong>Rule: </strong>{outcome.rule}</p>
+          <p className="text-sm">
+            <strong>Rule: </strong>
+            {outcome.rule}
+          </p>
           {diagram}
         </>
       ) : (
         <p className="text-ink-soft">Computed once its inputs are entered.</p>
       )}
-      {(verdict.finding || value?.note) && <NoteField id={`${item.key}-note`} label="Corrective action" note={value?.note} disabled={disabled} onSave={(note) => onSave({ note })} />}
+      {(verdict.finding || value?.note) && (
+        <NoteField
+          id={`${item.key}-note`}
+          label="Corrective action"
+          note={value?.note}
+          disabled={disabled}
+          onSave={(note) => onSave({ note })}
+        />
+      )}
     </div>
   );
 }

@@ -1,5 +1,14 @@
 import type { Item, Template, Verdict } from "~/lib/templates";
-import { CalcPanel, CheckEditor, ChoiceEditor, InitialsEditor, MeasureEditor, ReadingsEditor, TextEditor, type EditorProps } from "./editors.tsx";
+import {
+  CalcPanel,
+  CheckEditor,
+  ChoiceEditor,
+  InitialsEditor,
+  MeasureEditor,
+  ReadingsEditor,
+  TextEditor,
+  type EditorProps,
+} from "./editors.tsx";
 import { ItemNotes } from "./item-notes.tsx";
 import { PhotoEditor } from "./photo-editor.tsx";
 import { VerdictBadge } from "./verdict-badge.tsx";
@@ -37,12 +46,25 @@ function Editor(props: EditorProps & { diagram?: React.ReactNode; checklistId?: 
     case "calc":
       return <CalcPanel {...props} />;
     case "photo":
-      return props.checklistId ? <PhotoEditor {...(props as EditorProps<typeof item>)} checklistId={props.checklistId} /> : null;
+      return props.checklistId ? (
+        <PhotoEditor {...(props as EditorProps<typeof item>)} checklistId={props.checklistId} />
+      ) : null;
   }
 }
 
 /** One item as the technician fills it: what to do, the entry, and its verdict in words and a shape. */
-export function FillItem({ item, value, verdict, pending, by, disabled, onSave, diagram, checklistId, children }: FillItemProps) {
+export function FillItem({
+  item,
+  value,
+  verdict,
+  pending,
+  by,
+  disabled,
+  onSave,
+  diagram,
+  checklistId,
+  children,
+}: FillItemProps) {
   return (
     <li className="card flex flex-col gap-3" data-item={item.key} id={`item-${item.key}`}>
       <div className="flex flex-wrap items-start justify-between gap-2">
@@ -50,10 +72,23 @@ export function FillItem({ item, value, verdict, pending, by, disabled, onSave, 
           {item.label}
           {item.required && <span className="sr-only"> (required)</span>}
         </h3>
-        {pending && <span className="text-sm font-bold text-harbour" data-testid="pending">Saved on this tablet · waiting to send</span>}
+        {pending && (
+          <span className="text-sm font-bold text-harbour" data-testid="pending">
+            Saved on this tablet · waiting to send
+          </span>
+        )}
       </div>
       <ItemNotes item={item} />
-      <Editor item={item} value={value} verdict={verdict} by={by} disabled={disabled} onSave={onSave} diagram={diagram} checklistId={checklistId} />
+      <Editor
+        item={item}
+        value={value}
+        verdict={verdict}
+        by={by}
+        disabled={disabled}
+        onSave={onSave}
+        diagram={diagram}
+        checklistId={checklistId}
+      />
       <VerdictBadge verdict={verdict} />
       {children}
     </li>

@@ -6,8 +6,14 @@ export function ItemNotes({ item }: { item: Item }) {
   return (
     <div className="flex flex-col gap-2">
       {item.caution && (
-        <p className="flex gap-2 rounded-md border-2 border-brass bg-brass-light p-2" role="note" aria-label="Caution">
-          <span aria-hidden="true" className="font-bold">⚠</span>
+        <p
+          className="flex gap-2 rounded-md border-2 border-brass bg-brass-light p-2"
+          role="note"
+          aria-label="Caution"
+        >
+          <span aria-hidden="true" className="font-bold">
+            ⚠
+          </span>
           <span>
             <strong>Caution: </strong>
             {item.caution}

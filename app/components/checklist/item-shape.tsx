@@ -25,7 +25,9 @@ export function ItemShape({ item }: { item: Item }) {
             <tr>
               <th className="border border-rule p-1"></th>
               {item.columns.map((c) => (
-                <th key={c.key} className="border border-rule p-1">{c.label}</th>
+                <th key={c.key} className="border border-rule p-1">
+                  {c.label}
+                </th>
               ))}
             </tr>
           </thead>
@@ -34,7 +36,9 @@ export function ItemShape({ item }: { item: Item }) {
               <tr key={r.key}>
                 <th className="border border-rule p-1 text-left">{r.label}</th>
                 {item.columns.map((c) => (
-                  <td key={c.key} className="border border-rule p-1 text-center text-ink-soft">{unitSymbol(item.unit)}</td>
+                  <td key={c.key} className="border border-rule p-1 text-center text-ink-soft">
+                    {unitSymbol(item.unit)}
+                  </td>
                 ))}
               </tr>
             ))}

@@ -14,8 +14,13 @@ const looks: Record<VerdictStatus, { shape: string; word: string; className: str
 export function VerdictBadge({ verdict }: { verdict: Verdict }) {
   const look = looks[verdict.status];
   return (
-    <div className={`flex items-start gap-2 rounded-md border-2 px-3 py-2 ${look.className}`} data-verdict={verdict.status}>
-      <span aria-hidden="true" className="text-xl leading-none font-bold">{look.shape}</span>
+    <div
+      className={`flex items-start gap-2 rounded-md border-2 px-3 py-2 ${look.className}`}
+      data-verdict={verdict.status}
+    >
+      <span aria-hidden="true" className="text-xl leading-none font-bold">
+        {look.shape}
+      </span>
       <span>
         <strong>{look.word}.</strong> <span className="text-ink">{verdict.message}</span>
       </span>

@@ -1,5 +1,14 @@
 import type { ClockGapsIn, CouplingFaceResult } from "~/lib/calc";
-import { colours, DiagramFrame, fixed, formatLength, Label, r, VerdictLine, type LengthUnit } from "./svg-kit";
+import {
+  colours,
+  DiagramFrame,
+  fixed,
+  formatLength,
+  Label,
+  r,
+  VerdictLine,
+  type LengthUnit,
+} from "./svg-kit";
 
 export interface CouplingFaceDiagramProps {
   /** Feeler gaps between the faces; drawn as feelers whose lengths exaggerate the differences. */
@@ -23,9 +32,18 @@ const LINE = 22;
  * four face gaps as feelers, the engine-side half dashed and shifted by its offset. Both are
  * exaggerated, and the words under the drawing give the true numbers.
  */
-export function CouplingFaceDiagram({ gapsIn, diameterIn, face, offset, lengthUnit = "in" }: CouplingFaceDiagramProps) {
+export function CouplingFaceDiagram({
+  gapsIn,
+  diameterIn,
+  face,
+  offset,
+  lengthUnit = "in",
+}: CouplingFaceDiagramProps) {
   const len = (v: number) => formatLength(v, lengthUnit);
-  const perInch = (slope: number) => (lengthUnit === "mm" ? `${fixed(slope * 1000, 2)} mm per m of diameter` : `${fixed(slope * 1000, 2)} thou per inch of diameter`);
+  const perInch = (slope: number) =>
+    lengthUnit === "mm"
+      ? `${fixed(slope * 1000, 2)} mm per m of diameter`
+      : `${fixed(slope * 1000, 2)} thou per inch of diameter`;
   const signed = (v: number) => (v > 0 ? `+${len(v)}` : len(v));
 
   const lines: { text: string; pass?: boolean }[] = [];
@@ -33,16 +51,24 @@ export function CouplingFaceDiagram({ gapsIn, diameterIn, face, offset, lengthUn
     const v = face.verticalGapDiffIn;
     const h = face.horizontalGapDiffIn;
     const vWords = v > 0 ? "open at the top (nose low)" : v < 0 ? "open at the bottom (nose high)" : "level";
-    const hWords = h > 0 ? "open to starboard (nose to port)" : h < 0 ? "open to port (nose to starboard)" : "level";
-    lines.push({ text: `Top minus bottom: ${signed(v)}, ${perInch(Math.abs(face.verticalSlope))} - ${vWords}` });
-    lines.push({ text: `Starboard minus port: ${signed(h)}, ${perInch(Math.abs(face.horizontalSlope))} - ${hWords}` });
+    const hWords =
+      h > 0 ? "open to starboard (nose to port)" : h < 0 ? "open to port (nose to starboard)" : "level";
+    lines.push({
+      text: `Top minus bottom: ${signed(v)}, ${perInch(Math.abs(face.verticalSlope))} - ${vWords}`,
+    });
+    lines.push({
+      text: `Starboard minus port: ${signed(h)}, ${perInch(Math.abs(face.horizontalSlope))} - ${hWords}`,
+    });
     const limits = [
       face.limitInPerInDiameter !== undefined ? perInch(face.limitInPerInDiameter) : "",
       face.limitGapDiffIn !== undefined ? `${len(face.limitGapDiffIn)} difference` : "",
     ]
       .filter(Boolean)
       .join(" and ");
-    lines.push({ text: face.pass ? `Faces parallel: within ${limits}` : `Faces out of parallel: more than ${limits}`, pass: face.pass });
+    lines.push({
+      text: face.pass ? `Faces parallel: within ${limits}` : `Faces out of parallel: more than ${limits}`,
+      pass: face.pass,
+    });
   }
   if (offset) {
     const v = offset.verticalIn;
@@ -55,7 +81,10 @@ export function CouplingFaceDiagram({ gapsIn, diameterIn, face, offset, lengthUn
     });
     if (offset.pass !== undefined) {
       const limit = offset.limitIn !== undefined ? ` ${len(offset.limitIn)} each way` : " the limit";
-      lines.push({ text: offset.pass ? `Offset within${limit}` : `Offset more than${limit}`, pass: offset.pass });
+      lines.push({
+        text: offset.pass ? `Offset within${limit}` : `Offset more than${limit}`,
+        pass: offset.pass,
+      });
     }
   }
   const H = 420 + lines.length * LINE + 24;
@@ -75,7 +104,9 @@ export function CouplingFaceDiagram({ gapsIn, diameterIn, face, offset, lengthUn
   const title = [
     "Coupling seen from aft, looking forward",
     diameterIn !== undefined ? `diameter ${len(diameterIn)}` : "",
-    gapsIn ? `face gaps: top ${len(gapsIn.top)}, bottom ${len(gapsIn.bottom)}, port ${len(gapsIn.port)}, starboard ${len(gapsIn.starboard)}` : "",
+    gapsIn
+      ? `face gaps: top ${len(gapsIn.top)}, bottom ${len(gapsIn.bottom)}, port ${len(gapsIn.port)}, starboard ${len(gapsIn.starboard)}`
+      : "",
     ...lines.map((l) => l.text),
   ]
     .filter(Boolean)
@@ -86,28 +117,115 @@ export function CouplingFaceDiagram({ gapsIn, diameterIn, face, offset, lengthUn
       <Label x={16} y={26} text="Coupling seen from aft, looking forward" size={16} bold />
       <circle cx={CX} cy={CY} r={RADIUS} fill={colours.paper} stroke={colours.ink} strokeWidth={3} />
       <circle cx={CX} cy={CY} r={30} fill={colours.card} stroke={colours.inkSoft} strokeWidth={1.5} />
-      {diameterIn !== undefined && <Label x={CX} y={CY + 52} text={`diameter ${len(diameterIn)}`} size={12} anchor="middle" fill={colours.inkSoft} />}
+      {diameterIn !== undefined && (
+        <Label
+          x={CX}
+          y={CY + 52}
+          text={`diameter ${len(diameterIn)}`}
+          size={12}
+          anchor="middle"
+          fill={colours.inkSoft}
+        />
+      )}
 
       {offset && largest > 0 && (
         <g>
-          <circle cx={r(ex)} cy={r(ey)} r={RADIUS} fill="none" stroke={colours.harbour} strokeWidth={2.5} strokeDasharray="10 6" />
+          <circle
+            cx={r(ex)}
+            cy={r(ey)}
+            r={RADIUS}
+            fill="none"
+            stroke={colours.harbour}
+            strokeWidth={2.5}
+            strokeDasharray="10 6"
+          />
           <Cross x={ex} y={ey} colour={colours.harbour} />
-          <Label x={r(ex + ux * 14)} y={r(ey + uy * 14 + 4)} text="engine centre" size={12} anchor={ux >= 0 ? "start" : "end"} bold fill={colours.harbour} />
-          <Label x={r(CX - ux * 14)} y={r(CY - uy * 14 + 4)} text="shaft centre" size={12} anchor={ux >= 0 ? "end" : "start"} fill={colours.ink} />
+          <Label
+            x={r(ex + ux * 14)}
+            y={r(ey + uy * 14 + 4)}
+            text="engine centre"
+            size={12}
+            anchor={ux >= 0 ? "start" : "end"}
+            bold
+            fill={colours.harbour}
+          />
+          <Label
+            x={r(CX - ux * 14)}
+            y={r(CY - uy * 14 + 4)}
+            text="shaft centre"
+            size={12}
+            anchor={ux >= 0 ? "end" : "start"}
+            fill={colours.ink}
+          />
         </g>
       )}
       <Cross x={CX} y={CY} colour={colours.ink} />
 
       {gapsIn ? (
         <g>
-          <rect x={CX - 7} y={r(CY - RADIUS - feeler(gapsIn.top))} width={14} height={r(feeler(gapsIn.top))} fill={colours.brassLight} stroke={colours.brass} strokeWidth={2} />
-          <Label x={CX} y={r(CY - RADIUS - feeler(gapsIn.top) - 8)} text={`Top ${len(gapsIn.top)}`} anchor="middle" bold />
-          <rect x={CX - 7} y={CY + RADIUS} width={14} height={r(feeler(gapsIn.bottom))} fill={colours.brassLight} stroke={colours.brass} strokeWidth={2} />
-          <Label x={CX} y={r(CY + RADIUS + feeler(gapsIn.bottom) + 20)} text={`Bottom ${len(gapsIn.bottom)}`} anchor="middle" bold />
-          <rect x={r(CX - RADIUS - feeler(gapsIn.port))} y={CY - 7} width={r(feeler(gapsIn.port))} height={14} fill={colours.brassLight} stroke={colours.brass} strokeWidth={2} />
-          <Label x={r(CX - RADIUS - feeler(gapsIn.port) - 8)} y={CY + 5} text={`Port ${len(gapsIn.port)}`} anchor="end" bold />
-          <rect x={CX + RADIUS} y={CY - 7} width={r(feeler(gapsIn.starboard))} height={14} fill={colours.brassLight} stroke={colours.brass} strokeWidth={2} />
-          <Label x={r(CX + RADIUS + feeler(gapsIn.starboard) + 8)} y={CY + 5} text={`Starboard ${len(gapsIn.starboard)}`} bold />
+          <rect
+            x={CX - 7}
+            y={r(CY - RADIUS - feeler(gapsIn.top))}
+            width={14}
+            height={r(feeler(gapsIn.top))}
+            fill={colours.brassLight}
+            stroke={colours.brass}
+            strokeWidth={2}
+          />
+          <Label
+            x={CX}
+            y={r(CY - RADIUS - feeler(gapsIn.top) - 8)}
+            text={`Top ${len(gapsIn.top)}`}
+            anchor="middle"
+            bold
+          />
+          <rect
+            x={CX - 7}
+            y={CY + RADIUS}
+            width={14}
+            height={r(feeler(gapsIn.bottom))}
+            fill={colours.brassLight}
+            stroke={colours.brass}
+            strokeWidth={2}
+          />
+          <Label
+            x={CX}
+            y={r(CY + RADIUS + feeler(gapsIn.bottom) + 20)}
+            text={`Bottom ${len(gapsIn.bottom)}`}
+            anchor="middle"
+            bold
+          />
+          <rect
+            x={r(CX - RADIUS - feeler(gapsIn.port))}
+            y={CY - 7}
+            width={r(feeler(gapsIn.port))}
+            height={14}
+            fill={colours.brassLight}
+            stroke={colours.brass}
+            strokeWidth={2}
+          />
+          <Label
+            x={r(CX - RADIUS - feeler(gapsIn.port) - 8)}
+            y={CY + 5}
+            text={`Port ${len(gapsIn.port)}`}
+            anchor="end"
+            bold
+          />
+          <rect
+            x={CX + RADIUS}
+            y={CY - 7}
+            width={r(feeler(gapsIn.starboard))}
+            height={14}
+            fill={colours.brassLight}
+            stroke={colours.brass}
+            strokeWidth={2}
+          />
+          <Label
+            x={r(CX + RADIUS + feeler(gapsIn.starboard) + 8)}
+            y={CY + 5}
+            text={`Starboard ${len(gapsIn.starboard)}`}
+            bold
+          />
         </g>
       ) : (
         <g>

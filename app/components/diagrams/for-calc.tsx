@@ -28,8 +28,10 @@ function numberIn(input: CalcInput | undefined, unit: Unit): number | undefined 
  * numbers in that order: the same two shapes the registry accepts for face gaps.
  */
 function clockIn(input: CalcInput | undefined): ClockGapsIn | undefined {
-  if (!input || (input.kind !== "numbers" && input.kind !== "grid") || dimensionOf(input.unit) !== "length") return undefined;
-  const inches = (v: number | null | undefined) => (typeof v === "number" && Number.isFinite(v) ? convert(v, input.unit, "in") : undefined);
+  if (!input || (input.kind !== "numbers" && input.kind !== "grid") || dimensionOf(input.unit) !== "length")
+    return undefined;
+  const inches = (v: number | null | undefined) =>
+    typeof v === "number" && Number.isFinite(v) ? convert(v, input.unit, "in") : undefined;
   let cells: [string, number | undefined][];
   if (input.kind === "numbers") {
     if (input.values.length !== 4) return undefined;
@@ -42,11 +44,17 @@ function clockIn(input: CalcInput | undefined): ClockGapsIn | undefined {
     return undefined;
   }
   const find = (pattern: RegExp) => cells.find(([label]) => pattern.test(label))?.[1];
-  const gaps = { top: find(/top/i), bottom: find(/bottom/i), port: find(/port/i), starboard: find(/starboard|stbd/i) };
+  const gaps = {
+    top: find(/top/i),
+    bottom: find(/bottom/i),
+    port: find(/port/i),
+    starboard: find(/starboard|stbd/i),
+  };
   return Object.values(gaps).every((v) => v !== undefined) ? (gaps as ClockGapsIn) : undefined;
 }
 
-const isObject = (detail: unknown): detail is Record<string, unknown> => typeof detail === "object" && detail !== null;
+const isObject = (detail: unknown): detail is Record<string, unknown> =>
+  typeof detail === "object" && detail !== null;
 
 export interface DiagramOptions {
   /** How lengths are written on the diagram (the library's results are in inches). */
@@ -60,7 +68,12 @@ export interface DiagramOptions {
  * it ran on, or null when the calculation has no diagram (or the inputs no longer fit it). Used
  * by the calculators and by a checklist's calc items.
  */
-export function diagramFor(calcName: string, detail: unknown, inputs: Inputs, options: DiagramOptions = {}): ReactElement | null {
+export function diagramFor(
+  calcName: string,
+  detail: unknown,
+  inputs: Inputs,
+  options: DiagramOptions = {},
+): ReactElement | null {
   if (!isObject(detail)) return null;
   const { lengthUnit } = options;
   switch (calcName) {
@@ -92,7 +105,12 @@ export function diagramFor(calcName: string, detail: unknown, inputs: Inputs, op
       const rim = detail as unknown as CouplingRimResult;
       return (
         <CouplingFaceDiagram
-          offset={{ verticalIn: rim.verticalOffsetIn, horizontalIn: rim.horizontalOffsetIn, pass: rim.pass, limitIn: numberIn(inputs.maxOffset, "in") }}
+          offset={{
+            verticalIn: rim.verticalOffsetIn,
+            horizontalIn: rim.horizontalOffsetIn,
+            pass: rim.pass,
+            limitIn: numberIn(inputs.maxOffset, "in"),
+          }}
           lengthUnit={lengthUnit}
         />
       );
@@ -101,7 +119,14 @@ export function diagramFor(calcName: string, detail: unknown, inputs: Inputs, op
       const frontMountIn = numberIn(inputs.frontMount, "in");
       const rearMountIn = numberIn(inputs.rearMount, "in");
       if (frontMountIn === undefined || rearMountIn === undefined) return null;
-      return <MountMovesDiagram moves={detail as unknown as MountMovesResult} frontMountIn={frontMountIn} rearMountIn={rearMountIn} lengthUnit={lengthUnit} />;
+      return (
+        <MountMovesDiagram
+          moves={detail as unknown as MountMovesResult}
+          frontMountIn={frontMountIn}
+          rearMountIn={rearMountIn}
+          lengthUnit={lengthUnit}
+        />
+      );
     }
     case "seaTrialLoading":
       return (
@@ -118,7 +143,8 @@ export function diagramFor(calcName: string, detail: unknown, inputs: Inputs, op
       const gearRatio = numberIn(inputs.gearRatio, "1");
       const rpm = numberIn(inputs.engineRpm, "rpm");
       const knots = numberIn(inputs.speed, "kn");
-      if (pitchIn === undefined || gearRatio === undefined || rpm === undefined || knots === undefined) return null;
+      if (pitchIn === undefined || gearRatio === undefined || rpm === undefined || knots === undefined)
+        return null;
       return <SeaTrialDiagram points={[{ rpm, knots }]} pitchLine={{ pitchIn, gearRatio }} />;
     }
     default:

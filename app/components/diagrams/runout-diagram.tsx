@@ -1,6 +1,18 @@
 import type { RunoutResult } from "~/lib/calc";
 import { atMost } from "~/lib/calc/numbers";
-import { colours, DiagramFrame, fixed, formatLength, Label, r, ticks, VerdictLine, VerdictMark, wrap, type LengthUnit } from "./svg-kit";
+import {
+  colours,
+  DiagramFrame,
+  fixed,
+  formatLength,
+  Label,
+  r,
+  ticks,
+  VerdictLine,
+  VerdictMark,
+  wrap,
+  type LengthUnit,
+} from "./svg-kit";
 
 export interface RunoutDiagramProps {
   result: RunoutResult;
@@ -22,11 +34,19 @@ const TOP = 50;
 const BOTTOM = 220;
 
 /** TIR at each station along the shaft as bars, with the limit drawn across and the worst station named. */
-export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, showPositions = true, lengthUnit = "in" }: RunoutDiagramProps) {
+export function RunoutDiagram({
+  result,
+  limitTirIn,
+  stationLabels,
+  angleLabels,
+  showPositions = true,
+  lengthUnit = "in",
+}: RunoutDiagramProps) {
   const { stations, worstStation, maxTirIn, pass } = result;
   const len = (v: number) => formatLength(v, lengthUnit);
   const nameOf = (i: number) => stationLabels?.[i] || `Station ${i + 1}`;
-  const angleOf = (i: number) => angleLabels?.[stations[i].highSpotIndex] ?? `${fixed(stations[i].highSpotAngleDeg, 0)}°`;
+  const angleOf = (i: number) =>
+    angleLabels?.[stations[i].highSpotIndex] ?? `${fixed(stations[i].highSpotAngleDeg, 0)}°`;
 
   const yTicks = ticks(Math.max(maxTirIn, limitTirIn, 0.001) * 1.45);
   const yTop = yTicks[yTicks.length - 1];
@@ -37,7 +57,8 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
   const pad = 44;
   const x = (i: number) => {
     if (stations.length === 1) return (LEFT + RIGHT) / 2;
-    if (showPositions && span > 0) return LEFT + pad + ((positions[i] - Math.min(...positions)) / span) * (RIGHT - LEFT - 2 * pad);
+    if (showPositions && span > 0)
+      return LEFT + pad + ((positions[i] - Math.min(...positions)) / span) * (RIGHT - LEFT - 2 * pad);
     return LEFT + pad + (i / (stations.length - 1)) * (RIGHT - LEFT - 2 * pad);
   };
 
@@ -50,7 +71,10 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
     `${pass ? "Within the limit" : "Over the limit"}: worst TIR ${len(maxTirIn)} at ${name}, limit ${len(limitTirIn)}`;
   const summary = verdictWords(worstName);
   const title = `Shaft runout along the shaft. ${summary}. ${stations
-    .map((s, i) => `${nameOf(i)}: ${len(s.tirIn)}${showPositions ? ` at ${len(s.positionIn)}` : ""}, high spot ${angleOf(i)}`)
+    .map(
+      (s, i) =>
+        `${nameOf(i)}: ${len(s.tirIn)}${showPositions ? ` at ${len(s.positionIn)}` : ""}, high spot ${angleOf(i)}`,
+    )
     .join("; ")}.`;
   const limitY = y(limitTirIn);
   // The limit's label goes at the right unless the last station's numbers sit on it there.
@@ -62,7 +86,14 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
   return (
     <DiagramFrame width={W} height={H} title={title}>
       <Label x={16} y={26} text="Runout along the shaft: TIR at each station" size={16} bold />
-      <Label x={LEFT} y={TOP - 8} text={`TIR (${lengthUnit})`} size={12} anchor="end" fill={colours.inkSoft} />
+      <Label
+        x={LEFT}
+        y={TOP - 8}
+        text={`TIR (${lengthUnit})`}
+        size={12}
+        anchor="end"
+        fill={colours.inkSoft}
+      />
 
       {limitTirIn < yTop && (
         <g>
@@ -95,22 +126,92 @@ export function RunoutDiagram({ result, limitTirIn, stationLabels, angleLabels, 
             />
             <VerdictMark x={x(i)} y={top - 11} pass={within} size={14} />
             <Label x={r(x(i))} y={r(top - 24)} halo text={len(s.tirIn)} size={13} anchor="middle" bold />
-            {i === worstStation && <Label x={r(x(i))} y={r(top - 40)} text="worst" size={12} anchor="middle" bold fill={within ? colours.ink : colours.fault} />}
+            {i === worstStation && (
+              <Label
+                x={r(x(i))}
+                y={r(top - 40)}
+                text="worst"
+                size={12}
+                anchor="middle"
+                bold
+                fill={within ? colours.ink : colours.fault}
+              />
+            )}
             {wrap(nameOf(i), labelChars).map((line, l) => (
-              <Label key={l} x={r(x(i))} y={BOTTOM + 17 + l * 14} text={line} size={12} anchor="middle" bold />
+              <Label
+                key={l}
+                x={r(x(i))}
+                y={BOTTOM + 17 + l * 14}
+                text={line}
+                size={12}
+                anchor="middle"
+                bold
+              />
             ))}
-            {showPositions && <Label x={r(x(i))} y={BOTTOM + 19 + nameLines * 14} text={`at ${len(s.positionIn)}`} size={12} anchor="middle" fill={colours.inkSoft} />}
-            <Label x={r(x(i))} y={BOTTOM + 19 + (nameLines + (showPositions ? 1 : 0)) * 14} text={`high spot ${angleOf(i)}`} size={12} anchor="middle" fill={colours.inkSoft} />
-            <path d={`M ${r(x(i) - 6)} ${BOTTOM + 68} L ${r(x(i) + 6)} ${BOTTOM + 68} L ${r(x(i))} ${BOTTOM + 76} Z`} fill={colours.ink} />
+            {showPositions && (
+              <Label
+                x={r(x(i))}
+                y={BOTTOM + 19 + nameLines * 14}
+                text={`at ${len(s.positionIn)}`}
+                size={12}
+                anchor="middle"
+                fill={colours.inkSoft}
+              />
+            )}
+            <Label
+              x={r(x(i))}
+              y={BOTTOM + 19 + (nameLines + (showPositions ? 1 : 0)) * 14}
+              text={`high spot ${angleOf(i)}`}
+              size={12}
+              anchor="middle"
+              fill={colours.inkSoft}
+            />
+            <path
+              d={`M ${r(x(i) - 6)} ${BOTTOM + 68} L ${r(x(i) + 6)} ${BOTTOM + 68} L ${r(x(i))} ${BOTTOM + 76} Z`}
+              fill={colours.ink}
+            />
           </g>
         );
       })}
 
-      <line x1={LEFT} y1={r(limitY)} x2={RIGHT} y2={r(limitY)} stroke={colours.copper} strokeWidth={2.5} strokeDasharray="9 5" />
-      <Label x={limitLabelLeft ? LEFT + 8 : RIGHT - 4} y={r(limitY) - 6} halo text={`limit ${len(limitTirIn)}`} size={13} anchor={limitLabelLeft ? "start" : "end"} bold fill={colours.copper} />
+      <line
+        x1={LEFT}
+        y1={r(limitY)}
+        x2={RIGHT}
+        y2={r(limitY)}
+        stroke={colours.copper}
+        strokeWidth={2.5}
+        strokeDasharray="9 5"
+      />
+      <Label
+        x={limitLabelLeft ? LEFT + 8 : RIGHT - 4}
+        y={r(limitY) - 6}
+        halo
+        text={`limit ${len(limitTirIn)}`}
+        size={13}
+        anchor={limitLabelLeft ? "start" : "end"}
+        bold
+        fill={colours.copper}
+      />
 
-      <rect x={r(shaftLeft)} y={BOTTOM + 78} width={r(shaftRight - shaftLeft)} height={14} rx={3} fill={colours.paper} stroke={colours.inkSoft} strokeWidth={1.5} />
-      <Label x={r(shaftLeft) - 6} y={BOTTOM + 90} text="shaft" size={12} anchor="end" fill={colours.inkSoft} />
+      <rect
+        x={r(shaftLeft)}
+        y={BOTTOM + 78}
+        width={r(shaftRight - shaftLeft)}
+        height={14}
+        rx={3}
+        fill={colours.paper}
+        stroke={colours.inkSoft}
+        strokeWidth={1.5}
+      />
+      <Label
+        x={r(shaftLeft) - 6}
+        y={BOTTOM + 90}
+        text="shaft"
+        size={12}
+        anchor="end"
+        fill={colours.inkSoft}
+      />
 
       <VerdictLine x={16} y={H - 16} pass={pass} text={verdictWords(wrap(worstName, 28, 1)[0])} size={14} />
     </DiagramFrame>

@@ -30,21 +30,44 @@ function loadingWords(loading: SeaTrialLoadingResult, wot: string): { verdict: s
   const change = `${fixed(Math.abs(loading.pitchChangeIn), 2)} in`;
   switch (loading.verdict) {
     case "over-propped":
-      return { verdict: `Over-propped: ${wot} is below the rated band`, change: `Indicative: about ${change} less pitch; the propeller shop advises` };
+      return {
+        verdict: `Over-propped: ${wot} is below the rated band`,
+        change: `Indicative: about ${change} less pitch; the propeller shop advises`,
+      };
     case "under-propped":
-      return { verdict: `Under-propped: ${wot} is above the rated band`, change: `Indicative: about ${change} more pitch; the propeller shop advises` };
+      return {
+        verdict: `Under-propped: ${wot} is above the rated band`,
+        change: `Indicative: about ${change} more pitch; the propeller shop advises`,
+      };
     default:
       return { verdict: `In range: ${wot} is within the rated band` };
   }
 }
 
 /** Engine rpm against speed, with the rated rpm band shaded and named, the WOT rpm drawn across, and the loading verdict. */
-export function SeaTrialDiagram({ points = [], ratedRpmMin, ratedRpmMax, wotRpm, loading, pitchLine }: SeaTrialDiagramProps) {
+export function SeaTrialDiagram({
+  points = [],
+  ratedRpmMin,
+  ratedRpmMax,
+  wotRpm,
+  loading,
+  pitchLine,
+}: SeaTrialDiagramProps) {
   const rpm = (v: number) => `${fixed(v, 0)} rpm`;
   const knotsAt = (engineRpm: number) =>
-    pitchLine ? propSlip({ pitchIn: pitchLine.pitchIn, engineRpm, gearRatio: pitchLine.gearRatio, speedKnots: 0 }).theoreticalKnots : 0;
+    pitchLine
+      ? propSlip({ pitchIn: pitchLine.pitchIn, engineRpm, gearRatio: pitchLine.gearRatio, speedKnots: 0 })
+          .theoreticalKnots
+      : 0;
   const slipAt = (p: SeaTrialPoint) =>
-    pitchLine ? propSlip({ pitchIn: pitchLine.pitchIn, engineRpm: p.rpm, gearRatio: pitchLine.gearRatio, speedKnots: p.knots }).slipPercent : undefined;
+    pitchLine
+      ? propSlip({
+          pitchIn: pitchLine.pitchIn,
+          engineRpm: p.rpm,
+          gearRatio: pitchLine.gearRatio,
+          speedKnots: p.knots,
+        }).slipPercent
+      : undefined;
 
   const rpms = [...points.map((p) => p.rpm), ratedRpmMax ?? 0, wotRpm ?? 0];
   const yTicks = ticks(Math.max(...rpms, 1000) * 1.1);
@@ -70,7 +93,9 @@ export function SeaTrialDiagram({ points = [], ratedRpmMin, ratedRpmMax, wotRpm,
     hasBand ? `rated band ${rpm(ratedRpmMin)} to ${rpm(ratedRpmMax)}` : "",
     wotText,
     ...points.map(pointText),
-    pitchLine ? `pitch speed line for ${fixed(pitchLine.pitchIn, 2)} in pitch at ${fixed(pitchLine.gearRatio, 3)} : 1` : "",
+    pitchLine
+      ? `pitch speed line for ${fixed(pitchLine.pitchIn, 2)} in pitch at ${fixed(pitchLine.gearRatio, 3)} : 1`
+      : "",
     verdict?.verdict ?? "",
     verdict?.change ?? "",
   ]
@@ -108,13 +133,34 @@ export function SeaTrialDiagram({ points = [], ratedRpmMin, ratedRpmMax, wotRpm,
       {yTicks.map((t) => (
         <g key={`y${t}`}>
           <line x1={LEFT} y1={r(y(t))} x2={RIGHT} y2={r(y(t))} stroke={colours.rule} strokeWidth={1} />
-          <Label x={LEFT - 6} y={r(y(t)) + 4} text={fixed(t, 0)} size={12} anchor="end" fill={colours.inkSoft} />
+          <Label
+            x={LEFT - 6}
+            y={r(y(t)) + 4}
+            text={fixed(t, 0)}
+            size={12}
+            anchor="end"
+            fill={colours.inkSoft}
+          />
         </g>
       ))}
       {xTicks.map((t) => (
         <g key={`x${t}`}>
-          <line x1={r(x(t))} y1={BOTTOM} x2={r(x(t))} y2={BOTTOM + 5} stroke={colours.ink} strokeWidth={1.5} />
-          <Label x={r(x(t))} y={BOTTOM + 19} text={fixed(t, 1)} size={12} anchor="middle" fill={colours.inkSoft} />
+          <line
+            x1={r(x(t))}
+            y1={BOTTOM}
+            x2={r(x(t))}
+            y2={BOTTOM + 5}
+            stroke={colours.ink}
+            strokeWidth={1.5}
+          />
+          <Label
+            x={r(x(t))}
+            y={BOTTOM + 19}
+            text={fixed(t, 1)}
+            size={12}
+            anchor="middle"
+            fill={colours.inkSoft}
+          />
         </g>
       ))}
       <line x1={LEFT} y1={TOP} x2={LEFT} y2={BOTTOM} stroke={colours.ink} strokeWidth={1.5} />
@@ -130,26 +176,72 @@ export function SeaTrialDiagram({ points = [], ratedRpmMin, ratedRpmMax, wotRpm,
 
       {pitchLine && pitchEnd > 0 && (
         <g>
-          <line x1={LEFT} y1={BOTTOM} x2={r(x(knotsAt(pitchEnd)))} y2={r(y(pitchEnd))} stroke={colours.inkSoft} strokeWidth={2} strokeDasharray="3 4" />
-          <Label x={r(x(knotsAt(pitchEnd)) - 6)} y={r(y(pitchEnd) + 16)} halo text="pitch speed, no slip" size={12} anchor="end" fill={colours.inkSoft} />
+          <line
+            x1={LEFT}
+            y1={BOTTOM}
+            x2={r(x(knotsAt(pitchEnd)))}
+            y2={r(y(pitchEnd))}
+            stroke={colours.inkSoft}
+            strokeWidth={2}
+            strokeDasharray="3 4"
+          />
+          <Label
+            x={r(x(knotsAt(pitchEnd)) - 6)}
+            y={r(y(pitchEnd) + 16)}
+            halo
+            text="pitch speed, no slip"
+            size={12}
+            anchor="end"
+            fill={colours.inkSoft}
+          />
         </g>
       )}
       {wotRpm !== undefined && (
         <g>
-          <line x1={LEFT} y1={r(y(wotRpm))} x2={RIGHT} y2={r(y(wotRpm))} stroke={colours.harbour} strokeWidth={2.5} strokeDasharray="9 5" />
-          <Label x={RIGHT - 4} y={r(y(wotRpm)) - 6} halo text={wotText} size={13} anchor="end" bold fill={colours.harbour} />
+          <line
+            x1={LEFT}
+            y1={r(y(wotRpm))}
+            x2={RIGHT}
+            y2={r(y(wotRpm))}
+            stroke={colours.harbour}
+            strokeWidth={2.5}
+            strokeDasharray="9 5"
+          />
+          <Label
+            x={RIGHT - 4}
+            y={r(y(wotRpm)) - 6}
+            halo
+            text={wotText}
+            size={13}
+            anchor="end"
+            bold
+            fill={colours.harbour}
+          />
         </g>
       )}
       {sorted.length > 1 && (
-        <polyline points={sorted.map((p) => `${r(x(p.knots))},${r(y(p.rpm))}`).join(" ")} fill="none" stroke={colours.ink} strokeWidth={2} />
+        <polyline
+          points={sorted.map((p) => `${r(x(p.knots))},${r(y(p.rpm))}`).join(" ")}
+          fill="none"
+          stroke={colours.ink}
+          strokeWidth={2}
+        />
       )}
       {sorted.map((p, i) => (
         <g key={i}>
-          <circle cx={r(x(p.knots))} cy={r(y(p.rpm))} r={6} fill={colours.ink} stroke={colours.card} strokeWidth={1.5} />
+          <circle
+            cx={r(x(p.knots))}
+            cy={r(y(p.rpm))}
+            r={6}
+            fill={colours.ink}
+            stroke={colours.card}
+            strokeWidth={1.5}
+          />
           <Label
             x={r(x(p.knots) + (x(p.knots) > RIGHT - 170 ? -10 : 10))}
             y={r(y(p.rpm) + 18)}
-            halo text={pointText(p)}
+            halo
+            text={pointText(p)}
             size={12}
             anchor={x(p.knots) > RIGHT - 170 ? "end" : "start"}
             bold
@@ -157,7 +249,9 @@ export function SeaTrialDiagram({ points = [], ratedRpmMin, ratedRpmMax, wotRpm,
         </g>
       ))}
 
-      {verdict && loading && <VerdictLine x={16} y={326} pass={loading.verdict === "in-range"} text={verdict.verdict} size={14} />}
+      {verdict && loading && (
+        <VerdictLine x={16} y={326} pass={loading.verdict === "in-range"} text={verdict.verdict} size={14} />
+      )}
       {verdict?.change && <Label x={42} y={346} text={verdict.change} size={13} />}
     </DiagramFrame>
   );

@@ -1,5 +1,15 @@
 import type { StraighteningResult } from "~/lib/calc";
-import { colours, DiagramFrame, formatLength, Label, r, ticks, VerdictLine, VerdictMark, type LengthUnit } from "./svg-kit";
+import {
+  colours,
+  DiagramFrame,
+  formatLength,
+  Label,
+  r,
+  ticks,
+  VerdictLine,
+  VerdictMark,
+  type LengthUnit,
+} from "./svg-kit";
 
 export interface StraighteningDiagramProps {
   /** straighteningHistory's result: the worst-station TIR after each attempt. */
@@ -18,7 +28,12 @@ const TOP = 50;
 const BOTTOM = 236;
 
 /** The worst TIR after each straightening attempt as a line of points, coming down (or not) to the limit. */
-export function StraighteningDiagram({ history, limitTirIn, attemptLabels, lengthUnit = "in" }: StraighteningDiagramProps) {
+export function StraighteningDiagram({
+  history,
+  limitTirIn,
+  attemptLabels,
+  lengthUnit = "in",
+}: StraighteningDiagramProps) {
   const { attempts, bestTirIn, bestAttempt, reachedLimitAt } = history;
   const len = (v: number) => formatLength(v, lengthUnit);
   const nameOf = (i: number) => attemptLabels?.[i] || `Attempt ${i + 1}`;
@@ -26,7 +41,10 @@ export function StraighteningDiagram({ history, limitTirIn, attemptLabels, lengt
   const yTicks = ticks(Math.max(...attempts.map((a) => a.tirIn), limitTirIn, 0.001) * 1.3);
   const yTop = yTicks[yTicks.length - 1];
   const y = (v: number) => BOTTOM - (v / yTop) * (BOTTOM - TOP);
-  const x = (i: number) => (attempts.length === 1 ? (LEFT + RIGHT) / 2 : LEFT + 40 + (i / (attempts.length - 1)) * (RIGHT - LEFT - 80));
+  const x = (i: number) =>
+    attempts.length === 1
+      ? (LEFT + RIGHT) / 2
+      : LEFT + 40 + (i / (attempts.length - 1)) * (RIGHT - LEFT - 80);
   const limitY = y(limitTirIn);
   // The limit's label goes at the right unless the last attempt's number sits on it there.
   const clearance = (i: number) => Math.abs(y(attempts[i].tirIn) - limitY);
@@ -43,8 +61,17 @@ export function StraighteningDiagram({ history, limitTirIn, attemptLabels, lengt
   return (
     <DiagramFrame width={W} height={H} title={title}>
       <Label x={16} y={26} text="Straightening: worst TIR after each attempt" size={16} bold />
-      <Label x={LEFT} y={TOP - 8} text={`TIR (${lengthUnit})`} size={12} anchor="end" fill={colours.inkSoft} />
-      {limitTirIn < yTop && <rect x={LEFT} y={TOP} width={RIGHT - LEFT} height={r(limitY - TOP)} fill={colours.faultLight} />}
+      <Label
+        x={LEFT}
+        y={TOP - 8}
+        text={`TIR (${lengthUnit})`}
+        size={12}
+        anchor="end"
+        fill={colours.inkSoft}
+      />
+      {limitTirIn < yTop && (
+        <rect x={LEFT} y={TOP} width={RIGHT - LEFT} height={r(limitY - TOP)} fill={colours.faultLight} />
+      )}
       {yTicks.map((t) => (
         <g key={t}>
           <line x1={LEFT} y1={r(y(t))} x2={RIGHT} y2={r(y(t))} stroke={colours.rule} strokeWidth={1} />
@@ -53,8 +80,25 @@ export function StraighteningDiagram({ history, limitTirIn, attemptLabels, lengt
       ))}
       <line x1={LEFT} y1={TOP} x2={LEFT} y2={BOTTOM} stroke={colours.ink} strokeWidth={1.5} />
       <line x1={LEFT} y1={BOTTOM} x2={RIGHT} y2={BOTTOM} stroke={colours.ink} strokeWidth={1.5} />
-      <line x1={LEFT} y1={r(limitY)} x2={RIGHT} y2={r(limitY)} stroke={colours.copper} strokeWidth={2.5} strokeDasharray="9 5" />
-      <Label x={limitLabelLeft ? LEFT + 8 : RIGHT - 4} y={r(limitY) - 6} halo text={`limit ${len(limitTirIn)}`} size={13} anchor={limitLabelLeft ? "start" : "end"} bold fill={colours.copper} />
+      <line
+        x1={LEFT}
+        y1={r(limitY)}
+        x2={RIGHT}
+        y2={r(limitY)}
+        stroke={colours.copper}
+        strokeWidth={2.5}
+        strokeDasharray="9 5"
+      />
+      <Label
+        x={limitLabelLeft ? LEFT + 8 : RIGHT - 4}
+        y={r(limitY) - 6}
+        halo
+        text={`limit ${len(limitTirIn)}`}
+        size={13}
+        anchor={limitLabelLeft ? "start" : "end"}
+        bold
+        fill={colours.copper}
+      />
 
       <polyline
         points={attempts.map((a, i) => `${r(x(i))},${r(y(a.tirIn))}`).join(" ")}
@@ -71,7 +115,13 @@ export function StraighteningDiagram({ history, limitTirIn, attemptLabels, lengt
             <Label
               x={r(x(i))}
               y={BOTTOM + 34}
-              text={a.changeIn < 0 ? `down ${len(-a.changeIn)}` : a.changeIn > 0 ? `up ${len(a.changeIn)}` : "no change"}
+              text={
+                a.changeIn < 0
+                  ? `down ${len(-a.changeIn)}`
+                  : a.changeIn > 0
+                    ? `up ${len(a.changeIn)}`
+                    : "no change"
+              }
               size={12}
               anchor="middle"
               fill={colours.inkSoft}

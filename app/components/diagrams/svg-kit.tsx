@@ -75,7 +75,15 @@ export function DiagramFrame({
       fontFamily={FONT}
     >
       <title>{title}</title>
-      <rect x={0} y={0} width={width} height={height} fill={colours.card} stroke={colours.rule} strokeWidth={1} />
+      <rect
+        x={0}
+        y={0}
+        width={width}
+        height={height}
+        fill={colours.card}
+        stroke={colours.rule}
+        strokeWidth={1}
+      />
       {children}
     </svg>
   );
@@ -101,7 +109,14 @@ export function Label({
   /** A white outline under the words, so they stay legible where they cross a line. */
   halo?: boolean;
 }) {
-  const common = { x, y, fontSize: size, textAnchor: anchor, fontWeight: bold ? "bold" : "normal", fontFamily: FONT } as const;
+  const common = {
+    x,
+    y,
+    fontSize: size,
+    textAnchor: anchor,
+    fontWeight: bold ? "bold" : "normal",
+    fontFamily: FONT,
+  } as const;
   if (!halo) {
     return (
       <text {...common} fill={fill}>
@@ -155,7 +170,17 @@ export function Arrow({
 }
 
 /** Within: a circle with a tick. Over: a triangle with an exclamation mark. Never colour alone. */
-export function VerdictMark({ x, y, pass, size = 16 }: { x: number; y: number; pass: boolean; size?: number }) {
+export function VerdictMark({
+  x,
+  y,
+  pass,
+  size = 16,
+}: {
+  x: number;
+  y: number;
+  pass: boolean;
+  size?: number;
+}) {
   const s = size / 2;
   if (pass) {
     return (
@@ -178,14 +203,33 @@ export function VerdictMark({ x, y, pass, size = 16 }: { x: number; y: number; p
         stroke={colours.fault}
         strokeWidth={2}
       />
-      <line x1={r(x)} y1={r(y - s * 0.35)} x2={r(x)} y2={r(y + s * 0.3)} stroke={colours.fault} strokeWidth={2.5} />
+      <line
+        x1={r(x)}
+        y1={r(y - s * 0.35)}
+        x2={r(x)}
+        y2={r(y + s * 0.3)}
+        stroke={colours.fault}
+        strokeWidth={2.5}
+      />
       <circle cx={r(x)} cy={r(y + s * 0.6)} r={1.4} fill={colours.fault} />
     </g>
   );
 }
 
 /** A verdict line: the mark, then the words. */
-export function VerdictLine({ x, y, pass, text, size = 15 }: { x: number; y: number; pass: boolean; text: string; size?: number }) {
+export function VerdictLine({
+  x,
+  y,
+  pass,
+  text,
+  size = 15,
+}: {
+  x: number;
+  y: number;
+  pass: boolean;
+  text: string;
+  size?: number;
+}) {
   return (
     <g>
       <VerdictMark x={x + 9} y={y - size * 0.35} pass={pass} size={size + 2} />

@@ -1,4 +1,10 @@
-import { getFormProps, getInputProps, getTextareaProps, useForm, type SubmissionResult } from "@conform-to/react";
+import {
+  getFormProps,
+  getInputProps,
+  getTextareaProps,
+  useForm,
+  type SubmissionResult,
+} from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { useEffect, useState } from "react";
 import { Form } from "react-router";
@@ -13,12 +19,19 @@ export const importSchema = z
     renumber: z.boolean().optional(),
     replaceDraft: z.boolean().optional(),
   })
-  .refine((v) => v.file || v.text?.trim(), { message: "Choose a template file or paste its text.", path: ["file"] });
+  .refine((v) => v.file || v.text?.trim(), {
+    message: "Choose a template file or paste its text.",
+    path: ["file"],
+  });
 
 /** Every problem of a template file with the path of its field, as the seed reports them. */
 export function ProblemList({ problems, title }: { problems: TemplateProblem[]; title: string }) {
   return (
-    <div role="alert" className="rounded-md border-2 border-fault bg-fault-light p-3" data-testid="import-problems">
+    <div
+      role="alert"
+      className="rounded-md border-2 border-fault bg-fault-light p-3"
+      data-testid="import-problems"
+    >
       <p className="font-bold text-fault">
         <span aria-hidden="true">▲ </span>
         {title}
@@ -40,10 +53,20 @@ function checkText(name: string, text: string): Check {
   const parsed = parseTemplateText(text);
   if (!parsed.ok) return { name, problems: parsed.problems };
   const t = parsed.template;
-  return { name, problems: [], summary: `${t.title} (${t.key}), version ${t.version}: ${t.sections.length} sections, ${t.sections.reduce((n, s) => n + s.items.length, 0)} items` };
+  return {
+    name,
+    problems: [],
+    summary: `${t.title} (${t.key}), version ${t.version}: ${t.sections.length} sections, ${t.sections.reduce((n, s) => n + s.items.length, 0)} items`,
+  };
 }
 
-export function ImportForm({ lastResult, problems }: { lastResult?: SubmissionResult<string[]> | null; problems?: TemplateProblem[] | null }) {
+export function ImportForm({
+  lastResult,
+  problems,
+}: {
+  lastResult?: SubmissionResult<string[]> | null;
+  problems?: TemplateProblem[] | null;
+}) {
   const [form, fields] = useForm({
     lastResult,
     onValidate: ({ formData }) => parseWithZod(formData, { schema: importSchema }),
@@ -56,10 +79,22 @@ export function ImportForm({ lastResult, problems }: { lastResult?: SubmissionRe
     if (problems?.length) setCheck(null);
   }, [problems]);
   return (
-    <Form method="post" encType="multipart/form-data" {...getFormProps(form)} className="card flex flex-col gap-4">
+    <Form
+      method="post"
+      encType="multipart/form-data"
+      {...getFormProps(form)}
+      className="card flex flex-col gap-4"
+    >
       <FormErrors errors={form.errors} />
-      {problems?.length ? <ProblemList problems={problems} title="Nothing was imported. Fix these in the file and try again:" /> : null}
-      <Field id={fields.file.id} label="Template file" hint="A .json file in the format of checklists/, as the library exports it." errors={fields.file.errors}>
+      {problems?.length ? (
+        <ProblemList problems={problems} title="Nothing was imported. Fix these in the file and try again:" />
+      ) : null}
+      <Field
+        id={fields.file.id}
+        label="Template file"
+        hint="A .json file in the format of checklists/, as the library exports it."
+        errors={fields.file.errors}
+      >
         <input
           {...getInputProps(fields.file, { type: "file" })}
           accept="application/json,.json"
@@ -76,7 +111,11 @@ export function ImportForm({ lastResult, problems }: { lastResult?: SubmissionRe
           rows={6}
           className="field-input font-mono text-sm"
           spellCheck={false}
-          onChange={(e) => setCheck(e.currentTarget.value.trim() ? checkText("The pasted text", e.currentTarget.value) : null)}
+          onChange={(e) =>
+            setCheck(
+              e.currentTarget.value.trim() ? checkText("The pasted text", e.currentTarget.value) : null,
+            )
+          }
         />
       </Field>
       {check &&
@@ -99,7 +138,10 @@ export function ImportForm({ lastResult, problems }: { lastResult?: SubmissionRe
           Replace the template's draft, if it has one
         </label>
       </fieldset>
-      <p className="text-sm text-ink-soft">An import always becomes a draft; a published version is never overwritten. Review it and publish it from its page.</p>
+      <p className="text-sm text-ink-soft">
+        An import always becomes a draft; a published version is never overwritten. Review it and publish it
+        from its page.
+      </p>
       <div>
         <button type="submit" className="btn btn-primary">
           Import as a draft

@@ -18,7 +18,9 @@ function UsedBy({ version }: { version: LibraryVersion }) {
               <Link to={`/jobs/${j.jobId}`} className="text-harbour underline">
                 {j.vesselName}
               </Link>{" "}
-              <span className="text-sm text-ink-soft">{checklistStateLabels[j.state as ChecklistState] ?? j.state}</span>
+              <span className="text-sm text-ink-soft">
+                {checklistStateLabels[j.state as ChecklistState] ?? j.state}
+              </span>
             </li>
           ))}
         </ul>
@@ -28,19 +30,35 @@ function UsedBy({ version }: { version: LibraryVersion }) {
   );
 }
 
-function VersionRow({ template, version, canEdit }: { template: LibraryTemplate; version: LibraryVersion; canEdit: boolean }) {
+function VersionRow({
+  template,
+  version,
+  canEdit,
+}: {
+  template: LibraryTemplate;
+  version: LibraryVersion;
+  canEdit: boolean;
+}) {
   const older = template.versions.find((v) => v.version < version.version);
   return (
     <tr className="border-t border-rule align-top" data-version={version.version}>
       <th scope="row" className="p-2 text-left whitespace-nowrap">
-        <Link to={`/library/${version.key}/${version.version}`} className="flex min-h-12 items-center text-lg text-harbour underline">
+        <Link
+          to={`/library/${version.key}/${version.version}`}
+          className="flex min-h-12 items-center text-lg text-harbour underline"
+        >
           Version {version.version}
         </Link>
       </th>
       <td className="p-2">
         <VersionStatusBadge status={version.status} newest={version.version === template.newestPublished} />
         <p className="mt-1 text-sm text-ink-soft">
-          {version.status === "draft" && <>Started {shortDate(version.createdAt)}{version.createdByName ? ` by ${version.createdByName}` : ""}</>}
+          {version.status === "draft" && (
+            <>
+              Started {shortDate(version.createdAt)}
+              {version.createdByName ? ` by ${version.createdByName}` : ""}
+            </>
+          )}
           {version.publishedAt && <>Published {shortDate(version.publishedAt)}</>}
           {version.retiredAt && <>, retired {shortDate(version.retiredAt)}</>}
         </p>
@@ -51,7 +69,10 @@ function VersionRow({ template, version, canEdit }: { template: LibraryTemplate;
       <td className="p-2">
         <div className="flex flex-wrap justify-end gap-2">
           {older && (
-            <Link className="btn" to={`/library/${version.key}/compare?from=${older.version}&to=${version.version}`}>
+            <Link
+              className="btn"
+              to={`/library/${version.key}/compare?from=${older.version}&to=${version.version}`}
+            >
               Changes
             </Link>
           )}

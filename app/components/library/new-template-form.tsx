@@ -1,4 +1,10 @@
-import { getFormProps, getInputProps, getTextareaProps, useForm, type SubmissionResult } from "@conform-to/react";
+import {
+  getFormProps,
+  getInputProps,
+  getTextareaProps,
+  useForm,
+  type SubmissionResult,
+} from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form } from "react-router";
 import { z } from "zod";
@@ -29,16 +35,33 @@ export function NewTemplateForm({ lastResult }: { lastResult?: SubmissionResult<
       <Field id={fields.title.id} label="Title" errors={fields.title.errors}>
         <input {...getInputProps(fields.title, { type: "text" })} className="field-input" />
       </Field>
-      <Field id={fields.key.id} label="Key" hint="Lower-case words joined by hyphens, like stern-gland. It never changes." errors={fields.key.errors}>
-        <input {...getInputProps(fields.key, { type: "text" })} className="field-input font-mono" autoCapitalize="none" spellCheck={false} />
+      <Field
+        id={fields.key.id}
+        label="Key"
+        hint="Lower-case words joined by hyphens, like stern-gland. It never changes."
+        errors={fields.key.errors}
+      >
+        <input
+          {...getInputProps(fields.key, { type: "text" })}
+          className="field-input font-mono"
+          autoCapitalize="none"
+          spellCheck={false}
+        />
       </Field>
       <div className="md:col-span-2">
-        <Field id={fields.purpose.id} label="Purpose" hint="What the checklist is for and when it is used." errors={fields.purpose.errors}>
+        <Field
+          id={fields.purpose.id}
+          label="Purpose"
+          hint="What the checklist is for and when it is used."
+          errors={fields.purpose.errors}
+        >
           <textarea {...getTextareaProps(fields.purpose)} rows={2} className="field-input" />
         </Field>
       </div>
       <div className="md:col-span-2">
-        <button type="submit" className="btn btn-primary">Create the draft</button>
+        <button type="submit" className="btn btn-primary">
+          Create the draft
+        </button>
       </div>
     </Form>
   );

@@ -1,4 +1,16 @@
-import { describeRule, formatQuantity, phaseLabels, unitSymbol, type FieldChange, type Item, type ItemChange, type ItemPlace, type Phase, type Rule, type TemplateDiff } from "~/lib/templates";
+import {
+  describeRule,
+  formatQuantity,
+  phaseLabels,
+  unitSymbol,
+  type FieldChange,
+  type Item,
+  type ItemChange,
+  type ItemPlace,
+  type Phase,
+  type Rule,
+  type TemplateDiff,
+} from "~/lib/templates";
 import { kindNames } from "./kind-names.ts";
 
 const fieldNames: Record<string, string> = {
@@ -38,7 +50,10 @@ function shown(field: string, value: unknown): string {
   if (typeof value === "boolean") return value ? "yes" : "no";
   if (field === "phase" && typeof value === "string") return phaseLabels[value as Phase] ?? value;
   if (field === "rule" && value && typeof value === "object") return describeRule(value as Rule);
-  if (Array.isArray(value)) return value.map((v) => (v && typeof v === "object" && "label" in v ? String(v.label) : String(v))).join(" · ");
+  if (Array.isArray(value))
+    return value
+      .map((v) => (v && typeof v === "object" && "label" in v ? String(v.label) : String(v)))
+      .join(" · ");
   if (value && typeof value === "object") {
     if ("item" in value) return `from item ${String((value as { item: string }).item)}`;
     if ("value" in value) return `fixed value ${JSON.stringify((value as { value: unknown }).value)}`;
@@ -50,7 +65,9 @@ function shown(field: string, value: unknown): string {
 function Changes({ fields, item }: { fields: FieldChange[]; item?: Item }) {
   const ruleUnit = item && "rule" in item && item.rule ? item.rule.unit : undefined;
   const withUnit = (field: string, value: unknown) =>
-    ruleUnit && typeof value === "number" && /^rule\.(min|max|nominal|tolerance)$/.test(field) ? formatQuantity(value, ruleUnit) : shown(field, value);
+    ruleUnit && typeof value === "number" && /^rule\.(min|max|nominal|tolerance)$/.test(field)
+      ? formatQuantity(value, ruleUnit)
+      : shown(field, value);
   return (
     <table className="mt-2 w-full border-collapse text-sm">
       <thead>
@@ -63,9 +80,15 @@ function Changes({ fields, item }: { fields: FieldChange[]; item?: Item }) {
       <tbody>
         {fields.map((f) => (
           <tr key={f.field} data-field={f.field}>
-            <th scope="row" className="border-b border-rule p-1 text-left align-top">{fieldName(f.field)}</th>
-            <td className="border-b border-rule p-1 align-top text-ink-soft"><del className="decoration-fault">{withUnit(f.field, f.before)}</del></td>
-            <td className="border-b border-rule p-1 align-top"><ins className="no-underline font-bold">{withUnit(f.field, f.after)}</ins></td>
+            <th scope="row" className="border-b border-rule p-1 text-left align-top">
+              {fieldName(f.field)}
+            </th>
+            <td className="border-b border-rule p-1 align-top text-ink-soft">
+              <del className="decoration-fault">{withUnit(f.field, f.before)}</del>
+            </td>
+            <td className="border-b border-rule p-1 align-top">
+              <ins className="no-underline font-bold">{withUnit(f.field, f.after)}</ins>
+            </td>
           </tr>
         ))}
       </tbody>
@@ -108,7 +131,11 @@ function ItemEntry({ change }: { change: ItemChange }) {
     change.fields.length ? marks.changed : null,
   ].filter((t) => t !== null);
   return (
-    <li className={`rounded-md border-l-8 bg-card p-3 ${tags[0]?.className ?? "border-rule"}`} data-change={change.status} data-item={change.key}>
+    <li
+      className={`rounded-md border-l-8 bg-card p-3 ${tags[0]?.className ?? "border-rule"}`}
+      data-change={change.status}
+      data-item={change.key}
+    >
       <p className="flex flex-wrap items-baseline gap-x-3">
         {tags.map((t) => (
           <span key={t.word} className="font-bold">
@@ -139,12 +166,17 @@ export function TemplateDiffView({ diff }: { diff: TemplateDiff }) {
   const { counts } = diff;
   const sectionNotes = diff.sections.filter((s) => s.status !== "kept" || s.moved || s.fields.length);
   if (diff.same) {
-    return <p data-testid="diff-summary">No differences: version {diff.to.version} says exactly what version {diff.from.version} says.</p>;
+    return (
+      <p data-testid="diff-summary">
+        No differences: version {diff.to.version} says exactly what version {diff.from.version} says.
+      </p>
+    );
   }
   return (
     <div className="flex flex-col gap-4">
       <p data-testid="diff-summary" className="font-bold">
-        Version {diff.from.version} → version {diff.to.version}: {counts.added} added · {counts.removed} removed · {counts.moved} moved · {counts.changed} changed
+        Version {diff.from.version} → version {diff.to.version}: {counts.added} added · {counts.removed}{" "}
+        removed · {counts.moved} moved · {counts.changed} changed
       </p>
       {diff.fields.length > 0 && <Changes fields={diff.fields} />}
       {sectionNotes.length > 0 && (
@@ -152,7 +184,15 @@ export function TemplateDiffView({ diff }: { diff: TemplateDiff }) {
           {sectionNotes.map((s) => (
             <li key={s.key} data-section-change={s.status}>
               <strong>
-                Section {s.status === "added" ? "added" : s.status === "removed" ? "removed" : s.moved ? "moved" : "renamed"}:
+                Section{" "}
+                {s.status === "added"
+                  ? "added"
+                  : s.status === "removed"
+                    ? "removed"
+                    : s.moved
+                      ? "moved"
+                      : "renamed"}
+                :
               </strong>{" "}
               {s.title}
               {s.fields.length > 0 && s.status === "kept" && (

@@ -25,13 +25,21 @@ export function TwoStepButton({
   const [asking, setAsking] = useState(false);
   if (!asking) {
     return (
-      <button type="button" className={danger ? "btn border-fault text-fault" : "btn"} onClick={() => setAsking(true)}>
+      <button
+        type="button"
+        className={danger ? "btn border-fault text-fault" : "btn"}
+        onClick={() => setAsking(true)}
+      >
         {label}
       </button>
     );
   }
   return (
-    <div role="group" aria-label={label} className={`flex w-full flex-col gap-3 rounded-md border-2 p-3 ${danger ? "border-fault bg-fault-light" : "border-harbour bg-card"}`}>
+    <div
+      role="group"
+      aria-label={label}
+      className={`flex w-full flex-col gap-3 rounded-md border-2 p-3 ${danger ? "border-fault bg-fault-light" : "border-harbour bg-card"}`}
+    >
       {children}
       <div className="flex flex-wrap gap-2">
         <button
@@ -39,7 +47,14 @@ export function TwoStepButton({
           name={submit?.name}
           value={submit?.value}
           className={danger ? "btn btn-danger" : "btn btn-primary"}
-          onClick={submit ? undefined : () => { setAsking(false); onConfirm?.(); }}
+          onClick={
+            submit
+              ? undefined
+              : () => {
+                  setAsking(false);
+                  onConfirm?.();
+                }
+          }
         >
           {confirmLabel}
         </button>

@@ -11,10 +11,17 @@ export function VersionStatusBadge({ status, newest }: { status: VersionStatus; 
       : status === "retired"
         ? { mark: "■", text: "Retired", className: "border-ink-soft bg-paper text-ink-soft" }
         : newest
-          ? { mark: "●", text: "Published · new jobs start here", className: "border-sound bg-sound-light text-sound" }
+          ? {
+              mark: "●",
+              text: "Published · new jobs start here",
+              className: "border-sound bg-sound-light text-sound",
+            }
           : { mark: "○", text: "Published · superseded", className: "border-rule bg-card text-ink-soft" };
   return (
-    <span className={`inline-flex items-center gap-1 rounded-md border-2 px-2 py-0.5 text-sm font-bold ${look.className}`} data-status={status}>
+    <span
+      className={`inline-flex items-center gap-1 rounded-md border-2 px-2 py-0.5 text-sm font-bold ${look.className}`}
+      data-status={status}
+    >
       <span aria-hidden="true">{look.mark}</span>
       {look.text}
     </span>

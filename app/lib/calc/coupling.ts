@@ -73,11 +73,14 @@ export function couplingFace(input: CouplingFaceInput): CouplingFaceResult {
   const horizontalSlope = tidy(horizontalGapDiffIn / diameterIn);
   let pass = true;
   if (maxGapDiffIn !== undefined) {
-    pass &&= atMost(Math.abs(verticalGapDiffIn), maxGapDiffIn) && atMost(Math.abs(horizontalGapDiffIn), maxGapDiffIn);
+    pass &&=
+      atMost(Math.abs(verticalGapDiffIn), maxGapDiffIn) &&
+      atMost(Math.abs(horizontalGapDiffIn), maxGapDiffIn);
   }
   if (limitInPerInDiameter !== undefined) {
     pass &&=
-      atMost(Math.abs(verticalSlope), limitInPerInDiameter) && atMost(Math.abs(horizontalSlope), limitInPerInDiameter);
+      atMost(Math.abs(verticalSlope), limitInPerInDiameter) &&
+      atMost(Math.abs(horizontalSlope), limitInPerInDiameter);
   }
   return requireFiniteResult("diameterIn", {
     verticalGapDiffIn,
@@ -129,7 +132,11 @@ export function couplingRim(input: CouplingRimInput): CouplingRimResult {
     horizontalOffsetIn,
     validityIn: tidy(r.top + r.bottom - r.port - r.starboard),
     ...(maxOffsetIn !== undefined
-      ? { pass: atMost(Math.abs(verticalOffsetIn), maxOffsetIn) && atMost(Math.abs(horizontalOffsetIn), maxOffsetIn) }
+      ? {
+          pass:
+            atMost(Math.abs(verticalOffsetIn), maxOffsetIn) &&
+            atMost(Math.abs(horizontalOffsetIn), maxOffsetIn),
+        }
       : {}),
   });
 }

@@ -21,11 +21,20 @@ export interface ExhaustInjectionResult {
  * Mechanical Systems Handbook, exhaust chapter; ABYC P-1). The engine maker's figure governs.
  * Caution: exhaust leaks give off carbon monoxide; a working CO alarm belongs aboard.
  */
-export function exhaustInjection(input: { injectionHeightIn: number; minimumIn?: number }): ExhaustInjectionResult {
+export function exhaustInjection(input: {
+  injectionHeightIn: number;
+  minimumIn?: number;
+}): ExhaustInjectionResult {
   const height = requireFinite("injectionHeightIn", input?.injectionHeightIn);
   const minimumIn =
-    input.minimumIn === undefined ? DEFAULT_MIN_INJECTION_HEIGHT_IN : requireNonNegative("minimumIn", input.minimumIn);
-  return requireFiniteResult("injectionHeightIn", { minimumIn, marginIn: tidy(height - minimumIn), pass: atLeast(height, minimumIn) });
+    input.minimumIn === undefined
+      ? DEFAULT_MIN_INJECTION_HEIGHT_IN
+      : requireNonNegative("minimumIn", input.minimumIn);
+  return requireFiniteResult("injectionHeightIn", {
+    minimumIn,
+    marginIn: tidy(height - minimumIn),
+    pass: atLeast(height, minimumIn),
+  });
 }
 
 export interface ExhaustBackPressureResult {
@@ -42,7 +51,10 @@ export interface ExhaustBackPressureResult {
  * units makers use (NIST SP 811 conventional inHg and inH₂O). Too much back pressure costs
  * power and raises exhaust temperature. Caution: carbon monoxide, as above.
  */
-export function exhaustBackPressure(input: { backPressureKPa: number; limitKPa: number }): ExhaustBackPressureResult {
+export function exhaustBackPressure(input: {
+  backPressureKPa: number;
+  limitKPa: number;
+}): ExhaustBackPressureResult {
   const kPa = requireNonNegative("backPressureKPa", input?.backPressureKPa);
   const limit = requirePositive("limitKPa", input.limitKPa);
   return requireFiniteResult("backPressureKPa", {

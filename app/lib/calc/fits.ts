@@ -69,7 +69,10 @@ function parseClass(field: string, text: unknown, kind: "hole" | "shaft"): { let
         : kind === "shaft" && (HOLE_LETTERS as readonly string[]).includes(letter)
           ? " Shaft classes are written in small letters, hole classes in capitals."
           : "";
-    throw new CalcError(field, `${text} is not a ${kind} class this library holds (${letters.join(", ")}).${hint}`);
+    throw new CalcError(
+      field,
+      `${text} is not a ${kind} class this library holds (${letters.join(", ")}).${hint}`,
+    );
   }
   if (!(grade in IT_UM)) {
     throw new CalcError(field, `Grade ${grade} is outside the tolerance grades held here (IT5 to IT11).`);
@@ -123,7 +126,10 @@ function holeDeviationsUm(letter: HoleLetter, grade: number, row: number) {
   switch (letter) {
     case "F":
     case "G":
-      return { upper: -ES_UM[letter === "F" ? "f" : "g"][row] + it, lower: -ES_UM[letter === "F" ? "f" : "g"][row] };
+      return {
+        upper: -ES_UM[letter === "F" ? "f" : "g"][row] + it,
+        lower: -ES_UM[letter === "F" ? "f" : "g"][row],
+      };
     case "H":
       return { upper: it, lower: 0 };
     case "JS":
@@ -166,7 +172,8 @@ export function isoFit(input: IsoFitInput): IsoFitResult {
   const s = shaftDeviationsUm(shaft.letter as ShaftLetter, shaft.grade, nominalMm, row);
   const maxClearanceUm = h.upper - s.lower;
   const leastClearanceUm = h.lower - s.upper;
-  const kind: FitKind = leastClearanceUm >= 0 ? "clearance" : maxClearanceUm <= 0 ? "interference" : "transition";
+  const kind: FitKind =
+    leastClearanceUm >= 0 ? "clearance" : maxClearanceUm <= 0 ? "interference" : "transition";
   const mm = (um: number) => tidy(um / 1000);
   return {
     hole: { upperMm: mm(h.upper), lowerMm: mm(h.lower) },
@@ -192,7 +199,10 @@ export function isoFitIn(input: { nominalIn: number; hole: string; shaft: string
   const nominalIn = requirePositive("nominalIn", input?.nominalIn);
   const nominalMm = nominalIn * 25.4;
   if (nominalMm > 500) {
-    throw new CalcError("nominalIn", `${nominalIn} in is outside the ISO 286 tables held here (up to 500 mm, 19.68 in).`);
+    throw new CalcError(
+      "nominalIn",
+      `${nominalIn} in is outside the ISO 286 tables held here (up to 500 mm, 19.68 in).`,
+    );
   }
   const fit = isoFit({ nominalMm, hole: input.hole, shaft: input.shaft });
   const inch = (mm: number) => tidy(mm / 25.4);
@@ -263,7 +273,11 @@ export interface CouplingFitResult {
 export function couplingFit(input: CouplingFitInput): CouplingFitResult {
   const shaftIn = requirePositive("shaftIn", input?.shaftIn);
   const boreIn = requirePositive("boreIn", input.boreIn);
-  const target = input.targetClearanceIn === undefined ? 0 : requireFinite("targetClearanceIn", input.targetClearanceIn);
+  const target =
+    input.targetClearanceIn === undefined ? 0 : requireFinite("targetClearanceIn", input.targetClearanceIn);
   const clearanceIn = tidy(boreIn - shaftIn);
-  return requireFiniteResult("targetClearanceIn", { clearanceIn, removeFromShaftIn: tidy(Math.max(0, target - clearanceIn)) });
+  return requireFiniteResult("targetClearanceIn", {
+    clearanceIn,
+    removeFromShaftIn: tidy(Math.max(0, target - clearanceIn)),
+  });
 }

@@ -24,8 +24,18 @@ export interface HinResult {
 
 const MONTHS = "ABCDEFGHIJKL";
 const MONTH_NAMES = [
-  "January", "February", "March", "April", "May", "June",
-  "July", "August", "September", "October", "November", "December",
+  "January",
+  "February",
+  "March",
+  "April",
+  "May",
+  "June",
+  "July",
+  "August",
+  "September",
+  "October",
+  "November",
+  "December",
 ];
 
 export function validateHin(hin: string): HinResult {
@@ -73,7 +83,9 @@ export function validateHin(hin: string): HinResult {
     );
     // From memory: hulls from before August 1984 could carry an "M" here ("model year format").
     if (monthLetter === "M") {
-      notes.push("An M in position 9 is the older layout used on some hulls built before August 1984; this check covers only the current layout.");
+      notes.push(
+        "An M in position 9 is the older layout used on some hulls built before August 1984; this check covers only the current layout.",
+      );
     }
   }
   if (!/^[0-9]$/.test(yearDigit)) {

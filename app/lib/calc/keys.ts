@@ -52,7 +52,10 @@ export function keyForShaft(input: { diameterIn: number; style?: "square" | "rec
   }
   const row = d > B17_1_FROM_IN ? B17_1.find(([toIn]) => d <= toIn) : undefined;
   if (!row) {
-    throw new CalcError("diameterIn", `${d} in is outside ASME B17.1 Table 1 as held here (over 5/16 in up to 11 in).`);
+    throw new CalcError(
+      "diameterIn",
+      `${d} in is outside ASME B17.1 Table 1 as held here (over 5/16 in up to 11 in).`,
+    );
   }
   const [, widthIn, squareH, rectH] = row;
   if (style === "rectangular" && rectH === null) {

@@ -58,14 +58,20 @@ export function mountMoves(input: MountMovesInput): MountMovesResult {
   const diameterIn = requirePositive("diameterIn", input?.diameterIn);
   const gaps = readGaps("gapsIn", input.gapsIn);
   if (!input.offsetIn || typeof input.offsetIn !== "object") {
-    throw new CalcError("offsetIn", "Enter the centre offset (vertical and horizontal); enter 0 if the centres are in line.");
+    throw new CalcError(
+      "offsetIn",
+      "Enter the centre offset (vertical and horizontal); enter 0 if the centres are in line.",
+    );
   }
   const offsetV = requireFinite("offsetIn.vertical", input.offsetIn.vertical);
   const offsetH = requireFinite("offsetIn.horizontal", input.offsetIn.horizontal);
   const rearMountIn = requireNonNegative("rearMountIn", input.rearMountIn);
   const frontMountIn = requirePositive("frontMountIn", input.frontMountIn);
   if (frontMountIn <= rearMountIn) {
-    throw new CalcError("frontMountIn", "The front mounts must be farther forward of the coupling than the rear mounts.");
+    throw new CalcError(
+      "frontMountIn",
+      "The front mounts must be farther forward of the coupling than the rear mounts.",
+    );
   }
   const tpi = input.adjusterTpi === undefined ? undefined : requirePositive("adjusterTpi", input.adjusterTpi);
   const stock = input.shimStockIn;

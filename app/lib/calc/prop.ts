@@ -71,7 +71,9 @@ export function seaTrialLoading(input: SeaTrialLoadingInput): SeaTrialLoadingRes
   const max = requirePositive("ratedRpmMax", input.ratedRpmMax);
   if (max < min) throw new CalcError("ratedRpmMax", "The top of the rated band is below its bottom.");
   const perInch =
-    input.rpmPerPitchIn === undefined ? DEFAULT_RPM_PER_PITCH_IN : requirePositive("rpmPerPitchIn", input.rpmPerPitchIn);
+    input.rpmPerPitchIn === undefined
+      ? DEFAULT_RPM_PER_PITCH_IN
+      : requirePositive("rpmPerPitchIn", input.rpmPerPitchIn);
   const targetRpm = tidy((min + max) / 2);
   const verdict: LoadingVerdict = wot < min ? "over-propped" : wot > max ? "under-propped" : "in-range";
   const pitchChangeIn = verdict === "in-range" ? 0 : tidy((wot - targetRpm) / perInch);

@@ -101,7 +101,8 @@ function reader(inputs: Inputs, specs: Record<string, CalcInputSpec>) {
     numbers(name: string, unit: Unit): number[] | undefined {
       const input = present(inputs, name, spec(name));
       if (!input) return undefined;
-      if (input.kind === "numbers") return input.values.map((v) => inUnit(name, spec(name).label, v, input.unit, unit));
+      if (input.kind === "numbers")
+        return input.values.map((v) => inUnit(name, spec(name).label, v, input.unit, unit));
       if (input.kind === "number") return [inUnit(name, spec(name).label, input.value, input.unit, unit)];
       throw new CalcError(name, `${spec(name).label} takes a list of numbers.`);
     },
@@ -118,7 +119,10 @@ function reader(inputs: Inputs, specs: Record<string, CalcInputSpec>) {
       const values = input.values.map((row, r) =>
         row.map((cell, c) => {
           if (cell === null || !Number.isFinite(cell)) {
-            throw new CalcError(name, `${spec(name).label}: ${input.rows[r] ?? r + 1} at ${input.columns[c] ?? c + 1} is missing.`);
+            throw new CalcError(
+              name,
+              `${spec(name).label}: ${input.rows[r] ?? r + 1} at ${input.columns[c] ?? c + 1} is missing.`,
+            );
           }
           return inUnit(name, spec(name).label, cell, input.unit, unit);
         }),
@@ -131,7 +135,8 @@ function reader(inputs: Inputs, specs: Record<string, CalcInputSpec>) {
       if (!input) return undefined;
       if (input.kind === "numbers") {
         const v = this.numbers(name, unit)!;
-        if (v.length !== 4) throw new CalcError(name, `${spec(name).label} takes four values: top, bottom, port, starboard.`);
+        if (v.length !== 4)
+          throw new CalcError(name, `${spec(name).label} takes four values: top, bottom, port, starboard.`);
         return { top: v[0], bottom: v[1], port: v[2], starboard: v[3] };
       }
       const grid = this.grid(name, unit);
@@ -150,7 +155,10 @@ function reader(inputs: Inputs, specs: Record<string, CalcInputSpec>) {
         starboard: find(/starboard|stbd/i),
       };
       if (Object.values(gaps).some((v) => v === undefined)) {
-        throw new CalcError(name, `${spec(name).label} needs one reading each at top, bottom, port and starboard.`);
+        throw new CalcError(
+          name,
+          `${spec(name).label} needs one reading each at top, bottom, port and starboard.`,
+        );
       }
       return gaps as ClockGapsIn;
     },
@@ -174,7 +182,12 @@ const fixed = (value: number, digits: number) => Number(value.toFixed(digits));
 
 const runoutInputs: Record<string, CalcInputSpec> = {
   readings: { label: "Dial readings (stations × angles)", accepts: ["grid"], unit: "in" },
-  positionsIn: { label: "Station positions along the shaft", accepts: ["numbers"], unit: "in", optional: true },
+  positionsIn: {
+    label: "Station positions along the shaft",
+    accepts: ["numbers"],
+    unit: "in",
+    optional: true,
+  },
   limitTir: { label: "TIR limit", accepts: ["number"], unit: "in" },
 };
 
@@ -182,7 +195,12 @@ const faceInputs: Record<string, CalcInputSpec> = {
   diameter: { label: "Coupling diameter", accepts: ["number"], unit: "in" },
   gaps: { label: "Face gaps (top, bottom, port, starboard)", accepts: ["grid", "numbers"], unit: "in" },
   maxGapDiff: { label: "Largest gap difference", accepts: ["number"], unit: "in", optional: true },
-  maxInPerInDiameter: { label: "Largest gap difference per inch of diameter", accepts: ["number"], unit: "in/in", optional: true },
+  maxInPerInDiameter: {
+    label: "Largest gap difference per inch of diameter",
+    accepts: ["number"],
+    unit: "in/in",
+    optional: true,
+  },
 };
 
 const rimInputs: Record<string, CalcInputSpec> = {
@@ -193,12 +211,32 @@ const rimInputs: Record<string, CalcInputSpec> = {
 const mountInputs: Record<string, CalcInputSpec> = {
   diameter: faceInputs.diameter,
   gaps: faceInputs.gaps,
-  offsetVertical: { label: "Engine centre above shaft centre", accepts: ["number"], unit: "in", optional: true },
-  offsetHorizontal: { label: "Engine centre to starboard of shaft centre", accepts: ["number"], unit: "in", optional: true },
-  rim: { label: "Rim readings (instead of the offsets)", accepts: ["grid", "numbers"], unit: "in", optional: true },
+  offsetVertical: {
+    label: "Engine centre above shaft centre",
+    accepts: ["number"],
+    unit: "in",
+    optional: true,
+  },
+  offsetHorizontal: {
+    label: "Engine centre to starboard of shaft centre",
+    accepts: ["number"],
+    unit: "in",
+    optional: true,
+  },
+  rim: {
+    label: "Rim readings (instead of the offsets)",
+    accepts: ["grid", "numbers"],
+    unit: "in",
+    optional: true,
+  },
   frontMount: { label: "Coupling face to front mounts", accepts: ["number"], unit: "in" },
   rearMount: { label: "Coupling face to rear mounts", accepts: ["number"], unit: "in" },
-  adjusterThread: { label: "Mount adjuster threads per inch", accepts: ["number"], unit: "tpi", optional: true },
+  adjusterThread: {
+    label: "Mount adjuster threads per inch",
+    accepts: ["number"],
+    unit: "tpi",
+    optional: true,
+  },
   adjusterPitch: { label: "Mount adjuster thread pitch", accepts: ["number"], unit: "mm", optional: true },
   shimStock: { label: "Shim sizes in stock", accepts: ["numbers"], unit: "in", optional: true },
 };
@@ -216,7 +254,8 @@ export const calculations: Record<string, CalcDefinition> = {
     name: "shaftRunout",
     title: "Shaft runout",
     summary: "TIR at each station along the shaft, the worst station and its high spot.",
-    source: "TIR = max − min over one turn (ASME Y14.5 full indicator movement, formerly TIR); limits: the job's, 0.002–0.003 in common practice",
+    source:
+      "TIR = max − min over one turn (ASME Y14.5 full indicator movement, formerly TIR); limits: the job's, 0.002–0.003 in common practice",
     caution: CAUTION_ROTATING,
     inputs: runoutInputs,
     run(inputs) {
@@ -229,7 +268,10 @@ export const calculations: Record<string, CalcDefinition> = {
       }
       const result = blame({ stations: "readings", limitTirIn: "limitTir" }, () =>
         shaftRunout({
-          stations: grid.values.map((readingsIn, i) => ({ positionIn: positions ? positions[i] : i, readingsIn })),
+          stations: grid.values.map((readingsIn, i) => ({
+            positionIn: positions ? positions[i] : i,
+            readingsIn,
+          })),
           limitTirIn,
         }),
       );
@@ -252,7 +294,8 @@ export const calculations: Record<string, CalcDefinition> = {
     name: "couplingFace",
     title: "Coupling face gaps",
     summary: "Angularity between the coupling faces from feeler gaps at four clock positions.",
-    source: "Gap difference ÷ coupling diameter (straightedge-and-feeler alignment); 0.001 in per inch of diameter common practice",
+    source:
+      "Gap difference ÷ coupling diameter (straightedge-and-feeler alignment); 0.001 in per inch of diameter common practice",
     caution: CAUTION_ROTATING,
     inputs: faceInputs,
     run(inputs) {
@@ -262,12 +305,19 @@ export const calculations: Record<string, CalcDefinition> = {
       const maxGapDiffIn = read.number("maxGapDiff", "in");
       const maxInPerInDiameter = read.number("maxInPerInDiameter", "in/in");
       const result = blame(
-        { diameterIn: "diameter", gapsIn: "gaps", maxGapDiffIn: "maxGapDiff", maxInPerInDiameter: "maxInPerInDiameter" },
+        {
+          diameterIn: "diameter",
+          gapsIn: "gaps",
+          maxGapDiffIn: "maxGapDiff",
+          maxInPerInDiameter: "maxInPerInDiameter",
+        },
         () => couplingFace({ diameterIn, gapsIn, maxGapDiffIn, maxInPerInDiameter }),
       );
       const limits = [
         result.limitGapDiffIn !== undefined ? `gap difference ≤ ${result.limitGapDiffIn} in` : "",
-        result.limitInPerInDiameter !== undefined ? `≤ ${result.limitInPerInDiameter} in per inch of diameter` : "",
+        result.limitInPerInDiameter !== undefined
+          ? `≤ ${result.limitInPerInDiameter} in per inch of diameter`
+          : "",
       ].filter(Boolean);
       return {
         values: {
@@ -276,7 +326,12 @@ export const calculations: Record<string, CalcDefinition> = {
           "vertical slope": fixed(result.verticalSlope, 6),
           "horizontal slope": fixed(result.horizontalSlope, 6),
         },
-        units: { "top − bottom": "in", "starboard − port": "in", "vertical slope": "in/in", "horizontal slope": "in/in" },
+        units: {
+          "top − bottom": "in",
+          "starboard − port": "in",
+          "vertical slope": "in/in",
+          "horizontal slope": "in/in",
+        },
         verdict: result.pass ? "pass" : "fail",
         rule: `face gaps, top to bottom and side to side: ${limits.join(" and ")}`,
         detail: result,
@@ -295,12 +350,21 @@ export const calculations: Record<string, CalcDefinition> = {
       const read = reader(inputs, rimInputs);
       const readingsIn = read.clock("rim", "in")!;
       const maxOffsetIn = read.number("maxOffset", "in");
-      const result = blame({ readingsIn: "rim", maxOffsetIn: "maxOffset" }, () => couplingRim({ readingsIn, maxOffsetIn }));
+      const result = blame({ readingsIn: "rim", maxOffsetIn: "maxOffset" }, () =>
+        couplingRim({ readingsIn, maxOffsetIn }),
+      );
       return {
-        values: { "offset up": result.verticalOffsetIn, "offset to starboard": result.horizontalOffsetIn, "validity check": result.validityIn },
+        values: {
+          "offset up": result.verticalOffsetIn,
+          "offset to starboard": result.horizontalOffsetIn,
+          "validity check": result.validityIn,
+        },
         units: { "offset up": "in", "offset to starboard": "in", "validity check": "in" },
         verdict: result.pass === undefined ? "info" : result.pass ? "pass" : "fail",
-        rule: maxOffsetIn !== undefined ? `centre offset ≤ ${maxOffsetIn} in each way` : "offset only; no limit given",
+        rule:
+          maxOffsetIn !== undefined
+            ? `centre offset ≤ ${maxOffsetIn} in each way`
+            : "offset only; no limit given",
         detail: result,
       };
     },
@@ -309,7 +373,8 @@ export const calculations: Record<string, CalcDefinition> = {
   mountMoves: {
     name: "mountMoves",
     title: "Mount moves",
-    summary: "How far to raise or shift each pair of mounts to bring the faces parallel and the centres in line.",
+    summary:
+      "How far to raise or shift each pair of mounts to bring the faces parallel and the centres in line.",
     source: "Similar triangles, rim-and-face alignment: move = face slope × distance − offset",
     caution: CAUTION_ENGINE,
     inputs: mountInputs,
@@ -321,13 +386,16 @@ export const calculations: Record<string, CalcDefinition> = {
       const fromRim = rim ? blame({ readingsIn: "rim" }, () => couplingRim({ readingsIn: rim })) : undefined;
       const vertical = read.number("offsetVertical", "in") ?? fromRim?.verticalOffsetIn;
       const horizontal = read.number("offsetHorizontal", "in") ?? fromRim?.horizontalOffsetIn;
-      if (vertical === undefined) throw new CalcError("offsetVertical", "Enter the vertical centre offset or the rim readings.");
-      if (horizontal === undefined) throw new CalcError("offsetHorizontal", "Enter the sideways centre offset or the rim readings.");
+      if (vertical === undefined)
+        throw new CalcError("offsetVertical", "Enter the vertical centre offset or the rim readings.");
+      if (horizontal === undefined)
+        throw new CalcError("offsetHorizontal", "Enter the sideways centre offset or the rim readings.");
       const frontMountIn = read.number("frontMount", "in")!;
       const rearMountIn = read.number("rearMount", "in")!;
       const tpi = read.number("adjusterThread", "tpi");
       const pitchIn = read.number("adjusterPitch", "in");
-      if (pitchIn !== undefined && pitchIn <= 0) throw new CalcError("adjusterPitch", "The thread pitch must be greater than zero.");
+      if (pitchIn !== undefined && pitchIn <= 0)
+        throw new CalcError("adjusterPitch", "The thread pitch must be greater than zero.");
       const adjusterTpi = tpi ?? (pitchIn !== undefined ? 1 / pitchIn : undefined);
       const shimStockIn = read.numbers("shimStock", "in");
       const result = blame(
@@ -343,7 +411,16 @@ export const calculations: Record<string, CalcDefinition> = {
           thicknessIn: "shimStock",
           stockIn: "shimStock",
         },
-        () => mountMoves({ diameterIn, gapsIn, offsetIn: { vertical, horizontal }, frontMountIn, rearMountIn, adjusterTpi, shimStockIn }),
+        () =>
+          mountMoves({
+            diameterIn,
+            gapsIn,
+            offsetIn: { vertical, horizontal },
+            frontMountIn,
+            rearMountIn,
+            adjusterTpi,
+            shimStockIn,
+          }),
       );
       const values: Record<string, number> = {
         "front raise": result.front.raiseIn,
@@ -376,8 +453,10 @@ export const calculations: Record<string, CalcDefinition> = {
   couplingFit: {
     name: "couplingFit",
     title: "Coupling fit on the shaft",
-    summary: "Clearance (or interference) between the coupling bore and the shaft, and what to take off the shaft.",
-    source: "Clearance = bore − shaft, on the diameter (Machinery's Handbook, allowances and tolerances for fits)",
+    summary:
+      "Clearance (or interference) between the coupling bore and the shaft, and what to take off the shaft.",
+    source:
+      "Clearance = bore − shaft, on the diameter (Machinery's Handbook, allowances and tolerances for fits)",
     inputs: {
       shaft: { label: "Shaft diameter", accepts: ["number"], unit: "in" },
       bore: { label: "Coupling bore", accepts: ["number"], unit: "in" },
@@ -411,7 +490,13 @@ export const calculations: Record<string, CalcDefinition> = {
     run(inputs) {
       const read = reader(inputs, isoFitInputs);
       const result = blame(
-        { nominalMm: "nominal", hole: "hole", shaft: "shaft", measuredBoreMm: "measuredBore", measuredShaftMm: "measuredShaft" },
+        {
+          nominalMm: "nominal",
+          hole: "hole",
+          shaft: "shaft",
+          measuredBoreMm: "measuredBore",
+          measuredShaftMm: "measuredShaft",
+        },
         () =>
           fitCheck({
             nominalMm: read.number("nominal", "mm")!,
@@ -431,7 +516,13 @@ export const calculations: Record<string, CalcDefinition> = {
       if (result.measuredClearanceMm !== undefined) values["measured clearance"] = result.measuredClearanceMm;
       return {
         values,
-        units: { "hole upper": "mm", "hole lower": "mm", "shaft upper": "mm", "shaft lower": "mm", "measured clearance": "mm" },
+        units: {
+          "hole upper": "mm",
+          "hole lower": "mm",
+          "shaft upper": "mm",
+          "shaft lower": "mm",
+          "measured clearance": "mm",
+        },
         verdict: result.pass === undefined ? "info" : result.pass ? "pass" : "fail",
         rule: `measured parts within the ISO 286 limits of ${read.text("hole")}/${read.text("shaft")}`,
         detail: result,
@@ -447,9 +538,15 @@ export const calculations: Record<string, CalcDefinition> = {
     inputs: { diameter: { label: "Shaft diameter", accepts: ["number"], unit: "in" } },
     run(inputs) {
       const read = reader(inputs, calculations.keyForShaft.inputs);
-      const result = blame({ diameterIn: "diameter" }, () => keyForShaft({ diameterIn: read.number("diameter", "in")! }));
+      const result = blame({ diameterIn: "diameter" }, () =>
+        keyForShaft({ diameterIn: read.number("diameter", "in")! }),
+      );
       return {
-        values: { "key width": result.widthIn, "key height": result.heightIn, "keyseat depth": result.shaftDepthIn },
+        values: {
+          "key width": result.widthIn,
+          "key height": result.heightIn,
+          "keyseat depth": result.shaftDepthIn,
+        },
         units: { "key width": "in", "key height": "in", "keyseat depth": "in" },
         verdict: "info",
         rule: "ASME B17.1 key size versus shaft diameter",
@@ -466,7 +563,9 @@ export const calculations: Record<string, CalcDefinition> = {
     inputs: { diameter: { label: "Shaft diameter", accepts: ["number"], unit: "mm" } },
     run(inputs) {
       const read = reader(inputs, calculations.keyForShaftMm.inputs);
-      const result = blame({ diameterMm: "diameter" }, () => keyForShaftMm({ diameterMm: read.number("diameter", "mm")! }));
+      const result = blame({ diameterMm: "diameter" }, () =>
+        keyForShaftMm({ diameterMm: read.number("diameter", "mm")! }),
+      );
       return {
         values: {
           "key width": result.widthMm,
@@ -474,7 +573,12 @@ export const calculations: Record<string, CalcDefinition> = {
           "shaft keyway depth": result.shaftDepthMm,
           "hub keyway depth": result.hubDepthMm,
         },
-        units: { "key width": "mm", "key height": "mm", "shaft keyway depth": "mm", "hub keyway depth": "mm" },
+        units: {
+          "key width": "mm",
+          "key height": "mm",
+          "shaft keyway depth": "mm",
+          "hub keyway depth": "mm",
+        },
         verdict: "info",
         rule: "DIN 6885-1 parallel key for the shaft diameter",
         detail: result,
@@ -549,7 +653,13 @@ export const calculations: Record<string, CalcDefinition> = {
       const read = reader(inputs, calculations.shaftDiameter.inputs);
       const installed = read.number("installedDiameter", "in");
       const result = blame(
-        { shp: "power", shaftRpm: "shaftRpm", torsionalYieldPsi: "torsionalYield", safetyFactor: "safetyFactor", installedDiameterIn: "installedDiameter" },
+        {
+          shp: "power",
+          shaftRpm: "shaftRpm",
+          torsionalYieldPsi: "torsionalYield",
+          safetyFactor: "safetyFactor",
+          installedDiameterIn: "installedDiameter",
+        },
         () =>
           shaftDiameter({
             shp: read.number("power", "hp")!,
@@ -584,7 +694,13 @@ export const calculations: Record<string, CalcDefinition> = {
     run(inputs) {
       const read = reader(inputs, calculations.bearingSpacing.inputs);
       const result = blame(
-        { shaftDiameterIn: "shaftDiameter", shaftRpm: "shaftRpm", elasticModulusPsi: "elasticModulus", densityLbPerIn3: "density", actualSpacingFt: "actualSpacing" },
+        {
+          shaftDiameterIn: "shaftDiameter",
+          shaftRpm: "shaftRpm",
+          elasticModulusPsi: "elasticModulus",
+          densityLbPerIn3: "density",
+          actualSpacingFt: "actualSpacing",
+        },
         () =>
           bearingSpacing({
             shaftDiameterIn: read.number("shaftDiameter", "in")!,
@@ -620,7 +736,12 @@ export const calculations: Record<string, CalcDefinition> = {
     run(inputs) {
       const read = reader(inputs, calculations.wireSize.inputs);
       const result = blame(
-        { currentA: "current", roundTripFt: "roundTripLength", systemVolts: "systemVoltage", dropPercent: "dropPercent" },
+        {
+          currentA: "current",
+          roundTripFt: "roundTripLength",
+          systemVolts: "systemVoltage",
+          dropPercent: "dropPercent",
+        },
         () =>
           wireSize({
             currentA: read.number("current", "A")!,
@@ -630,13 +751,20 @@ export const calculations: Record<string, CalcDefinition> = {
           }),
       );
       const installed = read.text("installed");
-      const installedCm = installed === undefined ? undefined : blame({ awg: "installed", mm2: "installed" }, () => conductorCircularMils(installed));
-      const values: Record<string, number | string> = { "circular mils": Math.round(result.circularMils), AWG: result.awg };
+      const installedCm =
+        installed === undefined
+          ? undefined
+          : blame({ awg: "installed", mm2: "installed" }, () => conductorCircularMils(installed));
+      const values: Record<string, number | string> = {
+        "circular mils": Math.round(result.circularMils),
+        AWG: result.awg,
+      };
       if (result.metricMm2 !== undefined) values["metric"] = result.metricMm2;
       return {
         values,
         units: { "circular mils": "CM", metric: "mm²" },
-        verdict: installedCm === undefined ? "info" : atLeast(installedCm, result.circularMils) ? "pass" : "fail",
+        verdict:
+          installedCm === undefined ? "info" : atLeast(installedCm, result.circularMils) ? "pass" : "fail",
         rule: `conductor of at least ${Math.round(result.circularMils)} circular mils for ${result.allowedDropV} V drop`,
         detail: { ...result, ...(installedCm !== undefined ? { installedCircularMils: installedCm } : {}) },
       };
@@ -656,13 +784,15 @@ export const calculations: Record<string, CalcDefinition> = {
     },
     run(inputs) {
       const read = reader(inputs, calculations.propSlip.inputs);
-      const result = blame({ pitchIn: "pitch", engineRpm: "engineRpm", gearRatio: "gearRatio", speedKnots: "speed" }, () =>
-        propSlip({
-          pitchIn: read.number("pitch", "in")!,
-          engineRpm: read.number("engineRpm", "rpm")!,
-          gearRatio: read.number("gearRatio", "1")!,
-          speedKnots: read.number("speed", "kn")!,
-        }),
+      const result = blame(
+        { pitchIn: "pitch", engineRpm: "engineRpm", gearRatio: "gearRatio", speedKnots: "speed" },
+        () =>
+          propSlip({
+            pitchIn: read.number("pitch", "in")!,
+            engineRpm: read.number("engineRpm", "rpm")!,
+            gearRatio: read.number("gearRatio", "1")!,
+            speedKnots: read.number("speed", "kn")!,
+          }),
       );
       return {
         values: {
@@ -681,21 +811,32 @@ export const calculations: Record<string, CalcDefinition> = {
   seaTrialLoading: {
     name: "seaTrialLoading",
     title: "Sea-trial propeller loading",
-    summary: "Whether the engine reaches its rated rpm band at wide-open throttle, and an indicative pitch change.",
+    summary:
+      "Whether the engine reaches its rated rpm band at wide-open throttle, and an indicative pitch change.",
     source: "Engine maker's rated rpm band; about 200 rpm per inch of pitch, common practice",
     caution: CAUTION_SEA_TRIAL,
     inputs: {
       wotRpm: { label: "Wide-open-throttle rpm", accepts: ["number"], unit: "rpm" },
       ratedRpmMin: { label: "Rated band, lowest rpm", accepts: ["number"], unit: "rpm" },
       ratedRpmMax: { label: "Rated band, highest rpm", accepts: ["number"], unit: "rpm" },
-      rpmPerPitchIn: { label: "Rpm change per inch of pitch", accepts: ["number"], unit: "rpm", optional: true },
+      rpmPerPitchIn: {
+        label: "Rpm change per inch of pitch",
+        accepts: ["number"],
+        unit: "rpm",
+        optional: true,
+      },
     },
     run(inputs) {
       const read = reader(inputs, calculations.seaTrialLoading.inputs);
       const min = read.number("ratedRpmMin", "rpm")!;
       const max = read.number("ratedRpmMax", "rpm")!;
       const result = blame({}, () =>
-        seaTrialLoading({ wotRpm: read.number("wotRpm", "rpm")!, ratedRpmMin: min, ratedRpmMax: max, rpmPerPitchIn: read.number("rpmPerPitchIn", "rpm") }),
+        seaTrialLoading({
+          wotRpm: read.number("wotRpm", "rpm")!,
+          ratedRpmMin: min,
+          ratedRpmMax: max,
+          rpmPerPitchIn: read.number("rpmPerPitchIn", "rpm"),
+        }),
       );
       return {
         values: { loading: result.verdict, "pitch change": fixed(result.pitchChangeIn, 2) },
@@ -711,7 +852,8 @@ export const calculations: Record<string, CalcDefinition> = {
     name: "exhaustInjection",
     title: "Exhaust water-injection height",
     summary: "Height of the water injection point above the waterline against the minimum.",
-    source: "Engine maker's installation instructions; 6 in common practice (ABYC P-1, Gerr, Boat Mechanical Systems Handbook)",
+    source:
+      "Engine maker's installation instructions; 6 in common practice (ABYC P-1, Gerr, Boat Mechanical Systems Handbook)",
     caution: CAUTION_EXHAUST,
     inputs: {
       injectionHeight: { label: "Injection point above the waterline", accepts: ["number"], unit: "in" },
@@ -720,7 +862,10 @@ export const calculations: Record<string, CalcDefinition> = {
     run(inputs) {
       const read = reader(inputs, calculations.exhaustInjection.inputs);
       const result = blame({ injectionHeightIn: "injectionHeight", minimumIn: "minimumHeight" }, () =>
-        exhaustInjection({ injectionHeightIn: read.number("injectionHeight", "in")!, minimumIn: read.number("minimumHeight", "in") }),
+        exhaustInjection({
+          injectionHeightIn: read.number("injectionHeight", "in")!,
+          minimumIn: read.number("minimumHeight", "in"),
+        }),
       );
       return {
         values: { margin: result.marginIn },
@@ -777,7 +922,11 @@ export const calculations: Record<string, CalcDefinition> = {
     run(inputs) {
       const read = reader(inputs, calculations.shimStack.inputs);
       const result = blame({ thicknessIn: "thickness", stockIn: "stock", maxPieces: "maxPieces" }, () =>
-        shimStack({ thicknessIn: read.number("thickness", "in")!, stockIn: read.numbers("stock", "in")!, maxPieces: read.number("maxPieces", "1") }),
+        shimStack({
+          thicknessIn: read.number("thickness", "in")!,
+          stockIn: read.numbers("stock", "in")!,
+          maxPieces: read.number("maxPieces", "1"),
+        }),
       );
       return {
         values: {
@@ -818,7 +967,10 @@ export const calculations: Record<string, CalcDefinition> = {
 };
 
 /** Runs a calculation by name; bad input comes back as an error naming the input. */
-export function runCalc(name: string, inputs: Inputs): CalcOutcome | { error: { field: string; message: string } } {
+export function runCalc(
+  name: string,
+  inputs: Inputs,
+): CalcOutcome | { error: { field: string; message: string } } {
   const definition = Object.hasOwn(calculations, name) ? calculations[name] : undefined;
   if (!definition) return { error: { field: "calc", message: `There is no calculation named "${name}".` } };
   try {

@@ -48,7 +48,10 @@ export function shaftRunout(input: RunoutInput): RunoutResult {
     const positionIn = requireFinite(`${field}.positionIn`, station?.positionIn);
     const readings = station.readingsIn;
     if (!Array.isArray(readings) || readings.length < 2) {
-      throw new CalcError(`${field}.readingsIn`, `Station ${i + 1} needs at least two dial readings around the shaft.`);
+      throw new CalcError(
+        `${field}.readingsIn`,
+        `Station ${i + 1} needs at least two dial readings around the shaft.`,
+      );
     }
     readings.forEach((r, j) => {
       if (typeof r !== "number" || !Number.isFinite(r)) {
@@ -73,7 +76,12 @@ export function shaftRunout(input: RunoutInput): RunoutResult {
     if (s.tirIn > stations[worstStation].tirIn) worstStation = i;
   });
   const maxTirIn = stations[worstStation].tirIn;
-  return requireFiniteResult("stations", { stations, maxTirIn, worstStation, pass: atMost(maxTirIn, limitTirIn) });
+  return requireFiniteResult("stations", {
+    stations,
+    maxTirIn,
+    worstStation,
+    pass: atMost(maxTirIn, limitTirIn),
+  });
 }
 
 export type RunoutGrade = "good" | "within usual limit" | "over usual limit" | "far out";

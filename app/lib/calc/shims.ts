@@ -34,7 +34,9 @@ export function shimStack(input: ShimStackInput): ShimStackResult {
   if (!Array.isArray(input.stockIn) || input.stockIn.length === 0) {
     throw new CalcError("stockIn", "Enter the shim sizes the shop stocks.");
   }
-  const sizes = [...new Set(input.stockIn.map((s, i) => Math.round(requirePositive(`stockIn[${i}]`, s) * UNITS_PER_IN)))];
+  const sizes = [
+    ...new Set(input.stockIn.map((s, i) => Math.round(requirePositive(`stockIn[${i}]`, s) * UNITS_PER_IN))),
+  ];
   if (sizes.some((s) => s === 0)) {
     throw new CalcError("stockIn", "Shim sizes thinner than 0.0001 in cannot be stacked.");
   }

@@ -65,7 +65,10 @@ const database = reopeningDatabase<SternpostDB>("sternpost", 1, (db) => {
   db.createObjectStore("templates", { keyPath: ["key", "version"] });
   db.createObjectStore("jobs", { keyPath: "id" });
   db.createObjectStore("checklists", { keyPath: "id" }).createIndex("byJob", "jobId");
-  db.createObjectStore("responses", { keyPath: ["checklistId", "itemKey"] }).createIndex("byChecklist", "checklistId");
+  db.createObjectStore("responses", { keyPath: ["checklistId", "itemKey"] }).createIndex(
+    "byChecklist",
+    "checklistId",
+  );
   db.createObjectStore("outbox", { keyPath: "opId" }).createIndex("bySeq", "seq");
   db.createObjectStore("conflicts", { keyPath: "id" }).createIndex("byChecklist", "checklistId");
   db.createObjectStore("rejections", { keyPath: "opId" });

@@ -70,9 +70,25 @@ const changed = () => listeners.forEach((l) => l());
  */
 export async function preparePhoto(file: File): Promise<PreparedPhoto> {
   const { default: imageCompression } = await import("browser-image-compression");
-  const photo = await imageCompression(file, { maxSizeMB: 0.5, maxWidthOrHeight: 1600, fileType: "image/jpeg", initialQuality: 0.85, useWebWorker: false });
-  const thumb = await imageCompression(photo, { maxSizeMB: 0.04, maxWidthOrHeight: 320, fileType: "image/jpeg", useWebWorker: false });
-  return { bytes: await photo.arrayBuffer(), type: photo.type, thumb: await thumb.arrayBuffer(), thumbType: thumb.type };
+  const photo = await imageCompression(file, {
+    maxSizeMB: 0.5,
+    maxWidthOrHeight: 1600,
+    fileType: "image/jpeg",
+    initialQuality: 0.85,
+    useWebWorker: false,
+  });
+  const thumb = await imageCompression(photo, {
+    maxSizeMB: 0.04,
+    maxWidthOrHeight: 320,
+    fileType: "image/jpeg",
+    useWebWorker: false,
+  });
+  return {
+    bytes: await photo.arrayBuffer(),
+    type: photo.type,
+    thumb: await thumb.arrayBuffer(),
+    thumbType: thumb.type,
+  };
 }
 
 async function sha256Hex(bytes: ArrayBuffer): Promise<string> {
@@ -90,12 +106,22 @@ let addQueue: Promise<unknown> = Promise.resolve();
  * listing a photo the tablet does not have. Adds run one after another, so two quick photos on
  * one item both end up in its list.
  */
-export function addPhoto(place: { checklistId: string; itemKey: string; by: string }, file: File, prepare: (file: File) => Promise<PreparedPhoto> = preparePhoto): Promise<LocalPhoto> {
+export function addPhoto(
+  place: { checklistId: string; itemKey: string; by: string },
+  file: File,
+  prepare: (file: File) => Promise<PreparedPhoto> = preparePhoto,
+): Promise<LocalPhoto> {
   const run = async () => {
     const prepared = await prepare(file);
     const photo: LocalPhoto = {
-      id: crypto.randomUUID(), checklistId: place.checklistId, itemKey: place.itemKey, sha256: await sha256Hex(prepared.bytes),
-      seq: 0, takenAt: new Date().toISOString(), state: "waiting", ...prepared,
+      id: crypto.randomUUID(),
+      checklistId: place.checklistId,
+      itemKey: place.itemKey,
+      sha256: await sha256Hex(prepared.bytes),
+      seq: 0,
+      takenAt: new Date().toISOString(),
+      state: "waiting",
+      ...prepared,
     };
     const local = await readChecklist(place.checklistId);
     const current = (local?.responses[place.itemKey]?.value as PhotoValue | undefined)?.photos ?? [];
@@ -108,7 +134,12 @@ export function addPhoto(place: { checklistId: string; itemKey: string; by: stri
       await tx.objectStore("photos").put(photo);
       await tx.done;
       try {
-        await recordEntry(place.checklistId, place.itemKey, { photos: [...current, { id: photo.id, sha256: photo.sha256 }] } satisfies PhotoValue, place.by);
+        await recordEntry(
+          place.checklistId,
+          place.itemKey,
+          { photos: [...current, { id: photo.id, sha256: photo.sha256 }] } satisfies PhotoValue,
+          place.by,
+        );
       } catch (error) {
         await db.delete("photos", photo.id);
         throw error;
@@ -159,7 +190,9 @@ async function settle(id: string, change: Partial<LocalPhoto>) {
 async function uploadRound(fetcher: typeof fetch): Promise<{ ok: boolean; uploaded: number }> {
   let uploaded = 0;
   try {
-    const waiting = (await (await photoDb()).getAllFromIndex("photos", "bySeq")).filter((p) => p.state === "waiting" && !adding.has(p.id));
+    const waiting = (await (await photoDb()).getAllFromIndex("photos", "bySeq")).filter(
+      (p) => p.state === "waiting" && !adding.has(p.id),
+    );
     if (!waiting.length) return { ok: true, uploaded };
     const listedInOutbox = new Set((await outboxInOrder()).flatMap((op) => photoIdsIn(op.value)));
     for (const photo of waiting) {
@@ -167,7 +200,12 @@ async function uploadRound(fetcher: typeof fetch): Promise<{ ok: boolean; upload
       const query = new URLSearchParams({ checklistId: photo.checklistId, itemKey: photo.itemKey });
       let response: Response;
       try {
-        response = await fetcher(`/api/photos/${photo.id}?${query}`, { method: "PUT", credentials: "same-origin", headers: { "Content-Type": photo.type }, body: photo.bytes });
+        response = await fetcher(`/api/photos/${photo.id}?${query}`, {
+          method: "PUT",
+          credentials: "same-origin",
+          headers: { "Content-Type": photo.type },
+          body: photo.bytes,
+        });
       } catch {
         return { ok: false, uploaded }; // offline: everything stays queued, in order
       }
@@ -179,7 +217,9 @@ async function uploadRound(fetcher: typeof fetch): Promise<{ ok: boolean; upload
       } else if (tryAgainLater(response.status)) {
         return { ok: false, uploaded };
       } else {
-        const problem = ((await response.json().catch(() => ({}))) as { error?: string }).error ?? `The server answered ${response.status}.`;
+        const problem =
+          ((await response.json().catch(() => ({}))) as { error?: string }).error ??
+          `The server answered ${response.status}.`;
         await settle(photo.id, { state: "refused", problem });
         changed();
       }
@@ -198,7 +238,9 @@ let running: Promise<{ ok: boolean; uploaded: number }> | null = null;
  * ok: false means a photo could not be sent now (offline, signed out, server trouble): it stays
  * queued and the next call sends it. A refused photo is kept on the tablet with the reason.
  */
-export function uploadPendingPhotos(fetcher: typeof fetch = fetch): Promise<{ ok: boolean; uploaded: number }> {
+export function uploadPendingPhotos(
+  fetcher: typeof fetch = fetch,
+): Promise<{ ok: boolean; uploaded: number }> {
   running ??= uploadRound(fetcher).finally(() => (running = null));
   return running;
 }

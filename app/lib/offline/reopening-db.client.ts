@@ -4,7 +4,11 @@ import { openDB, type DBSchema, type IDBPDatabase } from "idb";
  * An IndexedDB database opened once and opened again after the browser closes the connection
  * (WebKit does under memory pressure): the next call gets a new handle, never the dead one.
  */
-export function reopeningDatabase<S extends DBSchema>(initialName: string, version: number, upgrade: (db: IDBPDatabase<S>) => void) {
+export function reopeningDatabase<S extends DBSchema>(
+  initialName: string,
+  version: number,
+  upgrade: (db: IDBPDatabase<S>) => void,
+) {
   let name = initialName;
   let opening: Promise<IDBPDatabase<S>> | null = null;
   return {

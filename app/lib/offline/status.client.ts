@@ -13,7 +13,15 @@ export interface SyncStatus {
   problem: string | null;
 }
 
-let status: SyncStatus = { online: true, waiting: 0, conflicts: 0, refused: 0, lastSyncAt: null, syncing: false, problem: null };
+let status: SyncStatus = {
+  online: true,
+  waiting: 0,
+  conflicts: 0,
+  refused: 0,
+  lastSyncAt: null,
+  syncing: false,
+  problem: null,
+};
 const listeners = new Set<() => void>();
 
 export const syncStatus = {
@@ -32,7 +40,12 @@ function publish(next: Partial<SyncStatus>) {
 /** Re-reads the counts shown in the status bar. */
 export async function refreshStatus() {
   const db = await localDb();
-  const [waiting, conflicts, refused, lastSyncAt] = await Promise.all([db.count("outbox"), db.count("conflicts"), db.count("rejections"), getMeta<string>("lastSyncAt")]);
+  const [waiting, conflicts, refused, lastSyncAt] = await Promise.all([
+    db.count("outbox"),
+    db.count("conflicts"),
+    db.count("rejections"),
+    getMeta<string>("lastSyncAt"),
+  ]);
   publish({ waiting, conflicts, refused, lastSyncAt: lastSyncAt ?? null, online: navigator.onLine });
 }
 
@@ -51,7 +64,11 @@ export async function requestSync() {
   clearTimeout(timer);
   const run = async () => {
     publish({ syncing: true });
-    const result = await syncOnce().catch((error) => ({ ok: false as const, reason: "server" as const, message: String(error) }));
+    const result = await syncOnce().catch((error) => ({
+      ok: false as const,
+      reason: "server" as const,
+      message: String(error),
+    }));
     // Photos go after the entries that reference them.
     if (result.ok) await uploadPendingPhotos().catch(() => undefined);
     publish({ syncing: false, problem: result.ok ? null : result.message });
@@ -63,7 +80,10 @@ export async function requestSync() {
     const delay = result.ok ? 30_000 : Math.min(60_000, 2000 * 2 ** Math.min(failures, 5));
     timer = setTimeout(requestSync, delay);
   };
-  if (navigator.locks) await navigator.locks.request("sternpost-sync", { ifAvailable: true }, async (lock) => (lock ? run() : undefined));
+  if (navigator.locks)
+    await navigator.locks.request("sternpost-sync", { ifAvailable: true }, async (lock) =>
+      lock ? run() : undefined,
+    );
   else await run();
 }
 

@@ -36,15 +36,22 @@ export async function saveBundle(bundle: OfflineBundle): Promise<void> {
   const previousUser = await getMeta<{ id: number }>("user");
   if (previousUser && previousUser.id !== bundle.user.id) {
     if ((await db.count("outbox")) > 0) {
-      throw new LocalStoreError("Entries by the person who used this tablet before are still waiting to sync; they must sign in and sync first.");
+      throw new LocalStoreError(
+        "Entries by the person who used this tablet before are still waiting to sync; they must sign in and sync first.",
+      );
     }
     const stores = ["templates", "jobs", "checklists", "responses", "conflicts", "rejections"] as const;
     const wipe = db.transaction(stores, "readwrite");
     await Promise.all(stores.map((name) => wipe.objectStore(name).clear()));
     await wipe.done;
   }
-  const tx = db.transaction(["templates", "jobs", "checklists", "responses", "conflicts", "meta", "outbox"], "readwrite");
-  const pendingItems = new Set((await tx.objectStore("outbox").getAll()).map((o) => `${o.checklistId}|${o.itemKey}`));
+  const tx = db.transaction(
+    ["templates", "jobs", "checklists", "responses", "conflicts", "meta", "outbox"],
+    "readwrite",
+  );
+  const pendingItems = new Set(
+    (await tx.objectStore("outbox").getAll()).map((o) => `${o.checklistId}|${o.itemKey}`),
+  );
   await tx.objectStore("jobs").clear();
   await tx.objectStore("checklists").clear();
   for (const job of bundle.jobs) await tx.objectStore("jobs").put(job);
@@ -56,7 +63,16 @@ export async function saveBundle(bundle: OfflineBundle): Promise<void> {
     if (pendingItems.has(`${r.checklistId}|${r.itemKey}`) && local) {
       await responses.put({ ...local, serverValue: r.value, rev: Math.max(local.rev, r.rev) });
     } else {
-      await responses.put({ checklistId: r.checklistId, itemKey: r.itemKey, value: r.value, serverValue: r.value, rev: r.rev, by: r.by, at: r.at, pending: false });
+      await responses.put({
+        checklistId: r.checklistId,
+        itemKey: r.itemKey,
+        value: r.value,
+        serverValue: r.value,
+        rev: r.rev,
+        by: r.by,
+        at: r.at,
+        pending: false,
+      });
     }
   }
   await tx.objectStore("conflicts").clear();
@@ -97,7 +113,13 @@ export async function listLocalJobs() {
 }
 
 /** Records an entry and queues its operation, atomically. */
-export async function recordEntry(checklistId: string, itemKey: string, value: unknown, by: string, resolves?: number[]): Promise<OutboxEntry> {
+export async function recordEntry(
+  checklistId: string,
+  itemKey: string,
+  value: unknown,
+  by: string,
+  resolves?: number[],
+): Promise<OutboxEntry> {
   const id = await deviceId();
   const db = await localDb();
   const tx = db.transaction(["checklists", "responses", "outbox", "meta", "conflicts"], "readwrite");
@@ -110,8 +132,27 @@ export async function recordEntry(checklistId: string, itemKey: string, value: u
   const current = await responses.get([checklistId, itemKey]);
   const seq = (((await tx.objectStore("meta").get("seq")) as number | undefined) ?? 0) + 1;
   const at = new Date().toISOString();
-  const entry: OutboxEntry = { opId: crypto.randomUUID(), deviceId: id, seq, checklistId, itemKey, value, baseRev: current?.rev ?? 0, at, ...(resolves?.length ? { resolves } : {}) };
-  await responses.put({ checklistId, itemKey, value, serverValue: current?.serverValue ?? null, rev: current?.rev ?? 0, by, at, pending: true });
+  const entry: OutboxEntry = {
+    opId: crypto.randomUUID(),
+    deviceId: id,
+    seq,
+    checklistId,
+    itemKey,
+    value,
+    baseRev: current?.rev ?? 0,
+    at,
+    ...(resolves?.length ? { resolves } : {}),
+  };
+  await responses.put({
+    checklistId,
+    itemKey,
+    value,
+    serverValue: current?.serverValue ?? null,
+    rev: current?.rev ?? 0,
+    by,
+    at,
+    pending: true,
+  });
   await tx.objectStore("outbox").add(entry);
   await tx.objectStore("meta").put(seq, "seq");
   for (const conflictId of resolves ?? []) await tx.objectStore("conflicts").delete(conflictId);
@@ -126,9 +167,19 @@ export async function queueSubmission(checklistId: string): Promise<OutboxEntry>
   const tx = db.transaction(["checklists", "outbox", "meta"], "readwrite");
   const checklist = await tx.objectStore("checklists").get(checklistId);
   if (!checklist) throw new LocalStoreError("This checklist is not on this tablet.");
-  if (checklist.state !== "in-progress" && checklist.state !== "returned") throw new LocalStoreError("This checklist has already been submitted.");
+  if (checklist.state !== "in-progress" && checklist.state !== "returned")
+    throw new LocalStoreError("This checklist has already been submitted.");
   const seq = (((await tx.objectStore("meta").get("seq")) as number | undefined) ?? 0) + 1;
-  const entry: OutboxEntry = { opId: crypto.randomUUID(), deviceId: id, seq, checklistId, itemKey: SUBMIT_KEY, value: submitValue, baseRev: 0, at: new Date().toISOString() };
+  const entry: OutboxEntry = {
+    opId: crypto.randomUUID(),
+    deviceId: id,
+    seq,
+    checklistId,
+    itemKey: SUBMIT_KEY,
+    value: submitValue,
+    baseRev: 0,
+    at: new Date().toISOString(),
+  };
   await tx.objectStore("outbox").add(entry);
   await tx.objectStore("meta").put(seq, "seq");
   await tx.objectStore("checklists").put({ ...checklist, state: "submitted" });
@@ -142,9 +193,16 @@ export async function outboxInOrder(): Promise<OutboxEntry[]> {
 }
 
 /** Takes in a sync answer: confirmed entries leave the outbox, conflicts and refusals are kept for the person. */
-export async function applySyncAnswer(sent: OutboxEntry[], answer: { results: OpResult[]; changes: Change[]; cursor: string }, me: string) {
+export async function applySyncAnswer(
+  sent: OutboxEntry[],
+  answer: { results: OpResult[]; changes: Change[]; cursor: string },
+  me: string,
+) {
   const db = await localDb();
-  const tx = db.transaction(["responses", "outbox", "conflicts", "rejections", "meta", "checklists"], "readwrite");
+  const tx = db.transaction(
+    ["responses", "outbox", "conflicts", "rejections", "meta", "checklists"],
+    "readwrite",
+  );
   const outbox = tx.objectStore("outbox");
   const responses = tx.objectStore("responses");
   const byId = new Map(sent.map((op) => [op.opId, op]));
@@ -157,15 +215,27 @@ export async function applySyncAnswer(sent: OutboxEntry[], answer: { results: Op
         // Refused (say, an item left): the checklist is open again here, and the reason is shown.
         const checklist = await tx.objectStore("checklists").get(op.checklistId);
         if (checklist) await tx.objectStore("checklists").put({ ...checklist, state: "in-progress" });
-        await tx.objectStore("rejections").put({ opId: op.opId, checklistId: op.checklistId, itemKey: op.itemKey, value: op.value, reason: result.reason ?? "Refused.", at: op.at });
+        await tx
+          .objectStore("rejections")
+          .put({
+            opId: op.opId,
+            checklistId: op.checklistId,
+            itemKey: op.itemKey,
+            value: op.value,
+            reason: result.reason ?? "Refused.",
+            at: op.at,
+          });
       }
       continue;
     }
-    const later = (await outbox.getAll()).filter((o) => o.checklistId === op.checklistId && o.itemKey === op.itemKey);
+    const later = (await outbox.getAll()).filter(
+      (o) => o.checklistId === op.checklistId && o.itemKey === op.itemKey,
+    );
     const local = await responses.get([op.checklistId, op.itemKey]);
     if (result.status === "applied") {
       // Later entries on this item were made on top of this one: they follow its new revision.
-      for (const next of later) if (next.baseRev === op.baseRev) await outbox.put({ ...next, baseRev: result.rev! });
+      for (const next of later)
+        if (next.baseRev === op.baseRev) await outbox.put({ ...next, baseRev: result.rev! });
       await responses.put({
         ...(local ?? { checklistId: op.checklistId, itemKey: op.itemKey, by: me, at: op.at }),
         value: later.length ? local?.value : op.value,
@@ -185,11 +255,27 @@ export async function applySyncAnswer(sent: OutboxEntry[], answer: { results: Op
       } as LocalResponse);
       if (result.status === "conflict" && result.conflictId) {
         await tx.objectStore("conflicts").put({
-          id: result.conflictId, checklistId: op.checklistId, itemKey: op.itemKey, serverValue: result.serverValue, serverRev: rev,
-          clientValue: op.value, by: me, at: new Date().toISOString(), deviceId: op.deviceId,
+          id: result.conflictId,
+          checklistId: op.checklistId,
+          itemKey: op.itemKey,
+          serverValue: result.serverValue,
+          serverRev: rev,
+          clientValue: op.value,
+          by: me,
+          at: new Date().toISOString(),
+          deviceId: op.deviceId,
         });
       } else if (result.status === "rejected") {
-        await tx.objectStore("rejections").put({ opId: op.opId, checklistId: op.checklistId, itemKey: op.itemKey, value: op.value, reason: result.reason ?? "Refused.", at: op.at });
+        await tx
+          .objectStore("rejections")
+          .put({
+            opId: op.opId,
+            checklistId: op.checklistId,
+            itemKey: op.itemKey,
+            value: op.value,
+            reason: result.reason ?? "Refused.",
+            at: op.at,
+          });
       }
     }
   }
@@ -197,9 +283,19 @@ export async function applySyncAnswer(sent: OutboxEntry[], answer: { results: Op
   for (const change of answer.changes) {
     const local = await responses.get([change.checklistId, change.itemKey]);
     if (local && stillPending.has(`${change.checklistId}|${change.itemKey}`)) {
-      if (change.rev >= local.rev) await responses.put({ ...local, serverValue: change.value, rev: change.rev });
+      if (change.rev >= local.rev)
+        await responses.put({ ...local, serverValue: change.value, rev: change.rev });
     } else if (!local || change.rev >= local.rev) {
-      await responses.put({ checklistId: change.checklistId, itemKey: change.itemKey, value: change.value, serverValue: change.value, rev: change.rev, by: change.by, at: change.at, pending: false });
+      await responses.put({
+        checklistId: change.checklistId,
+        itemKey: change.itemKey,
+        value: change.value,
+        serverValue: change.value,
+        rev: change.rev,
+        by: change.by,
+        at: change.at,
+        pending: false,
+      });
     }
   }
   await tx.objectStore("meta").put(answer.cursor, "cursor");

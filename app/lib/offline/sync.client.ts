@@ -5,7 +5,8 @@ import { applySyncAnswer, deviceId, getMeta, outboxInOrder } from "./store.clien
 /** Operations per request: well under the server's limit, small enough for a weak signal. */
 const BATCH = 200;
 
-export type SyncResult = { ok: true; pushed: number } | { ok: false; reason: "offline" | "signed-out" | "server"; message: string };
+export type SyncResult =
+  { ok: true; pushed: number } | { ok: false; reason: "offline" | "signed-out" | "server"; message: string };
 
 /**
  * Pushes the outbox in order and pulls changes, until the outbox is empty. Each round sends at
@@ -39,14 +40,25 @@ export async function syncOnce(fetcher: typeof fetch = fetch, base = ""): Promis
         body: JSON.stringify({
           deviceId: device,
           cursor,
-          ops: batch.map(({ opId, seq, checklistId, itemKey, value, baseRev, at, resolves }) => ({ opId, seq, checklistId, itemKey, value, baseRev, at, ...(resolves ? { resolves } : {}) })),
+          ops: batch.map(({ opId, seq, checklistId, itemKey, value, baseRev, at, resolves }) => ({
+            opId,
+            seq,
+            checklistId,
+            itemKey,
+            value,
+            baseRev,
+            at,
+            ...(resolves ? { resolves } : {}),
+          })),
         }),
       });
     } catch (error) {
       return { ok: false, reason: "offline", message: String(error) };
     }
-    if (response.status === 401) return { ok: false, reason: "signed-out", message: "Sign in again to send your entries." };
-    if (!response.ok) return { ok: false, reason: "server", message: `The server answered ${response.status}.` };
+    if (response.status === 401)
+      return { ok: false, reason: "signed-out", message: "Sign in again to send your entries." };
+    if (!response.ok)
+      return { ok: false, reason: "server", message: `The server answered ${response.status}.` };
     const answer = (await response.json()) as SyncResponse;
     await applySyncAnswer(batch, answer, me);
     pushed += batch.length;

@@ -9,9 +9,14 @@ const STATIC_PAGES = ["/", "/sync", "/calculators"];
  * Makes the person's jobs available offline: stores jobs, checklists, templates and responses in
  * IndexedDB, keeps the HTML of the pages that open them, and asks the browser to keep the data.
  */
-export async function takeOffline(calculatorPages: string[] = []): Promise<{ checklists: number; pages: number }> {
+export async function takeOffline(
+  calculatorPages: string[] = [],
+): Promise<{ checklists: number; pages: number }> {
   const response = await fetch("/api/offline", { credentials: "same-origin", cache: "no-store" });
-  if (!response.ok) throw new Error(response.status === 401 ? "Sign in again first." : `The server answered ${response.status}.`);
+  if (!response.ok)
+    throw new Error(
+      response.status === 401 ? "Sign in again first." : `The server answered ${response.status}.`,
+    );
   const bundle = (await response.json()) as OfflineBundle;
   await saveBundle(bundle);
   await navigator.storage?.persist?.().catch(() => false);

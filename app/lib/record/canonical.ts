@@ -51,7 +51,12 @@ export function checklistContent(checklist: RecordChecklist) {
     checklistId: checklist.id,
     templateKey: checklist.templateKey,
     templateVersion: checklist.templateVersion,
-    responses: mapValues(checklist.responses, (r) => ({ value: r.value, rev: r.rev, by: r.by, at: instant(r.at) })),
+    responses: mapValues(checklist.responses, (r) => ({
+      value: r.value,
+      rev: r.rev,
+      by: r.by,
+      at: instant(r.at),
+    })),
     history: mapValues(checklist.history, (revisions) =>
       revisions
         .map((r) => ({ rev: r.rev, value: r.value, by: r.by, at: instant(r.at) }))
@@ -59,7 +64,10 @@ export function checklistContent(checklist: RecordChecklist) {
     ),
     comments: checklist.comments
       .map((c) => ({ itemKey: c.itemKey, by: c.by, at: instant(c.at), text: c.text }))
-      .sort((a, b) => byText(a.at, b.at) || byText(a.itemKey, b.itemKey) || byText(a.by, b.by) || byText(a.text, b.text)),
+      .sort(
+        (a, b) =>
+          byText(a.at, b.at) || byText(a.itemKey, b.itemKey) || byText(a.by, b.by) || byText(a.text, b.text),
+      ),
     photos: checklist.photos
       .map((p) => ({ itemKey: p.itemKey, id: p.id, sha256: p.sha256 }))
       .sort((a, b) => byText(a.itemKey, b.itemKey) || byText(a.id, b.id)),
@@ -90,7 +98,8 @@ export function recordContent(record: CommissioningRecord) {
       submittedBy: checklist.submittedBy,
       submittedAt: checklist.submittedAt === undefined ? undefined : instant(checklist.submittedAt),
       countersignedBy: checklist.countersignedBy,
-      countersignedAt: checklist.countersignedAt === undefined ? undefined : instant(checklist.countersignedAt),
+      countersignedAt:
+        checklist.countersignedAt === undefined ? undefined : instant(checklist.countersignedAt),
     })),
   };
 }

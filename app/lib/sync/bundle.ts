@@ -5,8 +5,25 @@ import type { Role } from "../roles.ts";
 /** Everything a device keeps to work a person's jobs with no connection. */
 export interface OfflineBundle {
   user: { id: number; name: string; email: string; role: Role };
-  jobs: { id: number; vesselName: string; hin: string | null; engineModel: string; status: string; dueDate: string | null; leadName: string }[];
-  checklists: { id: string; jobId: number; key: string; title: string; version: number; state: ChecklistState; canFill: boolean; comments: ReviewComment[] }[];
+  jobs: {
+    id: number;
+    vesselName: string;
+    hin: string | null;
+    engineModel: string;
+    status: string;
+    dueDate: string | null;
+    leadName: string;
+  }[];
+  checklists: {
+    id: string;
+    jobId: number;
+    key: string;
+    title: string;
+    version: number;
+    state: ChecklistState;
+    canFill: boolean;
+    comments: ReviewComment[];
+  }[];
   templates: { key: string; version: number; template: Template }[];
   responses: { checklistId: string; itemKey: string; value: unknown; rev: number; by: string; at: string }[];
   conflicts: ConflictRecord[];

@@ -59,7 +59,13 @@ export interface SyncResponse {
 
 /** Field paths and messages of a malformed request, as the 400 body lists them. */
 export function describeProblems(error: z.ZodError): { path: string; message: string }[] {
-  return error.issues.map((i) => ({ path: i.path.map((p) => (typeof p === "number" ? `[${p}]` : `.${String(p)}`)).join("").replace(/^\./, ""), message: i.message }));
+  return error.issues.map((i) => ({
+    path: i.path
+      .map((p) => (typeof p === "number" ? `[${p}]` : `.${String(p)}`))
+      .join("")
+      .replace(/^\./, ""),
+    message: i.message,
+  }));
 }
 
 /** Structural equality of two JSON values, key order ignored ("same value as the server's"). */

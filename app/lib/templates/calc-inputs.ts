@@ -47,7 +47,12 @@ interface BindingProblem {
 export function calcBindingProblems(item: CalcItem, template: Template): BindingProblem[] {
   const definition = calcDefinition(item.calc);
   if (!definition) {
-    return [{ path: ["calc"], message: `no calculation named "${item.calc}"; known: ${Object.keys(calculations).join(", ")}` }];
+    return [
+      {
+        path: ["calc"],
+        message: `no calculation named "${item.calc}"; known: ${Object.keys(calculations).join(", ")}`,
+      },
+    ];
   }
   const problems: BindingProblem[] = [];
   for (const [name, spec] of Object.entries(definition.inputs)) {
@@ -70,31 +75,47 @@ export function calcBindingProblems(item: CalcItem, template: Template): Binding
   return problems;
 }
 
-function bindingProblem(item: CalcItem, binding: CalcBinding, spec: CalcInputSpec, template: Template): string | undefined {
+function bindingProblem(
+  item: CalcItem,
+  binding: CalcBinding,
+  spec: CalcInputSpec,
+  template: Template,
+): string | undefined {
   const takes = spec.accepts.map((kind) => kindWords[kind]).join(" or ");
-  if ("value" in binding) return spec.accepts.includes(constantKind(binding.value)) ? undefined : `expected ${takes}`;
+  if ("value" in binding)
+    return spec.accepts.includes(constantKind(binding.value)) ? undefined : `expected ${takes}`;
   const source = findItem(template, binding.item);
   if (!source) return `no item "${binding.item}" in this template`;
   if (source.key === item.key) return "a calculation cannot take its own result";
   const kind = kindFedBy[source.kind];
-  if (!kind) return `"${source.key}" is a ${source.kind} item; a calculation takes measure, readings or choice items`;
-  if (!spec.accepts.includes(kind)) return `"${source.key}" is a ${source.kind} item but this input takes ${takes}`;
-  if (spec.unit && (source.kind === "measure" || source.kind === "readings") && dimensionOf(source.unit) !== dimensionOf(spec.unit)) {
+  if (!kind)
+    return `"${source.key}" is a ${source.kind} item; a calculation takes measure, readings or choice items`;
+  if (!spec.accepts.includes(kind))
+    return `"${source.key}" is a ${source.kind} item but this input takes ${takes}`;
+  if (
+    spec.unit &&
+    (source.kind === "measure" || source.kind === "readings") &&
+    dimensionOf(source.unit) !== dimensionOf(spec.unit)
+  ) {
     return `"${source.key}" is measured in ${source.unit} (${dimensionOf(source.unit)}) but this input takes ${spec.unit} (${dimensionOf(spec.unit)})`;
   }
   return undefined;
 }
 
 export type GatheredInputs =
-  | { ready: true; inputs: Record<string, CalcInput | undefined> }
-  | { ready: false; waitingFor: Item[] };
+  { ready: true; inputs: Record<string, CalcInput | undefined> } | { ready: false; waitingFor: Item[] };
 
 /**
  * The registry inputs of a calc item from the responses: a measure gives its last attempt, a
  * readings item its last grid once every cell is in, a choice its option key; a constant is in
  * the input's declared unit. Required inputs whose items are not answered yet are listed instead.
  */
-export function gatherCalcInputs(item: CalcItem, definition: CalcDefinition, template: Template, responses: Responses): GatheredInputs {
+export function gatherCalcInputs(
+  item: CalcItem,
+  definition: CalcDefinition,
+  template: Template,
+  responses: Responses,
+): GatheredInputs {
   const inputs: Record<string, CalcInput | undefined> = {};
   const waitingFor: Item[] = [];
   for (const [name, binding] of Object.entries(item.inputs)) {

@@ -11,7 +11,9 @@ export function describeValue(item: Item | undefined, value: unknown): string {
       return `${{ pass: "Pass", fail: "Fail", na: "Not applicable" }[v.result as "pass"] ?? v.result}${note}`;
     case "measure": {
       const last = v.attempts?.at(-1);
-      return last ? `${formatQuantity(last.value, last.unit)} (attempt ${v.attempts.length}, ${last.by})${note}` : "no attempt";
+      return last
+        ? `${formatQuantity(last.value, last.unit)} (attempt ${v.attempts.length}, ${last.by})${note}`
+        : "no attempt";
     }
     case "readings": {
       const last = v.attempts?.at(-1);

@@ -61,7 +61,10 @@ export interface TemplateDiff {
 }
 
 export function diffTemplates(from: Template, to: Template): TemplateDiff {
-  const fields = [...changedFields("title", from.title, to.title), ...changedFields("purpose", from.purpose, to.purpose)];
+  const fields = [
+    ...changedFields("title", from.title, to.title),
+    ...changedFields("purpose", from.purpose, to.purpose),
+  ];
   const sections = diffSections(from.sections, to.sections);
   const items = diffItems(from, to).filter((c) => c.status !== "kept" || c.moved || c.fields.length > 0);
   const counts = {
@@ -85,10 +88,12 @@ export function diffTemplates(from: Template, to: Template): TemplateDiff {
 function diffSections(from: Section[], to: Section[]): SectionChange[] {
   const before = new Map(from.map((s) => [s.key, s]));
   const after = new Set(to.map((s) => s.key));
-  const keptOrder = new Set(inOrder(
-    from.map((s) => s.key).filter((k) => after.has(k)),
-    to.map((s) => s.key).filter((k) => before.has(k)),
-  ));
+  const keptOrder = new Set(
+    inOrder(
+      from.map((s) => s.key).filter((k) => after.has(k)),
+      to.map((s) => s.key).filter((k) => before.has(k)),
+    ),
+  );
   const entries = to.map((section): SectionChange => {
     const old = before.get(section.key);
     if (!old) return { key: section.key, title: section.title, status: "added", moved: false, fields: [] };
@@ -108,7 +113,11 @@ function diffSections(from: Section[], to: Section[]): SectionChange[] {
       status: "removed",
       moved: false,
       fields: [],
-      anchor: precedingKept(from.map((x) => x.key), s.key, after),
+      anchor: precedingKept(
+        from.map((x) => x.key),
+        s.key,
+        after,
+      ),
     }));
   return interleave(entries, removed);
 }
@@ -123,7 +132,12 @@ function placesOf(template: Template): Map<string, Placed> {
   const map = new Map<string, Placed>();
   for (const section of template.sections) {
     section.items.forEach((item, i) => {
-      if (!map.has(item.key)) map.set(item.key, { item, section, place: { sectionKey: section.key, sectionTitle: section.title, position: i + 1 } });
+      if (!map.has(item.key))
+        map.set(item.key, {
+          item,
+          section,
+          place: { sectionKey: section.key, sectionTitle: section.title, position: i + 1 },
+        });
     });
   }
   return map;
@@ -138,7 +152,8 @@ function diffItems(from: Template, to: Template): ItemChange[] {
   for (const section of to.sections) {
     const old = from.sections.find((s) => s.key === section.key);
     if (!old) continue;
-    const stayed = (key: string) => before.get(key)?.section.key === section.key && after.get(key)?.section.key === section.key;
+    const stayed = (key: string) =>
+      before.get(key)?.section.key === section.key && after.get(key)?.section.key === section.key;
     const oldOrder = old.items.map((i) => i.key).filter(stayed);
     const newOrder = section.items.map((i) => i.key).filter(stayed);
     for (const key of inOrder(oldOrder, newOrder)) inPlace.add(key);
@@ -146,7 +161,17 @@ function diffItems(from: Template, to: Template): ItemChange[] {
 
   const entries = [...after.values()].map(({ item, place }): ItemChange => {
     const old = before.get(item.key);
-    if (!old) return { key: item.key, label: item.label, kind: item.kind, status: "added", to: place, moved: false, fields: [], item };
+    if (!old)
+      return {
+        key: item.key,
+        label: item.label,
+        kind: item.kind,
+        status: "added",
+        to: place,
+        moved: false,
+        fields: [],
+        item,
+      };
     return {
       key: item.key,
       label: item.label,
@@ -210,7 +235,9 @@ function isPlainObject(value: unknown): value is Record<string, unknown> {
 export function sameValue(a: unknown, b: unknown): boolean {
   if (a === b) return true;
   if (Array.isArray(a) || Array.isArray(b)) {
-    return Array.isArray(a) && Array.isArray(b) && a.length === b.length && a.every((x, i) => sameValue(x, b[i]));
+    return (
+      Array.isArray(a) && Array.isArray(b) && a.length === b.length && a.every((x, i) => sameValue(x, b[i]))
+    );
   }
   if (isPlainObject(a) && isPlainObject(b)) {
     const keys = unionKeys(a, b);
@@ -229,7 +256,8 @@ export function inOrder(before: readonly string[], after: readonly string[]): st
   const table: number[][] = Array.from({ length: n + 1 }, () => new Array<number>(m + 1).fill(0));
   for (let i = n - 1; i >= 0; i--) {
     for (let j = m - 1; j >= 0; j--) {
-      table[i][j] = before[i] === after[j] ? table[i + 1][j + 1] + 1 : Math.max(table[i + 1][j], table[i][j + 1]);
+      table[i][j] =
+        before[i] === after[j] ? table[i + 1][j + 1] + 1 : Math.max(table[i + 1][j], table[i][j + 1]);
     }
   }
   const kept: string[] = [];

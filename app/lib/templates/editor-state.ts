@@ -89,7 +89,9 @@ export interface EditorState {
 }
 
 export type LineList = "rows" | "columns" | "options";
-export type ItemPatch = Partial<Pick<ItemDraft, "key" | "label" | "hint" | "caution" | "reference" | "required" | "phase" | "minPhotos">>;
+export type ItemPatch = Partial<
+  Pick<ItemDraft, "key" | "label" | "hint" | "caution" | "reference" | "required" | "phase" | "minPhotos">
+>;
 
 export type EditorAction =
   | { type: "template/set"; field: "title" | "purpose"; value: string }
@@ -108,7 +110,13 @@ export type EditorAction =
   | { type: "item/step"; id: Id; by: -1 | 1 }
   | { type: "item/remove"; id: Id }
   | { type: "line/add"; itemId: Id; list: LineList }
-  | { type: "line/update"; itemId: Id; list: LineList; lineId: Id; patch: { key?: string; label?: string; needsNote?: boolean } }
+  | {
+      type: "line/update";
+      itemId: Id;
+      list: LineList;
+      lineId: Id;
+      patch: { key?: string; label?: string; needsNote?: boolean };
+    }
   | { type: "line/step"; itemId: Id; list: LineList; lineId: Id; by: -1 | 1 }
   | { type: "line/remove"; itemId: Id; list: LineList; lineId: Id }
   | { type: "calc/set"; id: Id; calc: string }
@@ -140,7 +148,14 @@ export function uniqueKey(base: string, taken: Iterable<string>): string {
 
 const text = (value: number | undefined) => (value === undefined ? "" : String(value));
 
-function ruleDraft(rule: { min?: number; max?: number; nominal?: number; tolerance?: number; unit: string; appliesTo?: RuleDraft["appliesTo"] }): RuleDraft {
+function ruleDraft(rule: {
+  min?: number;
+  max?: number;
+  nominal?: number;
+  tolerance?: number;
+  unit: string;
+  appliesTo?: RuleDraft["appliesTo"];
+}): RuleDraft {
   return {
     min: text(rule.min),
     max: text(rule.max),
@@ -187,7 +202,12 @@ function blankItem(id: Id, kind: ItemKind, key: string, autoKey: boolean): ItemD
 export function fromTemplate(template: Template): EditorState {
   let next = 1;
   const id = (prefix: string) => `${prefix}${next++}`;
-  const line = (l: { key: string; label: string }): LineDraft => ({ id: id("l"), key: l.key, label: l.label, autoKey: false });
+  const line = (l: { key: string; label: string }): LineDraft => ({
+    id: id("l"),
+    key: l.key,
+    label: l.label,
+    autoKey: false,
+  });
   const sections = template.sections.map((section): SectionDraft => ({
     id: id("s"),
     key: section.key,
@@ -205,7 +225,12 @@ export function fromTemplate(template: Template): EditorState {
       };
       switch (item.kind) {
         case "measure":
-          return { ...draft, unit: item.unit, accepts: item.accepts ? [...item.accepts] : null, rule: item.rule ? ruleDraft(item.rule) : null };
+          return {
+            ...draft,
+            unit: item.unit,
+            accepts: item.accepts ? [...item.accepts] : null,
+            rule: item.rule ? ruleDraft(item.rule) : null,
+          };
         case "readings":
           return {
             ...draft,
@@ -216,7 +241,11 @@ export function fromTemplate(template: Template): EditorState {
             columns: item.columns.map(line),
           };
         case "calc":
-          return { ...draft, calc: item.calc, inputs: Object.fromEntries(Object.entries(item.inputs).map(([k, b]) => [k, bindingDraft(b)])) };
+          return {
+            ...draft,
+            calc: item.calc,
+            inputs: Object.fromEntries(Object.entries(item.inputs).map(([k, b]) => [k, bindingDraft(b)])),
+          };
         case "choice":
           return { ...draft, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote })) };
         case "photo":
@@ -226,7 +255,15 @@ export function fromTemplate(template: Template): EditorState {
       }
     }),
   }));
-  return { key: template.key, version: template.version, title: template.title, purpose: template.purpose, sections, nextId: next, lastAdded: null };
+  return {
+    key: template.key,
+    version: template.version,
+    title: template.title,
+    purpose: template.purpose,
+    sections,
+    nextId: next,
+    lastAdded: null,
+  };
 }
 
 /** A number as typed: "" is unset, "0,5" is 0.5; anything else stays text for the schema to refuse. */
@@ -245,7 +282,10 @@ function constantValue(binding: Extract<BindingDraft, { from: "value" }>): numbe
     const value = numberFrom(binding.text);
     return typeof value === "number" ? value : binding.text;
   }
-  const values = binding.text.split(/[\s,;]+/).filter(Boolean).map(numberFrom);
+  const values = binding.text
+    .split(/[\s,;]+/)
+    .filter(Boolean)
+    .map(numberFrom);
   // Written as text when not all numbers, so the binding check says a list of numbers is expected.
   return values.length && values.every((v) => typeof v === "number") ? (values as number[]) : binding.text;
 }
@@ -276,7 +316,12 @@ export function toItemInput(item: ItemDraft): Record<string, unknown> {
   const line = (l: LineDraft) => ({ key: l.key, label: l.label });
   switch (item.kind) {
     case "measure":
-      return { ...base, unit: item.unit, accepts: item.accepts ?? undefined, rule: item.rule ? ruleInput(item.rule, item.kind) : undefined };
+      return {
+        ...base,
+        unit: item.unit,
+        accepts: item.accepts ?? undefined,
+        rule: item.rule ? ruleInput(item.rule, item.kind) : undefined,
+      };
     case "readings":
       return {
         ...base,
@@ -291,7 +336,10 @@ export function toItemInput(item: ItemDraft): Record<string, unknown> {
         ...base,
         calc: item.calc,
         inputs: Object.fromEntries(
-          Object.entries(item.inputs).map(([name, b]) => [name, b.from === "item" ? { item: b.item } : { value: constantValue(b) }]),
+          Object.entries(item.inputs).map(([name, b]) => [
+            name,
+            b.from === "item" ? { item: b.item } : { value: constantValue(b) },
+          ]),
         ),
       };
     case "choice":
@@ -347,12 +395,17 @@ export function itemPath(sectionIndex: number, itemIndex: number, ...rest: (stri
 
 /** How many problems lie at or under a path (an item's badge counts its fields' problems too). */
 export function problemsUnder(problems: readonly TemplateProblem[], path: string): number {
-  return problems.filter((p) => p.path === path || p.path.startsWith(`${path}.`) || p.path.startsWith(`${path}[`)).length;
+  return problems.filter(
+    (p) => p.path === path || p.path.startsWith(`${path}.`) || p.path.startsWith(`${path}[`),
+  ).length;
 }
 
 // ---- lookups the screen needs ---------------------------------------------------------------
 
-export function locate(state: EditorState, itemId: Id): { sectionIndex: number; itemIndex: number } | undefined {
+export function locate(
+  state: EditorState,
+  itemId: Id,
+): { sectionIndex: number; itemIndex: number } | undefined {
   for (let s = 0; s < state.sections.length; s++) {
     const i = state.sections[s].items.findIndex((item) => item.id === itemId);
     if (i >= 0) return { sectionIndex: s, itemIndex: i };
@@ -380,8 +433,17 @@ export function itemsThatFit(state: EditorState, calcItemId: Id, calc: string, i
 }
 
 function fits(candidate: ItemDraft, calc: string, input: string): boolean {
-  const probe = { kind: "calc", key: `${candidate.key}-probe`, label: "probe", required: true, calc, inputs: { [input]: { item: candidate.key } } } as CalcItem;
-  const template = { sections: [{ key: "probe", title: "probe", items: [toItemInput(candidate) as Item, probe] }] } as unknown as Template;
+  const probe = {
+    kind: "calc",
+    key: `${candidate.key}-probe`,
+    label: "probe",
+    required: true,
+    calc,
+    inputs: { [input]: { item: candidate.key } },
+  } as CalcItem;
+  const template = {
+    sections: [{ key: "probe", title: "probe", items: [toItemInput(candidate) as Item, probe] }],
+  } as unknown as Template;
   try {
     return !calcBindingProblems(probe, template).some((p) => p.path[0] === "inputs" && p.path[1] === input);
   } catch {
@@ -399,7 +461,9 @@ export function constantKindFor(accepts: readonly string[]): ConstantKind | unde
 const lineBase: Record<LineList, string> = { rows: "row", columns: "column", options: "option" };
 
 function otherItemKeys(state: EditorState, exceptId: Id): string[] {
-  return allItems(state).filter((i) => i.id !== exceptId).map((i) => i.key);
+  return allItems(state)
+    .filter((i) => i.id !== exceptId)
+    .map((i) => i.key);
 }
 
 function mapItems(state: EditorState, fn: (item: ItemDraft) => ItemDraft): EditorState {
@@ -424,7 +488,10 @@ function renameItemKey(state: EditorState, id: Id, key: string): EditorState {
     if (other.id === id) return { ...other, key };
     if (!wasUnique || other.kind !== "calc") return other;
     const inputs = Object.fromEntries(
-      Object.entries(other.inputs).map(([name, b]) => [name, b.from === "item" && b.item === oldKey ? { ...b, item: key } : b]),
+      Object.entries(other.inputs).map(([name, b]) => [
+        name,
+        b.from === "item" && b.item === oldKey ? { ...b, item: key } : b,
+      ]),
     );
     return { ...other, inputs };
   });
@@ -441,14 +508,30 @@ function moveWithin<T>(list: readonly T[], from: number, to: number): T[] {
 function newItem(state: EditorState, kind: ItemKind): { item: ItemDraft; nextId: number } {
   let next = state.nextId;
   const id = `i${next++}`;
-  const key = uniqueKey(kind, allItems(state).map((i) => i.key));
+  const key = uniqueKey(
+    kind,
+    allItems(state).map((i) => i.key),
+  );
   const item = blankItem(id, kind, key, true);
-  const line = (list: LineList, n: number, label: string): LineDraft => ({ id: `l${next++}`, key: `${lineBase[list]}-${n}`, label, autoKey: true });
+  const line = (list: LineList, n: number, label: string): LineDraft => ({
+    id: `l${next++}`,
+    key: `${lineBase[list]}-${n}`,
+    label,
+    autoKey: true,
+  });
   switch (kind) {
     case "measure":
       return { item: { ...item, unit: "in" }, nextId: next };
     case "readings":
-      return { item: { ...item, unit: "in", rows: [line("rows", 1, "Row 1")], columns: [line("columns", 1, "Column 1")] }, nextId: next };
+      return {
+        item: {
+          ...item,
+          unit: "in",
+          rows: [line("rows", 1, "Row 1")],
+          columns: [line("columns", 1, "Column 1")],
+        },
+        nextId: next,
+      };
     case "choice":
       return { item: { ...item, options: [line("options", 1, ""), line("options", 2, "")] }, nextId: next };
     case "photo":
@@ -463,12 +546,19 @@ function step<T extends { id: Id }>(list: readonly T[], id: Id, by: -1 | 1): T[]
   return i < 0 ? [...list] : moveWithin(list, i, i + by);
 }
 
-function lineReducer(item: ItemDraft, action: Extract<EditorAction, { type: `line/${string}` }>, nextId: number): ItemDraft {
+function lineReducer(
+  item: ItemDraft,
+  action: Extract<EditorAction, { type: `line/${string}` }>,
+  nextId: number,
+): ItemDraft {
   const list = item[action.list] as LineDraft[];
   const set = (lines: LineDraft[]) => ({ ...item, [action.list]: lines });
   switch (action.type) {
     case "line/add": {
-      const key = uniqueKey(`${lineBase[action.list]}-${list.length + 1}`, list.map((l) => l.key));
+      const key = uniqueKey(
+        `${lineBase[action.list]}-${list.length + 1}`,
+        list.map((l) => l.key),
+      );
       const line: LineDraft = { id: `l${nextId}`, key, label: "", autoKey: true };
       return set([...list, line]);
     }
@@ -477,11 +567,21 @@ function lineReducer(item: ItemDraft, action: Extract<EditorAction, { type: `lin
         list.map((line) => {
           if (line.id !== action.lineId) return line;
           const { key, label, needsNote } = action.patch;
-          const changed = { ...line, ...(label !== undefined ? { label } : {}), ...(needsNote !== undefined ? { needsNote } : {}) };
+          const changed = {
+            ...line,
+            ...(label !== undefined ? { label } : {}),
+            ...(needsNote !== undefined ? { needsNote } : {}),
+          };
           if (key !== undefined) return { ...changed, key, autoKey: false };
           if (label !== undefined && line.autoKey) {
             const base = slugKey(label) || `${lineBase[action.list]}-${list.indexOf(line) + 1}`;
-            return { ...changed, key: uniqueKey(base, list.filter((l) => l.id !== line.id).map((l) => l.key)) };
+            return {
+              ...changed,
+              key: uniqueKey(
+                base,
+                list.filter((l) => l.id !== line.id).map((l) => l.key),
+              ),
+            };
           }
           return changed;
         }),
@@ -500,8 +600,16 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
 
     case "section/add": {
       const id = `s${state.nextId}`;
-      const key = uniqueKey("section", state.sections.map((s) => s.key));
-      return { ...state, sections: [...state.sections, { id, key, autoKey: true, title: "", items: [] }], nextId: state.nextId + 1, lastAdded: id };
+      const key = uniqueKey(
+        "section",
+        state.sections.map((s) => s.key),
+      );
+      return {
+        ...state,
+        sections: [...state.sections, { id, key, autoKey: true, title: "", items: [] }],
+        nextId: state.nextId + 1,
+        lastAdded: id,
+      };
     }
     case "section/update":
       return {
@@ -509,7 +617,8 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
         sections: state.sections.map((s) => {
           if (s.id !== action.id) return s;
           const { key, title } = action.patch;
-          if (key !== undefined) return { ...s, key, autoKey: false, ...(title !== undefined ? { title } : {}) };
+          if (key !== undefined)
+            return { ...s, key, autoKey: false, ...(title !== undefined ? { title } : {}) };
           if (title === undefined) return s;
           const taken = state.sections.filter((o) => o.id !== s.id).map((o) => o.key);
           return { ...s, title, key: s.autoKey ? uniqueKey(slugKey(title) || "section", taken) : s.key };
@@ -525,7 +634,9 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
       const { item, nextId } = newItem(state, action.kind);
       return {
         ...state,
-        sections: state.sections.map((s) => (s.id === action.sectionId ? { ...s, items: [...s.items, item] } : s)),
+        sections: state.sections.map((s) =>
+          s.id === action.sectionId ? { ...s, items: [...s.items, item] } : s,
+        ),
         nextId,
         lastAdded: item.id,
       };
@@ -539,16 +650,26 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
         next = renameItemKey(next, action.id, key);
         next = updateItem(next, action.id, (i) => ({ ...i, autoKey: false }));
       } else if (rest.label !== undefined && item.autoKey) {
-        next = renameItemKey(next, action.id, uniqueKey(slugKey(rest.label) || item.kind, otherItemKeys(state, action.id)));
+        next = renameItemKey(
+          next,
+          action.id,
+          uniqueKey(slugKey(rest.label) || item.kind, otherItemKeys(state, action.id)),
+        );
       }
       return next;
     }
     case "item/unit":
       return updateItem(state, action.id, (item) => {
         const like = unitsLike(action.unit);
-        const accepts = item.accepts && [action.unit, ...item.accepts.filter((u) => u !== action.unit && (like as string[]).includes(u))];
+        const accepts = item.accepts && [
+          action.unit,
+          ...item.accepts.filter((u) => u !== action.unit && (like as string[]).includes(u)),
+        ];
         // A rule in another dimension means nothing any more: it follows the item's unit.
-        const rule = item.rule && !(like as string[]).includes(item.rule.unit) ? { ...item.rule, unit: action.unit } : item.rule;
+        const rule =
+          item.rule && !(like as string[]).includes(item.rule.unit)
+            ? { ...item.rule, unit: action.unit }
+            : item.rule;
         return { ...item, unit: action.unit, accepts: accepts && accepts.length > 1 ? accepts : null, rule };
       });
     case "item/accept":
@@ -562,7 +683,14 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
     case "item/rule":
       return updateItem(state, action.id, (item) => {
         if (action.patch === null) return { ...item, rule: null };
-        const rule = item.rule ?? { min: "", max: "", nominal: "", tolerance: "", unit: item.unit, appliesTo: "each-cell" as const };
+        const rule = item.rule ?? {
+          min: "",
+          max: "",
+          nominal: "",
+          tolerance: "",
+          unit: item.unit,
+          appliesTo: "each-cell" as const,
+        };
         return { ...item, rule: { ...rule, ...action.patch } };
       });
     case "item/move": {
@@ -571,8 +699,12 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
       if (!at || target < 0) return state;
       const item = state.sections[at.sectionIndex].items[at.itemIndex];
       // The slot was counted with the item still in place: one less when it moves down its own section.
-      const index = target === at.sectionIndex && action.index > at.itemIndex ? action.index - 1 : action.index;
-      const sections = state.sections.map((s) => ({ ...s, items: s.items.filter((i) => i.id !== action.id) }));
+      const index =
+        target === at.sectionIndex && action.index > at.itemIndex ? action.index - 1 : action.index;
+      const sections = state.sections.map((s) => ({
+        ...s,
+        items: s.items.filter((i) => i.id !== action.id),
+      }));
       const items = [...sections[target].items];
       items.splice(Math.max(0, Math.min(index, items.length)), 0, item);
       sections[target] = { ...sections[target], items };
@@ -584,17 +716,33 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
       const section = state.sections[at.sectionIndex];
       const index = at.itemIndex + action.by;
       if (index >= 0 && index < section.items.length) {
-        return { ...state, sections: state.sections.map((s, i) => (i === at.sectionIndex ? { ...s, items: moveWithin(s.items, at.itemIndex, index) } : s)) };
+        return {
+          ...state,
+          sections: state.sections.map((s, i) =>
+            i === at.sectionIndex ? { ...s, items: moveWithin(s.items, at.itemIndex, index) } : s,
+          ),
+        };
       }
       const neighbour = state.sections[at.sectionIndex + action.by];
       if (!neighbour) return state;
-      return editorReducer(state, { type: "item/move", id: action.id, sectionId: neighbour.id, index: action.by < 0 ? neighbour.items.length : 0 });
+      return editorReducer(state, {
+        type: "item/move",
+        id: action.id,
+        sectionId: neighbour.id,
+        index: action.by < 0 ? neighbour.items.length : 0,
+      });
     }
     case "item/remove":
-      return { ...state, sections: state.sections.map((s) => ({ ...s, items: s.items.filter((i) => i.id !== action.id) })) };
+      return {
+        ...state,
+        sections: state.sections.map((s) => ({ ...s, items: s.items.filter((i) => i.id !== action.id) })),
+      };
 
     case "line/add":
-      return { ...updateItem(state, action.itemId, (item) => lineReducer(item, action, state.nextId)), nextId: state.nextId + 1 };
+      return {
+        ...updateItem(state, action.itemId, (item) => lineReducer(item, action, state.nextId)),
+        nextId: state.nextId + 1,
+      };
     case "line/update":
     case "line/step":
     case "line/remove":
@@ -604,13 +752,20 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
       return updateItem(state, action.id, (item) => {
         const definition = calcDefinition(action.calc);
         // Bindings the new calculation also takes are kept; the rest have no input to feed.
-        const inputs = definition ? Object.fromEntries(Object.entries(item.inputs).filter(([name]) => Object.hasOwn(definition.inputs, name))) : {};
+        const inputs = definition
+          ? Object.fromEntries(
+              Object.entries(item.inputs).filter(([name]) => Object.hasOwn(definition.inputs, name)),
+            )
+          : {};
         return { ...item, calc: action.calc, inputs };
       });
     case "calc/bind":
       return updateItem(state, action.id, (item) => {
         const { [action.input]: _, ...others } = item.inputs;
-        return { ...item, inputs: action.binding ? { ...item.inputs, [action.input]: action.binding } : others };
+        return {
+          ...item,
+          inputs: action.binding ? { ...item.inputs, [action.input]: action.binding } : others,
+        };
       });
   }
 }

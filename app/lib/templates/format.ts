@@ -44,9 +44,12 @@ export function describeRule(rule: Rule | ReadingsRule): string {
   if (rule.nominal !== undefined && rule.tolerance !== undefined) {
     parts.push(`${formatNumber(rule.nominal)} ± ${q(rule.tolerance)}`);
   }
-  if (rule.min !== undefined && rule.max !== undefined) parts.push(`between ${q(rule.min)} and ${q(rule.max)}`);
+  if (rule.min !== undefined && rule.max !== undefined)
+    parts.push(`between ${q(rule.min)} and ${q(rule.max)}`);
   else if (rule.min !== undefined) parts.push(`at least ${q(rule.min)}`);
   else if (rule.max !== undefined) parts.push(`at most ${q(rule.max)}`);
   const text = parts.join(", and ");
-  return "appliesTo" in rule && rule.appliesTo === "row-spread" ? `largest minus smallest in each row ${text}` : text;
+  return "appliesTo" in rule && rule.appliesTo === "row-spread"
+    ? `largest minus smallest in each row ${text}`
+    : text;
 }

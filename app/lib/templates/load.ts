@@ -1,7 +1,14 @@
 import type { z } from "zod";
 import { dimensionOf, type Unit } from "~/lib/calc/units";
 import { calcBindingProblems } from "./calc-inputs";
-import { placedItems, templateSchema, type Item, type ReadingsRule, type Rule, type Template } from "./schema";
+import {
+  placedItems,
+  templateSchema,
+  type Item,
+  type ReadingsRule,
+  type Rule,
+  type Template,
+} from "./schema";
 
 /**
  * Reading a template: the zod structure plus the checks between fields that a structure alone
@@ -77,7 +84,11 @@ export function crossCheck(template: Template): RawProblem[] {
   template.sections.forEach((section, s) => {
     const earlier = firstSection.get(section.key);
     if (earlier === undefined) firstSection.set(section.key, s);
-    else problems.push({ path: ["sections", s, "key"], message: `section key "${section.key}" is already used at sections[${earlier}]` });
+    else
+      problems.push({
+        path: ["sections", s, "key"],
+        message: `section key "${section.key}" is already used at sections[${earlier}]`,
+      });
   });
 
   const firstItem = new Map<string, string>();
@@ -85,8 +96,13 @@ export function crossCheck(template: Template): RawProblem[] {
     const at: (string | number)[] = ["sections", sectionIndex, "items", itemIndex];
     const earlier = firstItem.get(item.key);
     if (earlier === undefined) firstItem.set(item.key, formatPath(at));
-    else problems.push({ path: [...at, "key"], message: `item key "${item.key}" is already used at ${earlier}` });
-    for (const problem of itemProblems(item, template)) problems.push({ path: [...at, ...problem.path], message: problem.message });
+    else
+      problems.push({
+        path: [...at, "key"],
+        message: `item key "${item.key}" is already used at ${earlier}`,
+      });
+    for (const problem of itemProblems(item, template))
+      problems.push({ path: [...at, ...problem.path], message: problem.message });
   }
   return problems;
 }
@@ -94,7 +110,10 @@ export function crossCheck(template: Template): RawProblem[] {
 function itemProblems(item: Item, template: Template): RawProblem[] {
   switch (item.kind) {
     case "measure":
-      return [...unitProblems(item.unit, item.accepts), ...(item.rule ? ruleProblems(item.rule, item.unit) : [])];
+      return [
+        ...unitProblems(item.unit, item.accepts),
+        ...(item.rule ? ruleProblems(item.rule, item.unit) : []),
+      ];
     case "readings": {
       const problems = [
         ...uniqueKeys(item.rows, "rows"),
@@ -131,9 +150,15 @@ function unitProblems(unit: Unit, accepts: readonly Unit[] | undefined): RawProb
   const problems: RawProblem[] = accepts.flatMap((other, i) =>
     dimensionOf(other) === dimensionOf(unit)
       ? []
-      : [{ path: ["accepts", i], message: `${other} is a ${dimensionOf(other)} unit but the item's unit ${unit} is a ${dimensionOf(unit)} unit` }],
+      : [
+          {
+            path: ["accepts", i],
+            message: `${other} is a ${dimensionOf(other)} unit but the item's unit ${unit} is a ${dimensionOf(unit)} unit`,
+          },
+        ],
   );
-  if (!accepts.includes(unit)) problems.push({ path: ["accepts"], message: `should include the item's own unit ${unit}` });
+  if (!accepts.includes(unit))
+    problems.push({ path: ["accepts"], message: `should include the item's own unit ${unit}` });
   return problems;
 }
 
@@ -149,20 +174,29 @@ function ruleProblems(rule: Rule | ReadingsRule, itemUnit: Unit): RawProblem[] {
   if (min === undefined && max === undefined && nominal === undefined) {
     problems.push({ path: ["rule"], message: "a rule needs a min, a max, or a nominal with a tolerance" });
   }
-  if (nominal !== undefined && tolerance === undefined) problems.push({ path: ["rule", "tolerance"], message: "a nominal needs a tolerance (plus or minus)" });
-  if (tolerance !== undefined && nominal === undefined) problems.push({ path: ["rule", "nominal"], message: "a tolerance needs a nominal" });
+  if (nominal !== undefined && tolerance === undefined)
+    problems.push({ path: ["rule", "tolerance"], message: "a nominal needs a tolerance (plus or minus)" });
+  if (tolerance !== undefined && nominal === undefined)
+    problems.push({ path: ["rule", "nominal"], message: "a tolerance needs a nominal" });
   if (min !== undefined && max !== undefined && min > max) {
     problems.push({ path: ["rule", "min"], message: `the minimum (${min}) is above the maximum (${max})` });
   }
-  if (nominal !== undefined && ((min !== undefined && nominal < min) || (max !== undefined && nominal > max))) {
-    problems.push({ path: ["rule", "nominal"], message: `the nominal (${nominal}) is outside the min–max range` });
+  if (
+    nominal !== undefined &&
+    ((min !== undefined && nominal < min) || (max !== undefined && nominal > max))
+  ) {
+    problems.push({
+      path: ["rule", "nominal"],
+      message: `the nominal (${nominal}) is outside the min–max range`,
+    });
   }
   return problems;
 }
 
 /** The template schema with the cross-checks: the one schema the seed, server and browser use. */
 export const checkedTemplateSchema = templateSchema.superRefine((template, ctx) => {
-  for (const problem of crossCheck(template)) ctx.addIssue({ code: "custom", path: problem.path, message: problem.message });
+  for (const problem of crossCheck(template))
+    ctx.addIssue({ code: "custom", path: problem.path, message: problem.message });
 });
 
 export type TemplateParse = { ok: true; template: Template } | { ok: false; problems: TemplateProblem[] };
@@ -211,7 +245,9 @@ export function loadTemplateFile(fileName: string, text: string): Template {
   const expected = templateFileName(parsed.template);
   const baseName = fileName.split(/[\\/]/).pop();
   if (baseName !== expected) {
-    throw new TemplateFormatError(fileName, [{ path: "", message: `the file should be named ${expected} after the key and version inside it` }]);
+    throw new TemplateFormatError(fileName, [
+      { path: "", message: `the file should be named ${expected} after the key and version inside it` },
+    ]);
   }
   return parsed.template;
 }

@@ -52,5 +52,10 @@ export function progress(template: Template, responses: Responses): Progress {
     left: sections.flatMap((s) => s.left),
     attention: sections.flatMap((s) => s.attention),
   };
-  return { sections, overall, complete: overall.left.length === 0 && overall.attention.length === 0, verdicts };
+  return {
+    sections,
+    overall,
+    complete: overall.left.length === 0 && overall.attention.length === 0,
+    verdicts,
+  };
 }

@@ -4,7 +4,17 @@ import { convert, type Unit } from "~/lib/calc/units";
 import { calcDefinition, gatherCalcInputs } from "./calc-inputs";
 import { describeRule, formatEntered, formatNumber, formatQuantity } from "./format";
 import { formatPath } from "./load";
-import { findItem, type CalcItem, type ChoiceItem, type Item, type MeasureItem, type ReadingsItem, type ReadingsRule, type Rule, type Template } from "./schema";
+import {
+  findItem,
+  type CalcItem,
+  type ChoiceItem,
+  type Item,
+  type MeasureItem,
+  type ReadingsItem,
+  type ReadingsRule,
+  type Rule,
+  type Template,
+} from "./schema";
 import {
   valueSchemaFor,
   type CheckValue,
@@ -69,9 +79,18 @@ function verdict(status: VerdictStatus, message: string, extra: Partial<Verdict>
 }
 
 /** A finding: `noted` with its note, otherwise `needs-note` (or `out-of-range` for a reading). */
-function finding(kind: Finding, note: string | undefined, what: string, ask: string, extra: Partial<Verdict> = {}): Verdict {
+function finding(
+  kind: Finding,
+  note: string | undefined,
+  what: string,
+  ask: string,
+  extra: Partial<Verdict> = {},
+): Verdict {
   if (hasNote(note)) return verdict("noted", `${what} Noted.`, { finding: kind, ...extra });
-  return verdict(kind === "out-of-range" ? "out-of-range" : "needs-note", `${what} ${ask}`, { finding: kind, ...extra });
+  return verdict(kind === "out-of-range" ? "out-of-range" : "needs-note", `${what} ${ask}`, {
+    finding: kind,
+    ...extra,
+  });
 }
 
 /**
@@ -85,7 +104,10 @@ export function evaluate(item: Item, value: unknown, context?: EvaluationContext
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     const where = formatPath(issue.path);
-    return verdict("invalid", `This entry does not fit the item${where ? ` (${where})` : ""}: ${issue.message}.`);
+    return verdict(
+      "invalid",
+      `This entry does not fit the item${where ? ` (${where})` : ""}: ${issue.message}.`,
+    );
   }
   switch (item.kind) {
     case "check":
@@ -97,7 +119,9 @@ export function evaluate(item: Item, value: unknown, context?: EvaluationContext
     case "choice":
       return evaluateChoice(item, parsed.data as ChoiceValue);
     case "text":
-      return (parsed.data as TextValue).text.trim() ? verdict("ok", "Written.") : verdict("unanswered", "Not written yet.");
+      return (parsed.data as TextValue).text.trim()
+        ? verdict("ok", "Written.")
+        : verdict("unanswered", "Not written yet.");
     case "photo":
       return evaluatePhotos((parsed.data as PhotoValue).photos.length, item.minPhotos);
     case "initials":
@@ -109,7 +133,8 @@ export function evaluate(item: Item, value: unknown, context?: EvaluationContext
 export function evaluateAll(template: Template, responses: Responses): Record<string, Verdict> {
   const verdicts: Record<string, Verdict> = {};
   for (const section of template.sections) {
-    for (const item of section.items) verdicts[item.key] = evaluate(item, responses[item.key], { template, responses });
+    for (const item of section.items)
+      verdicts[item.key] = evaluate(item, responses[item.key], { template, responses });
   }
   return verdicts;
 }
@@ -119,7 +144,12 @@ function evaluateCheck(value: CheckValue): Verdict {
     case "pass":
       return verdict("ok", "Passed.");
     case "fail":
-      return finding("fail", value.note, "Failed.", "Write what is wrong and what was done about it in the note.");
+      return finding(
+        "fail",
+        value.note,
+        "Failed.",
+        "Write what is wrong and what was done about it in the note.",
+      );
     case "na":
       return finding("not-applicable", value.note, "Marked not applicable.", "Say why in the note.");
   }
@@ -152,7 +182,9 @@ function crossing(value: number, bounds: Bounds): { side: "below" | "above"; lim
 /** "0.1 mm (0.003937 in)": as entered, and in the rule's unit when that differs. */
 function asEntered(value: number, unit: Unit, ruleUnit: Unit): string {
   const entered = formatEntered(value, unit);
-  return unit === ruleUnit ? entered : `${entered} (${formatQuantity(convert(value, unit, ruleUnit), ruleUnit)})`;
+  return unit === ruleUnit
+    ? entered
+    : `${entered} (${formatQuantity(convert(value, unit, ruleUnit), ruleUnit)})`;
 }
 
 function evaluateMeasure(item: MeasureItem, value: MeasureValue): Verdict {
@@ -188,7 +220,9 @@ function evaluateReadings(item: ReadingsItem, value: ReadingsValue): Verdict {
       const crossed = crossing(spread, bounds);
       if (crossed) {
         offending.push({ row: r });
-        outside.push(`${rowLabel}: spread ${formatQuantity(spread, rule.unit)} is ${crossed.side} ${formatQuantity(crossed.limit, rule.unit)}`);
+        outside.push(
+          `${rowLabel}: spread ${formatQuantity(spread, rule.unit)} is ${crossed.side} ${formatQuantity(crossed.limit, rule.unit)}`,
+        );
       }
       return;
     }
@@ -196,22 +230,36 @@ function evaluateReadings(item: ReadingsItem, value: ReadingsValue): Verdict {
       const crossed = crossing(cell, bounds);
       if (crossed) {
         offending.push({ row: r, column: c });
-        outside.push(`${rowLabel}, ${item.columns[c].label}: ${formatQuantity(cell, rule.unit)} is ${crossed.side} ${formatQuantity(crossed.limit, rule.unit)}`);
+        outside.push(
+          `${rowLabel}, ${item.columns[c].label}: ${formatQuantity(cell, rule.unit)} is ${crossed.side} ${formatQuantity(crossed.limit, rule.unit)}`,
+        );
       }
     });
   });
   if (!outside.length) return verdict("ok", `All readings${tries} within the rule: ${describeRule(rule)}.`);
-  return finding("out-of-range", value.note, `Outside the rule${tries}: ${outside.join("; ")}.`, NOTE_FOR_RANGE, { offending });
+  return finding(
+    "out-of-range",
+    value.note,
+    `Outside the rule${tries}: ${outside.join("; ")}.`,
+    NOTE_FOR_RANGE,
+    { offending },
+  );
 }
 
 function evaluateChoice(item: ChoiceItem, value: ChoiceValue): Verdict {
   const option = item.options.find((o) => o.key === value.option)!;
   if (!option.needsNote) return verdict("ok", `${option.label}.`);
-  return finding("flagged-option", value.note, `${option.label}.`, "This choice needs a note: say what was found and what was done.");
+  return finding(
+    "flagged-option",
+    value.note,
+    `${option.label}.`,
+    "This choice needs a note: say what was found and what was done.",
+  );
 }
 
 function evaluatePhotos(count: number, minPhotos: number): Verdict {
-  if (count === 0) return verdict("unanswered", minPhotos > 1 ? `No photos yet; ${minPhotos} needed.` : "No photo yet.");
+  if (count === 0)
+    return verdict("unanswered", minPhotos > 1 ? `No photos yet; ${minPhotos} needed.` : "No photo yet.");
   if (count < minPhotos) return verdict("incomplete", `${count} of ${minPhotos} photos taken.`);
   return verdict("ok", count === 1 ? "1 photo." : `${count} photos.`);
 }
@@ -220,24 +268,35 @@ function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext
   let note: string | undefined;
   if (value !== undefined && value !== null) {
     const parsed = valueSchemaFor(item).safeParse(value);
-    if (!parsed.success) return verdict("invalid", `This entry does not fit the item: ${parsed.error.issues[0].message}.`);
+    if (!parsed.success)
+      return verdict("invalid", `This entry does not fit the item: ${parsed.error.issues[0].message}.`);
     note = parsed.data.note;
   }
   const definition = calcDefinition(item.calc);
   if (!definition) return verdict("invalid", `There is no calculation named "${item.calc}".`);
   if (!context) return verdict("unanswered", "Computed from other items of the checklist.");
   const gathered = gatherCalcInputs(item, definition, context.template, context.responses);
-  if (!gathered.ready) return verdict("unanswered", `Waits for: ${gathered.waitingFor.map((source) => source.label).join("; ")}.`);
+  if (!gathered.ready)
+    return verdict(
+      "unanswered",
+      `Waits for: ${gathered.waitingFor.map((source) => source.label).join("; ")}.`,
+    );
   const outcome = runCalc(item.calc, gathered.inputs);
   if ("error" in outcome) {
     // The error names the registry input; say which item of the checklist fed it.
-    const binding = Object.hasOwn(item.inputs, outcome.error.field) ? item.inputs[outcome.error.field] : undefined;
+    const binding = Object.hasOwn(item.inputs, outcome.error.field)
+      ? item.inputs[outcome.error.field]
+      : undefined;
     const source = binding && "item" in binding ? findItem(context.template, binding.item) : undefined;
     return verdict("invalid", `${source ? `${source.label}: ` : ""}${outcome.error.message}`);
   }
   const summary = calcSummary(outcome);
-  if (outcome.verdict === "fail") return finding("out-of-range", note, `${summary} Outside the rule: ${outcome.rule}.`, NOTE_FOR_RANGE, { outcome });
-  if (outcome.verdict === "pass") return verdict("ok", `${summary} Within the rule: ${outcome.rule}.`, { outcome });
+  if (outcome.verdict === "fail")
+    return finding("out-of-range", note, `${summary} Outside the rule: ${outcome.rule}.`, NOTE_FOR_RANGE, {
+      outcome,
+    });
+  if (outcome.verdict === "pass")
+    return verdict("ok", `${summary} Within the rule: ${outcome.rule}.`, { outcome });
   return verdict("ok", summary, { outcome });
 }
 

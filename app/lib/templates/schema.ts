@@ -110,7 +110,9 @@ export const calcItemSchema = z.strictObject({
   kind: z.literal("calc"),
   ...itemBase,
   /** A calculation name from the registry in ~/lib/calc/registry. */
-  calc: z.string({ error: "expected a string" }).regex(CAMEL, { error: "expected a calculation name, like couplingFace" }),
+  calc: z
+    .string({ error: "expected a string" })
+    .regex(CAMEL, { error: "expected a calculation name, like couplingFace" }),
   inputs: z.record(
     z.string().regex(CAMEL, { error: "expected an input name, like diameterIn" }),
     calcBindingSchema,
@@ -137,7 +139,11 @@ export const textItemSchema = z.strictObject({ kind: z.literal("text"), ...itemB
 export const photoItemSchema = z.strictObject({
   kind: z.literal("photo"),
   ...itemBase,
-  minPhotos: z.number({ error: "expected a number" }).int({ error: "expected a whole number" }).positive({ error: "must be at least 1" }).default(1),
+  minPhotos: z
+    .number({ error: "expected a number" })
+    .int({ error: "expected a whole number" })
+    .positive({ error: "must be at least 1" })
+    .default(1),
 });
 
 export const initialsItemSchema = z.strictObject({ kind: z.literal("initials"), ...itemBase });
@@ -161,7 +167,10 @@ export const sectionSchema = z.strictObject({
 
 export const templateSchema = z.strictObject({
   key: kebabKey,
-  version: z.number({ error: "expected a number" }).int({ error: "expected a whole number" }).positive({ error: "must be 1 or more" }),
+  version: z
+    .number({ error: "expected a number" })
+    .int({ error: "expected a whole number" })
+    .positive({ error: "must be 1 or more" }),
   title: words,
   /** What the checklist is for and when it is used, in a sentence or two. */
   purpose: words,

@@ -8,8 +8,14 @@ import { acceptedUnits, unitSchema, type Item, type ItemKind } from "./schema";
  * the field before it is kept.
  */
 
-const note = z.string({ error: "expected a string" }).max(4000, { error: "is longer than 4000 characters" }).optional();
-const at = z.iso.datetime({ offset: true, error: "expected a date and time in ISO 8601, like 2025-05-14T09:30:00Z" });
+const note = z
+  .string({ error: "expected a string" })
+  .max(4000, { error: "is longer than 4000 characters" })
+  .optional();
+const at = z.iso.datetime({
+  offset: true,
+  error: "expected a date and time in ISO 8601, like 2025-05-14T09:30:00Z",
+});
 const by = z.string({ error: "expected a string" }).trim().min(1, { error: "cannot be empty" });
 const reading = z.number({ error: "expected a number" });
 
@@ -44,7 +50,11 @@ export const choiceValueSchema = z.strictObject({ option: z.string({ error: "exp
 export const textValueSchema = z.strictObject({ text: z.string({ error: "expected a string" }) });
 
 export const initialsValueSchema = z.strictObject({
-  initials: z.string({ error: "expected a string" }).trim().min(1, { error: "cannot be empty" }).max(8, { error: "is longer than 8 characters" }),
+  initials: z
+    .string({ error: "expected a string" })
+    .trim()
+    .min(1, { error: "cannot be empty" })
+    .max(8, { error: "is longer than 8 characters" }),
   at,
   by,
 });
@@ -53,7 +63,10 @@ export const photoValueSchema = z.strictObject({
   photos: z.array(
     z.strictObject({
       id: z.uuid({ error: "expected a UUID" }),
-      sha256: z.string().regex(/^[0-9a-f]{64}$/, { error: "expected 64 lower-case hexadecimal digits" }).optional(),
+      sha256: z
+        .string()
+        .regex(/^[0-9a-f]{64}$/, { error: "expected 64 lower-case hexadecimal digits" })
+        .optional(),
     }),
   ),
 });
@@ -94,7 +107,8 @@ export function valueSchemaFor<I extends Item>(item: I): z.ZodType<ValueFor<I["k
   let schema = schemaCache.get(item);
   if (!schema) {
     schema = (valueSchemas[item.kind] as z.ZodType).superRefine((value, ctx) => {
-      for (const problem of fitProblems(item, value as ItemValue)) ctx.addIssue({ code: "custom", ...problem });
+      for (const problem of fitProblems(item, value as ItemValue))
+        ctx.addIssue({ code: "custom", ...problem });
     });
     schemaCache.set(item, schema);
   }
@@ -113,7 +127,12 @@ function fitProblems(item: Item, value: ItemValue): FitProblem[] {
       return (value as MeasureValue).attempts.flatMap((attempt, i) =>
         units.includes(attempt.unit)
           ? []
-          : [{ path: ["attempts", i, "unit"], message: `this item takes ${units.join(" or ")}, not ${attempt.unit}` }],
+          : [
+              {
+                path: ["attempts", i, "unit"],
+                message: `this item takes ${units.join(" or ")}, not ${attempt.unit}`,
+              },
+            ],
       );
     }
     case "readings": {
@@ -121,10 +140,16 @@ function fitProblems(item: Item, value: ItemValue): FitProblem[] {
       return (value as ReadingsValue).attempts.flatMap((attempt, i) => {
         const problems: FitProblem[] = [];
         if (!units.includes(attempt.unit)) {
-          problems.push({ path: ["attempts", i, "unit"], message: `this item takes ${units.join(" or ")}, not ${attempt.unit}` });
+          problems.push({
+            path: ["attempts", i, "unit"],
+            message: `this item takes ${units.join(" or ")}, not ${attempt.unit}`,
+          });
         }
         if (attempt.cells.length !== item.rows.length) {
-          problems.push({ path: ["attempts", i, "cells"], message: `expected ${item.rows.length} rows, got ${attempt.cells.length}` });
+          problems.push({
+            path: ["attempts", i, "cells"],
+            message: `expected ${item.rows.length} rows, got ${attempt.cells.length}`,
+          });
         }
         attempt.cells.forEach((row, r) => {
           if (r < item.rows.length && row.length !== item.columns.length) {
@@ -145,7 +170,9 @@ function fitProblems(item: Item, value: ItemValue): FitProblem[] {
     }
     case "photo": {
       const ids = (value as PhotoValue).photos.map((p) => p.id);
-      return ids.flatMap((id, i) => (ids.indexOf(id) === i ? [] : [{ path: ["photos", i, "id"], message: "the same photo twice" }]));
+      return ids.flatMap((id, i) =>
+        ids.indexOf(id) === i ? [] : [{ path: ["photos", i, "id"], message: "the same photo twice" }],
+      );
     }
     default:
       return [];

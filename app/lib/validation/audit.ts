@@ -39,7 +39,10 @@ export const auditActionGroups = [
   { prefix: "vessel.", label: "Vessels", all: "Every vessel action" },
   { prefix: "user.", label: "People", all: "Every change to people" },
   { prefix: "template.", label: "Checklist templates", all: "Every template action" },
-].map((group) => ({ ...group, actions: Object.keys(auditActionLabels).filter((code) => code.startsWith(group.prefix)) }));
+].map((group) => ({
+  ...group,
+  actions: Object.keys(auditActionLabels).filter((code) => code.startsWith(group.prefix)),
+}));
 
 export const auditEntityLabels: Record<string, string> = {
   checklist: "Checklist",
@@ -93,7 +96,8 @@ export function startOfDayIn(date: string, timeZone: string): Date {
   return new Date(wallClock(second, timeZone) >= midnight ? second : first);
 }
 
-const nextDay = (date: string) => new Date(Date.parse(`${date}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
+const nextDay = (date: string) =>
+  new Date(Date.parse(`${date}T00:00:00Z`) + 86_400_000).toISOString().slice(0, 10);
 
 /** A GET form sends every field; an empty one means "any". */
 const optional = <T extends z.ZodType>(schema: T) =>
@@ -114,7 +118,12 @@ export const auditFiltersSchema = z
         .max(64, "Choose one action or one family of actions.")
         .regex(/^[a-z][a-z_-]*\.([a-z][a-z_-]*)?$/, "Choose one action or one family of actions."),
     ),
-    person: optional(z.coerce.number({ error: "Choose a person from the list." }).int("Choose a person from the list.").positive("Choose a person from the list.")),
+    person: optional(
+      z.coerce
+        .number({ error: "Choose a person from the list." })
+        .int("Choose a person from the list.")
+        .positive("Choose a person from the list."),
+    ),
     entity: optional(
       z
         .string({ error: "Choose what kind of thing to look for." })
@@ -129,12 +138,19 @@ export const auditFiltersSchema = z
         .max(64, "An id is at most 64 characters.")
         .regex(/^[A-Za-z0-9_.-]+$/, "An id has only letters, digits, dots and dashes."),
     ),
-    device: optional(z.string({ error: "Enter one device id." }).trim().max(64, "A device id is at most 64 characters.")),
+    device: optional(
+      z.string({ error: "Enter one device id." }).trim().max(64, "A device id is at most 64 characters."),
+    ),
     from: day("first day"),
     to: day("last day"),
     // Hidden and filled by the browser: an unknown zone is read as UTC, and the page says so.
     tz: z.string().refine(isTimeZone).catch("UTC"),
-    before: optional(z.coerce.number({ error: "That page of the log does not exist." }).int().positive("That page of the log does not exist.")),
+    before: optional(
+      z.coerce
+        .number({ error: "That page of the log does not exist." })
+        .int()
+        .positive("That page of the log does not exist."),
+    ),
   })
   .refine((f) => f.entityId === undefined || f.entity !== undefined, {
     path: ["entity"],

@@ -16,7 +16,11 @@ export const jobStatusLabels: Record<(typeof jobStatuses)[number], string> = {
 
 const number = (label: string) => z.coerce.number({ error: `Enter ${label} as a number.` });
 const text = (label: string, max = 120) =>
-  z.string({ error: `Enter ${label}.` }).trim().min(1, `Enter ${label}.`).max(max);
+  z
+    .string({ error: `Enter ${label}.` })
+    .trim()
+    .min(1, `Enter ${label}.`)
+    .max(max);
 const date = z
   .string()
   .optional()
@@ -32,13 +36,27 @@ export const jobSchema = z
     engineModel: text("the engine model"),
     engineSerial: text("the engine serial number", 60),
     ratedPowerHp: number("the rated power").positive("Rated power must be more than zero.").max(5000),
-    ratedRpmMin: number("the lowest rated rpm").int("Use whole rpm.").positive("Enter the lowest rated rpm.").max(10000),
-    ratedRpmMax: number("the highest rated rpm").int("Use whole rpm.").positive("Enter the highest rated rpm.").max(10000),
-    gearRatio: number("the gear ratio").min(1, "A marine gear ratio is 1:1 or more (enter 2.0 for 2:1).").max(10),
-    propDiameterIn: number("the propeller diameter").positive("The propeller diameter must be more than zero.").max(120),
-    propPitchIn: number("the propeller pitch").positive("The propeller pitch must be more than zero.").max(120),
+    ratedRpmMin: number("the lowest rated rpm")
+      .int("Use whole rpm.")
+      .positive("Enter the lowest rated rpm.")
+      .max(10000),
+    ratedRpmMax: number("the highest rated rpm")
+      .int("Use whole rpm.")
+      .positive("Enter the highest rated rpm.")
+      .max(10000),
+    gearRatio: number("the gear ratio")
+      .min(1, "A marine gear ratio is 1:1 or more (enter 2.0 for 2:1).")
+      .max(10),
+    propDiameterIn: number("the propeller diameter")
+      .positive("The propeller diameter must be more than zero.")
+      .max(120),
+    propPitchIn: number("the propeller pitch")
+      .positive("The propeller pitch must be more than zero.")
+      .max(120),
     propBlades: number("the number of blades").int().min(2, "A propeller has two blades or more.").max(7),
-    shaftDiameterIn: number("the shaft diameter").positive("The shaft diameter must be more than zero.").max(12),
+    shaftDiameterIn: number("the shaft diameter")
+      .positive("The shaft diameter must be more than zero.")
+      .max(12),
     shaftMaterial: text("the shaft material", 60),
     couplingType: text("the coupling type", 60),
     startDate: date,

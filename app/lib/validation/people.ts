@@ -1,7 +1,11 @@
 import { z } from "zod";
 import { roles } from "../roles.ts";
 
-const email = z.string({ error: "Enter an e-mail address." }).trim().toLowerCase().pipe(z.email({ error: "Enter a valid e-mail address, like name@example.com." }));
+const email = z
+  .string({ error: "Enter an e-mail address." })
+  .trim()
+  .toLowerCase()
+  .pipe(z.email({ error: "Enter a valid e-mail address, like name@example.com." }));
 
 export const loginSchema = z.object({
   email,
@@ -23,7 +27,11 @@ export const newPasswordSchema = z
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });
 
 export const userChangeSchema = z.discriminatedUnion("intent", [
-  z.object({ intent: z.literal("role"), userId: z.coerce.number().int().positive(), role: z.enum(roles, { error: "Choose a role." }) }),
+  z.object({
+    intent: z.literal("role"),
+    userId: z.coerce.number().int().positive(),
+    role: z.enum(roles, { error: "Choose a role." }),
+  }),
   z.object({ intent: z.literal("deactivate"), userId: z.coerce.number().int().positive() }),
   z.object({ intent: z.literal("reactivate"), userId: z.coerce.number().int().positive() }),
   z.object({ intent: z.literal("reinvite"), userId: z.coerce.number().int().positive() }),

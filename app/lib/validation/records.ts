@@ -5,7 +5,14 @@ export const issueRecordSchema = z.object({
   intent: z.literal("issue-record"),
   emails: z
     .string({ error: "Enter the surveyor's e-mail address." })
-    .transform((text) => [...new Set(text.split(/[\s,;]+/).map((e) => e.trim().toLowerCase()).filter(Boolean))])
+    .transform((text) => [
+      ...new Set(
+        text
+          .split(/[\s,;]+/)
+          .map((e) => e.trim().toLowerCase())
+          .filter(Boolean),
+      ),
+    ])
     .pipe(
       z
         .array(z.email({ error: "That is not an e-mail address." }))

@@ -10,6 +10,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const checklist = await findChecklist(params.checklistId);
   if (!checklist) return Response.json({ error: "There is no such checklist." }, { status: 404 });
   const job = await findJob(checklist.jobId);
-  if (!job || !canViewJob(user, job)) return Response.json({ error: "This checklist belongs to a job that is not yours." }, { status: 403 });
+  if (!job || !canViewJob(user, job))
+    return Response.json({ error: "This checklist belongs to a job that is not yours." }, { status: 403 });
   return Response.json({ checklist });
 }

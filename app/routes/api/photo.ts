@@ -73,7 +73,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireApiUser(request);
   if (!idSchema.safeParse(params.photoId).success) return problem(400, "A photo id is a UUID.");
   const url = new URL(request.url);
-  const place = placeSchema.safeParse({ checklistId: url.searchParams.get("checklistId"), itemKey: url.searchParams.get("itemKey") });
+  const place = placeSchema.safeParse({
+    checklistId: url.searchParams.get("checklistId"),
+    itemKey: url.searchParams.get("itemKey"),
+  });
   if (!place.success) return problem(400, place.error.issues[0]!.message);
   const max = env().PHOTO_MAX_BYTES;
   const bytes = await readBody(request, max);

@@ -5,10 +5,13 @@ import { findTemplateVersion } from "~/server/templates.server";
 /** A template version's JSON. Published and retired versions are readable by the yard's staff; drafts by managers. */
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireApiUser(request);
-  if (user.role === "surveyor") return Response.json({ error: "Your role may not use this." }, { status: 403 });
+  if (user.role === "surveyor")
+    return Response.json({ error: "Your role may not use this." }, { status: 403 });
   const version = Number(params.version);
-  if (!Number.isInteger(version) || version < 1) return Response.json({ error: "version must be a whole number, 1 or more." }, { status: 400 });
+  if (!Number.isInteger(version) || version < 1)
+    return Response.json({ error: "version must be a whole number, 1 or more." }, { status: 400 });
   const found = await findTemplateVersion(params.key, version);
-  if (!found || (found.status === "draft" && user.role !== "manager")) return Response.json({ error: "There is no such template version." }, { status: 404 });
+  if (!found || (found.status === "draft" && user.role !== "manager"))
+    return Response.json({ error: "There is no such template version." }, { status: 404 });
   return Response.json({ status: found.status, template: found.template });
 }

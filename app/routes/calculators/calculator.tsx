@@ -30,7 +30,11 @@ export default function CalculatorPage({ params }: Route.ComponentProps) {
         <>
           <PageHeader title="No such calculator" />
           <p role="alert" className="card">
-            There is no calculator called “{params.name}”. Choose one from the <Link to="/calculators" className="font-bold text-harbour underline">list of calculators</Link>.
+            There is no calculator called “{params.name}”. Choose one from the{" "}
+            <Link to="/calculators" className="font-bold text-harbour underline">
+              list of calculators
+            </Link>
+            .
           </p>
         </>
       )}

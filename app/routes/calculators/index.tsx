@@ -11,8 +11,9 @@ export default function Calculators() {
     <>
       <PageHeader title="Calculators" />
       <p className="mb-6 max-w-3xl text-ink-soft">
-        The arithmetic of the job, worked on this tablet with or without a connection. Each one says the rule it applies and where
-        the rule comes from; the engine maker's instructions and a qualified person's judgement govern.
+        The arithmetic of the job, worked on this tablet with or without a connection. Each one says the rule
+        it applies and where the rule comes from; the engine maker's instructions and a qualified person's
+        judgement govern.
       </p>
       <CalculatorList calculations={calculations} />
     </>

@@ -10,7 +10,9 @@ import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
 import { commentsOn, openConflicts } from "~/server/offline.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.checklist.title ?? "Checklist"} · Sternpost` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.checklist.title ?? "Checklist"} · Sternpost` },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, checklist, job } = await requireChecklist(request, params.checklistId);
@@ -18,7 +20,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return {
     source: "server" as const,
     me: user.name,
-    checklist: { ...summary, canFill: canFillJob(user, job), comments: (await commentsOn([checklist.id])).map(({ checklistId: _, ...c }) => c) },
+    checklist: {
+      ...summary,
+      canFill: canFillJob(user, job),
+      comments: (await commentsOn([checklist.id])).map(({ checklistId: _, ...c }) => c),
+    },
     template,
     responses: await checklistResponses(checklist.id),
     conflicts: (await openConflicts([checklist.id])).length,
@@ -61,14 +67,21 @@ export async function clientAction({ request, params }: Route.ClientActionArgs) 
     try {
       await store.queueSubmission(params.checklistId);
     } catch (error) {
-      return { itemKey: "", error: error instanceof store.LocalStoreError ? error.message : "Not submitted." };
+      return {
+        itemKey: "",
+        error: error instanceof store.LocalStoreError ? error.message : "Not submitted.",
+      };
     }
     const { requestSync, refreshStatus } = await import("~/lib/offline/status.client");
     void refreshStatus().then(() => (navigator.onLine ? requestSync() : undefined));
     return { itemKey: "", error: null };
   }
   const local = await store.readChecklist(params.checklistId);
-  if (!local) return { itemKey, error: "This checklist is not on this tablet yet; connect once to make it available offline." };
+  if (!local)
+    return {
+      itemKey,
+      error: "This checklist is not on this tablet yet; connect once to make it available offline.",
+    };
   const item = findItem(local.template, itemKey);
   if (!item) return { itemKey, error: "No such item on this checklist." };
   let value: unknown;
@@ -83,22 +96,42 @@ export async function clientAction({ request, params }: Route.ClientActionArgs) 
   try {
     await store.recordEntry(params.checklistId, itemKey, parsed.data, me);
   } catch (error) {
-    return { itemKey, error: error instanceof store.LocalStoreError ? error.message : "Not saved on this tablet." };
+    return {
+      itemKey,
+      error: error instanceof store.LocalStoreError ? error.message : "Not saved on this tablet.",
+    };
   }
   const { requestSync, refreshStatus } = await import("~/lib/offline/status.client");
   void refreshStatus().then(() => (navigator.onLine ? requestSync() : undefined));
   return { itemKey, error: null };
 }
 
-function SubmitPanel({ state, template, onJump, onSubmit }: { state: ReturnType<typeof progress>; template: Template; onJump: (section: number) => void; onSubmit: () => void }) {
+function SubmitPanel({
+  state,
+  template,
+  onJump,
+  onSubmit,
+}: {
+  state: ReturnType<typeof progress>;
+  template: Template;
+  onJump: (section: number) => void;
+  onSubmit: () => void;
+}) {
   const missing = [...state.overall.left, ...state.overall.attention];
   return (
     <div className="card mt-6 flex flex-col gap-3" data-testid="submit-panel">
       <h2 className="text-xl font-bold">Submit for review</h2>
       {state.complete ? (
         <>
-          <p>Every required item is done. Once submitted, the lead reviews it and it takes no more entries; with no connection it is sent with the next sync.</p>
-          <div><button type="button" className="btn btn-primary" onClick={onSubmit}>Submit for review</button></div>
+          <p>
+            Every required item is done. Once submitted, the lead reviews it and it takes no more entries;
+            with no connection it is sent with the next sync.
+          </p>
+          <div>
+            <button type="button" className="btn btn-primary" onClick={onSubmit}>
+              Submit for review
+            </button>
+          </div>
         </>
       ) : (
         <>
@@ -109,8 +142,13 @@ function SubmitPanel({ state, template, onJump, onSubmit }: { state: ReturnType<
               const item = template.sections[sectionIndex]?.items.find((i) => i.key === key);
               return (
                 <li key={key}>
-                  <button type="button" className="text-left text-harbour underline" onClick={() => onJump(sectionIndex)}>
-                    {state.overall.attention.includes(key) ? "▲ needs attention" : "○ not answered"}: {item?.label} (section {sectionIndex + 1})
+                  <button
+                    type="button"
+                    className="text-left text-harbour underline"
+                    onClick={() => onJump(sectionIndex)}
+                  >
+                    {state.overall.attention.includes(key) ? "▲ needs attention" : "○ not answered"}:{" "}
+                    {item?.label} (section {sectionIndex + 1})
                   </button>
                 </li>
               );
@@ -144,61 +182,151 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
     return () => stop();
   }, [revalidator]);
 
-  const save = (itemKey: string) => (value: unknown) => fetcher.submit({ itemKey, value: JSON.stringify(value) }, { method: "post" });
+  const save = (itemKey: string) => (value: unknown) =>
+    fetcher.submit({ itemKey, value: JSON.stringify(value) }, { method: "post" });
   const failed = fetcher.data?.error ? fetcher.data : null;
 
   return (
     <>
       <p className="mb-1">
-        <Link to={`/jobs/${job.id}`} className="font-bold text-harbour underline">← {job.vesselName || "Job"}</Link>
+        <Link to={`/jobs/${job.id}`} className="font-bold text-harbour underline">
+          ← {job.vesselName || "Job"}
+        </Link>
       </p>
       <div className="mb-4 flex flex-wrap items-end justify-between gap-2">
         <h1 className="text-3xl font-bold">{checklist.title}</h1>
-        <p className="text-lg">Version {checklist.version} · {checklistStateLabels[checklist.state]}</p>
+        <p className="text-lg">
+          Version {checklist.version} · {checklistStateLabels[checklist.state]}
+        </p>
       </div>
       <p className="mb-2" data-testid="overall-progress">
-        <strong>{state.overall.left.length === 0 ? "Every required item is done." : `${state.overall.left.length} required items left`}</strong>
-        {state.overall.attention.length > 0 && <> · <strong className="text-fault">▲ {state.overall.attention.length} need attention</strong></>}
-        {" "}· {state.overall.done} of {state.overall.required} done
+        <strong>
+          {state.overall.left.length === 0
+            ? "Every required item is done."
+            : `${state.overall.left.length} required items left`}
+        </strong>
+        {state.overall.attention.length > 0 && (
+          <>
+            {" "}
+            · <strong className="text-fault">▲ {state.overall.attention.length} need attention</strong>
+          </>
+        )}{" "}
+        · {state.overall.done} of {state.overall.required} done
       </p>
-      {locked && <p className="mb-4 rounded-md border-2 border-harbour p-3">This checklist is {checklistStateLabels[checklist.state].toLowerCase()}: it takes no more entries.</p>}
-      {!checklist.canFill && !locked && <p className="mb-4 rounded-md border-2 border-harbour p-3">You can read this checklist; its technicians and lead fill it.</p>}
+      {locked && (
+        <p className="mb-4 rounded-md border-2 border-harbour p-3">
+          This checklist is {checklistStateLabels[checklist.state].toLowerCase()}: it takes no more entries.
+        </p>
+      )}
+      {!checklist.canFill && !locked && (
+        <p className="mb-4 rounded-md border-2 border-harbour p-3">
+          You can read this checklist; its technicians and lead fill it.
+        </p>
+      )}
       {loaderData.rejections.length > 0 && (
         <div role="alert" className="mb-4 rounded-md border-2 border-fault bg-fault-light p-3">
-          <strong>The server refused {loaderData.rejections.length} entr{loaderData.rejections.length === 1 ? "y" : "ies"}:</strong>
-          <ul className="ml-5 list-disc">{loaderData.rejections.map((r) => <li key={r.opId}>{r.reason}</li>)}</ul>
+          <strong>
+            The server refused {loaderData.rejections.length} entr
+            {loaderData.rejections.length === 1 ? "y" : "ies"}:
+          </strong>
+          <ul className="ml-5 list-disc">
+            {loaderData.rejections.map((r) => (
+              <li key={r.opId}>{r.reason}</li>
+            ))}
+          </ul>
         </div>
       )}
       <nav aria-label="Sections" className="mb-4 flex flex-wrap gap-2">
         {template.sections.map((s, i) => {
           const p = state.sections[i]!;
           return (
-            <button key={s.key} type="button" className={`btn ${i === sectionIndex ? "btn-primary" : ""}`} aria-current={i === sectionIndex ? "step" : undefined} onClick={() => setSectionIndex(i)}>
-              {i + 1}. {s.title} <span className="num text-sm">{p.done}/{p.required}{p.attention.length ? " ▲" : ""}</span>
+            <button
+              key={s.key}
+              type="button"
+              className={`btn ${i === sectionIndex ? "btn-primary" : ""}`}
+              aria-current={i === sectionIndex ? "step" : undefined}
+              onClick={() => setSectionIndex(i)}
+            >
+              {i + 1}. {s.title}{" "}
+              <span className="num text-sm">
+                {p.done}/{p.required}
+                {p.attention.length ? " ▲" : ""}
+              </span>
             </button>
           );
         })}
       </nav>
       <section aria-labelledby="section-title">
-        <h2 id="section-title" className="mb-3 border-b-2 border-ink pb-1 text-2xl font-bold">{sectionIndex + 1}. {section.title}</h2>
+        <h2 id="section-title" className="mb-3 border-b-2 border-ink pb-1 text-2xl font-bold">
+          {sectionIndex + 1}. {section.title}
+        </h2>
         <ol className="flex flex-col gap-4">
           {section.items.map((item) => (
-            <FillItem key={item.key} item={item} template={template} value={responses[item.key]?.value} verdict={state.verdicts[item.key]!}
-              pending={!!responses[item.key]?.pending} by={me} disabled={!editable} onSave={save(item.key)}
-              checklistId={checklist.id} diagram={<CalcDiagram item={item} template={template} responses={values} verdict={state.verdicts[item.key]!} />}>
-              {checklist.comments.filter((c) => c.itemKey === item.key).map((c, i) => (
-                <p key={i} className="rounded-md border-2 border-harbour p-2" data-testid="review-comment">
-                  <strong>Lead's comment: </strong>{c.text} <span className="text-sm text-ink-soft">({c.by}, {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })})</span>
+            <FillItem
+              key={item.key}
+              item={item}
+              template={template}
+              value={responses[item.key]?.value}
+              verdict={state.verdicts[item.key]!}
+              pending={!!responses[item.key]?.pending}
+              by={me}
+              disabled={!editable}
+              onSave={save(item.key)}
+              checklistId={checklist.id}
+              diagram={
+                <CalcDiagram
+                  item={item}
+                  template={template}
+                  responses={values}
+                  verdict={state.verdicts[item.key]!}
+                />
+              }
+            >
+              {checklist.comments
+                .filter((c) => c.itemKey === item.key)
+                .map((c, i) => (
+                  <p key={i} className="rounded-md border-2 border-harbour p-2" data-testid="review-comment">
+                    <strong>Lead's comment: </strong>
+                    {c.text}{" "}
+                    <span className="text-sm text-ink-soft">
+                      ({c.by},{" "}
+                      {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })})
+                    </span>
+                  </p>
+                ))}
+              {failed?.itemKey === item.key && (
+                <p role="alert" className="font-bold text-fault">
+                  ▲ {failed.error}
                 </p>
-              ))}
-              {failed?.itemKey === item.key && <p role="alert" className="font-bold text-fault">▲ {failed.error}</p>}
+              )}
             </FillItem>
           ))}
         </ol>
-        {editable && <SubmitPanel state={state} template={template} onJump={setSectionIndex} onSubmit={() => fetcher.submit({ intent: "submit" }, { method: "post" })} />}
+        {editable && (
+          <SubmitPanel
+            state={state}
+            template={template}
+            onJump={setSectionIndex}
+            onSubmit={() => fetcher.submit({ intent: "submit" }, { method: "post" })}
+          />
+        )}
         <div className="mt-6 flex justify-between gap-2">
-          <button type="button" className="btn" disabled={sectionIndex === 0} onClick={() => setSectionIndex(sectionIndex - 1)}>← Previous section</button>
-          <button type="button" className="btn" disabled={sectionIndex >= template.sections.length - 1} onClick={() => setSectionIndex(sectionIndex + 1)}>Next section →</button>
+          <button
+            type="button"
+            className="btn"
+            disabled={sectionIndex === 0}
+            onClick={() => setSectionIndex(sectionIndex - 1)}
+          >
+            ← Previous section
+          </button>
+          <button
+            type="button"
+            className="btn"
+            disabled={sectionIndex >= template.sections.length - 1}
+            onClick={() => setSectionIndex(sectionIndex + 1)}
+          >
+            Next section →
+          </button>
         </div>
       </section>
     </>

@@ -14,11 +14,18 @@ import { recordReadiness, recordsOfJob, issueRecord } from "~/server/records.ser
 import { ReviewError, startAmendment } from "~/server/review.server";
 import { latestPublished } from "~/server/templates.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.job.vesselName ?? "Job"} · Sternpost` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.job.vesselName ?? "Job"} · Sternpost` },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, job } = await requireJob(request, params.jobId);
-  const [checklists, library, readiness, records] = await Promise.all([listJobChecklists(job.id), latestPublished(), recordReadiness(job.id), recordsOfJob(job.id)]);
+  const [checklists, library, readiness, records] = await Promise.all([
+    listJobChecklists(job.id),
+    latestPublished(),
+    recordReadiness(job.id),
+    recordsOfJob(job.id),
+  ]);
   return {
     job,
     canEdit: canEditJob(user, job),
@@ -36,11 +43,16 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = await request.formData();
   if (form.get("intent") === "issue-record") {
     const parsed = issueRecordSchema.safeParse(Object.fromEntries(form));
-    if (!parsed.success) return data({ errors: null, recordError: parsed.error.issues[0]!.message, issued: null }, { status: 400 });
+    if (!parsed.success)
+      return data(
+        { errors: null, recordError: parsed.error.issues[0]!.message, issued: null },
+        { status: 400 },
+      );
     try {
       await issueRecord(user, job.id, parsed.data.emails);
     } catch (error) {
-      if (error instanceof ReviewError) return data({ errors: null, recordError: error.message, issued: null }, { status: error.status });
+      if (error instanceof ReviewError)
+        return data({ errors: null, recordError: error.message, issued: null }, { status: error.status });
       throw error;
     }
     return { errors: null, recordError: null, issued: `Record issued to ${parsed.data.emails.join(", ")}.` };
@@ -49,17 +61,27 @@ export async function action({ request, params }: Route.ActionArgs) {
     try {
       await startAmendment(user, String(form.get("checklistId") ?? ""));
     } catch (error) {
-      if (error instanceof ReviewError) return data({ errors: [error.message], recordError: null, issued: null }, { status: error.status });
+      if (error instanceof ReviewError)
+        return data({ errors: [error.message], recordError: null, issued: null }, { status: error.status });
       throw error;
     }
     return { errors: null, recordError: null, issued: null };
   }
   const submission = parseWithZod(form, { schema: startChecklistsSchema });
-  if (submission.status !== "success") return data({ errors: Object.values(submission.error ?? {}).flatMap((e) => e ?? []), recordError: null, issued: null }, { status: 400 });
+  if (submission.status !== "success")
+    return data(
+      {
+        errors: Object.values(submission.error ?? {}).flatMap((e) => e ?? []),
+        recordError: null,
+        issued: null,
+      },
+      { status: 400 },
+    );
   try {
     await startChecklists(job.id, submission.value.templates, user.id);
   } catch (error) {
-    if (error instanceof ChecklistStartError) return data({ errors: [error.message], recordError: null, issued: null }, { status: 400 });
+    if (error instanceof ChecklistStartError)
+      return data({ errors: [error.message], recordError: null, issued: null }, { status: 400 });
     throw error;
   }
   return { errors: null, recordError: null, issued: null };
@@ -86,20 +108,45 @@ export default function JobDetail({ loaderData, actionData }: Route.ComponentPro
           <h1 className="text-3xl font-bold">{job.vesselName}</h1>
           {job.hin && <p className="font-mono">HIN {job.hin}</p>}
         </div>
-        {canEdit && <Link className="btn" to={`/jobs/${job.id}/edit`}>Edit job</Link>}
+        {canEdit && (
+          <Link className="btn" to={`/jobs/${job.id}/edit`}>
+            Edit job
+          </Link>
+        )}
       </div>
-      <JobChecklists checklists={checklists} available={available} defaults={defaults} canStart={canEdit} canReview={canReview} result={actionData} />
-      {(canEdit || records.length > 0) && <IssueRecord readiness={readiness} records={records} canIssue={canEdit} error={actionData?.recordError} issued={actionData?.issued} />}
+      <JobChecklists
+        checklists={checklists}
+        available={available}
+        defaults={defaults}
+        canStart={canEdit}
+        canReview={canReview}
+        result={actionData}
+      />
+      {(canEdit || records.length > 0) && (
+        <IssueRecord
+          readiness={readiness}
+          records={records}
+          canIssue={canEdit}
+          error={actionData?.recordError}
+          issued={actionData?.issued}
+        />
+      )}
       <section className="card mb-6">
         <h2 className="mb-3 text-xl font-bold">Installed equipment</h2>
         <dl className="grid grid-cols-2 gap-4 md:grid-cols-4">
           <Fact label="Engine">{job.engineModel}</Fact>
           <Fact label="Serial">{job.engineSerial}</Fact>
           <Fact label="Rated power">{job.ratedPowerHp} hp</Fact>
-          <Fact label="Rated rpm">{job.ratedRpmMin}–{job.ratedRpmMax} rpm</Fact>
+          <Fact label="Rated rpm">
+            {job.ratedRpmMin}–{job.ratedRpmMax} rpm
+          </Fact>
           <Fact label="Gear ratio">{job.gearRatio} : 1</Fact>
-          <Fact label="Propeller">{job.propDiameterIn} in × {job.propPitchIn} in, {job.propBlades} blades</Fact>
-          <Fact label="Shaft">{job.shaftDiameterIn} in, {job.shaftMaterial}</Fact>
+          <Fact label="Propeller">
+            {job.propDiameterIn} in × {job.propPitchIn} in, {job.propBlades} blades
+          </Fact>
+          <Fact label="Shaft">
+            {job.shaftDiameterIn} in, {job.shaftMaterial}
+          </Fact>
           <Fact label="Coupling">{job.couplingType}</Fact>
         </dl>
       </section>

@@ -28,7 +28,13 @@ export default function EditJob({ loaderData, actionData }: Route.ComponentProps
   return (
     <>
       <PageHeader title={`Edit job: ${job.vesselName}`} />
-      <JobForm {...options} defaults={job} lastResult={actionData} leadFixed={me.role === "lead" ? me : undefined} submitLabel="Save changes" />
+      <JobForm
+        {...options}
+        defaults={job}
+        lastResult={actionData}
+        leadFixed={me.role === "lead" ? me : undefined}
+        submitLabel="Save changes"
+      />
     </>
   );
 }

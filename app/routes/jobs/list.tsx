@@ -17,7 +17,11 @@ export default function Jobs({ loaderData }: Route.ComponentProps) {
   return (
     <>
       <PageHeader title="Jobs">
-        {loaderData.canCreate && <Link className="btn btn-primary" to="/jobs/new">New job</Link>}
+        {loaderData.canCreate && (
+          <Link className="btn btn-primary" to="/jobs/new">
+            New job
+          </Link>
+        )}
       </PageHeader>
       <JobsTable jobs={loaderData.jobs} />
     </>

@@ -28,7 +28,12 @@ export default function NewJob({ loaderData, actionData }: Route.ComponentProps)
   return (
     <>
       <PageHeader title="New job" />
-      <JobForm {...options} lastResult={actionData} leadFixed={me.role === "lead" ? me : undefined} submitLabel="Create job" />
+      <JobForm
+        {...options}
+        lastResult={actionData}
+        leadFixed={me.role === "lead" ? me : undefined}
+        submitLabel="Create job"
+      />
     </>
   );
 }

@@ -5,7 +5,9 @@ import { diffTemplates } from "~/lib/templates";
 import { readableVersion, templateHistory } from "~/server/library.server";
 import { invariantFound, requireCapability } from "~/server/permissions.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Compare versions of ${data?.title ?? "a template"} · Sternpost` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Compare versions of ${data?.title ?? "a template"} · Sternpost` },
+];
 
 const statusWords = { draft: "draft", published: "published", retired: "retired" } as const;
 
@@ -16,8 +18,13 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const url = new URL(request.url);
   const newest = history.versions[0].version;
   const to = Number(url.searchParams.get("to") ?? newest);
-  const from = Number(url.searchParams.get("from") ?? history.versions.find((v) => v.version < to)?.version ?? to);
-  const [a, b] = await Promise.all([readableVersion(user, params.key, from), readableVersion(user, params.key, to)]);
+  const from = Number(
+    url.searchParams.get("from") ?? history.versions.find((v) => v.version < to)?.version ?? to,
+  );
+  const [a, b] = await Promise.all([
+    readableVersion(user, params.key, from),
+    readableVersion(user, params.key, to),
+  ]);
   invariantFound(a, `There is no version ${url.searchParams.get("from")} of this template to compare.`);
   invariantFound(b, `There is no version ${url.searchParams.get("to")} of this template to compare.`);
   return {

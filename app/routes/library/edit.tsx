@@ -4,7 +4,9 @@ import { TemplateEditor } from "~/components/library/editor/template-editor";
 import { LibraryError, readableVersion, saveDraft } from "~/server/library.server";
 import { invariantFound, requireCapability } from "~/server/permissions.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Editing ${data?.template.title ?? "a draft"} · Sternpost` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Editing ${data?.template.title ?? "a draft"} · Sternpost` },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const user = await requireCapability(request, "library:edit");
@@ -22,13 +24,17 @@ export async function action({ request, params }: Route.ActionArgs) {
   try {
     body = JSON.parse(String(form.get("body") ?? ""));
   } catch {
-    return data({ ok: false as const, problems: [{ path: "", message: "The draft did not arrive as JSON." }] }, { status: 400 });
+    return data(
+      { ok: false as const, problems: [{ path: "", message: "The draft did not arrive as JSON." }] },
+      { status: 400 },
+    );
   }
   try {
     const result = await saveDraft(params.key, Number(params.version), body, user.id);
     if (!result.ok) return data(result, { status: 400 });
   } catch (error) {
-    if (error instanceof LibraryError) return data({ ok: false as const, errors: [error.message] }, { status: 409 });
+    if (error instanceof LibraryError)
+      return data({ ok: false as const, errors: [error.message] }, { status: 409 });
     throw error;
   }
   if (form.get("intent") === "save-review") return redirect(`/library/${params.key}/${params.version}`);
@@ -44,9 +50,7 @@ export default function EditDraft({ loaderData, params }: Route.ComponentProps) 
           ← Version {params.version} of {template.title}
         </Link>
       </p>
-      <h1 className="mb-4 text-3xl font-bold">
-        Editing the draft of version {params.version}
-      </h1>
+      <h1 className="mb-4 text-3xl font-bold">Editing the draft of version {params.version}</h1>
       <TemplateEditor key={`${params.key}-${params.version}`} saved={template} />
     </>
   );

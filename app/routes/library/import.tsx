@@ -16,11 +16,18 @@ export async function loader({ request }: Route.LoaderArgs) {
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireCapability(request, "library:edit");
   const submission = parseWithZod(await request.formData(), { schema: importSchema });
-  if (submission.status !== "success") return data({ result: submission.reply(), problems: null, unchanged: null }, { status: 400 });
+  if (submission.status !== "success")
+    return data({ result: submission.reply(), problems: null, unchanged: null }, { status: 400 });
   const { file, text, renumber, replaceDraft } = submission.value;
-  const result = await importTemplate(file ? await file.text() : (text ?? ""), { renumber, replaceDraft }, user.id);
-  if (!result.ok) return data({ result: submission.reply(), problems: result.problems, unchanged: null }, { status: 400 });
-  if (result.action === "unchanged") return { result: null, problems: null, unchanged: { key: result.key, version: result.version } };
+  const result = await importTemplate(
+    file ? await file.text() : (text ?? ""),
+    { renumber, replaceDraft },
+    user.id,
+  );
+  if (!result.ok)
+    return data({ result: submission.reply(), problems: result.problems, unchanged: null }, { status: 400 });
+  if (result.action === "unchanged")
+    return { result: null, problems: null, unchanged: { key: result.key, version: result.version } };
   return redirect(`/library/${result.key}/${result.version}`);
 }
 
@@ -35,8 +42,12 @@ export default function ImportTemplate({ actionData }: Route.ComponentProps) {
       <PageHeader title="Import a template file" />
       {actionData?.unchanged && (
         <p className="mb-4 rounded-md border-2 border-sound bg-sound-light p-3" role="status">
-          Version {actionData.unchanged.version} of {actionData.unchanged.key} is in the library already, word for word: nothing to import.{" "}
-          <Link className="font-bold text-harbour underline" to={`/library/${actionData.unchanged.key}/${actionData.unchanged.version}`}>
+          Version {actionData.unchanged.version} of {actionData.unchanged.key} is in the library already, word
+          for word: nothing to import.{" "}
+          <Link
+            className="font-bold text-harbour underline"
+            to={`/library/${actionData.unchanged.key}/${actionData.unchanged.version}`}
+          >
             Open it
           </Link>
         </p>

@@ -21,7 +21,11 @@ import {
 import { invariantFound, requireCapability } from "~/server/permissions.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
-  { title: data ? `${data.template.title}, version ${data.template.version} · Sternpost` : "Template · Sternpost" },
+  {
+    title: data
+      ? `${data.template.title}, version ${data.template.version} · Sternpost`
+      : "Template · Sternpost",
+  },
 ];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -33,13 +37,18 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   invariantFound(history, "There is no such template version.");
   const entry = history.versions.find((v) => v.version === version)!;
   // A draft is reviewed against what new jobs start from today.
-  const base = found.status === "draft" && history.newestPublished !== null ? await readableVersion(user, params.key, history.newestPublished) : undefined;
+  const base =
+    found.status === "draft" && history.newestPublished !== null
+      ? await readableVersion(user, params.key, history.newestPublished)
+      : undefined;
   return {
     template: found.template,
     entry,
     newestPublished: history.newestPublished,
     hasDraft: history.draft !== null,
-    others: history.versions.filter((v) => v.version !== version).map((v) => ({ version: v.version, status: v.status, jobCount: v.jobCount })),
+    others: history.versions
+      .filter((v) => v.version !== version)
+      .map((v) => ({ version: v.version, status: v.status, jobCount: v.jobCount })),
     diff: base ? diffTemplates(base.template, found.template) : null,
     fallback: fallbackAfterRetiring(history.versions, version),
     canEdit: can(user, "library:edit"),
@@ -102,7 +111,9 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
             <span className="font-mono text-sm text-ink-soft">{template.key}</span>
           </p>
           <p className="text-sm text-ink-soft">
-            {entry.publishedAt ? `Published ${shortDate(entry.publishedAt)}` : `Draft started ${shortDate(entry.createdAt)}`}
+            {entry.publishedAt
+              ? `Published ${shortDate(entry.publishedAt)}`
+              : `Draft started ${shortDate(entry.createdAt)}`}
             {entry.retiredAt && `, retired ${shortDate(entry.retiredAt)}`}
           </p>
         </div>
@@ -113,7 +124,10 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
             </Link>
           )}
           {compareWith && (
-            <Link className="btn" to={`/library/${template.key}/compare?from=${(previous ?? compareWith).version}&to=${template.version}`}>
+            <Link
+              className="btn"
+              to={`/library/${template.key}/compare?from=${(previous ?? compareWith).version}&to=${template.version}`}
+            >
               Compare versions
             </Link>
           )}
@@ -135,7 +149,8 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
         ) : (
           <>
             <p>
-              {jobsWord(entry.jobCount)} started from this version {keep(entry.jobCount)} it, whatever is published later.
+              {jobsWord(entry.jobCount)} started from this version {keep(entry.jobCount)} it, whatever is
+              published later.
             </p>
             <ul className="mt-2 flex flex-col gap-1">
               {entry.jobs.map((j) => (
@@ -143,11 +158,17 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
                   <Link to={`/checklists/${j.checklistId}`} className="text-harbour underline">
                     {j.vesselName}
                   </Link>{" "}
-                  <span className="text-sm text-ink-soft">{checklistStateLabels[j.state as ChecklistState] ?? j.state}</span>
+                  <span className="text-sm text-ink-soft">
+                    {checklistStateLabels[j.state as ChecklistState] ?? j.state}
+                  </span>
                 </li>
               ))}
             </ul>
-            {entry.jobCount > entry.jobs.length && <p className="text-sm text-ink-soft">and {entry.jobCount - entry.jobs.length} not on your jobs</p>}
+            {entry.jobCount > entry.jobs.length && (
+              <p className="text-sm text-ink-soft">
+                and {entry.jobCount - entry.jobs.length} not on your jobs
+              </p>
+            )}
           </>
         )}
       </section>
@@ -164,20 +185,30 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
           )}
           <div className="mt-4 flex flex-wrap gap-3">
             <Form method="post" className="contents">
-              <TwoStepButton label={`Publish version ${template.version}…`} confirmLabel={`Publish version ${template.version}`} submit={{ name: "intent", value: "publish" }}>
+              <TwoStepButton
+                label={`Publish version ${template.version}…`}
+                confirmLabel={`Publish version ${template.version}`}
+                submit={{ name: "intent", value: "publish" }}
+              >
                 <p>
                   Version {template.version} will never change again, and new jobs will start from it.
                   {onPrevious && onPrevious.jobCount > 0 && (
                     <>
                       {" "}
-                      The {jobsWord(onPrevious.jobCount)} on version {onPrevious.version} {keep(onPrevious.jobCount)} version {onPrevious.version}.
+                      The {jobsWord(onPrevious.jobCount)} on version {onPrevious.version}{" "}
+                      {keep(onPrevious.jobCount)} version {onPrevious.version}.
                     </>
                   )}
                 </p>
               </TwoStepButton>
             </Form>
             <Form method="post" className="contents">
-              <TwoStepButton label="Discard this draft…" confirmLabel="Discard the draft" danger submit={{ name: "intent", value: "discard" }}>
+              <TwoStepButton
+                label="Discard this draft…"
+                confirmLabel="Discard the draft"
+                danger
+                submit={{ name: "intent", value: "discard" }}
+              >
                 <p>The draft of version {template.version} is deleted. Published versions are not touched.</p>
               </TwoStepButton>
             </Form>
@@ -203,14 +234,22 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
             )}
             {entry.status === "published" && (
               <Form method="post" className="contents">
-                <TwoStepButton label={`Retire version ${template.version}…`} confirmLabel={`Retire version ${template.version}`} danger submit={{ name: "intent", value: "retire" }}>
+                <TwoStepButton
+                  label={`Retire version ${template.version}…`}
+                  confirmLabel={`Retire version ${template.version}`}
+                  danger
+                  submit={{ name: "intent", value: "retire" }}
+                >
                   <p>
-                    No new job will start from version {template.version}; the {jobsWord(entry.jobCount)} on it {keep(entry.jobCount)} it.{" "}
+                    No new job will start from version {template.version}; the {jobsWord(entry.jobCount)} on
+                    it {keep(entry.jobCount)} it.{" "}
                     {template.version === newestPublished &&
                       (fallback !== null ? (
                         <strong>New jobs will start from version {fallback} again.</strong>
                       ) : (
-                        <strong>No other version is published: new jobs will not be able to start this checklist.</strong>
+                        <strong>
+                          No other version is published: new jobs will not be able to start this checklist.
+                        </strong>
                       ))}
                   </p>
                 </TwoStepButton>

@@ -6,9 +6,17 @@ import { renderRecordPdf } from "~/server/record-pdf.server";
 /** The record as a PDF, rendered from the stored snapshot (so it is the same every time). */
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { record } = await requireRecord(request, params.recordId);
-  const pdf = await renderRecordPdf(record.content, { digest: record.digest, verifyUrl: record.content.verifyUrl, photoBytes });
+  const pdf = await renderRecordPdf(record.content, {
+    digest: record.digest,
+    verifyUrl: record.content.verifyUrl,
+    photoBytes,
+  });
   const name = record.content.vessel.name.replace(/[^A-Za-z0-9]+/g, "-");
   return new Response(new Uint8Array(pdf), {
-    headers: { "Content-Type": "application/pdf", "Content-Disposition": `attachment; filename="commissioning-record-${name}.pdf"`, "Cache-Control": "private, no-store" },
+    headers: {
+      "Content-Type": "application/pdf",
+      "Content-Disposition": `attachment; filename="commissioning-record-${name}.pdf"`,
+      "Cache-Control": "private, no-store",
+    },
   });
 }

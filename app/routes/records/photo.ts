@@ -12,5 +12,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const bytes = await photoBytes(params.photoId);
   if (!bytes) throw data({ message: "The photo file is missing from the store." }, { status: 404 });
   const type = (await fileTypeFromBuffer(bytes))?.mime ?? "application/octet-stream";
-  return new Response(new Uint8Array(bytes), { headers: { "Content-Type": type, "Cache-Control": "private, max-age=3600", "X-Content-Type-Options": "nosniff" } });
+  return new Response(new Uint8Array(bytes), {
+    headers: {
+      "Content-Type": type,
+      "Cache-Control": "private, max-age=3600",
+      "X-Content-Type-Options": "nosniff",
+    },
+  });
 }

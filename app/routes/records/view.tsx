@@ -7,15 +7,19 @@ import { jobScopeLabels } from "~/lib/validation/jobs";
 import { audit } from "~/server/audit.server";
 import { requireRecord } from "~/server/record-access.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `Record: ${data?.record.content.vessel.name ?? ""} · Sternpost` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `Record: ${data?.record.content.vessel.name ?? ""} · Sternpost` },
+];
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, record } = await requireRecord(request, params.recordId);
-  if (user.role === "surveyor") await audit({ userId: user.id, action: "record.viewed", entity: "record", entityId: record.id });
+  if (user.role === "surveyor")
+    await audit({ userId: user.id, action: "record.viewed", entity: "record", entityId: record.id });
   return { record };
 }
 
-const when = (at?: string) => (at ? new Date(at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" }) : "—");
+const when = (at?: string) =>
+  at ? new Date(at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" }) : "—";
 
 export default function RecordView({ loaderData }: Route.ComponentProps) {
   const { record } = loaderData;
@@ -26,30 +30,77 @@ export default function RecordView({ loaderData }: Route.ComponentProps) {
       <div className="mb-4 flex flex-wrap items-end justify-between gap-3">
         <h1 className="text-3xl font-bold">{vessel.name}</h1>
         <div className="flex flex-wrap gap-2">
-          <a className="btn btn-primary" href={`/records/${record.id}/pdf`} download>Download the PDF</a>
-          <Link className="btn" to={`/verify/${record.id}`}>Check it is genuine</Link>
+          <a className="btn btn-primary" href={`/records/${record.id}/pdf`} download>
+            Download the PDF
+          </a>
+          <Link className="btn" to={`/verify/${record.id}`}>
+            Check it is genuine
+          </Link>
         </div>
       </div>
       <section className="card mb-6">
         <dl className="grid grid-cols-2 gap-3 md:grid-cols-4">
-          <div><dt className="text-sm text-ink-soft">HIN</dt><dd className="font-mono font-bold">{vessel.hin ?? "—"}</dd></div>
-          <div><dt className="text-sm text-ink-soft">Work</dt><dd className="font-bold">{jobScopeLabels[job.scope]}</dd></div>
-          <div><dt className="text-sm text-ink-soft">Engine</dt><dd className="font-bold">{job.engineModel}, serial {job.engineSerial}</dd></div>
-          <div><dt className="text-sm text-ink-soft">Rated</dt><dd className="num font-bold">{job.ratedPowerHp} hp, {job.ratedRpmMin}–{job.ratedRpmMax} rpm</dd></div>
-          <div><dt className="text-sm text-ink-soft">Gear</dt><dd className="num font-bold">{job.gearRatio} : 1</dd></div>
-          <div><dt className="text-sm text-ink-soft">Propeller</dt><dd className="num font-bold">{job.propDiameterIn} × {job.propPitchIn} in, {job.propBlades} blades</dd></div>
-          <div><dt className="text-sm text-ink-soft">Shaft</dt><dd className="num font-bold">{job.shaftDiameterIn} in, {job.shaftMaterial}</dd></div>
-          <div><dt className="text-sm text-ink-soft">Issued</dt><dd className="font-bold">{when(record.issuedAt)}</dd></div>
+          <div>
+            <dt className="text-sm text-ink-soft">HIN</dt>
+            <dd className="font-mono font-bold">{vessel.hin ?? "—"}</dd>
+          </div>
+          <div>
+            <dt className="text-sm text-ink-soft">Work</dt>
+            <dd className="font-bold">{jobScopeLabels[job.scope]}</dd>
+          </div>
+          <div>
+            <dt className="text-sm text-ink-soft">Engine</dt>
+            <dd className="font-bold">
+              {job.engineModel}, serial {job.engineSerial}
+            </dd>
+          </div>
+          <div>
+            <dt className="text-sm text-ink-soft">Rated</dt>
+            <dd className="num font-bold">
+              {job.ratedPowerHp} hp, {job.ratedRpmMin}–{job.ratedRpmMax} rpm
+            </dd>
+          </div>
+          <div>
+            <dt className="text-sm text-ink-soft">Gear</dt>
+            <dd className="num font-bold">{job.gearRatio} : 1</dd>
+          </div>
+          <div>
+            <dt className="text-sm text-ink-soft">Propeller</dt>
+            <dd className="num font-bold">
+              {job.propDiameterIn} × {job.propPitchIn} in, {job.propBlades} blades
+            </dd>
+          </div>
+          <div>
+            <dt className="text-sm text-ink-soft">Shaft</dt>
+            <dd className="num font-bold">
+              {job.shaftDiameterIn} in, {job.shaftMaterial}
+            </dd>
+          </div>
+          <div>
+            <dt className="text-sm text-ink-soft">Issued</dt>
+            <dd className="font-bold">{when(record.issuedAt)}</dd>
+          </div>
         </dl>
-        <p className="mt-3 text-sm break-all">Record digest (SHA-256): <span className="font-mono" data-testid="record-digest">{record.digest}</span></p>
+        <p className="mt-3 text-sm break-all">
+          Record digest (SHA-256):{" "}
+          <span className="font-mono" data-testid="record-digest">
+            {record.digest}
+          </span>
+        </p>
       </section>
       {checklists.map((c) => {
         const values = Object.fromEntries(Object.entries(c.responses).map(([k, r]) => [k, r.value]));
         const state = progress(c.template, values);
         return (
           <section key={c.id} className="mb-8" data-testid="record-checklist">
-            <h2 className="text-2xl font-bold">{c.template.title} <span className="text-base font-normal">version {c.templateVersion}</span></h2>
-            <p className="mb-3">Submitted by {c.submittedBy} ({when(c.submittedAt)}); countersigned by <strong>{c.countersignedBy}</strong> ({when(c.countersignedAt)}). Digest <span className="font-mono text-sm break-all">{c.digest}</span></p>
+            <h2 className="text-2xl font-bold">
+              {c.template.title} <span className="text-base font-normal">version {c.templateVersion}</span>
+            </h2>
+            <p className="mb-3">
+              Submitted by {c.submittedBy} ({when(c.submittedAt)}); countersigned by{" "}
+              <strong>{c.countersignedBy}</strong> ({when(c.countersignedAt)}). Digest{" "}
+              <span className="font-mono text-sm break-all">{c.digest}</span>
+            </p>
             {c.template.sections.map((section) => (
               <div key={section.key} className="mb-4">
                 <h3 className="mb-2 text-xl font-bold">{section.title}</h3>
@@ -59,24 +110,60 @@ export default function RecordView({ loaderData }: Route.ComponentProps) {
                     return (
                       <li key={item.key} className="card flex flex-col gap-1">
                         <p className="font-bold">{item.label}</p>
-                        {"rule" in item && item.rule && <p className="text-sm">Accept: {describeRule(item.rule)}</p>}
-                        <p className="num">{item.kind === "calc" ? "" : describeValue(item, response?.value)}</p>
+                        {"rule" in item && item.rule && (
+                          <p className="text-sm">Accept: {describeRule(item.rule)}</p>
+                        )}
+                        <p className="num">
+                          {item.kind === "calc" ? "" : describeValue(item, response?.value)}
+                        </p>
                         {(c.history[item.key]?.length ?? 0) > 1 && (
-                          <p className="text-sm text-ink-soft">Earlier: {c.history[item.key]!.slice(0, -1).map((h) => `${describeValue(item, h.value)} (${h.by})`).join("; ")}</p>
+                          <p className="text-sm text-ink-soft">
+                            Earlier:{" "}
+                            {c.history[item.key]!.slice(0, -1)
+                              .map((h) => `${describeValue(item, h.value)} (${h.by})`)
+                              .join("; ")}
+                          </p>
                         )}
                         {c.photos.some((p) => p.itemKey === item.key) && (
                           <div className="flex flex-wrap gap-2">
-                            {c.photos.filter((p) => p.itemKey === item.key).map((p) => (
-                              <a key={p.id} href={`/records/${record.id}/photos/${p.id}`} target="_blank" rel="noreferrer">
-                                <img src={`/records/${record.id}/photos/${p.id}`} alt={`Photo for ${item.label}`} className="h-32 w-auto rounded border border-rule" data-testid="record-photo" />
-                              </a>
-                            ))}
+                            {c.photos
+                              .filter((p) => p.itemKey === item.key)
+                              .map((p) => (
+                                <a
+                                  key={p.id}
+                                  href={`/records/${record.id}/photos/${p.id}`}
+                                  target="_blank"
+                                  rel="noreferrer"
+                                >
+                                  <img
+                                    src={`/records/${record.id}/photos/${p.id}`}
+                                    alt={`Photo for ${item.label}`}
+                                    className="h-32 w-auto rounded border border-rule"
+                                    data-testid="record-photo"
+                                  />
+                                </a>
+                              ))}
                           </div>
                         )}
                         <VerdictBadge verdict={state.verdicts[item.key]!} />
-                        <CalcDiagram item={item} template={c.template} responses={values} verdict={state.verdicts[item.key]!} />
-                        {c.comments.filter((m) => m.itemKey === item.key).map((m, i) => <p key={i} className="text-sm">Review comment: {m.text} ({m.by})</p>)}
-                        {response && <p className="text-sm text-ink-soft">By {response.by}, {when(response.at)}</p>}
+                        <CalcDiagram
+                          item={item}
+                          template={c.template}
+                          responses={values}
+                          verdict={state.verdicts[item.key]!}
+                        />
+                        {c.comments
+                          .filter((m) => m.itemKey === item.key)
+                          .map((m, i) => (
+                            <p key={i} className="text-sm">
+                              Review comment: {m.text} ({m.by})
+                            </p>
+                          ))}
+                        {response && (
+                          <p className="text-sm text-ink-soft">
+                            By {response.by}, {when(response.at)}
+                          </p>
+                        )}
                       </li>
                     );
                   })}

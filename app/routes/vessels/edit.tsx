@@ -10,13 +10,18 @@ import { requireUser } from "~/server/auth.server";
 import { invariantForbidden, invariantFound } from "~/server/permissions.server";
 import { DuplicateHinError, findVessel, updateVessel } from "~/server/vessels.server";
 
-export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.vessel.name ?? "Vessel"} · Sternpost` }];
+export const meta: Route.MetaFunction = ({ data }) => [
+  { title: `${data?.vessel.name ?? "Vessel"} · Sternpost` },
+];
 
 async function editableVessel(request: Request, id: string) {
   const user = await requireUser(request);
   const vessel = Number.isInteger(Number(id)) ? await findVessel(Number(id)) : undefined;
   invariantFound(vessel, "There is no such vessel.");
-  invariantForbidden(canEditVessel(user, vessel), "Only the shop manager or a lead with a job on this vessel may edit it.");
+  invariantForbidden(
+    canEditVessel(user, vessel),
+    "Only the shop manager or a lead with a job on this vessel may edit it.",
+  );
   return { user, vessel };
 }
 
@@ -32,7 +37,8 @@ export async function action({ request, params }: Route.ActionArgs) {
   try {
     await updateVessel(vessel.id, submission.value);
   } catch (error) {
-    if (error instanceof DuplicateHinError) return data(submission.reply({ fieldErrors: { hin: [error.message] } }), { status: 400 });
+    if (error instanceof DuplicateHinError)
+      return data(submission.reply({ fieldErrors: { hin: [error.message] } }), { status: 400 });
     throw error;
   }
   await audit({ userId: user.id, action: "vessel.updated", entity: "vessel", entityId: vessel.id });

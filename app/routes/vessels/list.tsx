@@ -21,7 +21,11 @@ export default function Vessels({ loaderData }: Route.ComponentProps) {
   return (
     <>
       <PageHeader title="Vessels">
-        {loaderData.canCreate && <Link className="btn btn-primary" to="/vessels/new">Add a vessel</Link>}
+        {loaderData.canCreate && (
+          <Link className="btn btn-primary" to="/vessels/new">
+            Add a vessel
+          </Link>
+        )}
       </PageHeader>
       <table className="w-full border-collapse">
         <thead>
@@ -37,10 +41,18 @@ export default function Vessels({ loaderData }: Route.ComponentProps) {
           {loaderData.vessels.map((v) => (
             <tr key={v.id} className="border-b border-rule">
               <td className="p-2 font-bold">
-                {v.editable ? <Link className="flex min-h-12 items-center text-harbour underline" to={`/vessels/${v.id}`}>{v.name}</Link> : v.name}
+                {v.editable ? (
+                  <Link className="flex min-h-12 items-center text-harbour underline" to={`/vessels/${v.id}`}>
+                    {v.name}
+                  </Link>
+                ) : (
+                  v.name
+                )}
               </td>
               <td className="p-2 font-mono">{v.hin ?? "—"}</td>
-              <td className="num p-2">{v.lengthValue} {v.lengthUnit}</td>
+              <td className="num p-2">
+                {v.lengthValue} {v.lengthUnit}
+              </td>
               <td className="p-2">{hullTypeLabels[v.hullType]}</td>
               <td className="p-2">{v.ownerName}</td>
             </tr>

@@ -24,7 +24,8 @@ export async function action({ request }: Route.ActionArgs) {
     await audit({ userId: user.id, action: "vessel.created", entity: "vessel", entityId: id });
     return redirect("/vessels");
   } catch (error) {
-    if (error instanceof DuplicateHinError) return data(submission.reply({ fieldErrors: { hin: [error.message] } }), { status: 400 });
+    if (error instanceof DuplicateHinError)
+      return data(submission.reply({ fieldErrors: { hin: [error.message] } }), { status: 400 });
     throw error;
   }
 }

@@ -2,7 +2,6 @@ import { describe, expect, it } from "vitest";
 import { fieldOf } from "../../support/calc.ts";
 import { couplingFit, fitCheck, isoFit, isoFitIn } from "~/lib/calc";
 
-
 // Limit deviations from ISO 286-2:2010, Tables for holes H and shafts f g h js k m n p r s,
 // values in µm (from memory of the printed tables; each is IT grade of ISO 286-1 Table 1 plus
 // the fundamental deviation, so the pairs below also agree with each other).
@@ -44,15 +43,39 @@ describe("isoFit — ISO 286-2 tables", () => {
   });
 
   it("other classes of the tables", () => {
-    expect(isoFit({ nominalMm: 12, hole: "H7", shaft: "m6" }).shaft).toEqual({ upperMm: 0.018, lowerMm: 0.007 });
-    expect(isoFit({ nominalMm: 12, hole: "H7", shaft: "n6" }).shaft).toEqual({ upperMm: 0.023, lowerMm: 0.012 });
-    expect(isoFit({ nominalMm: 12, hole: "H7", shaft: "p6" }).shaft).toEqual({ upperMm: 0.029, lowerMm: 0.018 });
-    expect(isoFit({ nominalMm: 25, hole: "H7", shaft: "g6" }).shaft).toEqual({ upperMm: -0.007, lowerMm: -0.02 });
-    expect(isoFit({ nominalMm: 25, hole: "H7", shaft: "r6" }).shaft).toEqual({ upperMm: 0.041, lowerMm: 0.028 });
-    expect(isoFit({ nominalMm: 8, hole: "H7", shaft: "js6" }).shaft).toEqual({ upperMm: 0.0045, lowerMm: -0.0045 });
-    expect(isoFit({ nominalMm: 200, hole: "H9", shaft: "h9" }).shaft).toEqual({ upperMm: 0, lowerMm: -0.115 });
+    expect(isoFit({ nominalMm: 12, hole: "H7", shaft: "m6" }).shaft).toEqual({
+      upperMm: 0.018,
+      lowerMm: 0.007,
+    });
+    expect(isoFit({ nominalMm: 12, hole: "H7", shaft: "n6" }).shaft).toEqual({
+      upperMm: 0.023,
+      lowerMm: 0.012,
+    });
+    expect(isoFit({ nominalMm: 12, hole: "H7", shaft: "p6" }).shaft).toEqual({
+      upperMm: 0.029,
+      lowerMm: 0.018,
+    });
+    expect(isoFit({ nominalMm: 25, hole: "H7", shaft: "g6" }).shaft).toEqual({
+      upperMm: -0.007,
+      lowerMm: -0.02,
+    });
+    expect(isoFit({ nominalMm: 25, hole: "H7", shaft: "r6" }).shaft).toEqual({
+      upperMm: 0.041,
+      lowerMm: 0.028,
+    });
+    expect(isoFit({ nominalMm: 8, hole: "H7", shaft: "js6" }).shaft).toEqual({
+      upperMm: 0.0045,
+      lowerMm: -0.0045,
+    });
+    expect(isoFit({ nominalMm: 200, hole: "H9", shaft: "h9" }).shaft).toEqual({
+      upperMm: 0,
+      lowerMm: -0.115,
+    });
     expect(isoFit({ nominalMm: 450, hole: "H7", shaft: "h7" }).shaft.lowerMm).toBe(-0.063);
-    expect(isoFit({ nominalMm: 480, hole: "H7", shaft: "s6" }).shaft).toEqual({ upperMm: 0.292, lowerMm: 0.252 });
+    expect(isoFit({ nominalMm: 480, hole: "H7", shaft: "s6" }).shaft).toEqual({
+      upperMm: 0.292,
+      lowerMm: 0.252,
+    });
     expect(isoFit({ nominalMm: 3, hole: "H6", shaft: "h6" }).hole.upperMm).toBe(0.006);
     expect(isoFit({ nominalMm: 50, hole: "H9", shaft: "h9" }).hole.upperMm).toBe(0.062);
     expect(isoFit({ nominalMm: 10, hole: "H11", shaft: "h9" }).hole.upperMm).toBe(0.09);
@@ -61,8 +84,14 @@ describe("isoFit — ISO 286-2 tables", () => {
   it("steps change just over the range boundaries ('over … up to and including')", () => {
     expect(isoFit({ nominalMm: 30, hole: "H7", shaft: "h6" }).hole.upperMm).toBe(0.021); // 18–30
     expect(isoFit({ nominalMm: 30.01, hole: "H7", shaft: "h6" }).hole.upperMm).toBe(0.025); // 30–50
-    expect(isoFit({ nominalMm: 65, hole: "H7", shaft: "r6" }).shaft).toEqual({ upperMm: 0.06, lowerMm: 0.041 }); // 50–65
-    expect(isoFit({ nominalMm: 66, hole: "H7", shaft: "r6" }).shaft).toEqual({ upperMm: 0.062, lowerMm: 0.043 }); // 65–80
+    expect(isoFit({ nominalMm: 65, hole: "H7", shaft: "r6" }).shaft).toEqual({
+      upperMm: 0.06,
+      lowerMm: 0.041,
+    }); // 50–65
+    expect(isoFit({ nominalMm: 66, hole: "H7", shaft: "r6" }).shaft).toEqual({
+      upperMm: 0.062,
+      lowerMm: 0.043,
+    }); // 65–80
   });
 
   it("names the field of an unknown class or a size outside the table", () => {
@@ -86,7 +115,13 @@ describe("isoFitIn and fitCheck", () => {
   });
 
   it("checks measured parts against the limits", () => {
-    const r = fitCheck({ nominalMm: 25, hole: "H7", shaft: "k6", measuredBoreMm: 25.01, measuredShaftMm: 25.016 });
+    const r = fitCheck({
+      nominalMm: 25,
+      hole: "H7",
+      shaft: "k6",
+      measuredBoreMm: 25.01,
+      measuredShaftMm: 25.016,
+    });
     expect(r.boreWithinLimits).toBe(true);
     expect(r.shaftWithinLimits).toBe(false); // above 25 + 0.015
     expect(r.measuredClearanceMm).toBeCloseTo(-0.006, 12);
@@ -98,9 +133,17 @@ describe("isoFitIn and fitCheck", () => {
 
 describe("couplingFit", () => {
   it("clearance = bore − shaft; remove what stands between it and the clearance wanted (hand arithmetic)", () => {
-    expect(couplingFit({ shaftIn: 1.0005, boreIn: 1.0 })).toEqual({ clearanceIn: -0.0005, removeFromShaftIn: 0.0005 });
-    expect(couplingFit({ shaftIn: 1.0005, boreIn: 1.0, targetClearanceIn: 0.0005 }).removeFromShaftIn).toBe(0.001);
-    expect(couplingFit({ shaftIn: 0.999, boreIn: 1.0 })).toEqual({ clearanceIn: 0.001, removeFromShaftIn: 0 });
+    expect(couplingFit({ shaftIn: 1.0005, boreIn: 1.0 })).toEqual({
+      clearanceIn: -0.0005,
+      removeFromShaftIn: 0.0005,
+    });
+    expect(couplingFit({ shaftIn: 1.0005, boreIn: 1.0, targetClearanceIn: 0.0005 }).removeFromShaftIn).toBe(
+      0.001,
+    );
+    expect(couplingFit({ shaftIn: 0.999, boreIn: 1.0 })).toEqual({
+      clearanceIn: 0.001,
+      removeFromShaftIn: 0,
+    });
     expect(fieldOf(() => couplingFit({ shaftIn: 0, boreIn: 1 }))).toBe("shaftIn");
     expect(fieldOf(() => couplingFit({ shaftIn: 1, boreIn: -1 }))).toBe("boreIn");
   });

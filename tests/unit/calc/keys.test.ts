@@ -2,7 +2,6 @@ import { describe, expect, it } from "vitest";
 import { fieldOf } from "../../support/calc.ts";
 import { keyForShaft, keyForShaftMm } from "~/lib/calc";
 
-
 // ASME B17.1-1967 (R2013) Table 1, "Key Size Versus Shaft Diameter", as reproduced in
 // Machinery's Handbook ("Keys and Keyseats"): rows run over one size up to and including the next.
 describe("keyForShaft — ASME B17.1 Table 1", () => {
@@ -23,7 +22,11 @@ describe("keyForShaft — ASME B17.1 Table 1", () => {
   });
 
   it("rectangular keys from the same table", () => {
-    expect(keyForShaft({ diameterIn: 2, style: "rectangular" })).toMatchObject({ widthIn: 0.5, heightIn: 0.375, shaftDepthIn: 0.1875 });
+    expect(keyForShaft({ diameterIn: 2, style: "rectangular" })).toMatchObject({
+      widthIn: 0.5,
+      heightIn: 0.375,
+      shaftDepthIn: 0.1875,
+    });
     expect(keyForShaft({ diameterIn: 1.5, style: "rectangular" }).heightIn).toBe(0.25);
     expect(fieldOf(() => keyForShaft({ diameterIn: 0.4, style: "rectangular" }))).toBe("style");
   });
@@ -46,17 +49,48 @@ describe("keyForShaft — ASME B17.1 Table 1", () => {
 // DIN 6885-1:1968-08 "Passfedern, hohe Form": b × h, t1 (shaft) and t2 (hub) by shaft diameter.
 describe("keyForShaftMm — DIN 6885-1", () => {
   it("34 mm shaft: 10 × 8 key, t1 = 5 mm, t2 = 3.3 mm (worked example in a German technical drawing textbook)", () => {
-    expect(keyForShaftMm({ diameterMm: 34 })).toEqual({ standard: "DIN 6885-1", widthMm: 10, heightMm: 8, shaftDepthMm: 5, hubDepthMm: 3.3 });
+    expect(keyForShaftMm({ diameterMm: 34 })).toEqual({
+      standard: "DIN 6885-1",
+      widthMm: 10,
+      heightMm: 8,
+      shaftDepthMm: 5,
+      hubDepthMm: 3.3,
+    });
   });
 
   it("boundary sizes and the ends of the table", () => {
-    expect(keyForShaftMm({ diameterMm: 22 })).toMatchObject({ widthMm: 6, heightMm: 6, shaftDepthMm: 3.5, hubDepthMm: 2.8 }); // 17–22
-    expect(keyForShaftMm({ diameterMm: 22.5 })).toMatchObject({ widthMm: 8, heightMm: 7, shaftDepthMm: 4, hubDepthMm: 3.3 }); // 22–30
+    expect(keyForShaftMm({ diameterMm: 22 })).toMatchObject({
+      widthMm: 6,
+      heightMm: 6,
+      shaftDepthMm: 3.5,
+      hubDepthMm: 2.8,
+    }); // 17–22
+    expect(keyForShaftMm({ diameterMm: 22.5 })).toMatchObject({
+      widthMm: 8,
+      heightMm: 7,
+      shaftDepthMm: 4,
+      hubDepthMm: 3.3,
+    }); // 22–30
     expect(keyForShaftMm({ diameterMm: 30 }).widthMm).toBe(8);
     expect(keyForShaftMm({ diameterMm: 30.5 }).widthMm).toBe(10);
-    expect(keyForShaftMm({ diameterMm: 50 })).toMatchObject({ widthMm: 14, heightMm: 9, shaftDepthMm: 5.5, hubDepthMm: 3.8 });
-    expect(keyForShaftMm({ diameterMm: 7 })).toMatchObject({ widthMm: 2, heightMm: 2, shaftDepthMm: 1.2, hubDepthMm: 1 });
-    expect(keyForShaftMm({ diameterMm: 500 })).toMatchObject({ widthMm: 100, heightMm: 50, shaftDepthMm: 31, hubDepthMm: 19.5 });
+    expect(keyForShaftMm({ diameterMm: 50 })).toMatchObject({
+      widthMm: 14,
+      heightMm: 9,
+      shaftDepthMm: 5.5,
+      hubDepthMm: 3.8,
+    });
+    expect(keyForShaftMm({ diameterMm: 7 })).toMatchObject({
+      widthMm: 2,
+      heightMm: 2,
+      shaftDepthMm: 1.2,
+      hubDepthMm: 1,
+    });
+    expect(keyForShaftMm({ diameterMm: 500 })).toMatchObject({
+      widthMm: 100,
+      heightMm: 50,
+      shaftDepthMm: 31,
+      hubDepthMm: 19.5,
+    });
     expect(fieldOf(() => keyForShaftMm({ diameterMm: 6 }))).toBe("diameterMm");
     expect(fieldOf(() => keyForShaftMm({ diameterMm: 501 }))).toBe("diameterMm");
   });

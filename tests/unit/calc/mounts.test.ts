@@ -2,7 +2,6 @@ import { describe, expect, it } from "vitest";
 import { fieldOf } from "../../support/calc.ts";
 import { mountMoves, shimStack, threadPitch } from "~/lib/calc";
 
-
 const square = { top: 0.004, bottom: 0.004, port: 0.004, starboard: 0.004 };
 
 describe("mountMoves", () => {
@@ -34,7 +33,13 @@ describe("mountMoves", () => {
   it("corrects a pure offset by the same amount at every mount", () => {
     // Same manual, parallel correction: "add or remove identical amounts of shims at all
     // footings". Engine centre 0.010 in high → lower both pairs 0.010 in.
-    const r = mountMoves({ diameterIn: 5, gapsIn: square, offsetIn: { vertical: 0.01, horizontal: -0.004 }, rearMountIn: 8, frontMountIn: 26 });
+    const r = mountMoves({
+      diameterIn: 5,
+      gapsIn: square,
+      offsetIn: { vertical: 0.01, horizontal: -0.004 },
+      rearMountIn: 8,
+      frontMountIn: 26,
+    });
     expect(r.front.raiseIn).toBeCloseTo(-0.01, 12);
     expect(r.rear.raiseIn).toBeCloseTo(-0.01, 12);
     expect(r.front.toStarboardIn).toBeCloseTo(0.004, 12);
@@ -66,7 +71,13 @@ describe("mountMoves", () => {
   });
 
   it("a gap larger at the top means the nose is low: the front mounts go up more", () => {
-    const r = mountMoves({ diameterIn: 4, gapsIn: { top: 0.006, bottom: 0.002, port: 0.004, starboard: 0.004 }, offsetIn: { vertical: 0, horizontal: 0 }, rearMountIn: 10, frontMountIn: 30 });
+    const r = mountMoves({
+      diameterIn: 4,
+      gapsIn: { top: 0.006, bottom: 0.002, port: 0.004, starboard: 0.004 },
+      offsetIn: { vertical: 0, horizontal: 0 },
+      rearMountIn: 10,
+      frontMountIn: 30,
+    });
     expect(r.front.raiseIn).toBeGreaterThan(r.rear.raiseIn);
     expect(r.rear.raiseIn).toBeGreaterThan(0);
   });
@@ -85,16 +96,31 @@ describe("mountMoves", () => {
     expect(r.front.shims?.action).toBe("add");
     expect(r.front.shims?.totalIn).toBeCloseTo(0.034, 12);
     expect(r.front.shims?.pieceCount).toBe(4);
-    const down = mountMoves({ diameterIn: 5, gapsIn: square, offsetIn: { vertical: 0.005, horizontal: 0 }, rearMountIn: 12, frontMountIn: 30, shimStockIn: [0.005] });
+    const down = mountMoves({
+      diameterIn: 5,
+      gapsIn: square,
+      offsetIn: { vertical: 0.005, horizontal: 0 },
+      rearMountIn: 12,
+      frontMountIn: 30,
+      shimStockIn: [0.005],
+    });
     expect(down.rear.shims).toMatchObject({ action: "remove", totalIn: 0.005, pieceCount: 1 });
   });
 
   it("names the field of bad input", () => {
-    const ok = { diameterIn: 5, gapsIn: square, offsetIn: { vertical: 0, horizontal: 0 }, rearMountIn: 10, frontMountIn: 30 };
+    const ok = {
+      diameterIn: 5,
+      gapsIn: square,
+      offsetIn: { vertical: 0, horizontal: 0 },
+      rearMountIn: 10,
+      frontMountIn: 30,
+    };
     expect(fieldOf(() => mountMoves({ ...ok, diameterIn: 0 }))).toBe("diameterIn");
     expect(fieldOf(() => mountMoves({ ...ok, frontMountIn: 10 }))).toBe("frontMountIn");
     expect(fieldOf(() => mountMoves({ ...ok, rearMountIn: -1 }))).toBe("rearMountIn");
-    expect(fieldOf(() => mountMoves({ ...ok, offsetIn: { vertical: 0, horizontal: Number.NaN } }))).toBe("offsetIn.horizontal");
+    expect(fieldOf(() => mountMoves({ ...ok, offsetIn: { vertical: 0, horizontal: Number.NaN } }))).toBe(
+      "offsetIn.horizontal",
+    );
     expect(fieldOf(() => mountMoves({ ...ok, offsetIn: undefined as never }))).toBe("offsetIn");
     expect(fieldOf(() => mountMoves({ ...ok, adjusterTpi: 0 }))).toBe("adjusterTpi");
   });

@@ -2,13 +2,15 @@ import { describe, expect, it } from "vitest";
 import { fieldOf } from "../../support/calc.ts";
 import { runoutGrade, shaftRunout, straighteningHistory } from "~/lib/calc";
 
-
 describe("shaftRunout", () => {
   it("TIR is the largest minus the smallest reading of one revolution", () => {
     // Total indicator reading as defined in ASME Y14.5 (full indicator movement, formerly TIR;
     // from memory): difference between the maximum and minimum readings over a full turn.
     // Readings at 0°, 90°, 180°, 270°: 0, +0.001, +0.003, +0.001 → TIR 0.003 in, high spot at 180°.
-    const r = shaftRunout({ stations: [{ positionIn: 6, readingsIn: [0, 0.001, 0.003, 0.001] }], limitTirIn: 0.003 });
+    const r = shaftRunout({
+      stations: [{ positionIn: 6, readingsIn: [0, 0.001, 0.003, 0.001] }],
+      limitTirIn: 0.003,
+    });
     expect(r.stations[0].tirIn).toBeCloseTo(0.003, 12);
     expect(r.stations[0].highSpotIndex).toBe(2);
     expect(r.stations[0].highSpotAngleDeg).toBe(180);
@@ -29,10 +31,15 @@ describe("shaftRunout", () => {
   it("passes a reading exactly on the limit despite binary noise", () => {
     // 0.010 − 0.009 is 0.0010000000000000009 in binary floating point; against a 0.001 in limit
     // (a good straightened shaft — common practice) it must count as on the limit.
-    const r = shaftRunout({ stations: [{ positionIn: 0, readingsIn: [0.009, 0.01, 0.0095] }], limitTirIn: 0.001 });
+    const r = shaftRunout({
+      stations: [{ positionIn: 0, readingsIn: [0.009, 0.01, 0.0095] }],
+      limitTirIn: 0.001,
+    });
     expect(r.maxTirIn).toBe(0.001);
     expect(r.pass).toBe(true);
-    expect(shaftRunout({ stations: [{ positionIn: 0, readingsIn: [0, 0.0031] }], limitTirIn: 0.003 }).pass).toBe(false);
+    expect(
+      shaftRunout({ stations: [{ positionIn: 0, readingsIn: [0, 0.0031] }], limitTirIn: 0.003 }).pass,
+    ).toBe(false);
   });
 
   it("names the field of bad input", () => {
@@ -48,10 +55,12 @@ describe("shaftRunout", () => {
         }),
       ),
     ).toBe("stations[1].readingsIn");
-    expect(fieldOf(() => shaftRunout({ stations: [{ positionIn: 0, readingsIn: [0.001] }], limitTirIn: 0.003 }))).toBe(
-      "stations[0].readingsIn",
-    );
-    expect(fieldOf(() => shaftRunout({ stations: [{ positionIn: 0, readingsIn: [0, 1] }], limitTirIn: -1 }))).toBe("limitTirIn");
+    expect(
+      fieldOf(() => shaftRunout({ stations: [{ positionIn: 0, readingsIn: [0.001] }], limitTirIn: 0.003 })),
+    ).toBe("stations[0].readingsIn");
+    expect(
+      fieldOf(() => shaftRunout({ stations: [{ positionIn: 0, readingsIn: [0, 1] }], limitTirIn: -1 })),
+    ).toBe("limitTirIn");
   });
 });
 

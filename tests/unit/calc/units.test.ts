@@ -73,7 +73,25 @@ describe("convert — NIST SP 811 exact definitions", () => {
   });
 
   it("lists every unit of the contract, each with a dimension", () => {
-    const contract: Unit[] = ["in", "mm", "thou", "ft", "m", "psi", "kPa", "bar", "inHg", "inH2O", "degF", "degC", "kn", "mph", "km/h", "gal", "L"];
+    const contract: Unit[] = [
+      "in",
+      "mm",
+      "thou",
+      "ft",
+      "m",
+      "psi",
+      "kPa",
+      "bar",
+      "inHg",
+      "inH2O",
+      "degF",
+      "degC",
+      "kn",
+      "mph",
+      "km/h",
+      "gal",
+      "L",
+    ];
     for (const unit of contract) expect(units).toContain(unit);
     expect(dimensionOf("inHg")).toBe("pressure");
     expect(dimensionOf("thou")).toBe("length");

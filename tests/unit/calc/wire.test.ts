@@ -2,7 +2,6 @@ import { describe, expect, it } from "vitest";
 import { fieldOf } from "../../support/calc.ts";
 import { CalcError, awgCircularMils, conductorCircularMils, wireSize } from "~/lib/calc";
 
-
 describe("conductor areas — NEC Chapter 9 Table 8", () => {
   it("circular mils of AWG sizes (Table 8, 'Area, Circular mils')", () => {
     expect(awgCircularMils("18")).toBe(1620);
@@ -47,14 +46,27 @@ describe("wireSize — ABYC E-11 voltage drop, CM = 10.75 × I × L / E", () => 
 
   it("an area exactly on a table size takes that size", () => {
     // 6530 CM (12 AWG) from 10.75 × I × L / E: I = 6530 × 0.36 / (10.75 × 20) = 10.9339… A at 20 ft.
-    const r = wireSize({ currentA: (6530 * 0.36) / (10.75 * 20), roundTripFt: 20, systemVolts: 12, dropPercent: 3 });
+    const r = wireSize({
+      currentA: (6530 * 0.36) / (10.75 * 20),
+      roundTripFt: 20,
+      systemVolts: 12,
+      dropPercent: 3,
+    });
     expect(r.awg).toBe("12");
   });
 
   it("names the field when the run needs more than 4/0 or an input is impossible", () => {
-    expect(fieldOf(() => wireSize({ currentA: 200, roundTripFt: 100, systemVolts: 12, dropPercent: 3 }))).toBe("roundTripFt");
-    expect(fieldOf(() => wireSize({ currentA: 10, roundTripFt: 20, systemVolts: 0, dropPercent: 3 }))).toBe("systemVolts");
-    expect(fieldOf(() => wireSize({ currentA: 10, roundTripFt: 20, systemVolts: 12, dropPercent: 0 }))).toBe("dropPercent");
-    expect(fieldOf(() => wireSize({ currentA: Number.NaN, roundTripFt: 20, systemVolts: 12, dropPercent: 3 }))).toBe("currentA");
+    expect(
+      fieldOf(() => wireSize({ currentA: 200, roundTripFt: 100, systemVolts: 12, dropPercent: 3 })),
+    ).toBe("roundTripFt");
+    expect(fieldOf(() => wireSize({ currentA: 10, roundTripFt: 20, systemVolts: 0, dropPercent: 3 }))).toBe(
+      "systemVolts",
+    );
+    expect(fieldOf(() => wireSize({ currentA: 10, roundTripFt: 20, systemVolts: 12, dropPercent: 0 }))).toBe(
+      "dropPercent",
+    );
+    expect(
+      fieldOf(() => wireSize({ currentA: Number.NaN, roundTripFt: 20, systemVolts: 12, dropPercent: 3 })),
+    ).toBe("currentA");
   });
 });

@@ -31,19 +31,36 @@ describe("diagramFor", () => {
     // TIR by hand (max − min, ASME Y14.5 full indicator movement): 2 thou and 4 thou; the limit is
     // given in mm: 0.0762 mm = 0.003 in exactly (1 in = 25.4 mm, NIST SP 811).
     const svg = diagram("shaftRunout", {
-      readings: { kind: "grid", rows: ["Coupling end", "Mid-length"], columns: ["0° (keyway)", "90°", "180°", "270°"], values: [[0, 1, 2, 1], [0, 4, 1, 0]], unit: "thou" },
+      readings: {
+        kind: "grid",
+        rows: ["Coupling end", "Mid-length"],
+        columns: ["0° (keyway)", "90°", "180°", "270°"],
+        values: [
+          [0, 1, 2, 1],
+          [0, 4, 1, 0],
+        ],
+        unit: "thou",
+      },
       limitTir: { kind: "number", value: 0.0762, unit: "mm" },
     });
     const words = texts(svg);
-    expect(words).toEqual(expect.arrayContaining(["Coupling end", "Mid-length", "0.004 in", "limit 0.003 in", "high spot 90°"]));
+    expect(words).toEqual(
+      expect.arrayContaining(["Coupling end", "Mid-length", "0.004 in", "limit 0.003 in", "high spot 90°"]),
+    );
     expect(words).toContain("Over the limit: worst TIR 0.004 in at Mid-length, limit 0.003 in");
     // Without station positions, the stations are not given distances.
     expect(words.some((t) => t.startsWith("at "))).toBe(false);
   });
 
   it("reads the four gaps from the template's grid by their labels for the coupling face", () => {
-    const svg = diagram("couplingFace", { diameter: { kind: "number", value: 5, unit: "in" }, gaps: faceGaps, maxInPerInDiameter: { kind: "number", value: 0.001, unit: "in/in" } });
-    expect(texts(svg)).toEqual(expect.arrayContaining(["Top 0.016 in", "Bottom 0.004 in", "Port 0.012 in", "Starboard 0.009 in"]));
+    const svg = diagram("couplingFace", {
+      diameter: { kind: "number", value: 5, unit: "in" },
+      gaps: faceGaps,
+      maxInPerInDiameter: { kind: "number", value: 0.001, unit: "in/in" },
+    });
+    expect(texts(svg)).toEqual(
+      expect.arrayContaining(["Top 0.016 in", "Bottom 0.004 in", "Port 0.012 in", "Starboard 0.009 in"]),
+    );
     // (16 − 4) thou over 5 in = 2.4 thou per inch, over the 1 thou per inch limit (common practice).
     expect(texts(svg)).toContain("Faces out of parallel: more than 1 thou per inch of diameter");
   });
@@ -80,10 +97,16 @@ describe("diagramFor", () => {
   it("draws the sea-trial loading with the runs given, and propeller slip as one run against the pitch speed", () => {
     const loading = diagram(
       "seaTrialLoading",
-      { wotRpm: { kind: "number", value: 3250, unit: "rpm" }, ratedRpmMin: { kind: "number", value: 3400, unit: "rpm" }, ratedRpmMax: { kind: "number", value: 3600, unit: "rpm" } },
+      {
+        wotRpm: { kind: "number", value: 3250, unit: "rpm" },
+        ratedRpmMin: { kind: "number", value: 3400, unit: "rpm" },
+        ratedRpmMax: { kind: "number", value: 3600, unit: "rpm" },
+      },
       { speedRuns: [{ rpm: 3250, knots: 27 }] },
     );
-    expect(texts(loading)).toEqual(expect.arrayContaining(["rated band 3400 rpm to 3600 rpm", "WOT 3250 rpm", "3250 rpm, 27 kn"]));
+    expect(texts(loading)).toEqual(
+      expect.arrayContaining(["rated band 3400 rpm to 3600 rpm", "WOT 3250 rpm", "3250 rpm, 27 kn"]),
+    );
     // 27 kn entered as 31.07 mph (1 kn = 1852 m/h, 1 mi = 1609.344 m, NIST SP 811): 31.0712 mph = 27.000 kn.
     const slip = diagram("propSlip", {
       pitch: { kind: "number", value: 24, unit: "in" },

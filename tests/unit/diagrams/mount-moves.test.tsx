@@ -47,7 +47,9 @@ describe("MountMovesDiagram", () => {
         "rear: 12 in forward",
       ]),
     );
-    expect(titleOf(svg)).toContain("Front mounts, 30 in forward of the coupling face: raise 0.034 in (0.44 turns to raise), 0.018 in to port");
+    expect(titleOf(svg)).toContain(
+      "Front mounts, 30 in forward of the coupling face: raise 0.034 in (0.44 turns to raise), 0.018 in to port",
+    );
     expect(titleOf(svg)).toContain("The engine moves, the shaft stays.");
   });
 

@@ -35,7 +35,10 @@ describe("RunoutDiagram", () => {
 
   it("draws each bar in proportion to its TIR, from the same baseline", () => {
     const svg = render(<RunoutDiagram result={result} limitTirIn={0.003} />);
-    const [a, b, c] = bars(svg).map((r) => ({ height: Number(r.height), bottom: Number(r.y) + Number(r.height) }));
+    const [a, b, c] = bars(svg).map((r) => ({
+      height: Number(r.height),
+      bottom: Number(r.y) + Number(r.height),
+    }));
     // 0.004 : 0.002 : 0.001, as worked above.
     expect(b.height / a.height).toBeCloseTo(2, 1);
     expect(a.height / c.height).toBeCloseTo(2, 1);
@@ -51,7 +54,13 @@ describe("RunoutDiagram", () => {
 
   it("passes when every station is within the limit, and says so", () => {
     const within = shaftRunout({ stations, limitTirIn: 0.004 });
-    const svg = render(<RunoutDiagram result={within} limitTirIn={0.004} stationLabels={["Coupling end", "Mid-length", "Propeller end"]} />);
+    const svg = render(
+      <RunoutDiagram
+        result={within}
+        limitTirIn={0.004}
+        stationLabels={["Coupling end", "Mid-length", "Propeller end"]}
+      />,
+    );
     expect(texts(svg)).toContain("Within the limit: worst TIR 0.004 in at Mid-length, limit 0.004 in");
     expect(texts(svg)).not.toContain("Over the limit");
   });

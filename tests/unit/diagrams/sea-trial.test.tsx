@@ -10,7 +10,17 @@ describe("SeaTrialDiagram", () => {
     // WOT 3250 rpm below a 3400–3600 rpm band: over-propped. Indicative change aimed at mid-band
     // with about 200 rpm per inch of pitch (common practice): (3250 − 3500) / 200 = −1.25 in.
     const loading = seaTrialLoading({ wotRpm: 3250, ...band });
-    const svg = render(<SeaTrialDiagram {...band} wotRpm={3250} loading={loading} points={[{ rpm: 3250, knots: 27 }, { rpm: 2000, knots: 14 }]} />);
+    const svg = render(
+      <SeaTrialDiagram
+        {...band}
+        wotRpm={3250}
+        loading={loading}
+        points={[
+          { rpm: 3250, knots: 27 },
+          { rpm: 2000, knots: 14 },
+        ]}
+      />,
+    );
     const words = texts(svg);
     expect(words).toContain("rated band 3400 rpm to 3600 rpm");
     expect(words).toContain("WOT 3250 rpm");
@@ -36,7 +46,14 @@ describe("SeaTrialDiagram", () => {
     // (1852 m exactly ÷ 0.0254 m per in, NIST SP 811) = 28.213 kn; slip = (28.213 − 27) / 28.213 = 4.3 %.
     const loading = seaTrialLoading({ wotRpm: 2800, ratedRpmMin: 2700, ratedRpmMax: 2900 });
     const svg = render(
-      <SeaTrialDiagram wotRpm={2800} ratedRpmMin={2700} ratedRpmMax={2900} loading={loading} points={[{ rpm: 2800, knots: 27 }]} pitchLine={{ pitchIn: 24, gearRatio: 1.96 }} />,
+      <SeaTrialDiagram
+        wotRpm={2800}
+        ratedRpmMin={2700}
+        ratedRpmMax={2900}
+        loading={loading}
+        points={[{ rpm: 2800, knots: 27 }]}
+        pitchLine={{ pitchIn: 24, gearRatio: 1.96 }}
+      />,
     );
     expect(texts(svg)).toContain("2800 rpm, 27 kn, slip 4.3%");
     expect(texts(svg)).toContain("In range: WOT 2800 rpm is within the rated band");

@@ -10,9 +10,13 @@ const attemptsTirIn = [0.012, 0.006, 0.0035, 0.002];
 describe("StraighteningDiagram", () => {
   it("labels every attempt's TIR and change, the limit, and the attempt that met it", () => {
     const history = straighteningHistory({ attemptsTirIn, limitTirIn: 0.003 });
-    const svg = render(<StraighteningDiagram history={history} limitTirIn={0.003} attemptLabels={["As found"]} />);
+    const svg = render(
+      <StraighteningDiagram history={history} limitTirIn={0.003} attemptLabels={["As found"]} />,
+    );
     const words = texts(svg);
-    expect(words).toEqual(expect.arrayContaining(["0.012 in", "0.006 in", "0.0035 in", "0.002 in", "limit 0.003 in"]));
+    expect(words).toEqual(
+      expect.arrayContaining(["0.012 in", "0.006 in", "0.0035 in", "0.002 in", "limit 0.003 in"]),
+    );
     expect(words).toEqual(expect.arrayContaining(["As found", "Attempt 2", "Attempt 3", "Attempt 4"]));
     // Changes by hand: 0.006 − 0.012 = −0.006, 0.0035 − 0.006 = −0.0025, 0.002 − 0.0035 = −0.0015.
     expect(words).toEqual(expect.arrayContaining(["down 0.006 in", "down 0.0025 in", "down 0.0015 in"]));

@@ -3,7 +3,8 @@ import { describe, expect, test } from "vitest";
 import { diffTemplates, inOrder } from "~/lib/templates/diff";
 import { edited, small, starter, starterLibrary } from "./fixtures.ts";
 
-const keysOf = (diff: ReturnType<typeof diffTemplates>, status: string) => diff.items.filter((c) => c.status === status).map((c) => c.key);
+const keysOf = (diff: ReturnType<typeof diffTemplates>, status: string) =>
+  diff.items.filter((c) => c.status === status).map((c) => c.key);
 
 describe("differences between two versions", () => {
   test("a new version with nothing changed but its number is the same", () => {
@@ -39,7 +40,14 @@ describe("differences between two versions", () => {
         to: { sectionKey: "final-alignment", sectionTitle: "Final alignment afloat", position: 3 },
         moved: false,
         fields: [],
-        item: { kind: "measure", key: "coupling-bolt-torque", label: "Coupling bolt torque", required: true, unit: "lbfFt", rule: { nominal: 40, tolerance: 2, unit: "lbfFt" } },
+        item: {
+          kind: "measure",
+          key: "coupling-bolt-torque",
+          label: "Coupling bolt torque",
+          required: true,
+          unit: "lbfFt",
+          rule: { nominal: 40, tolerance: 2, unit: "lbfFt" },
+        },
       },
     ]);
     expect(diff.counts).toEqual({ added: 1, removed: 0, moved: 0, changed: 0 });
@@ -72,7 +80,9 @@ describe("differences between two versions", () => {
       gaps.label = "Face gaps at 12, 3, 6 and 9 o'clock";
       gaps.rule = { min: 0, max: 0.02, unit: "in" };
       delete gaps.caution;
-      const angularity = t.sections.flatMap((s: any) => s.items).find((i: any) => i.key === "face-angularity");
+      const angularity = t.sections
+        .flatMap((s: any) => s.items)
+        .find((i: any) => i.key === "face-angularity");
       angularity.inputs.maxInPerInDiameter = { value: 0.0005 };
     });
     const diff = diffTemplates(v1, v2);
@@ -80,7 +90,11 @@ describe("differences between two versions", () => {
     expect(gaps.status).toBe("kept");
     expect(gaps.moved).toBe(false);
     expect(gaps.fields).toEqual([
-      { field: "label", before: "Face gaps at four clock positions", after: "Face gaps at 12, 3, 6 and 9 o'clock" },
+      {
+        field: "label",
+        before: "Face gaps at four clock positions",
+        after: "Face gaps at 12, 3, 6 and 9 o'clock",
+      },
       { field: "rule.max", before: undefined, after: 0.02 },
       { field: "caution", before: v1.sections[2].items[3].caution, after: undefined },
     ]);
@@ -133,7 +147,9 @@ describe("differences between two versions", () => {
     const diff = diffTemplates(v1, v2);
     expect(diff.items).toEqual([]);
     expect(diff.sections.filter((s) => s.moved)).toHaveLength(1);
-    expect(diff.sections.find((s) => s.key === "two")!.fields).toEqual([{ field: "title", before: "Two", after: "Second, now first" }]);
+    expect(diff.sections.find((s) => s.key === "two")!.fields).toEqual([
+      { field: "title", before: "Two", after: "Second, now first" },
+    ]);
     expect(diff.same).toBe(false);
   });
 
@@ -141,12 +157,20 @@ describe("differences between two versions", () => {
     const v1 = small();
     const v2 = edited(v1, (t) => {
       t.title = "Smaller";
-      t.sections.splice(1, 1, { key: "three", title: "Three", items: [{ kind: "text", key: "f", label: "Notes" }] });
+      t.sections.splice(1, 1, {
+        key: "three",
+        title: "Three",
+        items: [{ kind: "text", key: "f", label: "Notes" }],
+      });
     });
     const diff = diffTemplates(v1, v2);
     expect(diff.fields).toEqual([{ field: "title", before: "Small", after: "Smaller" }]);
     // A removed section is listed right after the one it followed.
-    expect(diff.sections.map((s) => [s.key, s.status])).toEqual([["one", "kept"], ["two", "removed"], ["three", "added"]]);
+    expect(diff.sections.map((s) => [s.key, s.status])).toEqual([
+      ["one", "kept"],
+      ["two", "removed"],
+      ["three", "added"],
+    ]);
     expect(keysOf(diff, "added")).toEqual(["f"]);
     expect(keysOf(diff, "removed")).toEqual(["d", "e"]);
   });
@@ -159,7 +183,13 @@ describe("differences between two versions", () => {
         // The structure only: a calc left without its input is still a template to compare.
         const next = structuredClone(base);
         next.sections.forEach((s) => (s.items = s.items.filter((i) => !dropped.includes(i.key))));
-        for (let n = 0; n < extra; n++) next.sections[0].items.push({ kind: "text", key: `extra-${n}`, label: `Extra ${n}`, required: true });
+        for (let n = 0; n < extra; n++)
+          next.sections[0].items.push({
+            kind: "text",
+            key: `extra-${n}`,
+            label: `Extra ${n}`,
+            required: true,
+          });
         const diff = diffTemplates(base, next);
         expect(new Set(keysOf(diff, "removed"))).toEqual(new Set(dropped));
         expect(keysOf(diff, "added")).toEqual(Array.from({ length: extra }, (_, n) => `extra-${n}`));

@@ -49,9 +49,25 @@ describe("reading a template into the editor and writing it back", () => {
           key: "only",
           title: "Only",
           items: [
-            { kind: "choice", key: "c", label: "C", options: [{ key: "a", label: "A", needsNote: false }, { key: "b", label: "B" }] },
+            {
+              kind: "choice",
+              key: "c",
+              label: "C",
+              options: [
+                { key: "a", label: "A", needsNote: false },
+                { key: "b", label: "B" },
+              ],
+            },
             { kind: "measure", key: "m", label: "M", unit: "mm", accepts: ["mm"], required: false },
-            { kind: "readings", key: "r", label: "R", rows: [{ key: "x", label: "X" }], columns: [{ key: "y", label: "Y" }], unit: "in", rule: { max: 1, unit: "in", appliesTo: "each-cell" } },
+            {
+              kind: "readings",
+              key: "r",
+              label: "R",
+              rows: [{ key: "x", label: "X" }],
+              columns: [{ key: "y", label: "Y" }],
+              unit: "in",
+              rule: { max: 1, unit: "in", appliesTo: "each-cell" },
+            },
           ],
         },
       ],
@@ -68,7 +84,9 @@ describe("reading a template into the editor and writing it back", () => {
     const a = itemByKey(state, "a");
     const changed = run(state, { type: "item/update", id: a.id, patch: { hint: "Look twice." } });
     expect(sameAsTemplate(changed, template)).toBe(false);
-    expect(sameAsTemplate(run(changed, { type: "item/update", id: a.id, patch: { hint: "" } }), template)).toBe(true);
+    expect(
+      sameAsTemplate(run(changed, { type: "item/update", id: a.id, patch: { hint: "" } }), template),
+    ).toBe(true);
   });
 });
 
@@ -93,7 +111,11 @@ describe("adding and editing items", () => {
     const parsed = checkDraft(state);
     expect(parsed.ok).toBe(true);
     const item = parsed.ok ? (parsed.template.sections[s].items[i] as MeasureItem) : undefined;
-    expect(item).toMatchObject({ key: "coupling-bolt-torque", unit: "lbfFt", rule: { nominal: 40, tolerance: 2, unit: "lbfFt" } });
+    expect(item).toMatchObject({
+      key: "coupling-bolt-torque",
+      unit: "lbfFt",
+      rule: { nominal: 40, tolerance: 2, unit: "lbfFt" },
+    });
     // The torque unit is written lbf·ft beside a number (format.ts).
     expect(describeRule(item!.rule!)).toBe("40 ± 2 lbf·ft");
   });
@@ -103,12 +125,18 @@ describe("adding and editing items", () => {
     const last = state.sections.at(-1)!;
     state = run(state, { type: "item/add", sectionId: last.id, kind: "check" });
     const id = state.lastAdded!;
-    state = run(state, { type: "item/update", id, patch: { key: "time-afloat" } }, { type: "item/update", id, patch: { label: "Something else" } });
+    state = run(
+      state,
+      { type: "item/update", id, patch: { key: "time-afloat" } },
+      { type: "item/update", id, patch: { label: "Something else" } },
+    );
     expect(allItems(state).find((i) => i.id === id)!.key).toBe("time-afloat");
     const s = state.sections.length - 1;
     const at = state.sections[s].items.length - 1;
     // The first in reading order keeps the key; the later one is told where it is taken.
-    expect(problems(state).get(itemPath(s, at, "key"))).toEqual(['item key "time-afloat" is already used at sections[2].items[0]']);
+    expect(problems(state).get(itemPath(s, at, "key"))).toEqual([
+      'item key "time-afloat" is already used at sections[2].items[0]',
+    ]);
   });
 
   test("a label whose key is taken gets a numbered key instead", () => {
@@ -123,7 +151,9 @@ describe("adding and editing items", () => {
     let state = fromTemplate(starter("engine-alignment"));
     const time = itemByKey(state, "time-afloat");
     state = run(state, { type: "item/rule", id: time.id, patch: { min: "48", max: "24" } });
-    expect(problems(state).get(itemPath(2, 0, "rule", "min"))).toEqual(["the minimum (48) is above the maximum (24)"]);
+    expect(problems(state).get(itemPath(2, 0, "rule", "min"))).toEqual([
+      "the minimum (48) is above the maximum (24)",
+    ]);
   });
 
   test("a limit that is not a number is refused at its field; a decimal comma is read as a point", () => {
@@ -142,12 +172,28 @@ describe("adding and editing items", () => {
     const gaps = itemByKey(state, "face-gaps");
     expect(gaps.accepts).toEqual(["in", "thou", "mm"]);
     state = run(state, { type: "item/unit", id: gaps.id, unit: "mm" });
-    expect(itemByKey(state, "face-gaps")).toMatchObject({ unit: "mm", accepts: ["mm", "in", "thou"], rule: { unit: "in" } });
+    expect(itemByKey(state, "face-gaps")).toMatchObject({
+      unit: "mm",
+      accepts: ["mm", "in", "thou"],
+      rule: { unit: "in" },
+    });
     state = run(state, { type: "item/unit", id: gaps.id, unit: "psi" });
-    expect(itemByKey(state, "face-gaps")).toMatchObject({ unit: "psi", accepts: null, rule: { unit: "psi" } });
-    state = run(state, { type: "item/accept", id: gaps.id, unit: "kPa", accepted: true }, { type: "item/accept", id: gaps.id, unit: "bar", accepted: true });
+    expect(itemByKey(state, "face-gaps")).toMatchObject({
+      unit: "psi",
+      accepts: null,
+      rule: { unit: "psi" },
+    });
+    state = run(
+      state,
+      { type: "item/accept", id: gaps.id, unit: "kPa", accepted: true },
+      { type: "item/accept", id: gaps.id, unit: "bar", accepted: true },
+    );
     expect(itemByKey(state, "face-gaps").accepts).toEqual(["psi", "kPa", "bar"]);
-    state = run(state, { type: "item/accept", id: gaps.id, unit: "kPa", accepted: false }, { type: "item/accept", id: gaps.id, unit: "bar", accepted: false });
+    state = run(
+      state,
+      { type: "item/accept", id: gaps.id, unit: "kPa", accepted: false },
+      { type: "item/accept", id: gaps.id, unit: "bar", accepted: false },
+    );
     expect(itemByKey(state, "face-gaps").accepts).toBeNull();
   });
 
@@ -170,7 +216,14 @@ describe("adding and editing items", () => {
       { type: "line/remove", itemId: id, list: "columns", lineId: c3.id },
       { type: "line/step", itemId: id, list: "columns", lineId: c2.id, by: -1 },
     );
-    expect(allItems(state).find((i) => i.id === id)!.columns.map((c) => [c.key, c.label])).toEqual([["90", "90°"], ["0", "0°"]]);
+    expect(
+      allItems(state)
+        .find((i) => i.id === id)!
+        .columns.map((c) => [c.key, c.label]),
+    ).toEqual([
+      ["90", "90°"],
+      ["0", "0°"],
+    ]);
 
     state = run(state, { type: "item/add", sectionId: state.sections[0].id, kind: "choice" });
     const choice = state.lastAdded!;
@@ -181,13 +234,28 @@ describe("adding and editing items", () => {
     state = run(
       state,
       { type: "item/update", id: choice, patch: { label: "Hose clamp type" } },
-      { type: "line/update", itemId: choice, list: "options", lineId: o1.id, patch: { label: "Double, all stainless" } },
-      { type: "line/update", itemId: choice, list: "options", lineId: o2.id, patch: { label: "Single", needsNote: true } },
+      {
+        type: "line/update",
+        itemId: choice,
+        list: "options",
+        lineId: o1.id,
+        patch: { label: "Double, all stainless" },
+      },
+      {
+        type: "line/update",
+        itemId: choice,
+        list: "options",
+        lineId: o2.id,
+        patch: { label: "Single", needsNote: true },
+      },
     );
     const parsed = checkDraft(state);
     expect(parsed.ok).toBe(true);
     expect(parsed.ok && parsed.template.sections[0].items[at]).toMatchObject({
-      options: [{ key: "double-all-stainless", label: "Double, all stainless" }, { key: "single", label: "Single", needsNote: true }],
+      options: [
+        { key: "double-all-stainless", label: "Double, all stainless" },
+        { key: "single", label: "Single", needsNote: true },
+      ],
     });
   });
 });
@@ -196,7 +264,8 @@ describe("calculations and their inputs", () => {
   test("the inputs offered are the template's items of the right kind and dimension", () => {
     const state = fromTemplate(starter("engine-alignment"));
     const angularity = itemByKey(state, "face-angularity");
-    const keys = (input: string) => itemsThatFit(state, angularity.id, "couplingFace", input).map((i) => i.key);
+    const keys = (input: string) =>
+      itemsThatFit(state, angularity.id, "couplingFace", input).map((i) => i.key);
     // Length measures only: not the hours afloat, not the adjuster's threads per inch.
     expect(keys("diameter")).toEqual(["coupling-diameter", "front-mount-distance", "rear-mount-distance"]);
     expect(keys("gaps")).toEqual(["face-gaps", "rim-readings", "recheck-gaps"]);
@@ -208,7 +277,9 @@ describe("calculations and their inputs", () => {
     state = run(state, { type: "item/remove", id: itemByKey(state, "coupling-diameter").id });
     const p = problems(state);
     // face-angularity moved up one place with the diameter gone: sections[2].items[3].
-    expect(p.get(itemPath(2, 3, "inputs", "diameter", "item"))).toEqual(['no item "coupling-diameter" in this template']);
+    expect(p.get(itemPath(2, 3, "inputs", "diameter", "item"))).toEqual([
+      'no item "coupling-diameter" in this template',
+    ]);
   });
 
   test("a calc bound to an item of the wrong unit is refused at the binding", () => {
@@ -221,9 +292,19 @@ describe("calculations and their inputs", () => {
 
   test("renaming an item's key carries the calc bindings with it", () => {
     let state = fromTemplate(starter("engine-alignment"));
-    state = run(state, { type: "item/update", id: itemByKey(state, "coupling-diameter").id, patch: { key: "flange-diameter" } });
-    expect(itemByKey(state, "face-angularity").inputs.diameter).toEqual({ from: "item", item: "flange-diameter" });
-    expect(itemByKey(state, "mount-moves").inputs.diameter).toEqual({ from: "item", item: "flange-diameter" });
+    state = run(state, {
+      type: "item/update",
+      id: itemByKey(state, "coupling-diameter").id,
+      patch: { key: "flange-diameter" },
+    });
+    expect(itemByKey(state, "face-angularity").inputs.diameter).toEqual({
+      from: "item",
+      item: "flange-diameter",
+    });
+    expect(itemByKey(state, "mount-moves").inputs.diameter).toEqual({
+      from: "item",
+      item: "flange-diameter",
+    });
     expect(checkDraft(state).ok).toBe(true);
   });
 
@@ -238,14 +319,38 @@ describe("calculations and their inputs", () => {
     ]);
     state = run(
       state,
-      { type: "calc/bind", id: angularity.id, input: "frontMount", binding: { from: "item", item: "front-mount-distance" } },
-      { type: "calc/bind", id: angularity.id, input: "rearMount", binding: { from: "item", item: "rear-mount-distance" } },
-      { type: "calc/bind", id: angularity.id, input: "shimStock", binding: { from: "value", text: "0.002, 0.005 0.010", as: "numbers" } },
+      {
+        type: "calc/bind",
+        id: angularity.id,
+        input: "frontMount",
+        binding: { from: "item", item: "front-mount-distance" },
+      },
+      {
+        type: "calc/bind",
+        id: angularity.id,
+        input: "rearMount",
+        binding: { from: "item", item: "rear-mount-distance" },
+      },
+      {
+        type: "calc/bind",
+        id: angularity.id,
+        input: "shimStock",
+        binding: { from: "value", text: "0.002, 0.005 0.010", as: "numbers" },
+      },
     );
     const parsed = checkDraft(state);
-    expect(parsed.ok && (parsed.template.sections[2].items[4] as any).inputs.shimStock).toEqual({ value: [0.002, 0.005, 0.01] });
-    state = run(state, { type: "calc/bind", id: angularity.id, input: "shimStock", binding: { from: "value", text: "thin ones", as: "numbers" } });
-    expect(problems(state).get(itemPath(2, 4, "inputs", "shimStock", "value"))).toEqual(["expected a list of numbers"]);
+    expect(parsed.ok && (parsed.template.sections[2].items[4] as any).inputs.shimStock).toEqual({
+      value: [0.002, 0.005, 0.01],
+    });
+    state = run(state, {
+      type: "calc/bind",
+      id: angularity.id,
+      input: "shimStock",
+      binding: { from: "value", text: "thin ones", as: "numbers" },
+    });
+    expect(problems(state).get(itemPath(2, 4, "inputs", "shimStock", "value"))).toEqual([
+      "expected a list of numbers",
+    ]);
     state = run(state, { type: "calc/bind", id: angularity.id, input: "shimStock", binding: null });
     expect(checkDraft(state).ok).toBe(true);
   });
@@ -292,7 +397,12 @@ describe("moving items and sections", () => {
     state = run(state, { type: "item/add", sectionId: id, kind: "initials" });
     state = run(state, { type: "item/update", id: state.lastAdded!, patch: { label: "Handed over" } });
     expect(checkDraft(state).ok).toBe(true);
-    state = run(state, { type: "section/step", id, by: -1 }, { type: "section/step", id, by: -1 }, { type: "section/step", id, by: -1 });
+    state = run(
+      state,
+      { type: "section/step", id, by: -1 },
+      { type: "section/step", id, by: -1 },
+      { type: "section/step", id, by: -1 },
+    );
     expect(state.sections.map((s) => s.key)).toEqual(["paperwork", "one", "two"]);
     state = run(state, { type: "section/update", id: state.sections[1].id, patch: { title: "" } });
     expect(problems(state).get(sectionPath(1, "title"))).toEqual(["cannot be empty"]);

@@ -1,23 +1,59 @@
 import "fake-indexeddb/auto";
 import { beforeEach, describe, expect, it } from "vitest";
 import { forgetLocalDb, localDb } from "~/lib/offline/db.client";
-import { applySyncAnswer, outboxInOrder, readChecklist, recordEntry, saveBundle } from "~/lib/offline/store.client";
+import {
+  applySyncAnswer,
+  outboxInOrder,
+  readChecklist,
+  recordEntry,
+  saveBundle,
+} from "~/lib/offline/store.client";
 import { syncOnce } from "~/lib/offline/sync.client";
 import type { OfflineBundle } from "~/lib/sync/bundle";
 import type { Template } from "~/lib/templates";
 
 const CHECKLIST = "7d0e7c1e-0000-4000-8000-000000000001";
 const template: Template = {
-  key: "demo", version: 1, title: "Demo", purpose: "Unit tests.",
-  sections: [{ key: "s", title: "S", items: [
-    { kind: "text", key: "note", label: "Note", required: true },
-    { kind: "check", key: "seal", label: "Seal", required: true },
-  ] }],
+  key: "demo",
+  version: 1,
+  title: "Demo",
+  purpose: "Unit tests.",
+  sections: [
+    {
+      key: "s",
+      title: "S",
+      items: [
+        { kind: "text", key: "note", label: "Note", required: true },
+        { kind: "check", key: "seal", label: "Seal", required: true },
+      ],
+    },
+  ],
 };
 const bundle = (over: Partial<OfflineBundle> = {}): OfflineBundle => ({
   user: { id: 1, name: "Tess Tech", email: "t@test.example", role: "technician" },
-  jobs: [{ id: 1, vesselName: "Test hull", hin: null, engineModel: "E", status: "underway", dueDate: null, leadName: "L" }],
-  checklists: [{ id: CHECKLIST, jobId: 1, key: "demo", title: "Demo", version: 1, state: "in-progress", canFill: true, comments: [] }],
+  jobs: [
+    {
+      id: 1,
+      vesselName: "Test hull",
+      hin: null,
+      engineModel: "E",
+      status: "underway",
+      dueDate: null,
+      leadName: "L",
+    },
+  ],
+  checklists: [
+    {
+      id: CHECKLIST,
+      jobId: 1,
+      key: "demo",
+      title: "Demo",
+      version: 1,
+      state: "in-progress",
+      canFill: true,
+      comments: [],
+    },
+  ],
   templates: [{ key: "demo", version: 1, template }],
   responses: [],
   conflicts: [],
@@ -38,15 +74,28 @@ describe("the device's store and outbox", () => {
     forgetLocalDb(); // the tab died: a new page opens the database again
     const outbox = await outboxInOrder();
     expect(outbox).toHaveLength(1);
-    expect(outbox[0]).toMatchObject({ checklistId: CHECKLIST, itemKey: "note", value: { text: "first" }, baseRev: 0, seq: 1 });
-    expect((await readChecklist(CHECKLIST))!.responses.note).toMatchObject({ value: { text: "first" }, pending: true });
+    expect(outbox[0]).toMatchObject({
+      checklistId: CHECKLIST,
+      itemKey: "note",
+      value: { text: "first" },
+      baseRev: 0,
+      seq: 1,
+    });
+    expect((await readChecklist(CHECKLIST))!.responses.note).toMatchObject({
+      value: { text: "first" },
+      pending: true,
+    });
   });
 
   it("numbers operations in the order they were made", async () => {
     await recordEntry(CHECKLIST, "note", { text: "a" }, "T");
     await recordEntry(CHECKLIST, "seal", { result: "pass" }, "T");
     await recordEntry(CHECKLIST, "note", { text: "b" }, "T");
-    expect((await outboxInOrder()).map((o) => [o.itemKey, o.seq])).toEqual([["note", 1], ["seal", 2], ["note", 3]]);
+    expect((await outboxInOrder()).map((o) => [o.itemKey, o.seq])).toEqual([
+      ["note", 1],
+      ["seal", 2],
+      ["note", 3],
+    ]);
   });
 
   it("refuses entries on a locked checklist", async () => {
@@ -58,34 +107,82 @@ describe("the device's store and outbox", () => {
   it("removes an operation only when its result came back, and moves later entries on the same item to the new revision", async () => {
     const first = await recordEntry(CHECKLIST, "note", { text: "a" }, "T");
     const second = await recordEntry(CHECKLIST, "note", { text: "b" }, "T");
-    await applySyncAnswer([first], { results: [{ opId: first.opId, status: "applied", rev: 1 }], changes: [], cursor: "1" }, "T");
+    await applySyncAnswer(
+      [first],
+      { results: [{ opId: first.opId, status: "applied", rev: 1 }], changes: [], cursor: "1" },
+      "T",
+    );
     const outbox = await outboxInOrder();
     expect(outbox.map((o) => o.opId)).toEqual([second.opId]);
     expect(outbox[0]!.baseRev).toBe(1);
-    expect((await readChecklist(CHECKLIST))!.responses.note).toMatchObject({ value: { text: "b" }, serverValue: { text: "a" }, rev: 1, pending: true });
+    expect((await readChecklist(CHECKLIST))!.responses.note).toMatchObject({
+      value: { text: "b" },
+      serverValue: { text: "a" },
+      rev: 1,
+      pending: true,
+    });
   });
 
   it("keeps a conflict with both values and shows the server's", async () => {
     const op = await recordEntry(CHECKLIST, "seal", { result: "fail", note: "weeps" }, "T");
-    await applySyncAnswer([op], { results: [{ opId: op.opId, status: "conflict", rev: 3, serverValue: { result: "pass" }, conflictId: 9 }], changes: [], cursor: "4" }, "T");
+    await applySyncAnswer(
+      [op],
+      {
+        results: [
+          { opId: op.opId, status: "conflict", rev: 3, serverValue: { result: "pass" }, conflictId: 9 },
+        ],
+        changes: [],
+        cursor: "4",
+      },
+      "T",
+    );
     const local = (await readChecklist(CHECKLIST))!;
     expect(local.responses.seal).toMatchObject({ value: { result: "pass" }, rev: 3, pending: false });
-    expect(local.conflicts).toEqual([expect.objectContaining({ id: 9, clientValue: { result: "fail", note: "weeps" }, serverValue: { result: "pass" } })]);
+    expect(local.conflicts).toEqual([
+      expect.objectContaining({
+        id: 9,
+        clientValue: { result: "fail", note: "weeps" },
+        serverValue: { result: "pass" },
+      }),
+    ]);
     expect(await outboxInOrder()).toEqual([]);
   });
 
   it("takes in others' changes but never over an entry still waiting", async () => {
     await recordEntry(CHECKLIST, "note", { text: "mine" }, "T");
-    await applySyncAnswer([], {
-      results: [],
-      changes: [
-        { checklistId: CHECKLIST, itemKey: "note", value: { text: "theirs" }, rev: 2, by: "Other", at: new Date().toISOString() },
-        { checklistId: CHECKLIST, itemKey: "seal", value: { result: "pass" }, rev: 1, by: "Other", at: new Date().toISOString() },
-      ],
-      cursor: "7",
-    }, "T");
+    await applySyncAnswer(
+      [],
+      {
+        results: [],
+        changes: [
+          {
+            checklistId: CHECKLIST,
+            itemKey: "note",
+            value: { text: "theirs" },
+            rev: 2,
+            by: "Other",
+            at: new Date().toISOString(),
+          },
+          {
+            checklistId: CHECKLIST,
+            itemKey: "seal",
+            value: { result: "pass" },
+            rev: 1,
+            by: "Other",
+            at: new Date().toISOString(),
+          },
+        ],
+        cursor: "7",
+      },
+      "T",
+    );
     const local = (await readChecklist(CHECKLIST))!;
-    expect(local.responses.note).toMatchObject({ value: { text: "mine" }, serverValue: { text: "theirs" }, rev: 2, pending: true });
+    expect(local.responses.note).toMatchObject({
+      value: { text: "mine" },
+      serverValue: { text: "theirs" },
+      rev: 2,
+      pending: true,
+    });
     expect(local.responses.seal).toMatchObject({ value: { result: "pass" }, pending: false });
   });
 });
@@ -100,11 +197,21 @@ describe("syncOnce", () => {
     const fake = (async (_url: string, init: RequestInit) => {
       const body = JSON.parse(String(init.body));
       sent.push(body.ops.map((o: any) => ({ itemKey: o.itemKey, baseRev: o.baseRev })));
-      const results = body.ops.map((o: any) => ({ opId: o.opId, status: "applied", rev: (revs[o.itemKey] = (revs[o.itemKey] ?? 0) + 1) }));
+      const results = body.ops.map((o: any) => ({
+        opId: o.opId,
+        status: "applied",
+        rev: (revs[o.itemKey] = (revs[o.itemKey] ?? 0) + 1),
+      }));
       return Response.json({ results, changes: [], cursor: String(sent.length) });
     }) as typeof fetch;
     expect(await syncOnce(fake)).toEqual({ ok: true, pushed: 3 });
-    expect(sent).toEqual([[{ itemKey: "note", baseRev: 0 }, { itemKey: "seal", baseRev: 0 }], [{ itemKey: "note", baseRev: 1 }]]);
+    expect(sent).toEqual([
+      [
+        { itemKey: "note", baseRev: 0 },
+        { itemKey: "seal", baseRev: 0 },
+      ],
+      [{ itemKey: "note", baseRev: 1 }],
+    ]);
     expect(await outboxInOrder()).toEqual([]);
   });
 
@@ -120,7 +227,11 @@ describe("syncOnce", () => {
     let seen: string[] = [];
     const ok = (async (_u: string, init: RequestInit) => {
       seen = JSON.parse(String(init.body)).ops.map((o: any) => o.opId);
-      return Response.json({ results: [{ opId: op.opId, status: "applied", rev: 1 }], changes: [], cursor: "1" });
+      return Response.json({
+        results: [{ opId: op.opId, status: "applied", rev: 1 }],
+        changes: [],
+        cursor: "1",
+      });
     }) as typeof fetch;
     expect(await syncOnce(ok)).toEqual({ ok: true, pushed: 1 });
     expect(seen).toEqual([op.opId]);
@@ -128,7 +239,8 @@ describe("syncOnce", () => {
 
   it("stops and keeps the outbox when the session has ended", async () => {
     await recordEntry(CHECKLIST, "note", { text: "a" }, "T");
-    const signedOut = (async () => Response.json({ error: "Sign in first." }, { status: 401 })) as typeof fetch;
+    const signedOut = (async () =>
+      Response.json({ error: "Sign in first." }, { status: 401 })) as typeof fetch;
     expect(await syncOnce(signedOut)).toMatchObject({ ok: false, reason: "signed-out" });
     expect(await outboxInOrder()).toHaveLength(1);
   });

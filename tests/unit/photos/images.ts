@@ -18,7 +18,11 @@ function chunk(type: string, data: Buffer): Buffer {
 }
 
 /** An 8-bit truecolour PNG, each pixel from `colour(x, y)`. */
-export function pngImage(width: number, height: number, colour: (x: number, y: number) => [number, number, number]): Buffer {
+export function pngImage(
+  width: number,
+  height: number,
+  colour: (x: number, y: number) => [number, number, number],
+): Buffer {
   const header = Buffer.alloc(13);
   header.writeUInt32BE(width, 0);
   header.writeUInt32BE(height, 4);
@@ -30,7 +34,12 @@ export function pngImage(width: number, height: number, colour: (x: number, y: n
     const start = y * (1 + width * 3); // each scanline begins with its filter type, 0 = none
     for (let x = 0; x < width; x++) rows.set(colour(x, y), start + 1 + x * 3);
   }
-  return Buffer.concat([SIGNATURE, chunk("IHDR", header), chunk("IDAT", deflateSync(rows)), chunk("IEND", Buffer.alloc(0))]);
+  return Buffer.concat([
+    SIGNATURE,
+    chunk("IHDR", header),
+    chunk("IDAT", deflateSync(rows)),
+    chunk("IEND", Buffer.alloc(0)),
+  ]);
 }
 
 /** A diagonal gradient, different for each `seed`, so two photos never share bytes. */

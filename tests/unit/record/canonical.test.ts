@@ -80,8 +80,10 @@ describe("canonical JSON follows RFC 8785 (JSON Canonicalization Scheme, June 20
     // 0.30000000000000004 (ECMA-262 Number::toString, which RFC 8785 section 3.2.2.3 adopts; from memory).
     expect(canonicalJson({ tir: 0.1 + 0.2 })).toBe('{"tir":0.30000000000000004}');
     expect(canonicalJson({ offset: -0 })).toBe('{"offset":0}');
-    expect(canonicalJson({ big: 1e21, justBelow: 1e20 })).toBe('{"big":1e+21,"justBelow":100000000000000000000}');
-    expect(canonicalJson({ gap: 0.0005, thou: 4.50 })).toBe('{"gap":0.0005,"thou":4.5}');
+    expect(canonicalJson({ big: 1e21, justBelow: 1e20 })).toBe(
+      '{"big":1e+21,"justBelow":100000000000000000000}',
+    );
+    expect(canonicalJson({ gap: 0.0005, thou: 4.5 })).toBe('{"gap":0.0005,"thou":4.5}');
   });
 
   test("non-ASCII text is written as UTF-8 characters, not escapes; a lone surrogate is refused", () => {

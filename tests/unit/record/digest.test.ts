@@ -23,7 +23,16 @@ const template: Template = {
     {
       key: "face",
       title: "Face",
-      items: [{ kind: "measure", key: "face-runout", label: "Face runout", required: true, unit: "in", rule: { max: 0.001, unit: "in" } }],
+      items: [
+        {
+          kind: "measure",
+          key: "face-runout",
+          label: "Face runout",
+          required: true,
+          unit: "in",
+          rule: { max: 0.001, unit: "in" },
+        },
+      ],
     },
   ],
 };
@@ -34,7 +43,14 @@ const small: RecordChecklist = {
   templateKey: "face-check",
   templateVersion: 2,
   template,
-  responses: { "face-runout": { value: { attempts: [first, second] }, rev: 2, by: "Niamh Forde", at: "2025-05-12T10:00:00Z" } },
+  responses: {
+    "face-runout": {
+      value: { attempts: [first, second] },
+      rev: 2,
+      by: "Niamh Forde",
+      at: "2025-05-12T10:00:00Z",
+    },
+  },
   // Deliberately out of order, as rows may come back from a query without ORDER BY.
   history: {
     "face-runout": [
@@ -42,7 +58,9 @@ const small: RecordChecklist = {
       { rev: 1, value: { attempts: [first] }, by: "Niamh Forde", at: "2025-05-12T09:00:00.000Z" },
     ],
   },
-  comments: [{ itemKey: "face-runout", by: "Róisín Keohane", at: "2025-05-12T11:00:00Z", text: "Re-faced: accepted." }],
+  comments: [
+    { itemKey: "face-runout", by: "Róisín Keohane", at: "2025-05-12T11:00:00Z", text: "Re-faced: accepted." },
+  ],
   photos: [{ itemKey: "face-runout", id: "0f7c1b6e-54a1-4d2b-9c3e-7a8b9c0d1e2f", sha256: "ab".repeat(32) }],
   submittedBy: "Niamh Forde",
   submittedAt: "2025-05-12T10:30:00Z",
@@ -73,7 +91,13 @@ describe("the digest of a known checklist", () => {
   });
 
   test("leaves out the stored digest and the signatures (they are made from it)", () => {
-    const signedOtherwise = { ...small, digest: "", countersignedBy: "someone else", countersignedAt: "2026-01-01T00:00:00Z", submittedBy: undefined };
+    const signedOtherwise = {
+      ...small,
+      digest: "",
+      countersignedBy: "someone else",
+      countersignedAt: "2026-01-01T00:00:00Z",
+      submittedBy: undefined,
+    };
     expect(checklistDigest(signedOtherwise)).toBe(checklistDigest(small));
   });
 });
@@ -82,7 +106,13 @@ describe("the digest of a known record", () => {
   const record: CommissioningRecord = {
     record: { id: "r-1", issuedAt: "2025-06-02T10:15:00Z" },
     yardName: "Kittiwake Slip",
-    vessel: { name: "Tern of Helvick", lengthValue: 34, lengthUnit: "ft", hullType: "semi-displacement", ownerName: "Declan Ó Briain" },
+    vessel: {
+      name: "Tern of Helvick",
+      lengthValue: 34,
+      lengthUnit: "ft",
+      hullType: "semi-displacement",
+      ownerName: "Declan Ó Briain",
+    },
     job: {
       id: 214,
       scope: "repower",
@@ -142,10 +172,22 @@ const shaftOf = (r: CommissioningRecord) => r.checklists[0];
 
 describe("changing anything that was countersigned changes the checklist's digest", () => {
   const edits: [string, Edit][] = [
-    ["a reading in the reported attempt", (c) => ((c.responses["runout-readings"].value as any).attempts[2].cells[2][2] = 2)],
-    ["an earlier straightening attempt", (c) => ((c.responses["runout-readings"].value as any).attempts[0].cells[2][2] = 0.0079)],
-    ["who took an attempt", (c) => ((c.responses["face-runout"].value as any).attempts[0].by = "Tadhg Mulcair")],
-    ["when an attempt was taken", (c) => ((c.responses["face-runout"].value as any).attempts[1].at = "2025-05-12T11:59:00.000Z")],
+    [
+      "a reading in the reported attempt",
+      (c) => ((c.responses["runout-readings"].value as any).attempts[2].cells[2][2] = 2),
+    ],
+    [
+      "an earlier straightening attempt",
+      (c) => ((c.responses["runout-readings"].value as any).attempts[0].cells[2][2] = 0.0079),
+    ],
+    [
+      "who took an attempt",
+      (c) => ((c.responses["face-runout"].value as any).attempts[0].by = "Tadhg Mulcair"),
+    ],
+    [
+      "when an attempt was taken",
+      (c) => ((c.responses["face-runout"].value as any).attempts[1].at = "2025-05-12T11:59:00.000Z"),
+    ],
     ["an attempt's unit", (c) => ((c.responses["rim-runout"].value as any).attempts[0].unit = "mm")],
     ["a corrective-action note", (c) => ((c.responses["rim-runout"].value as any).note += " ")],
     ["a check's result", (c) => ((c.responses["shaft-surface"].value as any).result = "na")],
@@ -158,8 +200,20 @@ describe("changing anything that was countersigned changes the checklist's diges
     ["a comment's text", (c) => (c.comments[0].text = c.comments[0].text.replace("half", "a"))],
     ["a comment's author", (c) => (c.comments[1].by = "Niamh Forde")],
     ["a comment moved to another item", (c) => (c.comments[1].itemKey = "seal-installed")],
-    ["a comment added", (c) => c.comments.push({ itemKey: "key-fit", by: "Róisín Keohane", at: "2025-05-13T09:00:00.000Z", text: "Fine." })],
-    ["a photo's digest", (c) => (c.photos[0].sha256 = c.photos[0].sha256.replace(/^./, (d) => (d === "0" ? "1" : "0")))],
+    [
+      "a comment added",
+      (c) =>
+        c.comments.push({
+          itemKey: "key-fit",
+          by: "Róisín Keohane",
+          at: "2025-05-13T09:00:00.000Z",
+          text: "Fine.",
+        }),
+    ],
+    [
+      "a photo's digest",
+      (c) => (c.photos[0].sha256 = c.photos[0].sha256.replace(/^./, (d) => (d === "0" ? "1" : "0"))),
+    ],
     ["a photo removed", (c) => c.photos.pop()],
     ["the template version", (c) => (c.templateVersion = 2)],
     ["the template key", (c) => (c.templateKey = "engine-alignment")],

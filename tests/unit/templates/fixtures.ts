@@ -1,14 +1,22 @@
 import { readdirSync, readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import type { Unit } from "~/lib/calc/units";
-import { loadTemplateFile, parseTemplate, type Item, type Template, type TemplateInput } from "~/lib/templates";
+import {
+  loadTemplateFile,
+  parseTemplate,
+  type Item,
+  type Template,
+  type TemplateInput,
+} from "~/lib/templates";
 
 /** Builders for the template tests: small templates, responses as the tablet stores them. */
 
 export const libraryDir = fileURLToPath(new URL("../../../checklists/", import.meta.url));
 
 export function libraryFiles(): string[] {
-  return readdirSync(libraryDir).filter((name) => name.endsWith(".json")).sort();
+  return readdirSync(libraryDir)
+    .filter((name) => name.endsWith(".json"))
+    .sort();
 }
 
 export function loadLibrary(): Template[] {

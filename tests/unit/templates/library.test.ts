@@ -52,7 +52,9 @@ describe("the starter library in checklists/", () => {
     const unsourced = library.flatMap((t) =>
       placedItems(t)
         .map(({ item }) => item)
-        .filter((item) => (item.kind === "measure" || item.kind === "readings") && item.rule && item.rule.min !== 0)
+        .filter(
+          (item) => (item.kind === "measure" || item.kind === "readings") && item.rule && item.rule.min !== 0,
+        )
         .filter((item) => !/common practice|ABYC|ISO|ASME|SAE|maker/i.test(item.reference ?? ""))
         .map((item) => `${t.key}/${item.key}`),
     );
@@ -63,7 +65,9 @@ describe("the starter library in checklists/", () => {
     const caution = (template: string, item: string) => findItem(byKey(template), item)?.caution ?? "";
     expect(caution("propeller-shaft-and-coupling", "straightening")).toMatch(/hot work/i);
     expect(caution("propeller-shaft-and-coupling", "straightening")).toMatch(/fire watch/i);
-    expect(caution("propeller-shaft-and-coupling", "runout-readings")).toMatch(/by hand only.*isolate the engine/i);
+    expect(caution("propeller-shaft-and-coupling", "runout-readings")).toMatch(
+      /by hand only.*isolate the engine/i,
+    );
     expect(caution("engine-alignment", "face-gaps")).toMatch(/isolate the engine/i);
     expect(caution("engine-alignment", "engine-set")).toMatch(/lift/i);
     expect(caution("exhaust", "co-alarm")).toMatch(/carbon monoxide/i);
@@ -81,8 +85,18 @@ describe("calc items and the calculation registry", () => {
   test("the library uses the calculations the jobs need", () => {
     expect(new Set(calcItems.map(({ item }) => item.calc))).toEqual(
       new Set([
-        "shaftRunout", "couplingFit", "keyForShaft", "propellerTaper", "couplingFace", "couplingRim",
-        "mountMoves", "exhaustInjection", "exhaustBackPressure", "wireSize", "seaTrialLoading", "propSlip",
+        "shaftRunout",
+        "couplingFit",
+        "keyForShaft",
+        "propellerTaper",
+        "couplingFace",
+        "couplingRim",
+        "mountMoves",
+        "exhaustInjection",
+        "exhaustBackPressure",
+        "wireSize",
+        "seaTrialLoading",
+        "propSlip",
       ]),
     );
   });
@@ -92,7 +106,9 @@ describe("calc items and the calculation registry", () => {
     (_, template, item) => {
       const definition = calculations[item.calc];
       expect(definition, `calculation ${item.calc}`).toBeDefined();
-      const required = Object.entries(definition.inputs).filter(([, spec]) => !spec.optional).map(([name]) => name);
+      const required = Object.entries(definition.inputs)
+        .filter(([, spec]) => !spec.optional)
+        .map(([name]) => name);
       for (const name of required) expect(Object.keys(item.inputs)).toContain(name);
       for (const [name, binding] of Object.entries(item.inputs)) {
         expect(Object.keys(definition.inputs)).toContain(name);
@@ -110,8 +126,17 @@ describe("calc items and the calculation registry", () => {
 const sound: Record<string, [number, Unit] | (number | null)[][] | string> = {
   "shaft-diameter": [1.25, "in"],
   "coupling-bore": [1.2504, "in"],
-  "seat-roundness": [[1.2502, 1.2501], [1.2502, 1.2502]],
-  "runout-readings": [[0, 0.0005, 0.001, 0.0005], [0, 0.001, 0.002, 0.001], [0, 0.001, 0.0025, 0.001], [0, 0.001, 0.002, 0.001], [0, 0.0005, 0.001, 0.0005]],
+  "seat-roundness": [
+    [1.2502, 1.2501],
+    [1.2502, 1.2502],
+  ],
+  "runout-readings": [
+    [0, 0.0005, 0.001, 0.0005],
+    [0, 0.001, 0.002, 0.001],
+    [0, 0.001, 0.0025, 0.001],
+    [0, 0.001, 0.002, 0.001],
+    [0, 0.0005, 0.001, 0.0005],
+  ],
   "coupling-diameter": [4, "in"],
   "face-gaps": [[0.004, 0.003, 0.0035, 0.0035]],
   "recheck-gaps": [[0.0042, 0.003, 0.0035, 0.0036]],
@@ -126,7 +151,10 @@ const sound: Record<string, [number, Unit] | (number | null)[][] | string> = {
   "panel-current": [10, "A"],
   "panel-run-length": [20, "ft"],
   "panel-conductor-installed": "10",
-  "tachometer-check": [[750, 760], [2400, 2430]],
+  "tachometer-check": [
+    [750, 760],
+    [2400, 2430],
+  ],
   "temperature-gauge-check": [[182, 178]],
   "rated-rpm-low": [3000, "rpm"],
   "rated-rpm-high": [3200, "rpm"],
@@ -154,14 +182,21 @@ function soundValue(item: Item): unknown {
     case "readings": {
       if (Array.isArray(given)) return grid(item.unit, given as number[][]);
       const value = item.rule ? insideRule(item.rule) : 1;
-      return grid(item.unit, item.rows.map(() => item.columns.map(() => value)));
+      return grid(
+        item.unit,
+        item.rows.map(() => item.columns.map(() => value)),
+      );
     }
     case "choice":
       return { option: typeof given === "string" ? given : item.options.find((o) => !o.needsNote)!.key };
     case "text":
       return { text: "Calm, two aboard, half tanks, clean bottom." };
     case "photo":
-      return { photos: Array.from({ length: item.minPhotos }, (_, i) => ({ id: `3b7e5c1a-9d2f-4e8b-a6c4-00000000000${i}` })) };
+      return {
+        photos: Array.from({ length: item.minPhotos }, (_, i) => ({
+          id: `3b7e5c1a-9d2f-4e8b-a6c4-00000000000${i}`,
+        })),
+      };
     case "initials":
       return signed;
     case "calc":
@@ -174,23 +209,34 @@ function soundResponses(template: Template): Record<string, unknown> {
 }
 
 describe("each template filled in for a sound installation", () => {
-  test.each(library.map((t) => [t.key, t] as const))("%s: every calc computes, nothing asks for attention, complete", (_, template) => {
-    const responses = soundResponses(template);
-    const result = progress(template, responses);
-    const notOk = Object.entries(result.verdicts).filter(([, v]) => v.status !== "ok").map(([key, v]) => `${key}: ${v.status} ${v.message}`);
-    expect(notOk).toEqual([]);
-    expect(result.complete).toBe(true);
-    for (const { item } of placedItems(template)) {
-      if (item.kind === "calc") expect(result.verdicts[item.key].outcome, item.key).toBeDefined();
-    }
-  });
+  test.each(library.map((t) => [t.key, t] as const))(
+    "%s: every calc computes, nothing asks for attention, complete",
+    (_, template) => {
+      const responses = soundResponses(template);
+      const result = progress(template, responses);
+      const notOk = Object.entries(result.verdicts)
+        .filter(([, v]) => v.status !== "ok")
+        .map(([key, v]) => `${key}: ${v.status} ${v.message}`);
+      expect(notOk).toEqual([]);
+      expect(result.complete).toBe(true);
+      for (const { item } of placedItems(template)) {
+        if (item.kind === "calc") expect(result.verdicts[item.key].outcome, item.key).toBeDefined();
+      }
+    },
+  );
 
   test("a shaft 0.008 in out at mid-length is caught by the runout calculation", () => {
     // Common practice: 0.003 in TIR is the usual limit and 0.008 in is far out.
     const template = byKey("propeller-shaft-and-coupling");
     const responses = {
       ...soundResponses(template),
-      "runout-readings": grid("in", [[0, 0.001, 0.001, 0.0005], [0, 0.003, 0.005, 0.003], [0, 0.004, 0.008, 0.004], [0, 0.003, 0.005, 0.002], [0, 0.001, 0.001, 0.0005]]),
+      "runout-readings": grid("in", [
+        [0, 0.001, 0.001, 0.0005],
+        [0, 0.003, 0.005, 0.003],
+        [0, 0.004, 0.008, 0.004],
+        [0, 0.003, 0.005, 0.002],
+        [0, 0.001, 0.001, 0.0005],
+      ]),
     };
     const v = evaluate(findItem(template, "runout-result")!, undefined, { template, responses });
     expect(v.status).toBe("out-of-range");

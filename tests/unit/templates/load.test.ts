@@ -25,10 +25,26 @@ function base(): any {
         title: "First",
         items: [
           { kind: "measure", key: "diameter", label: "Coupling diameter", unit: "in", accepts: ["in", "mm"] },
-          { kind: "readings", key: "gaps", label: "Face gaps", rows: [{ key: "gap", label: "Gap" }],
-            columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })), unit: "in", accepts: ["in", "thou", "mm"] },
-          { kind: "calc", key: "angularity", label: "Angularity", calc: "couplingFace",
-            inputs: { diameter: { item: "diameter" }, gaps: { item: "gaps" }, maxInPerInDiameter: { value: 0.001 } } },
+          {
+            kind: "readings",
+            key: "gaps",
+            label: "Face gaps",
+            rows: [{ key: "gap", label: "Gap" }],
+            columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })),
+            unit: "in",
+            accepts: ["in", "thou", "mm"],
+          },
+          {
+            kind: "calc",
+            key: "angularity",
+            label: "Angularity",
+            calc: "couplingFace",
+            inputs: {
+              diameter: { item: "diameter" },
+              gaps: { item: "gaps" },
+              maxInPerInDiameter: { value: 0.001 },
+            },
+          },
         ],
       },
       { key: "second", title: "Second", items: [filler("a"), filler("b")] },
@@ -38,9 +54,24 @@ function base(): any {
         items: [
           filler("c"),
           filler("d"),
-          { kind: "choice", key: "seal", label: "Seal", options: [{ key: "gland", label: "Gland" }, { key: "face", label: "Face seal" }] },
+          {
+            kind: "choice",
+            key: "seal",
+            label: "Seal",
+            options: [
+              { key: "gland", label: "Gland" },
+              { key: "face", label: "Face seal" },
+            ],
+          },
           { kind: "photo", key: "photo", label: "Photo" },
-          { kind: "measure", key: "runout", label: "Face runout", unit: "in", accepts: ["in", "thou", "mm"], rule: { min: 0, max: 0.001, unit: "in" } },
+          {
+            kind: "measure",
+            key: "runout",
+            label: "Face runout",
+            unit: "in",
+            accepts: ["in", "thou", "mm"],
+            rule: { min: 0, max: 0.001, unit: "in" },
+          },
         ],
       },
     ],
@@ -103,7 +134,11 @@ describe("structure problems carry the path of the bad field", () => {
   });
 
   test("versions are whole numbers from 1", () => {
-    for (const [version, message] of [[0, "must be 1 or more"], [1.5, "expected a whole number"], [-2, "must be 1 or more"]] as const) {
+    for (const [version, message] of [
+      [0, "must be 1 or more"],
+      [1.5, "expected a whole number"],
+      [-2, "must be 1 or more"],
+    ] as const) {
       const t = base();
       t.version = version;
       expect(problemsOf(t)).toEqual([`version: ${message}`]);
@@ -153,7 +188,9 @@ describe("cross-checks between fields", () => {
   test("the same item key twice in a template, even in different sections", () => {
     const t = base();
     t.sections[2].items[1].key = "a";
-    expect(problemsOf(t)).toEqual(['sections[2].items[1].key: item key "a" is already used at sections[1].items[0]']);
+    expect(problemsOf(t)).toEqual([
+      'sections[2].items[1].key: item key "a" is already used at sections[1].items[0]',
+    ]);
   });
 
   test("the same section key twice", () => {
@@ -165,15 +202,21 @@ describe("cross-checks between fields", () => {
   test("a minimum above the maximum", () => {
     const t = base();
     t.sections[2].items[4].rule = { min: 0.002, max: 0.001, unit: "in" };
-    expect(problemsOf(t)).toEqual(["sections[2].items[4].rule.min: the minimum (0.002) is above the maximum (0.001)"]);
+    expect(problemsOf(t)).toEqual([
+      "sections[2].items[4].rule.min: the minimum (0.002) is above the maximum (0.001)",
+    ]);
   });
 
   test("a rule with no limit, a nominal without tolerance, a tolerance without nominal", () => {
     const t = base();
     t.sections[2].items[4].rule = { unit: "in" };
-    expect(problemsOf(t)).toEqual(["sections[2].items[4].rule: a rule needs a min, a max, or a nominal with a tolerance"]);
+    expect(problemsOf(t)).toEqual([
+      "sections[2].items[4].rule: a rule needs a min, a max, or a nominal with a tolerance",
+    ]);
     t.sections[2].items[4].rule = { nominal: 1, unit: "in" };
-    expect(problemsOf(t)).toEqual(["sections[2].items[4].rule.tolerance: a nominal needs a tolerance (plus or minus)"]);
+    expect(problemsOf(t)).toEqual([
+      "sections[2].items[4].rule.tolerance: a nominal needs a tolerance (plus or minus)",
+    ]);
     t.sections[2].items[4].rule = { max: 1, tolerance: 0.1, unit: "in" };
     expect(problemsOf(t)).toEqual(["sections[2].items[4].rule.nominal: a tolerance needs a nominal"]);
   });
@@ -201,19 +244,25 @@ describe("cross-checks between fields", () => {
     const u = base();
     u.sections[0].items[1].columns = [{ key: "only", label: "Only" }];
     u.sections[0].items[1].rule = { max: 0.003, unit: "in", appliesTo: "row-spread" };
-    expect(problemsOf(u)).toEqual(["sections[0].items[1].rule.appliesTo: a row spread needs at least two columns"]);
+    expect(problemsOf(u)).toEqual([
+      "sections[0].items[1].rule.appliesTo: a row spread needs at least two columns",
+    ]);
   });
 
   test("repeated option keys", () => {
     const t = base();
     t.sections[2].items[2].options[1].key = "gland";
-    expect(problemsOf(t)).toEqual(['sections[2].items[2].options[1].key: "gland" is already used in options']);
+    expect(problemsOf(t)).toEqual([
+      'sections[2].items[2].options[1].key: "gland" is already used in options',
+    ]);
   });
 
   test("a calc bound to an item that does not exist", () => {
     const t = base();
     t.sections[0].items[2].inputs.diameter = { item: "flange-diameter" };
-    expect(problemsOf(t)).toEqual(['sections[0].items[2].inputs.diameter.item: no item "flange-diameter" in this template']);
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[2].inputs.diameter.item: no item "flange-diameter" in this template',
+    ]);
   });
 
   test("a calc bound to an item of the wrong kind", () => {
@@ -239,7 +288,9 @@ describe("cross-checks between fields", () => {
   test("an unknown calculation, an unknown input, a missing input, a constant of the wrong kind", () => {
     const t = base();
     t.sections[0].items[2].calc = "couplingSquareness";
-    expect(problemsOf(t)[0]).toMatch(/^sections\[0\]\.items\[2\]\.calc: no calculation named "couplingSquareness"; known: .*couplingFace/);
+    expect(problemsOf(t)[0]).toMatch(
+      /^sections\[0\]\.items\[2\]\.calc: no calculation named "couplingSquareness"; known: .*couplingFace/,
+    );
     const u = base();
     delete u.sections[0].items[2].inputs.gaps;
     u.sections[0].items[2].inputs.gapz = { item: "gaps" };
@@ -247,7 +298,9 @@ describe("cross-checks between fields", () => {
     expect(problemsOf(u)).toEqual([
       'sections[0].items[2].inputs: couplingFace needs the input "gaps" (Face gaps (top, bottom, port, starboard))',
       "sections[0].items[2].inputs.maxInPerInDiameter.value: expected a number (a measure item or a numeric constant)",
-      expect.stringMatching(/^sections\[0\]\.items\[2\]\.inputs\.gapz: couplingFace has no input "gapz"; it takes diameter, gaps/),
+      expect.stringMatching(
+        /^sections\[0\]\.items\[2\]\.inputs\.gapz: couplingFace has no input "gapz"; it takes diameter, gaps/,
+      ),
     ]);
   });
 });
@@ -258,14 +311,29 @@ describe("any input", () => {
   });
 
   test("a valid template with one field of one item replaced by anything is still answered", () => {
-    const fields = ["kind", "key", "unit", "accepts", "rule", "rows", "columns", "inputs", "options", "calc", "required", "minPhotos"];
+    const fields = [
+      "kind",
+      "key",
+      "unit",
+      "accepts",
+      "rule",
+      "rows",
+      "columns",
+      "inputs",
+      "options",
+      "calc",
+      "required",
+      "minPhotos",
+    ];
     fc.assert(
       fc.property(fc.nat(2), fc.nat(4), fc.constantFrom(...fields), fc.jsonValue(), (s, i, field, value) => {
         const t = base();
         const items = t.sections[s].items;
         items[i % items.length][field] = value;
         const parsed = parseTemplate(t);
-        return parsed.ok || parsed.problems.every((p) => p.path.startsWith("sections[") && p.message.length > 0);
+        return (
+          parsed.ok || parsed.problems.every((p) => p.path.startsWith("sections[") && p.message.length > 0)
+        );
       }),
       { numRuns: 500 },
     );
@@ -274,7 +342,10 @@ describe("any input", () => {
 
 describe("the documented format", () => {
   test("the example in docs/template-format.md is a valid template", () => {
-    const doc = readFileSync(fileURLToPath(new URL("../../../docs/template-format.md", import.meta.url)), "utf8");
+    const doc = readFileSync(
+      fileURLToPath(new URL("../../../docs/template-format.md", import.meta.url)),
+      "utf8",
+    );
     const example = /```json\n([\s\S]*?)```/.exec(doc)?.[1];
     expect(example).toBeDefined();
     const parsed = parseTemplateText(example!);
@@ -284,7 +355,9 @@ describe("the documented format", () => {
 
 describe("loading a library file", () => {
   test("a good file loads", () => {
-    expect(loadTemplateFile("checklists/small-template.v1.json", JSON.stringify(base())).key).toBe("small-template");
+    expect(loadTemplateFile("checklists/small-template.v1.json", JSON.stringify(base())).key).toBe(
+      "small-template",
+    );
   });
 
   test("a file named after another version is refused", () => {
@@ -304,7 +377,10 @@ describe("loading a library file", () => {
       error = e;
     }
     expect(error).toBeInstanceOf(TemplateFormatError);
-    expect((error as TemplateFormatError).problems.map((p) => p.path)).toEqual(["sections[2].items[0].label", "sections[2].items[4].rule.max"]);
+    expect((error as TemplateFormatError).problems.map((p) => p.path)).toEqual([
+      "sections[2].items[0].label",
+      "sections[2].items[4].rule.max",
+    ]);
     expect((error as Error).message).toBe(
       "small-template.v1.json: sections[2].items[0].label: cannot be empty; sections[2].items[4].rule.max: expected a number",
     );

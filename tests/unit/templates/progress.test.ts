@@ -13,10 +13,25 @@ const parsed = parseTemplate({
       title: "Coupling",
       items: [
         { kind: "measure", key: "diameter", label: "Diameter", unit: "in" },
-        { kind: "readings", key: "gaps", label: "Gaps", rows: [{ key: "gap", label: "Gap" }],
-          columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })), unit: "in" },
-        { kind: "calc", key: "angularity", label: "Angularity", calc: "couplingFace",
-          inputs: { diameter: { item: "diameter" }, gaps: { item: "gaps" }, maxInPerInDiameter: { value: 0.001 } } },
+        {
+          kind: "readings",
+          key: "gaps",
+          label: "Gaps",
+          rows: [{ key: "gap", label: "Gap" }],
+          columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })),
+          unit: "in",
+        },
+        {
+          kind: "calc",
+          key: "angularity",
+          label: "Angularity",
+          calc: "couplingFace",
+          inputs: {
+            diameter: { item: "diameter" },
+            gaps: { item: "gaps" },
+            maxInPerInDiameter: { value: 0.001 },
+          },
+        },
         { kind: "photo", key: "photo", label: "Photo", required: false },
       ],
     },
@@ -46,7 +61,10 @@ describe("progress", () => {
   });
 
   test("a calc item is done once the items it reads are in", () => {
-    const p = progress(template, { diameter: measured([4, "in"]), gaps: grid("in", [[0.004, 0.003, 0.0035, 0.0035]]) });
+    const p = progress(template, {
+      diameter: measured([4, "in"]),
+      gaps: grid("in", [[0.004, 0.003, 0.0035, 0.0035]]),
+    });
     expect(p.sections[0]).toMatchObject({ required: 3, done: 3, left: [] });
     expect(p.overall.done).toBe(3);
   });

@@ -3,11 +3,46 @@ import { describeRule, evaluate, type MeasureItem, type ReadingsItem } from "~/l
 import { grid, itemOf, measured, signed, templateOf } from "./fixtures";
 
 const rules = templateOf(
-  { kind: "measure", key: "face-runout", label: "Face runout", unit: "in", accepts: ["in", "thou", "mm"], rule: { min: 0, max: 0.001, unit: "in" } },
-  { kind: "measure", key: "gap-thou", label: "Gap", unit: "thou", accepts: ["thou", "in", "mm"], rule: { max: 3, unit: "thou" } },
-  { kind: "measure", key: "bore", label: "Bore", unit: "in", accepts: ["in", "mm"], rule: { nominal: 1.25, tolerance: 0.0005, unit: "in" } },
-  { kind: "measure", key: "coolant", label: "Coolant", unit: "degF", accepts: ["degF", "degC"], rule: { min: 160, max: 200, unit: "degF" } },
-  { kind: "measure", key: "oil", label: "Oil pressure", unit: "psi", accepts: ["psi", "kPa"], rule: { min: 10, unit: "psi" } },
+  {
+    kind: "measure",
+    key: "face-runout",
+    label: "Face runout",
+    unit: "in",
+    accepts: ["in", "thou", "mm"],
+    rule: { min: 0, max: 0.001, unit: "in" },
+  },
+  {
+    kind: "measure",
+    key: "gap-thou",
+    label: "Gap",
+    unit: "thou",
+    accepts: ["thou", "in", "mm"],
+    rule: { max: 3, unit: "thou" },
+  },
+  {
+    kind: "measure",
+    key: "bore",
+    label: "Bore",
+    unit: "in",
+    accepts: ["in", "mm"],
+    rule: { nominal: 1.25, tolerance: 0.0005, unit: "in" },
+  },
+  {
+    kind: "measure",
+    key: "coolant",
+    label: "Coolant",
+    unit: "degF",
+    accepts: ["degF", "degC"],
+    rule: { min: 160, max: 200, unit: "degF" },
+  },
+  {
+    kind: "measure",
+    key: "oil",
+    label: "Oil pressure",
+    unit: "psi",
+    accepts: ["psi", "kPa"],
+    rule: { min: 10, unit: "psi" },
+  },
   { kind: "measure", key: "length", label: "Length", unit: "in" },
 );
 const measure = (key: string) => itemOf(rules, key) as MeasureItem;
@@ -25,7 +60,9 @@ describe("measure: verdicts at, below and above each limit", () => {
 
   test("a minimum: at it is within, below it is out of range", () => {
     expect(evaluate(measure("face-runout"), measured([0, "in"])).status).toBe("ok");
-    expect(evaluate(measure("face-runout"), measured([-0.0001, "in"])).message).toMatch(/^-0.0001 in is below the lower limit of 0 in\./);
+    expect(evaluate(measure("face-runout"), measured([-0.0001, "in"])).message).toMatch(
+      /^-0.0001 in is below the lower limit of 0 in\./,
+    );
     expect(evaluate(measure("coolant"), measured([160, "degF"])).status).toBe("ok");
     expect(evaluate(measure("coolant"), measured([159, "degF"])).status).toBe("out-of-range");
     expect(evaluate(measure("coolant"), measured([200, "degF"])).status).toBe("ok");
@@ -34,14 +71,22 @@ describe("measure: verdicts at, below and above each limit", () => {
 
   test("nominal ± tolerance: both ends are within, beyond either is out", () => {
     // 1.25 ± 0.0005 in → 1.2495 to 1.2505 in.
-    for (const v of [1.2495, 1.25, 1.2505]) expect(evaluate(measure("bore"), measured([v, "in"])).status).toBe("ok");
-    expect(evaluate(measure("bore"), measured([1.2494, "in"])).message).toMatch(/below the lower limit of 1.2495 in/);
-    expect(evaluate(measure("bore"), measured([1.2506, "in"])).message).toMatch(/above the upper limit of 1.2505 in/);
+    for (const v of [1.2495, 1.25, 1.2505])
+      expect(evaluate(measure("bore"), measured([v, "in"])).status).toBe("ok");
+    expect(evaluate(measure("bore"), measured([1.2494, "in"])).message).toMatch(
+      /below the lower limit of 1.2495 in/,
+    );
+    expect(evaluate(measure("bore"), measured([1.2506, "in"])).message).toMatch(
+      /above the upper limit of 1.2505 in/,
+    );
     expect(describeRule(measure("bore").rule!)).toBe("1.25 ± 0.0005 in");
   });
 
   test("no rule: any number is recorded", () => {
-    expect(evaluate(measure("length"), measured([41.5, "in"]))).toMatchObject({ status: "ok", message: "41.5 in recorded." });
+    expect(evaluate(measure("length"), measured([41.5, "in"]))).toMatchObject({
+      status: "ok",
+      message: "41.5 in recorded.",
+    });
   });
 });
 
@@ -80,7 +125,9 @@ describe("measure: units", () => {
   test("a unit the item does not take is refused, not converted", () => {
     const v = evaluate(measure("bore"), measured([1.25, "thou"]));
     expect(v.status).toBe("invalid");
-    expect(v.message).toBe("This entry does not fit the item (attempts[0].unit): this item takes in or mm, not thou.");
+    expect(v.message).toBe(
+      "This entry does not fit the item (attempts[0].unit): this item takes in or mm, not thou.",
+    );
   });
 });
 
@@ -89,16 +136,23 @@ describe("measure: attempts and notes", () => {
     const straightened = measured([0.004, "in"], [0.002, "in"], [0.0008, "in"]);
     expect(evaluate(measure("face-runout"), straightened)).toMatchObject({ status: "ok" });
     expect(evaluate(measure("face-runout"), straightened).message).toMatch(/\(attempt 3\)/);
-    expect(evaluate(measure("face-runout"), measured([0.0008, "in"], [0.004, "in"])).status).toBe("out-of-range");
+    expect(evaluate(measure("face-runout"), measured([0.0008, "in"], [0.004, "in"])).status).toBe(
+      "out-of-range",
+    );
   });
 
   test("out of range with a corrective-action note is done, and still shows the finding", () => {
-    const v = evaluate(measure("face-runout"), { ...measured([0.0015, "in"]), note: "Faced again; limit agreed with the lead." });
+    const v = evaluate(measure("face-runout"), {
+      ...measured([0.0015, "in"]),
+      note: "Faced again; limit agreed with the lead.",
+    });
     expect(v).toMatchObject({ status: "noted", done: true, finding: "out-of-range" });
   });
 
   test("a blank note is no note", () => {
-    expect(evaluate(measure("face-runout"), { ...measured([0.0015, "in"]), note: "   " }).status).toBe("out-of-range");
+    expect(evaluate(measure("face-runout"), { ...measured([0.0015, "in"]), note: "   " }).status).toBe(
+      "out-of-range",
+    );
   });
 });
 
@@ -107,8 +161,23 @@ describe("missing values", () => {
     const t = templateOf(
       { kind: "check", key: "c", label: "C" },
       { kind: "measure", key: "m", label: "M", unit: "in" },
-      { kind: "readings", key: "r", label: "R", rows: [{ key: "a", label: "A" }], columns: [{ key: "x", label: "X" }], unit: "in" },
-      { kind: "choice", key: "ch", label: "Ch", options: [{ key: "a", label: "A" }, { key: "b", label: "B" }] },
+      {
+        kind: "readings",
+        key: "r",
+        label: "R",
+        rows: [{ key: "a", label: "A" }],
+        columns: [{ key: "x", label: "X" }],
+        unit: "in",
+      },
+      {
+        kind: "choice",
+        key: "ch",
+        label: "Ch",
+        options: [
+          { key: "a", label: "A" },
+          { key: "b", label: "B" },
+        ],
+      },
       { kind: "text", key: "t", label: "T" },
       { kind: "photo", key: "p", label: "P" },
       { kind: "initials", key: "i", label: "I" },
@@ -121,11 +190,19 @@ describe("missing values", () => {
 
   test("a grid with cells still empty is incomplete", () => {
     const t = templateOf({
-      kind: "readings", key: "gaps", label: "Gaps", rows: [{ key: "gap", label: "Gap" }],
-      columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })), unit: "in",
+      kind: "readings",
+      key: "gaps",
+      label: "Gaps",
+      rows: [{ key: "gap", label: "Gap" }],
+      columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })),
+      unit: "in",
     });
     const v = evaluate(t.sections[0].items[0], grid("in", [[0.004, null, 0.003, null]]));
-    expect(v).toMatchObject({ status: "incomplete", done: false, message: "2 of 4 readings still to enter." });
+    expect(v).toMatchObject({
+      status: "incomplete",
+      done: false,
+      message: "2 of 4 readings still to enter.",
+    });
   });
 
   test("a value of another kind's shape is invalid", () => {
@@ -137,23 +214,52 @@ describe("missing values", () => {
 describe("readings", () => {
   const t = templateOf(
     {
-      kind: "readings", key: "seat", label: "Seat diameter",
-      rows: [{ key: "forward", label: "Forward end" }, { key: "aft", label: "Aft end" }],
-      columns: [{ key: "a", label: "First" }, { key: "b", label: "Turned 90°" }],
-      unit: "in", accepts: ["in", "mm"], rule: { max: 0.0005, unit: "in", appliesTo: "row-spread" },
+      kind: "readings",
+      key: "seat",
+      label: "Seat diameter",
+      rows: [
+        { key: "forward", label: "Forward end" },
+        { key: "aft", label: "Aft end" },
+      ],
+      columns: [
+        { key: "a", label: "First" },
+        { key: "b", label: "Turned 90°" },
+      ],
+      unit: "in",
+      accepts: ["in", "mm"],
+      rule: { max: 0.0005, unit: "in", appliesTo: "row-spread" },
     },
     {
-      kind: "readings", key: "gaps", label: "Gaps", rows: [{ key: "gap", label: "Gap" }],
+      kind: "readings",
+      key: "gaps",
+      label: "Gaps",
+      rows: [{ key: "gap", label: "Gap" }],
       columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })),
-      unit: "thou", accepts: ["thou", "mm"], rule: { min: 0, max: 0.01, unit: "in" },
+      unit: "thou",
+      accepts: ["thou", "mm"],
+      rule: { min: 0, max: 0.01, unit: "in" },
     },
   );
   const seat = t.sections[0].items[0] as ReadingsItem;
   const gaps = t.sections[0].items[1] as ReadingsItem;
 
   test("a rule on each row's spread: at the limit, under it, over it", () => {
-    expect(evaluate(seat, grid("in", [[1.25, 1.2505], [1.2501, 1.25]])).status).toBe("ok");
-    const v = evaluate(seat, grid("in", [[1.25, 1.2506], [1.2501, 1.25]]));
+    expect(
+      evaluate(
+        seat,
+        grid("in", [
+          [1.25, 1.2505],
+          [1.2501, 1.25],
+        ]),
+      ).status,
+    ).toBe("ok");
+    const v = evaluate(
+      seat,
+      grid("in", [
+        [1.25, 1.2506],
+        [1.2501, 1.25],
+      ]),
+    );
     expect(v).toMatchObject({ status: "out-of-range", offending: [{ row: 0 }] });
     expect(v.message).toMatch(/^Outside the rule: Forward end: spread 0.0006 in is above 0.0005 in\./);
     expect(describeRule(seat.rule!)).toBe("largest minus smallest in each row at most 0.0005 in");
@@ -161,16 +267,37 @@ describe("readings", () => {
 
   test("a row spread read in millimetres against a limit in inches", () => {
     // 0.0005 in = 0.0127 mm exactly (1 in = 25.4 mm, NIST SP 811 Appendix B.8).
-    expect(evaluate(seat, grid("mm", [[31.75, 31.7627], [31.75, 31.75]])).status).toBe("ok");
-    expect(evaluate(seat, grid("mm", [[31.75, 31.7628], [31.75, 31.75]])).status).toBe("out-of-range");
+    expect(
+      evaluate(
+        seat,
+        grid("mm", [
+          [31.75, 31.7627],
+          [31.75, 31.75],
+        ]),
+      ).status,
+    ).toBe("ok");
+    expect(
+      evaluate(
+        seat,
+        grid("mm", [
+          [31.75, 31.7628],
+          [31.75, 31.75],
+        ]),
+      ).status,
+    ).toBe("out-of-range");
   });
 
   test("a rule on each cell, readings in thou against a limit in inches, points at the cells", () => {
     expect(evaluate(gaps, grid("thou", [[10, 0, 4, 4]])).status).toBe("ok");
     const v = evaluate(gaps, grid("thou", [[10.5, 0, 4, -1]]));
     expect(v.status).toBe("out-of-range");
-    expect(v.offending).toEqual([{ row: 0, column: 0 }, { row: 0, column: 3 }]);
-    expect(v.message).toMatch(/Gap, top: 0.0105 in is above 0.01 in; Gap, starboard: -0.001 in is below 0 in/);
+    expect(v.offending).toEqual([
+      { row: 0, column: 0 },
+      { row: 0, column: 3 },
+    ]);
+    expect(v.message).toMatch(
+      /Gap, top: 0.0105 in is above 0.01 in; Gap, starboard: -0.001 in is below 0 in/,
+    );
   });
 
   test("every attempt is kept and the last is judged", () => {
@@ -178,7 +305,9 @@ describe("readings", () => {
   });
 
   test("a grid of the wrong shape is refused", () => {
-    expect(evaluate(gaps, grid("thou", [[10, 0, 4]])).message).toMatch(/expected 4 readings in row "Gap", got 3/);
+    expect(evaluate(gaps, grid("thou", [[10, 0, 4]])).message).toMatch(
+      /expected 4 readings in row "Gap", got 3/,
+    );
     expect(evaluate(seat, grid("in", [[1.25, 1.25]])).message).toMatch(/expected 2 rows, got 1/);
   });
 });
@@ -186,7 +315,15 @@ describe("readings", () => {
 describe("check, choice, text, photo, initials", () => {
   const t = templateOf(
     { kind: "check", key: "c", label: "Seal fitted" },
-    { kind: "choice", key: "vibration", label: "Vibration", options: [{ key: "smooth", label: "Smooth throughout" }, { key: "objectionable", label: "Objectionable", needsNote: true }] },
+    {
+      kind: "choice",
+      key: "vibration",
+      label: "Vibration",
+      options: [
+        { key: "smooth", label: "Smooth throughout" },
+        { key: "objectionable", label: "Objectionable", needsNote: true },
+      ],
+    },
     { kind: "text", key: "t", label: "Remarks" },
     { kind: "photo", key: "p", label: "Photos", minPhotos: 2 },
     { kind: "initials", key: "i", label: "Confirmed" },
@@ -195,17 +332,39 @@ describe("check, choice, text, photo, initials", () => {
 
   test("a check: pass is done; fail and n/a need a note", () => {
     expect(evaluate(check, { result: "pass" })).toMatchObject({ status: "ok", done: true });
-    expect(evaluate(check, { result: "fail" })).toMatchObject({ status: "needs-note", done: false, finding: "fail" });
-    expect(evaluate(check, { result: "na" })).toMatchObject({ status: "needs-note", finding: "not-applicable" });
-    expect(evaluate(check, { result: "fail", note: "Hose clamp replaced." })).toMatchObject({ status: "noted", done: true, finding: "fail" });
-    expect(evaluate(check, { result: "na", note: "Diesel: no blower needed." })).toMatchObject({ status: "noted", done: true });
+    expect(evaluate(check, { result: "fail" })).toMatchObject({
+      status: "needs-note",
+      done: false,
+      finding: "fail",
+    });
+    expect(evaluate(check, { result: "na" })).toMatchObject({
+      status: "needs-note",
+      finding: "not-applicable",
+    });
+    expect(evaluate(check, { result: "fail", note: "Hose clamp replaced." })).toMatchObject({
+      status: "noted",
+      done: true,
+      finding: "fail",
+    });
+    expect(evaluate(check, { result: "na", note: "Diesel: no blower needed." })).toMatchObject({
+      status: "noted",
+      done: true,
+    });
     expect(evaluate(check, { result: "maybe" }).status).toBe("invalid");
   });
 
   test("a choice that is a finding needs a note; an unknown option is refused", () => {
-    expect(evaluate(choice, { option: "smooth" })).toMatchObject({ status: "ok", message: "Smooth throughout." });
-    expect(evaluate(choice, { option: "objectionable" })).toMatchObject({ status: "needs-note", finding: "flagged-option" });
-    expect(evaluate(choice, { option: "objectionable", note: "At 2,200 rpm; mount re-torqued." }).status).toBe("noted");
+    expect(evaluate(choice, { option: "smooth" })).toMatchObject({
+      status: "ok",
+      message: "Smooth throughout.",
+    });
+    expect(evaluate(choice, { option: "objectionable" })).toMatchObject({
+      status: "needs-note",
+      finding: "flagged-option",
+    });
+    expect(
+      evaluate(choice, { option: "objectionable", note: "At 2,200 rpm; mount re-torqued." }).status,
+    ).toBe("noted");
     expect(evaluate(choice, { option: "rough" }).status).toBe("invalid");
   });
 
@@ -215,9 +374,14 @@ describe("check, choice, text, photo, initials", () => {
   });
 
   test("photos count against the minimum", () => {
-    const photos = (n: number) => ({ photos: Array.from({ length: n }, (_, i) => ({ id: `7f1c2a3e-0000-4000-8000-00000000000${i}` })) });
+    const photos = (n: number) => ({
+      photos: Array.from({ length: n }, (_, i) => ({ id: `7f1c2a3e-0000-4000-8000-00000000000${i}` })),
+    });
     expect(evaluate(photo, photos(0)).status).toBe("unanswered");
-    expect(evaluate(photo, photos(1))).toMatchObject({ status: "incomplete", message: "1 of 2 photos taken." });
+    expect(evaluate(photo, photos(1))).toMatchObject({
+      status: "incomplete",
+      message: "1 of 2 photos taken.",
+    });
     expect(evaluate(photo, photos(2)).status).toBe("ok");
     expect(evaluate(photo, { photos: [{ id: "not-a-uuid" }] }).status).toBe("invalid");
   });
@@ -230,13 +394,33 @@ describe("check, choice, text, photo, initials", () => {
 
 describe("calc items", () => {
   const t = templateOf(
-    { kind: "measure", key: "diameter", label: "Coupling flange diameter", unit: "in", accepts: ["in", "mm"] },
     {
-      kind: "readings", key: "gaps", label: "Face gaps", rows: [{ key: "gap", label: "Gap" }],
-      columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })), unit: "in", accepts: ["in", "mm"],
+      kind: "measure",
+      key: "diameter",
+      label: "Coupling flange diameter",
+      unit: "in",
+      accepts: ["in", "mm"],
     },
-    { kind: "calc", key: "angularity", label: "Angularity", calc: "couplingFace",
-      inputs: { diameter: { item: "diameter" }, gaps: { item: "gaps" }, maxInPerInDiameter: { value: 0.001 } } },
+    {
+      kind: "readings",
+      key: "gaps",
+      label: "Face gaps",
+      rows: [{ key: "gap", label: "Gap" }],
+      columns: ["top", "bottom", "port", "starboard"].map((key) => ({ key, label: key })),
+      unit: "in",
+      accepts: ["in", "mm"],
+    },
+    {
+      kind: "calc",
+      key: "angularity",
+      label: "Angularity",
+      calc: "couplingFace",
+      inputs: {
+        diameter: { item: "diameter" },
+        gaps: { item: "gaps" },
+        maxInPerInDiameter: { value: 0.001 },
+      },
+    },
   );
   const angularity = itemOf(t, "angularity");
   const run = (responses: Record<string, unknown>, note?: string) =>
@@ -246,7 +430,9 @@ describe("calc items", () => {
   // the slope is the gap difference over the diameter (similar triangles, straightedge-and-feeler
   // alignment). For a 4 in coupling: 0.004 in of gap difference is the limit.
   test("at the limit it passes, over it is out of range until a note is written", () => {
-    expect(run({ diameter: measured([4, "in"]), gaps: grid("in", [[0.006, 0.002, 0.003, 0.003]]) }).status).toBe("ok");
+    expect(
+      run({ diameter: measured([4, "in"]), gaps: grid("in", [[0.006, 0.002, 0.003, 0.003]]) }).status,
+    ).toBe("ok");
     const over = { diameter: measured([4, "in"]), gaps: grid("in", [[0.0062, 0.002, 0.003, 0.003]]) };
     const v = run(over);
     expect(v).toMatchObject({ status: "out-of-range", finding: "out-of-range" });
@@ -256,13 +442,19 @@ describe("calc items", () => {
 
   test("millimetre readings against the inch-per-inch rule", () => {
     // 101.6 mm = 4 in and 0.1016 mm = 0.004 in exactly (NIST SP 811 Appendix B.8).
-    expect(run({ diameter: measured([101.6, "mm"]), gaps: grid("mm", [[0.1524, 0.0508, 0.08, 0.08]]) }).status).toBe("ok");
-    expect(run({ diameter: measured([101.6, "mm"]), gaps: grid("mm", [[0.1530, 0.0508, 0.08, 0.08]]) }).status).toBe("out-of-range");
+    expect(
+      run({ diameter: measured([101.6, "mm"]), gaps: grid("mm", [[0.1524, 0.0508, 0.08, 0.08]]) }).status,
+    ).toBe("ok");
+    expect(
+      run({ diameter: measured([101.6, "mm"]), gaps: grid("mm", [[0.153, 0.0508, 0.08, 0.08]]) }).status,
+    ).toBe("out-of-range");
   });
 
   test("waits for the items it needs, and for a grid with every cell", () => {
     expect(run({}).message).toBe("Waits for: Coupling flange diameter; Face gaps.");
-    expect(run({ diameter: measured([4, "in"]), gaps: grid("in", [[0.006, null, 0.003, 0.003]]) })).toMatchObject({
+    expect(
+      run({ diameter: measured([4, "in"]), gaps: grid("in", [[0.006, null, 0.003, 0.003]]) }),
+    ).toMatchObject({
       status: "unanswered",
       message: "Waits for: Face gaps.",
     });

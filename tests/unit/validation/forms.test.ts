@@ -3,14 +3,34 @@ import { jobSchema } from "~/lib/validation/jobs";
 import { inviteSchema, newPasswordSchema } from "~/lib/validation/people";
 import { vesselSchema } from "~/lib/validation/vessels";
 
-const messages = (result: { success: boolean; error?: { issues: { path: PropertyKey[]; message: string }[] } }) =>
-  Object.fromEntries((result.error?.issues ?? []).map((i) => [i.path.join("."), i.message]));
+const messages = (result: {
+  success: boolean;
+  error?: { issues: { path: PropertyKey[]; message: string }[] };
+}) => Object.fromEntries((result.error?.issues ?? []).map((i) => [i.path.join("."), i.message]));
 
-const vessel = { name: "Test hull", lengthValue: "34", lengthUnit: "ft", hullType: "planing", ownerName: "Owner" };
+const vessel = {
+  name: "Test hull",
+  lengthValue: "34",
+  lengthUnit: "ft",
+  hullType: "planing",
+  ownerName: "Owner",
+};
 const job = {
-  vesselId: "1", scope: "repower", engineModel: "Test", engineSerial: "SN1", ratedPowerHp: "250", ratedRpmMin: "2700",
-  ratedRpmMax: "2800", gearRatio: "2", propDiameterIn: "22", propPitchIn: "24", propBlades: "4", shaftDiameterIn: "1.5",
-  shaftMaterial: "316", couplingType: "Split", leadId: "2",
+  vesselId: "1",
+  scope: "repower",
+  engineModel: "Test",
+  engineSerial: "SN1",
+  ratedPowerHp: "250",
+  ratedRpmMin: "2700",
+  ratedRpmMax: "2800",
+  gearRatio: "2",
+  propDiameterIn: "22",
+  propPitchIn: "24",
+  propBlades: "4",
+  shaftDiameterIn: "1.5",
+  shaftMaterial: "316",
+  couplingType: "Split",
+  leadId: "2",
 };
 
 describe("vessel form", () => {
@@ -21,7 +41,15 @@ describe("vessel form", () => {
   });
 
   it("names the field for each bad value", () => {
-    const bad = messages(vesselSchema.safeParse({ ...vessel, hin: "ABC123", lengthValue: "-3", hullType: "raft", ownerEmail: "nope" }));
+    const bad = messages(
+      vesselSchema.safeParse({
+        ...vessel,
+        hin: "ABC123",
+        lengthValue: "-3",
+        hullType: "raft",
+        ownerEmail: "nope",
+      }),
+    );
     expect(Object.keys(bad).sort()).toEqual(["hin", "hullType", "lengthValue", "ownerEmail"]);
     expect(bad.lengthValue).toMatch(/more than zero/);
   });
@@ -35,10 +63,23 @@ describe("job form", () => {
   });
 
   it("refuses an inverted rpm band, a gear ratio below 1:1 and a due date before the start", () => {
-    const bad = messages(jobSchema.safeParse({ ...job, ratedRpmMin: "2800", ratedRpmMax: "2600", gearRatio: "0", startDate: "2026-12-10", dueDate: "2026-12-01" }));
+    const bad = messages(
+      jobSchema.safeParse({
+        ...job,
+        ratedRpmMin: "2800",
+        ratedRpmMax: "2600",
+        gearRatio: "0",
+        startDate: "2026-12-10",
+        dueDate: "2026-12-01",
+      }),
+    );
     expect(bad.gearRatio).toMatch(/1:1/);
-    expect(jobSchema.safeParse({ ...job, ratedRpmMin: "2800", ratedRpmMax: "2600" }).error?.issues[0]?.path).toEqual(["ratedRpmMax"]);
-    expect(jobSchema.safeParse({ ...job, startDate: "2026-12-10", dueDate: "2026-12-01" }).error?.issues[0]?.path).toEqual(["dueDate"]);
+    expect(
+      jobSchema.safeParse({ ...job, ratedRpmMin: "2800", ratedRpmMax: "2600" }).error?.issues[0]?.path,
+    ).toEqual(["ratedRpmMax"]);
+    expect(
+      jobSchema.safeParse({ ...job, startDate: "2026-12-10", dueDate: "2026-12-01" }).error?.issues[0]?.path,
+    ).toEqual(["dueDate"]);
   });
 
   it("refuses text where a number belongs", () => {
@@ -48,9 +89,15 @@ describe("job form", () => {
 
 describe("people forms", () => {
   it("check the invitation and the new password", () => {
-    expect(inviteSchema.parse({ email: " New@Yard.Example ", name: "New Person", role: "lead" }).email).toBe("new@yard.example");
+    expect(inviteSchema.parse({ email: " New@Yard.Example ", name: "New Person", role: "lead" }).email).toBe(
+      "new@yard.example",
+    );
     expect(messages(inviteSchema.safeParse({ email: "x", name: "", role: "boss" }))).toHaveProperty("role");
-    expect(messages(newPasswordSchema.safeParse({ password: "long-enough-1", confirm: "different" })).confirm).toMatch(/differ/);
-    expect(messages(newPasswordSchema.safeParse({ password: "short", confirm: "short" })).password).toMatch(/10 characters/);
+    expect(
+      messages(newPasswordSchema.safeParse({ password: "long-enough-1", confirm: "different" })).confirm,
+    ).toMatch(/differ/);
+    expect(messages(newPasswordSchema.safeParse({ password: "short", confirm: "short" })).password).toMatch(
+      /10 characters/,
+    );
   });
 });

@@ -44,11 +44,17 @@ export function EditorField({
   children: (control: ControlProps) => ReactNode;
 }) {
   const errors = useProblemsAt(path);
-  const describedBy = [hint ? `${id}-hint` : "", errors.length ? `${id}-error` : ""].filter(Boolean).join(" ");
+  const describedBy = [hint ? `${id}-hint` : "", errors.length ? `${id}-error` : ""]
+    .filter(Boolean)
+    .join(" ");
   return (
     <div data-path={path}>
       <Field id={id} label={label} hint={hint} errors={errors}>
-        {children({ id, "aria-invalid": errors.length ? true : undefined, "aria-describedby": describedBy || undefined })}
+        {children({
+          id,
+          "aria-invalid": errors.length ? true : undefined,
+          "aria-describedby": describedBy || undefined,
+        })}
       </Field>
     </div>
   );

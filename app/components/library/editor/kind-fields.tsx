@@ -1,7 +1,13 @@
 import { calculations, type CalcInputSpec } from "~/lib/calc/registry";
 import type { Unit } from "~/lib/calc/units";
 import { calcDefinition, unitSymbol } from "~/lib/templates";
-import { constantKindFor, itemsThatFit, unitsLike, type BindingDraft, type ItemDraft } from "~/lib/templates/editor-state";
+import {
+  constantKindFor,
+  itemsThatFit,
+  unitsLike,
+  type BindingDraft,
+  type ItemDraft,
+} from "~/lib/templates/editor-state";
 import { EditorField, GroupProblems, useEditor } from "./editor-context.tsx";
 import { LinesEditor } from "./lines-editor.tsx";
 import { UnitSelect } from "./unit-select.tsx";
@@ -13,8 +19,19 @@ function UnitFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
   const others = unitsLike(item.unit).filter((u) => u !== item.unit);
   return (
     <div className="grid gap-3 md:grid-cols-2">
-      <EditorField id={`${item.id}-unit`} path={pathOf("unit")} label="Unit" hint="The unit offered first on the tablet.">
-        {(control) => <UnitSelect control={control} value={item.unit} onChange={(unit) => dispatch({ type: "item/unit", id: item.id, unit })} />}
+      <EditorField
+        id={`${item.id}-unit`}
+        path={pathOf("unit")}
+        label="Unit"
+        hint="The unit offered first on the tablet."
+      >
+        {(control) => (
+          <UnitSelect
+            control={control}
+            value={item.unit}
+            onChange={(unit) => dispatch({ type: "item/unit", id: item.id, unit })}
+          />
+        )}
       </EditorField>
       {others.length > 0 && (
         <fieldset data-path={pathOf("accepts")}>
@@ -28,7 +45,9 @@ function UnitFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
                   type="checkbox"
                   className="size-6"
                   checked={item.accepts?.includes(u) ?? false}
-                  onChange={(e) => dispatch({ type: "item/accept", id: item.id, unit: u, accepted: e.currentTarget.checked })}
+                  onChange={(e) =>
+                    dispatch({ type: "item/accept", id: item.id, unit: u, accepted: e.currentTarget.checked })
+                  }
                 />
                 {unitSymbol(u) || u}
               </label>
@@ -52,7 +71,9 @@ function RuleFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
             inputMode="decimal"
             className="field-input num"
             value={rule[field]}
-            onChange={(e) => dispatch({ type: "item/rule", id: item.id, patch: { [field]: e.currentTarget.value } })}
+            onChange={(e) =>
+              dispatch({ type: "item/rule", id: item.id, patch: { [field]: e.currentTarget.value } })
+            }
           />
         )}
       </EditorField>
@@ -65,13 +86,17 @@ function RuleFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
           type="checkbox"
           className="size-6"
           checked={rule !== null}
-          onChange={(e) => dispatch({ type: "item/rule", id: item.id, patch: e.currentTarget.checked ? {} : null })}
+          onChange={(e) =>
+            dispatch({ type: "item/rule", id: item.id, patch: e.currentTarget.checked ? {} : null })
+          }
         />
         Judge the reading against limits
       </label>
       {rule && (
         <>
-          <p className="text-sm text-ink-soft">Limits are inclusive. A nominal with its tolerance narrows the minimum and maximum.</p>
+          <p className="text-sm text-ink-soft">
+            Limits are inclusive. A nominal with its tolerance narrows the minimum and maximum.
+          </p>
           <GroupProblems path={pathOf("rule")} />
           <div className="grid grid-cols-2 gap-3 md:grid-cols-4">
             {limit("min", "Minimum")}
@@ -80,7 +105,12 @@ function RuleFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
             {limit("tolerance", "Tolerance (±)")}
           </div>
           <div className="grid gap-3 md:grid-cols-2">
-            <EditorField id={`${item.id}-rule-unit`} path={pathOf("rule", "unit")} label="Limits in" hint="May differ from the reading's unit, e.g. thou against millimetres.">
+            <EditorField
+              id={`${item.id}-rule-unit`}
+              path={pathOf("rule", "unit")}
+              label="Limits in"
+              hint="May differ from the reading's unit, e.g. thou against millimetres."
+            >
               {(control) => (
                 <UnitSelect
                   control={control}
@@ -91,13 +121,23 @@ function RuleFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
               )}
             </EditorField>
             {item.kind === "readings" && (
-              <EditorField id={`${item.id}-rule-applies`} path={pathOf("rule", "appliesTo")} label="Applies to">
+              <EditorField
+                id={`${item.id}-rule-applies`}
+                path={pathOf("rule", "appliesTo")}
+                label="Applies to"
+              >
                 {(control) => (
                   <select
                     {...control}
                     className="field-input"
                     value={rule.appliesTo}
-                    onChange={(e) => dispatch({ type: "item/rule", id: item.id, patch: { appliesTo: e.currentTarget.value as "each-cell" | "row-spread" } })}
+                    onChange={(e) =>
+                      dispatch({
+                        type: "item/rule",
+                        id: item.id,
+                        patch: { appliesTo: e.currentTarget.value as "each-cell" | "row-spread" },
+                      })
+                    }
                   >
                     <option value="each-cell">Every reading</option>
                     <option value="row-spread">Each row's largest minus smallest</option>
@@ -112,9 +152,24 @@ function RuleFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
   );
 }
 
-const takesWords: Record<string, string> = { number: "a number", grid: "a grid of readings", numbers: "a list of numbers", text: "text" };
+const takesWords: Record<string, string> = {
+  number: "a number",
+  grid: "a grid of readings",
+  numbers: "a list of numbers",
+  text: "text",
+};
 
-function InputBinding({ item, name, spec, pathOf }: { item: ItemDraft; name: string; spec: CalcInputSpec; pathOf: PathOf }) {
+function InputBinding({
+  item,
+  name,
+  spec,
+  pathOf,
+}: {
+  item: ItemDraft;
+  name: string;
+  spec: CalcInputSpec;
+  pathOf: PathOf;
+}) {
   const { state, dispatch } = useEditor();
   const binding = item.inputs[name];
   const fits = itemsThatFit(state, item.id, item.calc, name);
@@ -136,13 +191,19 @@ function InputBinding({ item, name, spec, pathOf }: { item: ItemDraft; name: str
         path={pathOf("inputs", name, "item")}
         label={
           <>
-            {spec.label} <span className="font-normal text-ink-soft">({spec.optional ? "optional" : "required"})</span>
+            {spec.label}{" "}
+            <span className="font-normal text-ink-soft">({spec.optional ? "optional" : "required"})</span>
           </>
         }
         hint={`Takes ${spec.accepts.map((k) => takesWords[k] ?? k).join(" or ")}${unit}.`}
       >
         {(control) => (
-          <select {...control} className="field-input" value={value} onChange={(e) => choose(e.currentTarget.value)}>
+          <select
+            {...control}
+            className="field-input"
+            value={value}
+            onChange={(e) => choose(e.currentTarget.value)}
+          >
             <option value="">{spec.optional ? "Not used" : "Choose…"}</option>
             {constantKind && <option value="value">A fixed value</option>}
             {fits.length > 0 && (
@@ -163,7 +224,13 @@ function InputBinding({ item, name, spec, pathOf }: { item: ItemDraft; name: str
           id={`${item.id}-value-${name}`}
           path={pathOf("inputs", name, "value")}
           label="Fixed value"
-          hint={binding.as === "numbers" ? `Numbers separated by spaces or commas, decimals with a point${unit}.` : binding.as === "number" ? `A number${unit}.` : "Text."}
+          hint={
+            binding.as === "numbers"
+              ? `Numbers separated by spaces or commas, decimals with a point${unit}.`
+              : binding.as === "number"
+                ? `A number${unit}.`
+                : "Text."
+          }
         >
           {(control) => (
             <input
@@ -171,7 +238,14 @@ function InputBinding({ item, name, spec, pathOf }: { item: ItemDraft; name: str
               inputMode={binding.as === "text" ? "text" : "decimal"}
               className="field-input num"
               value={binding.text}
-              onChange={(e) => dispatch({ type: "calc/bind", id: item.id, input: name, binding: { ...binding, text: e.currentTarget.value } })}
+              onChange={(e) =>
+                dispatch({
+                  type: "calc/bind",
+                  id: item.id,
+                  input: name,
+                  binding: { ...binding, text: e.currentTarget.value },
+                })
+              }
             />
           )}
         </EditorField>
@@ -187,7 +261,12 @@ function CalcFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }) {
     <div className="flex flex-col gap-3">
       <EditorField id={`${item.id}-calc`} path={pathOf("calc")} label="Calculation">
         {(control) => (
-          <select {...control} className="field-input" value={item.calc} onChange={(e) => dispatch({ type: "calc/set", id: item.id, calc: e.currentTarget.value })}>
+          <select
+            {...control}
+            className="field-input"
+            value={item.calc}
+            onChange={(e) => dispatch({ type: "calc/set", id: item.id, calc: e.currentTarget.value })}
+          >
             <option value="">Choose a calculation…</option>
             {Object.values(calculations).map((c) => (
               <option key={c.name} value={c.name}>
@@ -257,7 +336,9 @@ export function KindFields({ item, pathOf }: { item: ItemDraft; pathOf: PathOf }
               inputMode="numeric"
               className="field-input num max-w-40"
               value={item.minPhotos}
-              onChange={(e) => dispatch({ type: "item/update", id: item.id, patch: { minPhotos: e.currentTarget.value } })}
+              onChange={(e) =>
+                dispatch({ type: "item/update", id: item.id, patch: { minPhotos: e.currentTarget.value } })
+              }
             />
           )}
         </EditorField>

@@ -23,18 +23,32 @@ export function LinesEditor({
   const w = words[list];
   return (
     <fieldset className="flex flex-col gap-3 rounded-md border border-rule p-3">
-      <legend className="px-1 font-bold">{list === "options" ? "Options" : list === "rows" ? "Rows" : "Columns"}</legend>
+      <legend className="px-1 font-bold">
+        {list === "options" ? "Options" : list === "rows" ? "Rows" : "Columns"}
+      </legend>
       <GroupProblems path={pathOf(list)} />
       <ol className="flex flex-col gap-3">
         {lines.map((line, i) => (
-          <li key={line.id} className="grid gap-2 border-b border-rule pb-3 md:grid-cols-[1fr_1fr_auto]" data-line={line.key}>
+          <li
+            key={line.id}
+            className="grid gap-2 border-b border-rule pb-3 md:grid-cols-[1fr_1fr_auto]"
+            data-line={line.key}
+          >
             <EditorField id={`${line.id}-label`} path={pathOf(list, i, "label")} label={`${w.one} ${i + 1}`}>
               {(control) => (
                 <input
                   {...control}
                   className="field-input"
                   value={line.label}
-                  onChange={(e) => dispatch({ type: "line/update", itemId, list, lineId: line.id, patch: { label: e.currentTarget.value } })}
+                  onChange={(e) =>
+                    dispatch({
+                      type: "line/update",
+                      itemId,
+                      list,
+                      lineId: line.id,
+                      patch: { label: e.currentTarget.value },
+                    })
+                  }
                 />
               )}
             </EditorField>
@@ -46,7 +60,15 @@ export function LinesEditor({
                   autoCapitalize="none"
                   spellCheck={false}
                   value={line.key}
-                  onChange={(e) => dispatch({ type: "line/update", itemId, list, lineId: line.id, patch: { key: e.currentTarget.value } })}
+                  onChange={(e) =>
+                    dispatch({
+                      type: "line/update",
+                      itemId,
+                      list,
+                      lineId: line.id,
+                      patch: { key: e.currentTarget.value },
+                    })
+                  }
                 />
               )}
             </EditorField>
@@ -57,18 +79,43 @@ export function LinesEditor({
                     type="checkbox"
                     className="size-6"
                     checked={(line as OptionDraft).needsNote ?? false}
-                    onChange={(e) => dispatch({ type: "line/update", itemId, list, lineId: line.id, patch: { needsNote: e.currentTarget.checked } })}
+                    onChange={(e) =>
+                      dispatch({
+                        type: "line/update",
+                        itemId,
+                        list,
+                        lineId: line.id,
+                        patch: { needsNote: e.currentTarget.checked },
+                      })
+                    }
                   />
                   Needs a note
                 </label>
               )}
-              <button type="button" className="btn px-2" disabled={i === 0} aria-label={`Move ${w.one.toLowerCase()} ${i + 1} up`} onClick={() => dispatch({ type: "line/step", itemId, list, lineId: line.id, by: -1 })}>
+              <button
+                type="button"
+                className="btn px-2"
+                disabled={i === 0}
+                aria-label={`Move ${w.one.toLowerCase()} ${i + 1} up`}
+                onClick={() => dispatch({ type: "line/step", itemId, list, lineId: line.id, by: -1 })}
+              >
                 ↑
               </button>
-              <button type="button" className="btn px-2" disabled={i === lines.length - 1} aria-label={`Move ${w.one.toLowerCase()} ${i + 1} down`} onClick={() => dispatch({ type: "line/step", itemId, list, lineId: line.id, by: 1 })}>
+              <button
+                type="button"
+                className="btn px-2"
+                disabled={i === lines.length - 1}
+                aria-label={`Move ${w.one.toLowerCase()} ${i + 1} down`}
+                onClick={() => dispatch({ type: "line/step", itemId, list, lineId: line.id, by: 1 })}
+              >
                 ↓
               </button>
-              <button type="button" className="btn px-2" aria-label={`Remove ${w.one.toLowerCase()} ${i + 1}`} onClick={() => dispatch({ type: "line/remove", itemId, list, lineId: line.id })}>
+              <button
+                type="button"
+                className="btn px-2"
+                aria-label={`Remove ${w.one.toLowerCase()} ${i + 1}`}
+                onClick={() => dispatch({ type: "line/remove", itemId, list, lineId: line.id })}
+              >
                 ✕
               </button>
             </div>

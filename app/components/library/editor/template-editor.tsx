@@ -3,7 +3,15 @@ import { useBlocker, useFetcher } from "react-router";
 import { ChecklistOutline } from "~/components/checklist/checklist-outline";
 import { FormErrors } from "~/components/field";
 import type { Template, TemplateProblem } from "~/lib/templates";
-import { checkDraft, editorReducer, fromTemplate, locate, problemsByPath, sameAsTemplate, toTemplateInput } from "~/lib/templates/editor-state";
+import {
+  checkDraft,
+  editorReducer,
+  fromTemplate,
+  locate,
+  problemsByPath,
+  sameAsTemplate,
+  toTemplateInput,
+} from "~/lib/templates/editor-state";
 import { EditorContext, EditorField } from "./editor-context.tsx";
 import { SectionCard, type ItemsControl } from "./section-card.tsx";
 import { useItemDrag } from "./use-item-drag.ts";
@@ -44,7 +52,9 @@ export function TemplateEditor({ saved }: { saved: Template }) {
 
   useEffect(() => {
     if (!focusNext) return;
-    const element = document.getElementById(focusNext) ?? document.querySelector<HTMLElement>(`[data-focus="${focusNext}"]`);
+    const element =
+      document.getElementById(focusNext) ??
+      document.querySelector<HTMLElement>(`[data-focus="${focusNext}"]`);
     if (element) {
       element.focus();
       element.scrollIntoView({ block: "nearest" });
@@ -58,7 +68,10 @@ export function TemplateEditor({ saved }: { saved: Template }) {
     window.addEventListener("beforeunload", warn);
     return () => window.removeEventListener("beforeunload", warn);
   }, [dirty]);
-  const blocker = useBlocker(({ currentLocation, nextLocation }) => dirty && fetcher.state === "idle" && currentLocation.pathname !== nextLocation.pathname);
+  const blocker = useBlocker(
+    ({ currentLocation, nextLocation }) =>
+      dirty && fetcher.state === "idle" && currentLocation.pathname !== nextLocation.pathname,
+  );
 
   function announceMove(id: string) {
     return (next: typeof state) => {
@@ -66,7 +79,9 @@ export function TemplateEditor({ saved }: { saved: Template }) {
       if (!at) return;
       const section = next.sections[at.sectionIndex];
       const item = section.items[at.itemIndex];
-      setAnnouncement(`“${item.label || item.key}” is now item ${at.itemIndex + 1} of ${section.items.length} in ${section.title || section.key}.`);
+      setAnnouncement(
+        `“${item.label || item.key}” is now item ${at.itemIndex + 1} of ${section.items.length} in ${section.title || section.key}.`,
+      );
     };
   }
 
@@ -99,7 +114,11 @@ export function TemplateEditor({ saved }: { saved: Template }) {
       announceMove(id)(next);
       // Keep the focus on the button pressed, or on the other one when this end is reached.
       const at = locate(next, id)!;
-      const atEnd = control === "up" ? at.sectionIndex === 0 && at.itemIndex === 0 : at.sectionIndex === next.sections.length - 1 && at.itemIndex === next.sections[at.sectionIndex].items.length - 1;
+      const atEnd =
+        control === "up"
+          ? at.sectionIndex === 0 && at.itemIndex === 0
+          : at.sectionIndex === next.sections.length - 1 &&
+            at.itemIndex === next.sections[at.sectionIndex].items.length - 1;
       setFocusNext(`${id}-${atEnd ? (control === "up" ? "down" : "up") : control}`);
     },
     dragging: drag.dragging,
@@ -114,7 +133,9 @@ export function TemplateEditor({ saved }: { saved: Template }) {
     if (item) setOpen((o) => new Set(o).add(item.id));
     requestAnimationFrame(() => {
       const field = document.querySelector<HTMLElement>(`[data-path="${CSS.escape(path)}"]`);
-      const target = field ?? (item ? document.querySelector<HTMLElement>(`[data-item-key="${CSS.escape(item.key)}"]`) : null);
+      const target =
+        field ??
+        (item ? document.querySelector<HTMLElement>(`[data-item-key="${CSS.escape(item.key)}"]`) : null);
       target?.scrollIntoView({ block: "center" });
       target?.querySelector<HTMLElement>("input, select, textarea")?.focus();
     });
@@ -143,15 +164,25 @@ export function TemplateEditor({ saved }: { saved: Template }) {
       <div className="flex flex-col gap-4">
         {reply && !reply.ok && <FormErrors errors={reply.errors} />}
         {problems.length > 0 && (
-          <div ref={summary} tabIndex={-1} className="rounded-md border-2 border-fault bg-fault-light p-3" data-testid="problem-summary">
+          <div
+            ref={summary}
+            tabIndex={-1}
+            className="rounded-md border-2 border-fault bg-fault-light p-3"
+            data-testid="problem-summary"
+          >
             <p className="font-bold text-fault">
               <span aria-hidden="true">▲ </span>
-              {problems.length} problem{problems.length === 1 ? "" : "s"}: nothing is saved until {problems.length === 1 ? "it is" : "they are"} fixed.
+              {problems.length} problem{problems.length === 1 ? "" : "s"}: nothing is saved until{" "}
+              {problems.length === 1 ? "it is" : "they are"} fixed.
             </p>
             <ul className="mt-2 flex flex-col gap-1">
               {problems.map((p, i) => (
                 <li key={i} className="flex flex-wrap items-center gap-2">
-                  <button type="button" className="min-h-12 text-left text-harbour underline" onClick={() => reveal(p.path)}>
+                  <button
+                    type="button"
+                    className="min-h-12 text-left text-harbour underline"
+                    onClick={() => reveal(p.path)}
+                  >
                     <code className="font-mono text-sm">{p.path || "template"}</code> {p.message}
                   </button>
                 </li>
@@ -161,17 +192,29 @@ export function TemplateEditor({ saved }: { saved: Template }) {
         )}
 
         <div role="group" aria-label="View" className="flex gap-2">
-          <button type="button" className={view === "edit" ? "btn btn-primary" : "btn"} aria-pressed={view === "edit"} onClick={() => setView("edit")}>
+          <button
+            type="button"
+            className={view === "edit" ? "btn btn-primary" : "btn"}
+            aria-pressed={view === "edit"}
+            onClick={() => setView("edit")}
+          >
             Edit
           </button>
-          <button type="button" className={view === "preview" ? "btn btn-primary" : "btn"} aria-pressed={view === "preview"} onClick={() => setView("preview")}>
+          <button
+            type="button"
+            className={view === "preview" ? "btn btn-primary" : "btn"}
+            aria-pressed={view === "preview"}
+            onClick={() => setView("preview")}
+          >
             Preview
           </button>
         </div>
 
         {view === "preview" ? (
           <section aria-label="Preview" className="flex flex-col gap-3">
-            <p className="text-sm font-bold tracking-wide text-ink-soft uppercase">As a technician will see it</p>
+            <p className="text-sm font-bold tracking-wide text-ink-soft uppercase">
+              As a technician will see it
+            </p>
             {check.ok ? (
               <>
                 <h2 className="text-3xl font-bold">{check.template.title}</h2>
@@ -185,17 +228,48 @@ export function TemplateEditor({ saved }: { saved: Template }) {
           <>
             <section className="card grid gap-3" aria-label="Template">
               <EditorField id="template-title" path="title" label="Title">
-                {(control) => <input {...control} className="field-input text-xl font-bold" value={state.title} onChange={(e) => dispatch({ type: "template/set", field: "title", value: e.currentTarget.value })} />}
+                {(control) => (
+                  <input
+                    {...control}
+                    className="field-input text-xl font-bold"
+                    value={state.title}
+                    onChange={(e) =>
+                      dispatch({ type: "template/set", field: "title", value: e.currentTarget.value })
+                    }
+                  />
+                )}
               </EditorField>
-              <EditorField id="template-purpose" path="purpose" label="Purpose" hint="What the checklist is for and when it is used.">
-                {(control) => <textarea {...control} rows={3} className="field-input" value={state.purpose} onChange={(e) => dispatch({ type: "template/set", field: "purpose", value: e.currentTarget.value })} />}
+              <EditorField
+                id="template-purpose"
+                path="purpose"
+                label="Purpose"
+                hint="What the checklist is for and when it is used."
+              >
+                {(control) => (
+                  <textarea
+                    {...control}
+                    rows={3}
+                    className="field-input"
+                    value={state.purpose}
+                    onChange={(e) =>
+                      dispatch({ type: "template/set", field: "purpose", value: e.currentTarget.value })
+                    }
+                  />
+                )}
               </EditorField>
               <p className="text-sm text-ink-soft">
-                Key <span className="font-mono">{state.key}</span>, version {state.version}. Both stay as they are.
+                Key <span className="font-mono">{state.key}</span>, version {state.version}. Both stay as they
+                are.
               </p>
             </section>
             {state.sections.map((section, i) => (
-              <SectionCard key={section.id} section={section} sectionIndex={i} checked={check.ok ? check.template : null} items={items} />
+              <SectionCard
+                key={section.id}
+                section={section}
+                sectionIndex={i}
+                checked={check.ok ? check.template : null}
+                items={items}
+              />
             ))}
             <div>
               <button type="button" className="btn" onClick={() => dispatch({ type: "section/add" })}>
@@ -210,7 +284,11 @@ export function TemplateEditor({ saved }: { saved: Template }) {
         </p>
 
         {blocker.state === "blocked" && (
-          <div role="alertdialog" aria-label="Unsaved changes" className="fixed top-4 left-1/2 z-30 w-[min(40rem,calc(100%-2rem))] -translate-x-1/2 rounded-md border-2 border-brass bg-brass-light p-3 shadow-lg">
+          <div
+            role="alertdialog"
+            aria-label="Unsaved changes"
+            className="fixed top-4 left-1/2 z-30 w-[min(40rem,calc(100%-2rem))] -translate-x-1/2 rounded-md border-2 border-brass bg-brass-light p-3 shadow-lg"
+          >
             <p className="font-bold">This draft has changes that are not saved. Leave without saving them?</p>
             <div className="mt-2 flex gap-2">
               <button type="button" className="btn btn-primary" autoFocus onClick={() => blocker.reset()}>
@@ -224,13 +302,27 @@ export function TemplateEditor({ saved }: { saved: Template }) {
         )}
 
         <div className="sticky bottom-0 z-10 -mx-4 flex flex-wrap items-center gap-3 border-t-2 border-ink bg-paper px-4 py-3">
-          <p role="status" className={`flex-1 font-bold ${problems.length ? "text-fault" : ""}`} data-testid="save-status">
+          <p
+            role="status"
+            className={`flex-1 font-bold ${problems.length ? "text-fault" : ""}`}
+            data-testid="save-status"
+          >
             {status}
           </p>
-          <button type="button" className="btn btn-primary" onClick={() => save("save")} disabled={fetcher.state !== "idle"}>
+          <button
+            type="button"
+            className="btn btn-primary"
+            onClick={() => save("save")}
+            disabled={fetcher.state !== "idle"}
+          >
             Save draft
           </button>
-          <button type="button" className="btn" onClick={() => save("save-review")} disabled={fetcher.state !== "idle"}>
+          <button
+            type="button"
+            className="btn"
+            onClick={() => save("save-review")}
+            disabled={fetcher.state !== "idle"}
+          >
             Save and review
           </button>
         </div>

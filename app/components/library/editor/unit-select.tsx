@@ -14,9 +14,24 @@ function optionText(unit: Unit) {
 }
 
 /** Every unit Sternpost knows, grouped by what it measures; or only `among` when given. */
-export function UnitSelect({ value, onChange, among, control }: { value: string; onChange: (unit: string) => void; among?: readonly Unit[]; control: ControlProps }) {
+export function UnitSelect({
+  value,
+  onChange,
+  among,
+  control,
+}: {
+  value: string;
+  onChange: (unit: string) => void;
+  among?: readonly Unit[];
+  control: ControlProps;
+}) {
   return (
-    <select {...control} value={value} onChange={(e) => onChange(e.currentTarget.value)} className="field-input">
+    <select
+      {...control}
+      value={value}
+      onChange={(e) => onChange(e.currentTarget.value)}
+      className="field-input"
+    >
       {among
         ? among.map((u) => (
             <option key={u} value={u}>

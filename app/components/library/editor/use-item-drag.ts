@@ -13,10 +13,14 @@ function dropTargetAt(x: number, y: number): DropTarget | null {
   const row = under?.closest<HTMLElement>("[data-drop-item]");
   if (row?.dataset.section) {
     const rect = row.getBoundingClientRect();
-    return { sectionId: row.dataset.section, index: Number(row.dataset.index) + (y > rect.top + rect.height / 2 ? 1 : 0) };
+    return {
+      sectionId: row.dataset.section,
+      index: Number(row.dataset.index) + (y > rect.top + rect.height / 2 ? 1 : 0),
+    };
   }
   const list = under?.closest<HTMLElement>("[data-drop-section]");
-  if (list?.dataset.dropSection) return { sectionId: list.dataset.dropSection, index: Number(list.dataset.count) };
+  if (list?.dataset.dropSection)
+    return { sectionId: list.dataset.dropSection, index: Number(list.dataset.count) };
   return null;
 }
 
@@ -25,7 +29,10 @@ function dropTargetAt(x: number, y: number): DropTarget | null {
  * mouse (HTML drag and drop does not start from touch everywhere). The page scrolls when the
  * pointer nears the top or bottom edge. The handle also moves its item with the arrow keys.
  */
-export function useItemDrag(onDrop: (id: string, target: DropTarget) => void, onStep: (id: string, by: -1 | 1) => void) {
+export function useItemDrag(
+  onDrop: (id: string, target: DropTarget) => void,
+  onStep: (id: string, by: -1 | 1) => void,
+) {
   const [drag, setDrag] = useState<{ id: string; target: DropTarget | null } | null>(null);
   const current = useRef(drag);
   current.current = drag;
