@@ -5,6 +5,8 @@ import compression from "compression";
 import express from "express";
 
 const port = Number(process.env.PORT ?? 3000);
+// Behind the HTTPS proxy (npm start -- --lan) the app listens on loopback only.
+const host = process.env.HOST;
 const build = await import("./build/server/index.js");
 
 const app = express();
@@ -32,4 +34,6 @@ app.all(
   }),
 );
 
-app.listen(port, () => console.log(`[sternpost] listening on http://localhost:${port}`));
+const onListening = () => console.log(`[sternpost] listening on http://${host ?? "localhost"}:${port}`);
+if (host) app.listen(port, host, onListening);
+else app.listen(port, onListening);

@@ -5,7 +5,8 @@ ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 DATA="$ROOT/.data"
 MARIADB_PORT="${MARIADB_PORT:-3307}"
 SMTP_PORT="${SMTP_PORT:-2525}"
-mkdir -p "$DATA"
+PIDS="$DATA/pids"
+mkdir -p "$DATA" "$PIDS"
 
 log() { printf '\033[1m[sternpost]\033[0m %s\n' "$*"; }
 
@@ -25,7 +26,10 @@ ensure_node_modules() {
   fi
 }
 
-port_open() { (exec 3<>"/dev/tcp/127.0.0.1/$1") 2>/dev/null; }
+port_open() { (exec 3<>"/dev/tcp/${2:-127.0.0.1}/$1") 2>/dev/null; }
+
+# Each service the start command starts leaves its process id here; `npm stop` ends exactly those.
+remember_pid() { echo "$2" >"$PIDS/$1.pid"; }
 
 start_mariadb() {
   if [ -n "${DATABASE_URL:-}" ]; then log "using DATABASE_URL (no private MariaDB)"; return 0; fi
@@ -58,6 +62,7 @@ start_mail_sink() {
   if port_open "$SMTP_PORT"; then log "SMTP sink already answering on 127.0.0.1:$SMTP_PORT"; return 0; fi
   log "starting the SMTP sink on 127.0.0.1:$SMTP_PORT (messages in .data/mail)"
   SMTP_PORT="$SMTP_PORT" nohup "$ROOT/node_modules/.bin/tsx" "$ROOT/scripts/mail-sink.ts" >"$DATA/mail-sink.log" 2>&1 &
+  remember_pid mail-sink $!
   for _ in $(seq 1 100); do port_open "$SMTP_PORT" && return 0; sleep 0.1; done
   log "the SMTP sink did not start; see .data/mail-sink.log"; return 1
 }
@@ -70,8 +75,45 @@ start_s3_fake() {
   if port_open "$port"; then log "S3 stand-in already answering on 127.0.0.1:$port"; return 0; fi
   log "starting the S3 stand-in on 127.0.0.1:$port (photos in .data/s3)"
   S3_PORT="$port" S3_FAKE_DIR="$DATA/s3" nohup "$ROOT/node_modules/.bin/tsx" "$ROOT/scripts/s3-fake.ts" >"$DATA/s3-fake.log" 2>&1 &
+  remember_pid s3-fake $!
   for _ in $(seq 1 100); do port_open "$port" && return 0; sleep 0.1; done
   log "the S3 stand-in did not start; see .data/s3-fake.log"; return 1
+}
+
+# HTTPS on the yard's network (npm start -- --lan): Caddy with the yard's own certificate authority
+# in front of the app. Sets APP_URL, LAN_HOST, HTTPS_PORT and CA_URL for the start message.
+start_https_proxy() {
+  apt_install caddy caddy
+  export LAN_HOST="${LAN_HOST:-$(hostname -I | awk '{print $1}')}"
+  export HTTPS_PORT="${HTTPS_PORT:-3443}" CA_PORT="${CA_PORT:-3080}"
+  [ -n "$LAN_HOST" ] || { log "no network address found; set LAN_HOST"; return 1; }
+  export APP_URL="https://$LAN_HOST:$HTTPS_PORT" CA_URL="http://$LAN_HOST:$CA_PORT/sternpost-yard-ca.crt"
+  export TRUST_PROXY=loopback HOST=127.0.0.1
+  local dir="$DATA/caddy"
+  if port_open "$HTTPS_PORT" "$LAN_HOST"; then log "HTTPS already answering on $LAN_HOST:$HTTPS_PORT"; return 0; fi
+  "$ROOT/node_modules/.bin/tsx" "$ROOT/scripts/https-proxy.ts" config "$LAN_HOST" "$HTTPS_PORT" "$CA_PORT" "$PORT" "$dir" >/dev/null
+  log "starting Caddy (HTTPS) on $LAN_HOST:$HTTPS_PORT"
+  nohup caddy run --config "$dir/Caddyfile" --adapter caddyfile >"$DATA/caddy.log" 2>&1 &
+  remember_pid caddy $!
+  for _ in $(seq 1 100); do
+    "$ROOT/node_modules/.bin/tsx" "$ROOT/scripts/https-proxy.ts" publish "$LAN_HOST" "$HTTPS_PORT" "$CA_PORT" "$PORT" "$dir" && return 0
+    sleep 0.2
+  done
+  log "Caddy did not start; see .data/caddy.log"; tail -20 "$DATA/caddy.log"; return 1
+}
+
+# Ends one recorded service by its process id and waits for it to go.
+stop_recorded() { # stop_recorded <name> <pidfile>
+  local pid
+  [ -f "$2" ] || return 0
+  pid="$(cat "$2")"
+  if kill -0 "$pid" 2>/dev/null; then
+    log "stopping $1 (process $pid)"
+    kill "$pid" 2>/dev/null || true
+    for _ in $(seq 1 100); do kill -0 "$pid" 2>/dev/null || break; sleep 0.1; done
+    kill -0 "$pid" 2>/dev/null && { log "$1 still running; sending KILL"; kill -9 "$pid" 2>/dev/null || true; }
+  fi
+  rm -f "$2"
 }
 
 session_secret() {

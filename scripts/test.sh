@@ -7,6 +7,8 @@ cd "$ROOT"
 ensure_node_modules
 apt_install chromium chromium
 apt_install pdftotext poppler-utils
+apt_install caddy caddy
+apt_install certutil libnss3-tools
 start_mariadb
 trap stop_mariadb_if_started EXIT
 export SESSION_SECRET="${SESSION_SECRET:-test-suite-secret-0123456789abcdef}"

@@ -3,7 +3,9 @@ import { Link, useRevalidator } from "react-router";
 import type { Route } from "./+types/today";
 import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
 import { can } from "~/lib/permissions";
+import { OfflineCapability } from "~/components/offline-capability";
 import { requireUser } from "~/server/auth.server";
+import { env } from "~/server/env.server";
 import { listChecklistsOfJobs } from "~/server/checklists.server";
 import { listVisibleJobs } from "~/server/jobs.server";
 import { recordsIssuedTo } from "~/server/records.server";
@@ -40,7 +42,9 @@ export async function loader({ request }: Route.LoaderArgs) {
           issuedAt: new Date(r.issued_at).toISOString(),
         }))
       : [];
-  return { name: user.name, role: user.role, jobs: withChecklists, records, offline: false };
+  // Where tablets can keep checklists offline, if this server is reached over https.
+  const secureUrl = env().APP_URL.startsWith("https:") ? new URL(env().APP_URL).origin : null;
+  return { name: user.name, role: user.role, jobs: withChecklists, records, offline: false, secureUrl };
 }
 
 /** With no connection, the jobs this tablet holds. */
@@ -60,7 +64,14 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
       dueDate: j.dueDate,
       checklists: j.checklists,
     }));
-    return { name: user?.name ?? "", role: user?.role ?? "technician", jobs, records: [], offline: true };
+    return {
+      name: user?.name ?? "",
+      role: user?.role ?? "technician",
+      jobs,
+      records: [],
+      offline: true,
+      secureUrl: null,
+    };
   }
 }
 
@@ -119,7 +130,7 @@ function OfflineReadiness() {
 }
 
 export default function Today({ loaderData }: Route.ComponentProps) {
-  const { name, role, jobs, records, offline } = loaderData;
+  const { name, role, jobs, records, offline, secureUrl } = loaderData;
   return (
     <>
       <h1 className="mb-2 text-3xl font-bold">Good to see you, {name.split(" ")[0]}</h1>
@@ -146,7 +157,9 @@ export default function Today({ loaderData }: Route.ComponentProps) {
         </>
       ) : (
         <>
-          <OfflineReadiness />
+          <OfflineCapability secureUrl={secureUrl}>
+            <OfflineReadiness />
+          </OfflineCapability>
           <p className="mb-4 text-lg">
             {offline
               ? "No connection: the jobs on this tablet."

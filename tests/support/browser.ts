@@ -4,11 +4,18 @@ import { DEMO_PASSWORD } from "../../db/seeds/demo-people.ts";
 
 export const baseUrl = () => process.env.E2E_BASE_URL ?? "http://localhost:3100";
 
-/** Debian's Chromium, headless, with nothing reaching outside this machine (Playwright gives it a fresh profile). */
-export async function launch(): Promise<Browser> {
+/**
+ * Debian's Chromium, headless, with nothing reaching outside this machine (Playwright gives it a
+ * fresh profile). `home` gives it a home folder of its own (whose NSS database may trust a
+ * certificate authority); `args` adds flags such as host-resolver rules that keep every name on
+ * loopback.
+ */
+export async function launch(options: { home?: string; args?: string[] } = {}): Promise<Browser> {
   return chromium.launch({
     executablePath: process.env.CHROMIUM_PATH ?? "/usr/bin/chromium",
+    env: options.home ? { ...process.env, HOME: options.home } : undefined,
     args: [
+      ...(options.args ?? []),
       "--headless",
       "--no-sandbox",
       "--disable-gpu",
