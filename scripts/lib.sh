@@ -2,7 +2,7 @@
 # Everything lives under .data/ (ignored by git) so a second run reuses it and keeps the data.
 set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
-DATA="$ROOT/.data"
+DATA="${STERNPOST_DATA:-$ROOT/.data}"
 MARIADB_PORT="${MARIADB_PORT:-3307}"
 SMTP_PORT="${SMTP_PORT:-2525}"
 PIDS="$DATA/pids"
@@ -102,16 +102,19 @@ start_https_proxy() {
   log "Caddy did not start; see .data/caddy.log"; tail -20 "$DATA/caddy.log"; return 1
 }
 
+# A process that has exited but not yet been reaped (state Z) is not running.
+running() { kill -0 "$1" 2>/dev/null && [ "$(cut -d' ' -f3 "/proc/$1/stat" 2>/dev/null)" != Z ]; }
+
 # Ends one recorded service by its process id and waits for it to go.
 stop_recorded() { # stop_recorded <name> <pidfile>
   local pid
   [ -f "$2" ] || return 0
   pid="$(cat "$2")"
-  if kill -0 "$pid" 2>/dev/null; then
+  if running "$pid"; then
     log "stopping $1 (process $pid)"
     kill "$pid" 2>/dev/null || true
-    for _ in $(seq 1 100); do kill -0 "$pid" 2>/dev/null || break; sleep 0.1; done
-    kill -0 "$pid" 2>/dev/null && { log "$1 still running; sending KILL"; kill -9 "$pid" 2>/dev/null || true; }
+    for _ in $(seq 1 100); do running "$pid" || break; sleep 0.1; done
+    running "$pid" && { log "$1 still running; sending KILL"; kill -9 "$pid" 2>/dev/null || true; }
   fi
   rm -f "$2"
 }
