@@ -1,6 +1,7 @@
 import { useEffect } from "react";
-import { isRouteErrorResponse, Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
+import { Links, Meta, Outlet, Scripts, ScrollRestoration } from "react-router";
 import type { Route } from "./+types/root";
+import { ErrorMessage } from "./components/error-page";
 import "./app.css";
 
 export const links: Route.LinksFunction = () => [
@@ -37,40 +38,9 @@ export default function App() {
 }
 
 export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
-  let title = "Something went wrong";
-  let message =
-    "Sternpost hit an unexpected error. Your saved entries are safe; try again, and tell your manager if it repeats.";
-  let stack: string | undefined;
-  if (isRouteErrorResponse(error)) {
-    const detail =
-      typeof error.data === "object" && error.data?.message ? String(error.data.message) : undefined;
-    if (error.status === 404) {
-      title = "Not found (404)";
-      message =
-        detail ?? "There is no page at this address. It may have been moved, or the link is mistyped.";
-    } else if (error.status === 403) {
-      title = "Not yours to open (403)";
-      message =
-        detail ?? "Your role does not give access to this page. Ask your shop manager if you need it.";
-    } else {
-      title = `${error.status} ${error.statusText}`;
-      message = detail ?? message;
-    }
-  } else if (import.meta.env.DEV && error instanceof Error) {
-    message = error.message;
-    stack = error.stack;
-  }
   return (
-    <main className="mx-auto max-w-2xl p-6">
-      <p className="text-sm font-bold tracking-wide text-copper uppercase">Sternpost</p>
-      <h1 className="mt-2 text-3xl font-bold">{title}</h1>
-      <p className="mt-4 text-lg">{message}</p>
-      <p className="mt-6 flex gap-3">
-        <a className="btn btn-primary" href="/">
-          Go to today's work
-        </a>
-      </p>
-      {stack && <pre className="mt-6 overflow-auto rounded bg-card p-4 text-sm">{stack}</pre>}
+    <main className="p-6">
+      <ErrorMessage error={error} />
     </main>
   );
 }

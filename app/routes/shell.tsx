@@ -1,6 +1,7 @@
-import { Outlet, redirect, type ShouldRevalidateFunctionArgs } from "react-router";
+import { Outlet, redirect, useRouteLoaderData, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/shell";
 import { AppShell } from "~/components/app-shell";
+import { ErrorMessage } from "~/components/error-page";
 import { requireUser } from "~/server/auth.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
@@ -47,6 +48,17 @@ export default function Shell({ loaderData }: Route.ComponentProps) {
   return (
     <AppShell user={loaderData.user}>
       <Outlet />
+    </AppShell>
+  );
+}
+
+/** A page's error keeps the header and the sync bar: entries still waiting stay visible. */
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  const data = useRouteLoaderData<typeof loader>("routes/shell");
+  if (!data) return <ErrorMessage error={error} />;
+  return (
+    <AppShell user={data.user}>
+      <ErrorMessage error={error} />
     </AppShell>
   );
 }
