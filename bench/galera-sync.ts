@@ -33,6 +33,7 @@ interface Answer {
   status: string;
   rev?: number;
   code?: string;
+  conflictId?: number;
 }
 interface Change {
   checklistId: string;
@@ -107,27 +108,32 @@ try {
     await Promise.all(
       devices.map(async (d, i) => {
         const base = (round + i) % 2 ? appB : appA;
-        const itemKey = hot[(round * 7 + i) % hot.length]!;
-        const value =
-          (round + i) % 3 === 0
-            ? { result: "pass" }
-            : { result: "fail", note: `Round ${round}, device ${i}: weeping at the flange` };
-        const op = {
-          opId: randomUUID(),
-          seq: ++d.seq,
-          checklistId: target.id,
-          itemKey,
-          value,
-          baseRev: d.revs.get(itemKey) ?? 0,
-          at: new Date().toISOString(),
-        };
-        d.sent.push({ opId: op.opId, itemKey, value });
-        const answer = await push(base, cookie, { deviceId: d.id, cursor: d.cursor, ops: [op] });
-        for (const r of answer.results) d.answers.set(r.opId, r);
-        const r = answer.results[0]!;
-        if (r.status === "applied" && r.rev !== undefined && r.rev > (d.revs.get(itemKey) ?? 0)) {
-          d.revs.set(itemKey, r.rev);
-          d.values.set(itemKey, value);
+        // Two items per request, so multi-row writes (and their ids) cross the nodes too.
+        const ops = [0, 1].map((k) => {
+          const itemKey = hot[(round * 7 + i + k) % hot.length]!;
+          const value =
+            (round + i + k) % 3 === 0
+              ? { result: "pass" }
+              : { result: "fail", note: `Round ${round}, device ${i}: weeping at the flange` };
+          return {
+            opId: randomUUID(),
+            seq: ++d.seq,
+            checklistId: target.id,
+            itemKey,
+            value,
+            baseRev: d.revs.get(itemKey) ?? 0,
+            at: new Date().toISOString(),
+          };
+        });
+        for (const op of ops) d.sent.push({ opId: op.opId, itemKey: op.itemKey, value: op.value });
+        const answer = await push(base, cookie, { deviceId: d.id, cursor: d.cursor, ops });
+        for (const [k, r] of answer.results.entries()) {
+          d.answers.set(r.opId, r);
+          const { itemKey, value } = ops[k]!;
+          if (r.status === "applied" && r.rev !== undefined && r.rev > (d.revs.get(itemKey) ?? 0)) {
+            d.revs.set(itemKey, r.rev);
+            d.values.set(itemKey, value);
+          }
         }
         absorb(d, answer.changes);
         d.cursor = answer.cursor;
@@ -158,6 +164,14 @@ try {
     const kept = await knex("sync_conflicts").whereIn("op_id", conflicted).count({ n: "*" }).first();
     if (Number(kept!.n) !== conflicted.length)
       problems.push(`${name}: ${kept!.n} conflicts kept for ${conflicted.length} conflicting operations`);
+  }
+  // Each conflict answer names the row that keeps that operation's value.
+  for (const s of sent.filter((x) => x.answer?.status === "conflict")) {
+    const row = await knexB("sync_conflicts")
+      .where({ id: s.answer!.conflictId ?? 0 })
+      .first("op_id");
+    if (row?.op_id !== s.opId)
+      problems.push(`conflict ${s.answer!.conflictId} is not the one kept for ${s.opId}`);
   }
   const rows = async (knex: typeof knexA) =>
     (await knex("checklist_responses").where({ checklist_id: target.id }).orderBy("item_key"))
