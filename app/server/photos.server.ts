@@ -6,7 +6,9 @@ import type { RecordPhoto } from "~/lib/record/types";
 import { findItem, type PhotoValue, type Template } from "~/lib/templates";
 import { db } from "./db.server.ts";
 import { env } from "./env.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { getObject, headObject, putObject } from "./storage.server.ts";
+import type { PhotoRow } from "./tables.server.ts";
 
 /**
  * Photo evidence on the server. A photo is known by the UUID the tablet made; its bytes go to the
@@ -42,7 +44,7 @@ export const storageKeyFor = (sha256: string) => `photos/sha256/${sha256.slice(0
 
 const sha256Of = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
 
-const toStored = (row: any): StoredPhoto => ({
+const toStored = (row: PhotoRow): StoredPhoto => ({
   id: row.id,
   checklistId: row.checklist_id,
   itemKey: row.item_key,
@@ -85,7 +87,7 @@ function refuseUnlessFillable(
   if (!access) throw new PhotoRefusal(404, "There is no such checklist.");
   if (!access.canView) throw new PhotoRefusal(403, "This checklist belongs to a job that is not yours.");
   if (!access.canFill) throw new PhotoRefusal(403, "Only the job's technicians and its lead add photos.");
-  if (!findItem(JSON.parse(access.body) as Template, itemKey))
+  if (!findItem(parseJsonColumn<Template>(access.body), itemKey))
     throw new PhotoRefusal(404, `The checklist has no item "${itemKey}".`);
   if (access.state === "countersigned")
     throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
@@ -95,7 +97,7 @@ function refuseUnlessFillable(
 
 /** The photos a stored value (a JSON column) lists; none for values of other kinds. */
 function photosListedIn(raw: unknown): PhotoValue["photos"] {
-  const value = (typeof raw === "string" ? JSON.parse(raw) : raw) as Partial<PhotoValue> | null;
+  const value = parseJsonColumn<Partial<PhotoValue> | null>(raw);
   return Array.isArray(value?.photos) ? value.photos : [];
 }
 
@@ -193,11 +195,8 @@ export async function storePhoto(
   try {
     await db().transaction(async (trx) => {
       // Under the checklist row's lock: a countersignature cannot slip in between the check and the row.
-      const { state } = await trx("job_checklists")
-        .where({ id: photo.checklistId })
-        .forShare()
-        .first("state");
-      if (state === "countersigned")
+      const locked = await trx("job_checklists").where({ id: photo.checklistId }).forShare().first("state");
+      if (locked?.state === "countersigned")
         throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
       await trx("photos").insert({
         id: photo.id,
@@ -214,7 +213,7 @@ export async function storePhoto(
   } catch (error) {
     // The same id sent twice at once: the first insert won; this one is a repeat of it.
     if ((error as { code?: string }).code !== "ER_DUP_ENTRY") throw error;
-    return repeated(toStored(await db()("photos").where({ id: input.id }).first()), input, sha256);
+    return repeated(toStored((await db()("photos").where({ id: input.id }).first())!), input, sha256);
   }
   return { created: true, photo };
 }
@@ -238,7 +237,7 @@ export async function checklistPhotos(checklistId: string, knex: Knex = db()): P
     .where({ checklist_id: checklistId })
     .orderBy(["item_key", "id"])
     .select("item_key", "id", "sha256");
-  return rows.map((r: any) => ({ itemKey: r.item_key, id: r.id, sha256: r.sha256 }));
+  return rows.map((r) => ({ itemKey: r.item_key, id: r.id, sha256: r.sha256 }));
 }
 
 /**

@@ -6,27 +6,24 @@ import type { Actor } from "~/lib/permissions";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
 import { env } from "./env.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { findJob } from "./jobs.server.ts";
 import { sendMail } from "./mail.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import { ReviewError } from "./review.server.ts";
+import type { JobChecklistRow } from "./tables.server.ts";
 import { inviteUser } from "./users.server.ts";
 import { findVessel } from "./vessels.server.ts";
 
 /** The checklists a record is made of: for each template, the newest of its amendment chain. */
 export async function currentChecklists(jobId: number) {
-  const rows = await db()("job_checklists as c")
-    .join("template_versions as t", "t.id", "c.template_version_id")
-    .where("c.job_id", jobId)
-    .select("c.id", "c.state", "c.amends_id", "c.template_key", "t.title");
-  const amended = new Set(rows.map((r: any) => r.amends_id).filter(Boolean));
-  return rows.filter((r: any) => !amended.has(r.id)) as {
-    id: string;
-    state: string;
-    amends_id: string | null;
-    template_key: string;
-    title: string;
-  }[];
+  const rows: (Pick<JobChecklistRow, "id" | "state" | "amends_id" | "template_key"> & { title: string })[] =
+    await db()("job_checklists as c")
+      .join("template_versions as t", "t.id", "c.template_version_id")
+      .where("c.job_id", jobId)
+      .select("c.id", "c.state", "c.amends_id", "c.template_key", "t.title");
+  const amended = new Set(rows.map((r) => r.amends_id).filter(Boolean));
+  return rows.filter((r) => !amended.has(r.id));
 }
 
 export async function recordReadiness(jobId: number) {
@@ -59,14 +56,13 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
     );
   }
   const people = await db()("users").whereIn("email", emails);
-  const staff = people.filter((p: any) => p.role !== "surveyor");
+  const staff = people.filter((p) => p.role !== "surveyor");
   if (staff.length)
     throw new ReviewError(
-      `${staff.map((p: any) => p.email).join(", ")} belongs to a yard account, not a surveyor's; use the surveyor's own address.`,
+      `${staff.map((p) => p.email).join(", ")} belongs to a yard account, not a surveyor's; use the surveyor's own address.`,
     );
-  const inactive = people.filter((p: any) => !p.active);
-  if (inactive.length)
-    throw new ReviewError(`${inactive.map((p: any) => p.email).join(", ")} is deactivated.`);
+  const inactive = people.filter((p) => !p.active);
+  if (inactive.length) throw new ReviewError(`${inactive.map((p) => p.email).join(", ")} is deactivated.`);
 
   const vessel = (await findVessel(job.vesselId))!;
   const id = randomUUID();
@@ -111,7 +107,7 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
 
   const invitations = new Map<string, string>();
   for (const email of emails) {
-    if (!people.some((p: any) => p.email === email)) {
+    if (!people.some((p) => p.email === email)) {
       const { token } = await inviteUser({ email, name: email.split("@")[0]!, role: "surveyor" }, actor.id);
       invitations.set(email, token);
     }
@@ -127,7 +123,7 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
     });
     const recipients = await trx("users").whereIn("email", emails).select("id", "email");
     await trx("record_recipients").insert(
-      recipients.map((r: any) => ({ record_id: id, user_id: r.id, email: r.email, sent_at: issuedAt })),
+      recipients.map((r) => ({ record_id: id, user_id: r.id, email: r.email, sent_at: issuedAt })),
     );
     await audit(
       {
@@ -163,11 +159,11 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
 export async function findRecord(id: string) {
   const row = await db()("records").where({ id }).first();
   if (!row) return undefined;
-  const content = JSON.parse(row.content) as CommissioningRecord;
+  const content = parseJsonColumn<CommissioningRecord>(row.content);
   return {
-    id: row.id as string,
-    jobId: row.job_id as number,
-    digest: row.digest as string,
+    id: row.id,
+    jobId: row.job_id,
+    digest: row.digest,
     issuedAt: new Date(row.issued_at).toISOString(),
     content,
   };
@@ -183,7 +179,9 @@ export async function canReadRecord(actor: Actor, record: { id: string; jobId: n
   return false;
 }
 
-export async function recordsIssuedTo(userId: number) {
+export async function recordsIssuedTo(
+  userId: number,
+): Promise<{ id: string; issued_at: Date; vessel_name: string; engine_model: string }[]> {
   return db()("record_recipients as r")
     .join("records as d", "d.id", "r.record_id")
     .join("jobs as j", "j.id", "d.job_id")
@@ -218,7 +216,7 @@ export async function verifyRecord(id: string): Promise<Verification | undefined
   const problems: string[] = [];
   let content: CommissioningRecord | undefined;
   try {
-    content = JSON.parse(row.content);
+    content = parseJsonColumn<CommissioningRecord>(row.content);
   } catch {
     problems.push("The stored record can no longer be read.");
   }

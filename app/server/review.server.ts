@@ -5,8 +5,10 @@ import { checklistDigest } from "~/lib/record/digest.server";
 import { progress, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { photosNotYetStored } from "./photos.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
+import type { JobChecklistRow, TemplateVersionRow } from "./tables.server.ts";
 import { checkPassword } from "./users.server.ts";
 
 /** A review step refused, worded for the person who asked. */
@@ -19,10 +21,14 @@ export class ReviewError extends Error {
   }
 }
 
-const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
-
 async function checklistWithJob(trx: Knex | Knex.Transaction, checklistId: string) {
-  const row = await trx("job_checklists as c")
+  const row:
+    | (Pick<
+        JobChecklistRow,
+        "id" | "state" | "job_id" | "amends_id" | "template_version_id" | "template_key"
+      > &
+        Pick<TemplateVersionRow, "body"> & { lead_id: number })
+    | undefined = await trx("job_checklists as c")
     .join("template_versions as t", "t.id", "c.template_version_id")
     .join("jobs as j", "j.id", "c.job_id")
     .where("c.id", checklistId)
@@ -38,7 +44,7 @@ async function checklistWithJob(trx: Knex | Knex.Transaction, checklistId: strin
     );
   if (!row) throw new ReviewError("There is no such checklist.", 404);
   const technicianIds: number[] = await trx("job_technicians").where({ job_id: row.job_id }).pluck("user_id");
-  return { ...row, job: { leadId: row.lead_id as number, technicianIds } };
+  return { ...row, job: { leadId: row.lead_id, technicianIds } };
 }
 
 /** What is still missing before a checklist can be submitted, recomputed on the server. */
@@ -46,7 +52,7 @@ export async function missingItems(trx: Knex | Knex.Transaction, checklistId: st
   const rows = await trx("checklist_responses")
     .where({ checklist_id: checklistId })
     .select("item_key", "value");
-  const values = Object.fromEntries(rows.map((r: any) => [r.item_key, json(r.value)]));
+  const values = Object.fromEntries(rows.map((r) => [r.item_key, parseJsonColumn(r.value)]));
   const state = progress(template, values);
   return { left: state.overall.left, attention: state.overall.attention, complete: state.complete };
 }
@@ -62,7 +68,7 @@ export async function submitChecklist(
   if (!canFillJob(actor, c.job)) return "Only the job's technicians and its lead submit its checklists.";
   if (c.state !== "in-progress" && c.state !== "returned")
     return `The checklist is already ${c.state === "submitted" ? "waiting for review" : "countersigned"}.`;
-  const template = JSON.parse(c.body) as Template;
+  const template = parseJsonColumn<Template>(c.body);
   const missing = await missingItems(trx, checklistId, template);
   if (!missing.complete) {
     return `Not submitted: ${missing.left.length} required item(s) left and ${missing.attention.length} needing attention.`;
@@ -182,12 +188,12 @@ export async function startAmendment(actor: Actor, checklistId: string): Promise
     });
     const now = new Date();
     const rows = await trx("checklist_responses").where({ checklist_id: checklistId });
-    const { seq } = await trx("sync_clock").where({ id: 1 }).forUpdate().first();
+    const { seq } = (await trx("sync_clock").where({ id: 1 }).forUpdate().first())!;
     await trx("sync_clock")
       .where({ id: 1 })
       .update({ seq: Number(seq) + 1 });
     for (const r of rows) {
-      const value = typeof r.value === "string" ? r.value : JSON.stringify(r.value);
+      const value = r.value;
       await trx("checklist_responses").insert({
         checklist_id: id,
         item_key: r.item_key,

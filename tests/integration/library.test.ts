@@ -53,8 +53,8 @@ async function importPublished(name: string, change?: (t: any) => void): Promise
   return result.key;
 }
 
-const rowOf = (key: string, version: number) =>
-  knex("template_versions").where({ template_key: key, version }).first();
+const rowOf = async (key: string, version: number) =>
+  (await knex("template_versions").where({ template_key: key, version }).first())!;
 const bolt = {
   kind: "measure",
   key: "coupling-bolt-torque",

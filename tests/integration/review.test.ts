@@ -64,7 +64,7 @@ beforeAll(async () => {
 const device = "review-device";
 const push = (actor: typeof tech, ops: ReturnType<typeof op>[]) =>
   sync(actor, { deviceId: device, cursor: null, ops });
-const stateOf = async (id: string) => (await knex("job_checklists").where({ id }).first()).state;
+const stateOf = async (id: string) => (await knex("job_checklists").where({ id }).first())!.state;
 const actions = async (id: string) =>
   (await knex("audit_log").where({ entity_id: id }).orderBy("id").pluck("action")) as string[];
 
@@ -155,7 +155,7 @@ describe("the lock", () => {
         at: new Date(),
       }),
     ).rejects.toThrow(refused);
-    const { value } = await knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).first();
+    const { value } = (await knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).first())!;
     expect(typeof value === "string" ? JSON.parse(value) : value).toEqual({ text: "ok" });
   });
 
@@ -172,7 +172,7 @@ describe("the lock", () => {
     const original = (await loadRecordChecklist(id, knex))!;
     expect(original.responses.b!.value).toEqual({ text: "first" });
     expect(checklistDigest(original)).toBe(digest);
-    expect((await knex("job_checklists").where({ id: amendment }).first()).amends_id).toBe(id);
+    expect((await knex("job_checklists").where({ id: amendment }).first())!.amends_id).toBe(id);
     expect(await actions(amendment)).toContain("checklist.amended");
   });
 });
@@ -197,7 +197,7 @@ describe("issuing and verifying a record", () => {
     const recordId = await issueRecord(manager, jobId, [`surveyor-${Date.now()}@survey.example`]);
     expect((await verifyRecord(recordId))!.genuine).toBe(true);
     expect(await knex("audit_log").where({ action: "record.issued", entity_id: recordId })).toHaveLength(1);
-    const row = await knex("records").where({ id: recordId }).first();
+    const row = (await knex("records").where({ id: recordId }).first())!;
     await knex("records")
       .where({ id: recordId })
       .update({ content: row.content.replace('"text":"ok"', '"text":"OK"') });
