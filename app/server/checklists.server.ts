@@ -1,5 +1,6 @@
 import { randomUUID } from "node:crypto";
 import { defaultTemplatesFor, type ChecklistState } from "~/lib/checklist-sets";
+import { Refusal } from "~/lib/refusal";
 import type { Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
@@ -67,8 +68,6 @@ export async function listJobChecklists(jobId: number): Promise<JobChecklistSumm
   return (await listChecklistsOfJobs([jobId])).get(jobId)!;
 }
 
-export class ChecklistStartError extends Error {}
-
 /**
  * Starts one checklist per chosen template on a job, each pinned to the version published now.
  * Templates already started on the job are skipped.
@@ -77,7 +76,7 @@ export async function startChecklists(jobId: number, keys: string[], userId: num
   return db().transaction(async (trx) => {
     const latest = await latestPublished(trx);
     const unknown = keys.filter((k) => !latest.some((l) => l.key === k));
-    if (unknown.length) throw new ChecklistStartError(`No published template named ${unknown.join(", ")}.`);
+    if (unknown.length) throw new Refusal("invalid", `No published template named ${unknown.join(", ")}.`);
     const existing: string[] = await trx("job_checklists").where({ job_id: jobId }).pluck("template_key");
     const ids: string[] = [];
     for (const key of keys.filter((k) => !existing.includes(k))) {

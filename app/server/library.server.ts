@@ -1,5 +1,6 @@
 import type { Knex } from "knex";
 import { canViewJob, can, type Actor } from "~/lib/permissions";
+import { Refusal } from "~/lib/refusal";
 import { parseTemplate, parseTemplateText, type Template, type TemplateProblem } from "~/lib/templates";
 import { sha256, templateBody } from "../../db/seeds/library.ts";
 import { audit } from "./audit.server.ts";
@@ -48,17 +49,6 @@ export interface LibraryTemplate {
   draft: number | null;
   /** Newest first. */
   versions: LibraryVersion[];
-}
-
-export class LibraryError extends Error {
-  constructor(
-    message: string,
-    /** The form field the message belongs to, when there is one. */
-    readonly field?: string,
-  ) {
-    super(message);
-    this.name = "LibraryError";
-  }
 }
 
 const mayEdit = (actor: Actor) => can(actor, "library:edit");
@@ -232,7 +222,10 @@ async function insertDraft(trx: Knex.Transaction, template: Template, userId: nu
     return id as number;
   } catch (error) {
     if (isDuplicate(error))
-      throw new LibraryError("Someone else has just made this version. Reload the library and try again.");
+      throw new Refusal(
+        "wrong-state",
+        "Someone else has just made this version. Reload the library and try again.",
+      );
     throw error;
   }
 }
@@ -240,7 +233,8 @@ async function insertDraft(trx: Knex.Transaction, template: Template, userId: nu
 function mustParse(input: unknown): Template {
   const parsed = parseTemplate(input);
   if (!parsed.ok)
-    throw new LibraryError(
+    throw new Refusal(
+      "invalid",
       `The template does not load: ${parsed.problems.map((p) => `${p.path}: ${p.message}`).join("; ")}`,
     );
   return parsed.template;
@@ -266,7 +260,7 @@ export async function createTemplate(
   });
   return db().transaction(async (trx) => {
     if ((await lockedVersions(trx, template.key)).length)
-      throw new LibraryError(`There is already a template with the key ${template.key}.`, "key");
+      throw new Refusal("wrong-state", `There is already a template with the key ${template.key}.`, "key");
     const id = await insertDraft(trx, template, userId);
     await audit(
       {
@@ -291,10 +285,11 @@ export async function createDraftFrom(
   return db().transaction(async (trx) => {
     const versions = await lockedVersions(trx, key);
     const source = versions.find((v) => v.version === version);
-    if (!source) throw new LibraryError("There is no such template version.");
+    if (!source) throw new Refusal("not-found", "There is no such template version.");
     const draft = versions.find((v) => v.status === "draft");
     if (draft)
-      throw new LibraryError(
+      throw new Refusal(
+        "wrong-state",
         `Version ${draft.version} is already a draft: edit it, publish it or discard it first.`,
       );
     const next = Math.max(...versions.map((v) => v.version)) + 1;
@@ -333,9 +328,10 @@ export async function saveDraft(
   if (misplaced.length) return { ok: false, problems: misplaced };
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
     if (row.status !== "draft")
-      throw new LibraryError(
+      throw new Refusal(
+        "wrong-state",
         `Version ${version} is ${row.status} and never changes; make a new draft from it.`,
       );
     const body = templateBody(template);
@@ -369,11 +365,13 @@ export async function publishDraft(
   return db().transaction(async (trx) => {
     const versions = await lockedVersions(trx, key);
     const row = versions.find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
-    if (row.status !== "draft") throw new LibraryError(`Version ${version} is already ${row.status}.`);
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
+    if (row.status !== "draft")
+      throw new Refusal("wrong-state", `Version ${version} is already ${row.status}.`);
     mustParse(parseJsonColumn(row.body));
     if (versions.some((v) => v.version > version && v.status !== "draft")) {
-      throw new LibraryError(
+      throw new Refusal(
+        "wrong-state",
         `A later version of this template is already published; make a new draft from it instead.`,
       );
     }
@@ -399,9 +397,12 @@ export async function publishDraft(
 export async function retireVersion(key: string, version: number, userId: number): Promise<void> {
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
     if (row.status !== "published")
-      throw new LibraryError(`Only a published version can be retired; version ${version} is ${row.status}.`);
+      throw new Refusal(
+        "wrong-state",
+        `Only a published version can be retired; version ${version} is ${row.status}.`,
+      );
     await trx("template_versions")
       .where({ id: row.id })
       .update({ status: "retired", retired_at: new Date() });
@@ -422,9 +423,9 @@ export async function retireVersion(key: string, version: number, userId: number
 export async function discardDraft(key: string, version: number, userId: number): Promise<void> {
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
     if (row.status !== "draft")
-      throw new LibraryError(`Version ${version} is ${row.status}; only a draft can be discarded.`);
+      throw new Refusal("wrong-state", `Version ${version} is ${row.status}; only a draft can be discarded.`);
     await trx("template_versions").where({ id: row.id }).delete();
     await audit(
       {

@@ -2,7 +2,8 @@ import { randomUUID } from "node:crypto";
 import { recordCanonical } from "~/lib/record/canonical";
 import { checklistDigest, recordDigest, sha256Hex } from "~/lib/record/digest.server";
 import type { CommissioningRecord } from "~/lib/record/types";
-import type { Actor } from "~/lib/permissions";
+import { canOnJob, canReadRecord as mayReadRecord, type Actor } from "~/lib/permissions";
+import { Refusal } from "~/lib/refusal";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
 import { env } from "./env.server.ts";
@@ -10,7 +11,6 @@ import { parseJsonColumn } from "./json-column.server.ts";
 import { findJob } from "./jobs.server.ts";
 import { sendMail } from "./mail.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
-import { ReviewError } from "./review.server.ts";
 import type { JobChecklistRow } from "./tables.server.ts";
 import { inviteUser } from "./users.server.ts";
 import { findVessel } from "./vessels.server.ts";
@@ -44,12 +44,13 @@ const verifyUrl = (id: string) => `${env().APP_URL}/verify/${id}`;
  */
 export async function issueRecord(actor: Actor, jobId: number, emails: string[]): Promise<string> {
   const job = await findJob(jobId);
-  if (!job) throw new ReviewError("There is no such job.", 404);
-  if (!(actor.role === "manager" || (actor.role === "lead" && job.leadId === actor.id)))
-    throw new ReviewError("Only the manager or the job's lead issues its record.", 403);
+  if (!job) throw new Refusal("not-found", "There is no such job.");
+  if (!canOnJob(actor, "issue-record", job))
+    throw new Refusal("forbidden", "Only the manager or the job's lead issues its record.");
   const readiness = await recordReadiness(jobId);
   if (!readiness.ready) {
-    throw new ReviewError(
+    throw new Refusal(
+      "wrong-state",
       readiness.count
         ? `Every checklist must be countersigned first; still open: ${readiness.open.join(", ")}.`
         : "The job has no checklists yet.",
@@ -58,11 +59,13 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
   const people = await db()("users").whereIn("email", emails);
   const staff = people.filter((p) => p.role !== "surveyor");
   if (staff.length)
-    throw new ReviewError(
+    throw new Refusal(
+      "invalid",
       `${staff.map((p) => p.email).join(", ")} belongs to a yard account, not a surveyor's; use the surveyor's own address.`,
     );
   const inactive = people.filter((p) => !p.active);
-  if (inactive.length) throw new ReviewError(`${inactive.map((p) => p.email).join(", ")} is deactivated.`);
+  if (inactive.length)
+    throw new Refusal("invalid", `${inactive.map((p) => p.email).join(", ")} is deactivated.`);
 
   const vessel = (await findVessel(job.vesselId))!;
   const id = randomUUID();
@@ -171,12 +174,11 @@ export async function findRecord(id: string) {
 
 /** Surveyors see the records issued to them; the manager and the job's lead see the job's. */
 export async function canReadRecord(actor: Actor, record: { id: string; jobId: number }) {
-  if (actor.role === "manager") return true;
-  if (actor.role === "lead")
-    return !!(await db()("jobs").where({ id: record.jobId, lead_id: actor.id }).first());
-  if (actor.role === "surveyor")
-    return !!(await db()("record_recipients").where({ record_id: record.id, user_id: actor.id }).first());
-  return false;
+  const [job, recipientIds] = await Promise.all([
+    findJob(record.jobId),
+    db()("record_recipients").where({ record_id: record.id }).pluck("user_id"),
+  ]);
+  return !!job && mayReadRecord(actor, { job, recipientIds });
 }
 
 export async function recordsIssuedTo(

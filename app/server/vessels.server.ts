@@ -1,4 +1,5 @@
 import { convert } from "~/lib/calc/units";
+import { Refusal } from "~/lib/refusal";
 import type { VesselInput } from "~/lib/validation/vessels";
 import { db } from "./db.server.ts";
 import type { VesselRow } from "./tables.server.ts";
@@ -63,14 +64,12 @@ export async function findVessel(id: number): Promise<Vessel | undefined> {
   return toVessel(row, leads);
 }
 
-export class DuplicateHinError extends Error {}
-
 async function guardHin<T>(work: () => Promise<T>): Promise<T> {
   try {
     return await work();
   } catch (error) {
     if ((error as { code?: string } | null)?.code === "ER_DUP_ENTRY")
-      throw new DuplicateHinError("Another vessel already has this hull identification number.");
+      throw new Refusal("invalid", "Another vessel already has this hull identification number.", "hin");
     throw error;
   }
 }

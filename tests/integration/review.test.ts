@@ -123,6 +123,24 @@ describe("submitting, returning and countersigning", () => {
     ]);
     await expect(countersign(lead, id, TEST_PASSWORD)).rejects.toThrow(/waiting for review/);
   });
+
+  it("refuses each step in the wrong state with 409, and a stranger with 403, whatever the step", async () => {
+    const id = await freshJobChecklist();
+    const wrongState = { reason: "wrong-state", status: 409 };
+    // In progress: nothing to comment on, return or countersign yet; nothing to amend.
+    await expect(addComment(lead, id, "b", "Too early")).rejects.toMatchObject(wrongState);
+    await expect(returnChecklist(lead, id)).rejects.toMatchObject(wrongState);
+    await expect(countersign(lead, id, TEST_PASSWORD)).rejects.toMatchObject(wrongState);
+    await expect(startAmendment(lead, id)).rejects.toMatchObject(wrongState);
+    const forbidden = { reason: "forbidden", status: 403 };
+    await expect(returnChecklist(otherLead, id)).rejects.toMatchObject(forbidden);
+    await expect(startAmendment(tech, id)).rejects.toMatchObject(forbidden);
+    await expect(countersign(lead, id, "wrong password")).rejects.toMatchObject({
+      status: 400,
+      field: "password",
+    });
+    expect(await stateOf(id)).toBe("in-progress");
+  });
 });
 
 describe("the lock", () => {
