@@ -64,7 +64,7 @@ const [versionId] = await knex("template_versions").insert({
   body_sha256: sha256(body),
   published_at: new Date(),
 });
-const job = await knex("jobs").where({ status: "underway" }).first();
+const job = (await knex("jobs").where({ status: "underway" }).first())!;
 const checklistId = randomUUID();
 await knex("job_checklists").insert({
   id: checklistId,

@@ -1,19 +1,29 @@
+import { getFormProps, getTextareaProps, useForm, type SubmissionResult } from "@conform-to/react";
+import { parseWithZod } from "@conform-to/zod/v4";
 import { Form, Link } from "react-router";
+import { issueRecordSchema } from "~/lib/validation/records";
+import { Field, FormErrors } from "./field.tsx";
 
 /** Issuing the job's record to surveyors, once every checklist is countersigned. */
 export function IssueRecord({
   readiness,
   records,
   canIssue,
-  error,
+  lastResult,
   issued,
 }: {
   readiness: { ready: boolean; open: string[]; count: number };
   records: { id: string; issued_at: string | Date; digest: string }[];
   canIssue: boolean;
-  error?: string | null;
+  lastResult?: SubmissionResult<string[]> | null;
   issued?: string | null;
 }) {
+  const [form, fields] = useForm({
+    id: "issue-record",
+    lastResult,
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: issueRecordSchema }),
+    shouldValidate: "onSubmit",
+  });
   return (
     <section className="card mb-6" aria-labelledby="record-title">
       <h2 id="record-title" className="mb-3 text-xl font-bold">
@@ -44,28 +54,17 @@ export function IssueRecord({
             : "Start the job's checklists first."}
         </p>
       ) : canIssue ? (
-        <Form method="post" className="flex flex-col gap-2">
+        <Form method="post" {...getFormProps(form)} className="flex flex-col gap-2">
           <input type="hidden" name="intent" value="issue-record" />
-          <label htmlFor="emails" className="font-bold">
-            Surveyors' e-mail addresses
-          </label>
-          <p id="emails-hint" className="text-sm text-ink-soft">
-            One per line. Each gets a link to the record and its PDF; someone new gets an account limited to
-            the records issued to them.
-          </p>
-          <textarea
-            id="emails"
-            name="emails"
-            rows={2}
-            className="field-input"
-            aria-describedby="emails-hint"
-            aria-invalid={error ? true : undefined}
-          />
-          {error && (
-            <p role="alert" className="font-bold text-fault">
-              ▲ {error}
-            </p>
-          )}
+          <FormErrors errors={form.errors} />
+          <Field
+            id={fields.emails.id}
+            label="Surveyors' e-mail addresses"
+            hint="One per line. Each gets a link to the record and its PDF; someone new gets an account limited to the records issued to them."
+            errors={[...new Set(Object.values(fields.emails.allErrors).flat())]}
+          >
+            <textarea {...getTextareaProps(fields.emails)} rows={2} className="field-input" />
+          </Field>
           <div>
             <button className="btn btn-primary" type="submit">
               Issue the record

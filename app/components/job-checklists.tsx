@@ -1,6 +1,8 @@
+import { getFormProps, useForm, type SubmissionResult } from "@conform-to/react";
+import { parseWithZod } from "@conform-to/zod/v4";
 import { Form, Link } from "react-router";
 import { checklistStateLabels } from "~/lib/checklist-sets";
-import type { FormErrorsData } from "./field.tsx";
+import { jobPageActionSchema } from "~/lib/validation/job-page";
 import { FormErrors } from "./field.tsx";
 
 interface Summary {
@@ -21,15 +23,23 @@ export function JobChecklists({
   defaults,
   canStart,
   canReview,
-  result,
+  lastResult,
 }: {
   checklists: Summary[];
   available: { key: string; title: string; version: number }[];
   defaults: string[];
   canStart: boolean;
   canReview: boolean;
-  result?: FormErrorsData;
+  /** The answer to starting checklists or an amendment: its errors show above the list's form. */
+  lastResult?: SubmissionResult<string[]> | null;
 }) {
+  const [form, fields] = useForm({
+    id: "job-checklists",
+    lastResult,
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: jobPageActionSchema }),
+    shouldValidate: "onSubmit",
+  });
+  const errors = [...(form.errors ?? []), ...(fields.templates.errors ?? [])];
   const startable = available.filter((a) => !checklists.some((c) => c.key === a.key));
   return (
     <section className="card mb-6" aria-labelledby="checklists-title">
@@ -37,6 +47,7 @@ export function JobChecklists({
         Checklists
       </h2>
       {checklists.length === 0 && <p className="mb-3">No checklists started on this job yet.</p>}
+      {(!canStart || startable.length === 0) && <FormErrors errors={errors} />}
       <ul className="mb-4 flex flex-col gap-2" data-testid="job-checklists">
         {checklists.map((c) => (
           <li
@@ -76,9 +87,9 @@ export function JobChecklists({
         ))}
       </ul>
       {canStart && startable.length > 0 && (
-        <Form method="post" className="flex flex-col gap-3">
+        <Form method="post" {...getFormProps(form)} className="flex flex-col gap-3">
           <input type="hidden" name="intent" value="start-checklists" />
-          <FormErrors errors={result?.errors} />
+          <FormErrors errors={errors} />
           <fieldset>
             <legend className="mb-2 font-bold">Start checklists from the current library</legend>
             <div className="flex flex-wrap gap-2">

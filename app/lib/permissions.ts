@@ -25,11 +25,21 @@ export type Capability =
   | "calculators:use"
   | "library:view"
   | "library:edit"
-  | "audit:read";
+  | "audit:read"
+  /** Take one's jobs onto a tablet to work without a connection. */
+  | "offline:take";
 
 const capabilities: Record<Role, Capability[]> = {
-  technician: ["jobs:view", "calculators:use", "library:view"],
-  lead: ["jobs:view", "jobs:create", "vessels:view", "vessels:create", "calculators:use", "library:view"],
+  technician: ["jobs:view", "calculators:use", "library:view", "offline:take"],
+  lead: [
+    "jobs:view",
+    "jobs:create",
+    "vessels:view",
+    "vessels:create",
+    "calculators:use",
+    "library:view",
+    "offline:take",
+  ],
   manager: [
     "users:manage",
     "jobs:view",
@@ -40,6 +50,7 @@ const capabilities: Record<Role, Capability[]> = {
     "library:view",
     "library:edit",
     "audit:read",
+    "offline:take",
   ],
   surveyor: [],
 };
@@ -48,30 +59,66 @@ export function can(actor: Actor | null | undefined, capability: Capability): bo
   return !!actor && capabilities[actor.role].includes(capability);
 }
 
-export function canViewJob(actor: Actor, job: JobAccess): boolean {
-  switch (actor.role) {
-    case "manager":
-      return true;
-    case "lead":
-      return job.leadId === actor.id;
-    case "technician":
-      return job.technicianIds.includes(actor.id);
-    case "surveyor":
-      return false;
-  }
+/**
+ * What a person may do with one job's work. Each action names who may take it, and every guard
+ * (pages, API routes, the sync, photos, review, the record) asks here.
+ */
+export type JobAction =
+  /** Open the job, its checklists and their photos. */
+  | "view"
+  /** Change the job, start its checklists. */
+  | "edit"
+  /** Record entries and photos on its checklists, and submit them. */
+  | "fill"
+  /** Open a checklist's review page and see the job's issued records. */
+  | "oversee"
+  /** Comment on, return and countersign a submitted checklist. */
+  | "countersign"
+  /** Start the amendment of a countersigned checklist. */
+  | "amend"
+  /** Issue the job's commissioning record to surveyors. */
+  | "issue-record";
+
+type Crew = "manager" | "job's lead" | "job's technicians";
+
+const jobActions: Record<JobAction, Crew[]> = {
+  view: ["manager", "job's lead", "job's technicians"],
+  edit: ["manager", "job's lead"],
+  fill: ["job's lead", "job's technicians"],
+  oversee: ["manager", "job's lead"],
+  countersign: ["job's lead"],
+  amend: ["manager", "job's lead"],
+  "issue-record": ["manager", "job's lead"],
+};
+
+function crewOf(actor: Actor, job: JobAccess): Crew | null {
+  if (actor.role === "manager") return "manager";
+  if (actor.role === "lead" && job.leadId === actor.id) return "job's lead";
+  if (actor.role === "technician" && job.technicianIds.includes(actor.id)) return "job's technicians";
+  return null;
 }
 
-/** Managers edit any job; a lead edits the jobs they lead (and assigns their technicians). */
-export function canEditJob(actor: Actor, job: JobAccess): boolean {
-  return actor.role === "manager" || (actor.role === "lead" && job.leadId === actor.id);
+export function canOnJob(actor: Actor | null | undefined, action: JobAction, job: JobAccess): boolean {
+  const crew = actor ? crewOf(actor, job) : null;
+  return crew !== null && jobActions[action].includes(crew);
 }
 
-/** Who records entries on a job's checklists: its technicians and its lead. */
-export function canFillJob(actor: Actor, job: JobAccess): boolean {
-  return (
-    (actor.role === "technician" && job.technicianIds.includes(actor.id)) ||
-    (actor.role === "lead" && job.leadId === actor.id)
-  );
+export const canViewJob = (actor: Actor, job: JobAccess) => canOnJob(actor, "view", job);
+export const canEditJob = (actor: Actor, job: JobAccess) => canOnJob(actor, "edit", job);
+export const canFillJob = (actor: Actor, job: JobAccess) => canOnJob(actor, "fill", job);
+
+/**
+ * An issued record: the manager and the job's lead read the job's records; a surveyor reads the
+ * ones issued to them.
+ */
+export function canReadRecord(actor: Actor, record: { job: JobAccess; recipientIds: number[] }): boolean {
+  if (actor.role === "surveyor") return record.recipientIds.includes(actor.id);
+  return canOnJob(actor, "oversee", record.job);
+}
+
+/** Template versions: published and retired ones for the yard's staff, drafts for library editors. */
+export function canReadTemplateVersion(actor: Actor, version: { status: string }): boolean {
+  return can(actor, version.status === "draft" ? "library:edit" : "library:view");
 }
 
 /** A lead edits a vessel they registered or one that has a job they lead. */

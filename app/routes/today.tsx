@@ -35,10 +35,10 @@ export async function loader({ request }: Route.LoaderArgs) {
   }));
   const records =
     user.role === "surveyor"
-      ? (await recordsIssuedTo(user.id)).map((r: any) => ({
-          id: r.id as string,
-          vesselName: r.vessel_name as string,
-          engineModel: r.engine_model as string,
+      ? (await recordsIssuedTo(user.id)).map((r) => ({
+          id: r.id,
+          vesselName: r.vessel_name,
+          engineModel: r.engine_model,
           issuedAt: new Date(r.issued_at).toISOString(),
         }))
       : [];

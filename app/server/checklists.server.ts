@@ -1,8 +1,11 @@
 import { randomUUID } from "node:crypto";
 import { defaultTemplatesFor, type ChecklistState } from "~/lib/checklist-sets";
+import { Refusal } from "~/lib/refusal";
 import type { Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
+import type { ChecklistResponseRow, JobChecklistRow, TemplateVersionRow } from "./tables.server.ts";
 import { latestPublished } from "./templates.server.ts";
 
 export interface JobChecklistSummary {
@@ -19,6 +22,10 @@ export interface JobChecklistSummary {
   amendedBy: string | null;
 }
 
+/** A checklist row with its template's key, title and version (and body, when asked for). */
+type ChecklistListRow = Pick<JobChecklistRow, "id" | "job_id" | "state" | "amends_id"> &
+  Pick<TemplateVersionRow, "template_key" | "title" | "version">;
+
 /** The order the work is done in, whatever order the checklists were started in. */
 const workOrder = (key: string) => {
   const i = defaultTemplatesFor.repower.indexOf(key);
@@ -29,15 +36,17 @@ const workOrder = (key: string) => {
 export async function listChecklistsOfJobs(jobIds: number[]): Promise<Map<number, JobChecklistSummary[]>> {
   const byJob = new Map<number, JobChecklistSummary[]>(jobIds.map((id) => [id, []]));
   if (!jobIds.length) return byJob;
-  const [rows, latest] = await Promise.all([
-    db()("job_checklists as c")
-      .join("template_versions as t", "t.id", "c.template_version_id")
-      .whereIn("c.job_id", jobIds)
-      .orderBy("c.created_at")
-      .select("c.id", "c.job_id", "c.state", "c.amends_id", "t.template_key", "t.title", "t.version"),
-    latestPublished(),
-  ]);
-  rows.sort((a: any, b: any) => workOrder(a.template_key) - workOrder(b.template_key));
+  const [rows, latest]: [ChecklistListRow[], Awaited<ReturnType<typeof latestPublished>>] = await Promise.all(
+    [
+      db()("job_checklists as c")
+        .join("template_versions as t", "t.id", "c.template_version_id")
+        .whereIn("c.job_id", jobIds)
+        .orderBy("c.created_at")
+        .select("c.id", "c.job_id", "c.state", "c.amends_id", "t.template_key", "t.title", "t.version"),
+      latestPublished(),
+    ],
+  );
+  rows.sort((a, b) => workOrder(a.template_key) - workOrder(b.template_key));
   for (const r of rows) {
     const newest = latest.find((l) => l.key === r.template_key);
     byJob.get(r.job_id)!.push({
@@ -49,7 +58,7 @@ export async function listChecklistsOfJobs(jobIds: number[]): Promise<Map<number
       state: r.state,
       newerVersion: newest && newest.version > r.version ? newest.version : null,
       amends: r.amends_id ?? null,
-      amendedBy: rows.find((other: any) => other.amends_id === r.id)?.id ?? null,
+      amendedBy: rows.find((other) => other.amends_id === r.id)?.id ?? null,
     });
   }
   return byJob;
@@ -59,8 +68,6 @@ export async function listJobChecklists(jobId: number): Promise<JobChecklistSumm
   return (await listChecklistsOfJobs([jobId])).get(jobId)!;
 }
 
-export class ChecklistStartError extends Error {}
-
 /**
  * Starts one checklist per chosen template on a job, each pinned to the version published now.
  * Templates already started on the job are skipped.
@@ -69,7 +76,7 @@ export async function startChecklists(jobId: number, keys: string[], userId: num
   return db().transaction(async (trx) => {
     const latest = await latestPublished(trx);
     const unknown = keys.filter((k) => !latest.some((l) => l.key === k));
-    if (unknown.length) throw new ChecklistStartError(`No published template named ${unknown.join(", ")}.`);
+    if (unknown.length) throw new Refusal("invalid", `No published template named ${unknown.join(", ")}.`);
     const existing: string[] = await trx("job_checklists").where({ job_id: jobId }).pluck("template_key");
     const ids: string[] = [];
     for (const key of keys.filter((k) => !existing.includes(k))) {
@@ -103,7 +110,9 @@ export interface JobChecklist extends JobChecklistSummary {
 }
 
 export async function findChecklist(id: string): Promise<JobChecklist | undefined> {
-  const row = await db()("job_checklists as c")
+  const row: (ChecklistListRow & Pick<TemplateVersionRow, "body">) | undefined = await db()(
+    "job_checklists as c",
+  )
     .join("template_versions as t", "t.id", "c.template_version_id")
     .where("c.id", id)
     .first("c.id", "c.job_id", "c.state", "c.amends_id", "t.template_key", "t.title", "t.version", "t.body");
@@ -119,21 +128,25 @@ export async function findChecklist(id: string): Promise<JobChecklist | undefine
     newerVersion: newest && newest.version > row.version ? newest.version : null,
     amends: row.amends_id ?? null,
     amendedBy: (await db()("job_checklists").where({ amends_id: row.id }).first("id"))?.id ?? null,
-    template: JSON.parse(row.body),
+    template: parseJsonColumn<Template>(row.body),
   };
 }
 
+type ResponseWithAuthor = Pick<ChecklistResponseRow, "item_key" | "value" | "rev" | "updated_at"> & {
+  name: string;
+};
+
 /** The current responses of a checklist as the server holds them. */
 export async function checklistResponses(checklistId: string) {
-  const rows = await db()("checklist_responses as r")
+  const rows: ResponseWithAuthor[] = await db()("checklist_responses as r")
     .join("users as u", "u.id", "r.updated_by")
     .where("r.checklist_id", checklistId)
     .select("r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
   return Object.fromEntries(
-    rows.map((r: any) => [
+    rows.map((r) => [
       r.item_key,
       {
-        value: typeof r.value === "string" ? JSON.parse(r.value) : r.value,
+        value: parseJsonColumn(r.value),
         rev: r.rev,
         by: r.name,
         at: new Date(r.updated_at).toISOString(),

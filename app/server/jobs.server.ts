@@ -2,6 +2,10 @@ import type { Knex } from "knex";
 import { canViewJob, type Actor } from "~/lib/permissions";
 import type { JobInput } from "~/lib/validation/jobs";
 import { db } from "./db.server.ts";
+import type { JobRow } from "./tables.server.ts";
+
+/** A job row with its vessel's name and HIN and its lead's name (baseQuery). */
+type JobListRow = JobRow & { vessel_name: string; hin: string | null; lead_name: string };
 
 export interface JobSummary {
   id: number;
@@ -47,7 +51,7 @@ async function crew(jobIds: number[]) {
   return byJob;
 }
 
-function toJob(row: any, techs: { id: number; name: string }[]): Job {
+function toJob(row: JobListRow, techs: { id: number; name: string }[]): Job {
   return {
     id: row.id,
     vesselId: row.vessel_id,
@@ -73,7 +77,7 @@ function toJob(row: any, techs: { id: number; name: string }[]): Job {
     leadName: row.lead_name,
     technicianIds: techs.map((t) => t.id),
     technicianNames: techs.map((t) => t.name),
-  } as Job;
+  };
 }
 
 /** The jobs this person may see: managers all, leads theirs, technicians those assigned. */
@@ -86,13 +90,13 @@ export async function listVisibleJobs(actor: Actor): Promise<Job[]> {
   else if (actor.role === "technician")
     query = query.whereIn("jobs.id", db()("job_technicians").where({ user_id: actor.id }).select("job_id"));
   else if (actor.role !== "manager") return [];
-  const rows = await query;
-  const techs = await crew(rows.map((r: any) => r.id));
-  return rows.map((r: any) => toJob(r, techs.get(r.id) ?? [])).filter((j: Job) => canViewJob(actor, j));
+  const rows: JobListRow[] = await query;
+  const techs = await crew(rows.map((r) => r.id));
+  return rows.map((r) => toJob(r, techs.get(r.id) ?? [])).filter((j) => canViewJob(actor, j));
 }
 
 export async function findJob(id: number): Promise<Job | undefined> {
-  const row = await baseQuery(db()).where("jobs.id", id).first();
+  const row: JobListRow | undefined = await baseQuery(db()).where("jobs.id", id).first();
   if (!row) return undefined;
   return toJob(row, (await crew([id])).get(id) ?? []);
 }

@@ -1,9 +1,12 @@
 import type { Knex } from "knex";
 import { canViewJob, can, type Actor } from "~/lib/permissions";
+import { Refusal } from "~/lib/refusal";
 import { parseTemplate, parseTemplateText, type Template, type TemplateProblem } from "~/lib/templates";
 import { sha256, templateBody } from "../../db/seeds/library.ts";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
+import type { TemplateStatus, TemplateVersionRow } from "./tables.server.ts";
 
 /**
  * The template library as the manager keeps it: every version of every template with the jobs
@@ -12,7 +15,7 @@ import { db } from "./db.server.ts";
  * version never changes; MariaDB's trigger refuses it even if this code tried.
  */
 
-export type VersionStatus = "draft" | "published" | "retired";
+export type VersionStatus = TemplateStatus;
 
 export interface VersionUse {
   checklistId: string;
@@ -48,20 +51,20 @@ export interface LibraryTemplate {
   versions: LibraryVersion[];
 }
 
-export class LibraryError extends Error {
-  constructor(
-    message: string,
-    /** The form field the message belongs to, when there is one. */
-    readonly field?: string,
-  ) {
-    super(message);
-    this.name = "LibraryError";
-  }
-}
-
 const mayEdit = (actor: Actor) => can(actor, "library:edit");
 
-async function uses(knex: Knex, actor: Actor, versionIds?: number[]) {
+interface UseRow {
+  checklist_id: string;
+  template_version_id: number;
+  state: string;
+  job_id: number;
+  lead_id: number;
+  vessel_name: string;
+}
+
+type Uses = Map<number, { count: number; visible: VersionUse[] }>;
+
+async function uses(knex: Knex, actor: Actor, versionIds?: number[]): Promise<Uses> {
   let query = knex("job_checklists as c")
     .join("jobs as j", "j.id", "c.job_id")
     .join("vessels as v", "v.id", "j.vessel_id")
@@ -75,17 +78,17 @@ async function uses(knex: Knex, actor: Actor, versionIds?: number[]) {
       "v.name as vessel_name",
     );
   if (versionIds) query = query.whereIn("c.template_version_id", versionIds);
-  const rows = await query;
+  const rows: UseRow[] = await query;
   const crew = rows.length
     ? await knex("job_technicians")
-        .whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))])
+        .whereIn("job_id", [...new Set(rows.map((r) => r.job_id))])
         .select("job_id", "user_id")
     : [];
-  const byVersion = new Map<number, { count: number; visible: VersionUse[] }>();
-  for (const r of rows as any[]) {
+  const byVersion: Uses = new Map();
+  for (const r of rows) {
     const entry = byVersion.get(r.template_version_id) ?? { count: 0, visible: [] };
     entry.count++;
-    const technicianIds = crew.filter((c: any) => c.job_id === r.job_id).map((c: any) => c.user_id);
+    const technicianIds = crew.filter((c) => c.job_id === r.job_id).map((c) => c.user_id);
     if (canViewJob(actor, { leadId: r.lead_id, technicianIds })) {
       entry.visible.push({
         checklistId: r.checklist_id,
@@ -98,6 +101,11 @@ async function uses(knex: Knex, actor: Actor, versionIds?: number[]) {
   }
   return byVersion;
 }
+
+type VersionListRow = Pick<
+  TemplateVersionRow,
+  "id" | "template_key" | "version" | "status" | "title" | "published_at" | "retired_at" | "created_at"
+> & { created_by_name: string | null };
 
 function versionQuery(knex: Knex) {
   return knex("template_versions as t")
@@ -115,7 +123,7 @@ function versionQuery(knex: Knex) {
     );
 }
 
-function toVersion(row: any, used: Map<number, { count: number; visible: VersionUse[] }>): LibraryVersion {
+function toVersion(row: VersionListRow, used: Uses): LibraryVersion {
   const use = used.get(row.id);
   return {
     id: row.id,
@@ -152,8 +160,8 @@ function groupByKey(versions: LibraryVersion[]): LibraryTemplate[] {
 export async function listLibrary(actor: Actor, knex: Knex = db()): Promise<LibraryTemplate[]> {
   let query = versionQuery(knex);
   if (!mayEdit(actor)) query = query.whereNot("t.status", "draft");
-  const [rows, used] = await Promise.all([query, uses(knex, actor)]);
-  return groupByKey(rows.map((r: any) => toVersion(r, used)));
+  const [rows, used]: [VersionListRow[], Uses] = await Promise.all([query, uses(knex, actor)]);
+  return groupByKey(rows.map((r) => toVersion(r, used)));
 }
 
 /** One template's versions as this person may see them, or undefined when there is none to show. */
@@ -164,14 +172,14 @@ export async function templateHistory(
 ): Promise<LibraryTemplate | undefined> {
   let query = versionQuery(knex).where("t.template_key", key);
   if (!mayEdit(actor)) query = query.whereNot("t.status", "draft");
-  const rows = await query;
+  const rows: VersionListRow[] = await query;
   if (!rows.length) return undefined;
   const used = await uses(
     knex,
     actor,
-    rows.map((r: any) => r.id),
+    rows.map((r) => r.id),
   );
-  return groupByKey(rows.map((r: any) => toVersion(r, used)))[0];
+  return groupByKey(rows.map((r) => toVersion(r, used)))[0];
 }
 
 /** A version's template, if this person may read it (drafts only for those who edit the library). */
@@ -179,22 +187,12 @@ export async function readableVersion(actor: Actor, key: string, version: number
   if (!Number.isInteger(version) || version < 1) return undefined;
   const row = await knex("template_versions").where({ template_key: key, version }).first();
   if (!row || (row.status === "draft" && !mayEdit(actor))) return undefined;
-  return {
-    id: row.id as number,
-    status: row.status as VersionStatus,
-    template: JSON.parse(row.body) as Template,
-  };
+  return { id: row.id, status: row.status, template: parseJsonColumn<Template>(row.body) };
 }
 
 // ---- changes ---------------------------------------------------------------------------------
 
-interface VersionRow {
-  id: number;
-  version: number;
-  status: VersionStatus;
-  body: string;
-  body_sha256: string;
-}
+type VersionRow = Pick<TemplateVersionRow, "id" | "version" | "status" | "body" | "body_sha256">;
 
 /** The key's versions, locked for the rest of the transaction so two managers cannot race. */
 async function lockedVersions(trx: Knex.Transaction, key: string): Promise<VersionRow[]> {
@@ -224,7 +222,10 @@ async function insertDraft(trx: Knex.Transaction, template: Template, userId: nu
     return id as number;
   } catch (error) {
     if (isDuplicate(error))
-      throw new LibraryError("Someone else has just made this version. Reload the library and try again.");
+      throw new Refusal(
+        "wrong-state",
+        "Someone else has just made this version. Reload the library and try again.",
+      );
     throw error;
   }
 }
@@ -232,7 +233,8 @@ async function insertDraft(trx: Knex.Transaction, template: Template, userId: nu
 function mustParse(input: unknown): Template {
   const parsed = parseTemplate(input);
   if (!parsed.ok)
-    throw new LibraryError(
+    throw new Refusal(
+      "invalid",
       `The template does not load: ${parsed.problems.map((p) => `${p.path}: ${p.message}`).join("; ")}`,
     );
   return parsed.template;
@@ -258,7 +260,7 @@ export async function createTemplate(
   });
   return db().transaction(async (trx) => {
     if ((await lockedVersions(trx, template.key)).length)
-      throw new LibraryError(`There is already a template with the key ${template.key}.`, "key");
+      throw new Refusal("wrong-state", `There is already a template with the key ${template.key}.`, "key");
     const id = await insertDraft(trx, template, userId);
     await audit(
       {
@@ -283,14 +285,15 @@ export async function createDraftFrom(
   return db().transaction(async (trx) => {
     const versions = await lockedVersions(trx, key);
     const source = versions.find((v) => v.version === version);
-    if (!source) throw new LibraryError("There is no such template version.");
+    if (!source) throw new Refusal("not-found", "There is no such template version.");
     const draft = versions.find((v) => v.status === "draft");
     if (draft)
-      throw new LibraryError(
+      throw new Refusal(
+        "wrong-state",
         `Version ${draft.version} is already a draft: edit it, publish it or discard it first.`,
       );
     const next = Math.max(...versions.map((v) => v.version)) + 1;
-    const template = mustParse({ ...JSON.parse(source.body), version: next });
+    const template = mustParse({ ...parseJsonColumn<object>(source.body), version: next });
     const id = await insertDraft(trx, template, userId);
     await audit(
       {
@@ -325,9 +328,10 @@ export async function saveDraft(
   if (misplaced.length) return { ok: false, problems: misplaced };
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
     if (row.status !== "draft")
-      throw new LibraryError(
+      throw new Refusal(
+        "wrong-state",
         `Version ${version} is ${row.status} and never changes; make a new draft from it.`,
       );
     const body = templateBody(template);
@@ -361,11 +365,13 @@ export async function publishDraft(
   return db().transaction(async (trx) => {
     const versions = await lockedVersions(trx, key);
     const row = versions.find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
-    if (row.status !== "draft") throw new LibraryError(`Version ${version} is already ${row.status}.`);
-    mustParse(JSON.parse(row.body));
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
+    if (row.status !== "draft")
+      throw new Refusal("wrong-state", `Version ${version} is already ${row.status}.`);
+    mustParse(parseJsonColumn(row.body));
     if (versions.some((v) => v.version > version && v.status !== "draft")) {
-      throw new LibraryError(
+      throw new Refusal(
+        "wrong-state",
         `A later version of this template is already published; make a new draft from it instead.`,
       );
     }
@@ -391,9 +397,12 @@ export async function publishDraft(
 export async function retireVersion(key: string, version: number, userId: number): Promise<void> {
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
     if (row.status !== "published")
-      throw new LibraryError(`Only a published version can be retired; version ${version} is ${row.status}.`);
+      throw new Refusal(
+        "wrong-state",
+        `Only a published version can be retired; version ${version} is ${row.status}.`,
+      );
     await trx("template_versions")
       .where({ id: row.id })
       .update({ status: "retired", retired_at: new Date() });
@@ -414,9 +423,9 @@ export async function retireVersion(key: string, version: number, userId: number
 export async function discardDraft(key: string, version: number, userId: number): Promise<void> {
   await db().transaction(async (trx) => {
     const row = (await lockedVersions(trx, key)).find((v) => v.version === version);
-    if (!row) throw new LibraryError("There is no such template version.");
+    if (!row) throw new Refusal("not-found", "There is no such template version.");
     if (row.status !== "draft")
-      throw new LibraryError(`Version ${version} is ${row.status}; only a draft can be discarded.`);
+      throw new Refusal("wrong-state", `Version ${version} is ${row.status}; only a draft can be discarded.`);
     await trx("template_versions").where({ id: row.id }).delete();
     await audit(
       {

@@ -52,7 +52,7 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
   const jobs = await listVisibleJobs(user as Actor);
   const jobIds = jobs.map((j) => j.id);
   return db().transaction(async (trx) => {
-    const cursor = String((await trx("sync_clock").where({ id: 1 }).first()).seq);
+    const cursor = String((await trx("sync_clock").where({ id: 1 }).first())!.seq);
     const checklistRows = jobIds.length
       ? await trx("job_checklists as c")
           .join("template_versions as t", "t.id", "c.template_version_id")

@@ -1,6 +1,5 @@
 import { data } from "react-router";
 import { can, type Capability } from "~/lib/permissions";
-import type { Role } from "~/lib/roles";
 import type { User } from "./users.server.ts";
 import { requireApiUser, requireUser } from "./auth.server.ts";
 
@@ -20,12 +19,6 @@ export function invariantFound<T>(value: T | null | undefined, message: string):
 export async function requireCapability(request: Request, capability: Capability): Promise<User> {
   const user = await requireUser(request);
   invariantForbidden(can(user, capability));
-  return user;
-}
-
-export async function requireRole(request: Request, ...allowed: Role[]): Promise<User> {
-  const user = await requireUser(request);
-  invariantForbidden(allowed.includes(user.role));
   return user;
 }
 

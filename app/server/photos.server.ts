@@ -1,12 +1,16 @@
 import { fileTypeFromBuffer } from "file-type";
 import type { Knex } from "knex";
 import { createHash } from "node:crypto";
-import { canFillJob, canViewJob, type Actor } from "~/lib/permissions";
+import { canOnJob, type Actor } from "~/lib/permissions";
 import type { RecordPhoto } from "~/lib/record/types";
+import { Refusal } from "~/lib/refusal";
 import { findItem, type PhotoValue, type Template } from "~/lib/templates";
+import { loadChecklistAccess } from "./checklist-access.server.ts";
 import { db } from "./db.server.ts";
 import { env } from "./env.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { getObject, headObject, putObject } from "./storage.server.ts";
+import type { PhotoRow } from "./tables.server.ts";
 
 /**
  * Photo evidence on the server. A photo is known by the UUID the tablet made; its bytes go to the
@@ -14,16 +18,6 @@ import { getObject, headObject, putObject } from "./storage.server.ts";
  * Storing is idempotent (the same bytes again change nothing) and never half-done: the object is
  * written before the row, and an object with no row is harmless and written again on the retry.
  */
-
-/** A refused photo request, with the HTTP status the route answers. */
-export class PhotoRefusal extends Error {
-  constructor(
-    readonly status: number,
-    message: string,
-  ) {
-    super(message);
-  }
-}
 
 /** What the store accepts, judged from the bytes (never the file name or the Content-Type header). */
 const ACCEPTED_TYPES = new Set(["image/jpeg", "image/png", "image/webp"]);
@@ -42,7 +36,7 @@ export const storageKeyFor = (sha256: string) => `photos/sha256/${sha256.slice(0
 
 const sha256Of = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
 
-const toStored = (row: any): StoredPhoto => ({
+const toStored = (row: PhotoRow): StoredPhoto => ({
   id: row.id,
   checklistId: row.checklist_id,
   itemKey: row.item_key,
@@ -51,23 +45,15 @@ const toStored = (row: any): StoredPhoto => ({
   contentType: row.content_type,
 });
 
-/** The checklist's state, template and who may see and fill it. */
+/** The checklist's state, template and whether this person may see and fill it. */
 async function checklistAccess(actor: Actor, checklistId: string) {
-  const row = await db()("job_checklists as c")
-    .join("jobs as j", "j.id", "c.job_id")
-    .join("template_versions as t", "t.id", "c.template_version_id")
-    .where("c.id", checklistId)
-    .first("c.state", "c.job_id", "j.lead_id", "t.body");
-  if (!row) return undefined;
-  const technicianIds: number[] = await db()("job_technicians")
-    .where({ job_id: row.job_id })
-    .pluck("user_id");
-  const job = { leadId: row.lead_id, technicianIds };
+  const access = await loadChecklistAccess(checklistId);
+  if (!access) return undefined;
   return {
-    state: row.state as string,
-    body: row.body as string,
-    canView: canViewJob(actor, job),
-    canFill: canFillJob(actor, job),
+    state: access.state,
+    body: access.body,
+    canView: canOnJob(actor, "view", access.job),
+    canFill: canOnJob(actor, "fill", access.job),
   };
 }
 
@@ -82,20 +68,20 @@ function refuseUnlessFillable(
   itemKey: string,
   listed: boolean,
 ): void {
-  if (!access) throw new PhotoRefusal(404, "There is no such checklist.");
-  if (!access.canView) throw new PhotoRefusal(403, "This checklist belongs to a job that is not yours.");
-  if (!access.canFill) throw new PhotoRefusal(403, "Only the job's technicians and its lead add photos.");
-  if (!findItem(JSON.parse(access.body) as Template, itemKey))
-    throw new PhotoRefusal(404, `The checklist has no item "${itemKey}".`);
+  if (!access) throw new Refusal("not-found", "There is no such checklist.");
+  if (!access.canView) throw new Refusal("forbidden", "This checklist belongs to a job that is not yours.");
+  if (!access.canFill) throw new Refusal("forbidden", "Only the job's technicians and its lead add photos.");
+  if (!findItem(parseJsonColumn<Template>(access.body), itemKey))
+    throw new Refusal("not-found", `The checklist has no item "${itemKey}".`);
   if (access.state === "countersigned")
-    throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
+    throw new Refusal("wrong-state", "The checklist is countersigned and locked; it takes no more photos.");
   if (access.state === "submitted" && !listed)
-    throw new PhotoRefusal(409, "The checklist has been submitted for review and takes no more photos.");
+    throw new Refusal("wrong-state", "The checklist has been submitted for review and takes no more photos.");
 }
 
 /** The photos a stored value (a JSON column) lists; none for values of other kinds. */
 function photosListedIn(raw: unknown): PhotoValue["photos"] {
-  const value = (typeof raw === "string" ? JSON.parse(raw) : raw) as Partial<PhotoValue> | null;
+  const value = parseJsonColumn<Partial<PhotoValue> | null>(raw);
   return Array.isArray(value?.photos) ? value.photos : [];
 }
 
@@ -122,11 +108,11 @@ async function repeated(
   sha256: string,
 ) {
   if (existing.checklistId !== input.checklistId || existing.itemKey !== input.itemKey) {
-    throw new PhotoRefusal(409, "This photo id is already used for another item.");
+    throw new Refusal("wrong-state", "This photo id is already used for another item.");
   }
   if (existing.sha256 !== sha256)
-    throw new PhotoRefusal(
-      409,
+    throw new Refusal(
+      "wrong-state",
       "A different photo is already stored under this id; a photo never changes once stored.",
     );
   // A 200 promises the store has the bytes: put them back if the object went missing.
@@ -145,11 +131,11 @@ export async function storePhoto(
 ): Promise<{ created: boolean; photo: StoredPhoto }> {
   const max = env().PHOTO_MAX_BYTES;
   if (input.bytes.byteLength > max)
-    throw new PhotoRefusal(
-      413,
+    throw new Refusal(
+      "too-large",
       `A photo may be at most ${max} bytes; this one is ${input.bytes.byteLength}.`,
     );
-  if (input.bytes.byteLength === 0) throw new PhotoRefusal(400, "The photo is empty.");
+  if (input.bytes.byteLength === 0) throw new Refusal("invalid", "The photo is empty.");
   const sha256 = sha256Of(input.bytes);
 
   // Three independent reads, side by side: they are most of what a photo costs besides the put.
@@ -164,20 +150,23 @@ export async function storePhoto(
       existing.checklistId === input.checklistId
         ? access
         : await checklistAccess(actor, existing.checklistId);
-    if (!owner?.canView) throw new PhotoRefusal(403, "This photo belongs to a job that is not yours.");
+    if (!owner?.canView) throw new Refusal("forbidden", "This photo belongs to a job that is not yours.");
     return repeated(existing, input, sha256);
   }
 
   refuseUnlessFillable(access, input.itemKey, listing.listed);
   const type = await fileTypeFromBuffer(input.bytes);
   if (!type || !ACCEPTED_TYPES.has(type.mime)) {
-    throw new PhotoRefusal(
-      415,
+    throw new Refusal(
+      "unsupported-type",
       `Only JPEG, PNG and WebP photos are accepted; these bytes are ${type?.mime ?? "not an image"}.`,
     );
   }
   if (listing.sha256s.size && !listing.sha256s.has(sha256)) {
-    throw new PhotoRefusal(409, "These bytes are not the photo the entry refers to (their SHA-256 differs).");
+    throw new Refusal(
+      "wrong-state",
+      "These bytes are not the photo the entry refers to (their SHA-256 differs).",
+    );
   }
 
   const key = storageKeyFor(sha256);
@@ -193,12 +182,12 @@ export async function storePhoto(
   try {
     await db().transaction(async (trx) => {
       // Under the checklist row's lock: a countersignature cannot slip in between the check and the row.
-      const { state } = await trx("job_checklists")
-        .where({ id: photo.checklistId })
-        .forShare()
-        .first("state");
-      if (state === "countersigned")
-        throw new PhotoRefusal(409, "The checklist is countersigned and locked; it takes no more photos.");
+      const locked = await trx("job_checklists").where({ id: photo.checklistId }).forShare().first("state");
+      if (locked?.state === "countersigned")
+        throw new Refusal(
+          "wrong-state",
+          "The checklist is countersigned and locked; it takes no more photos.",
+        );
       await trx("photos").insert({
         id: photo.id,
         checklist_id: photo.checklistId,
@@ -214,7 +203,7 @@ export async function storePhoto(
   } catch (error) {
     // The same id sent twice at once: the first insert won; this one is a repeat of it.
     if ((error as { code?: string }).code !== "ER_DUP_ENTRY") throw error;
-    return repeated(toStored(await db()("photos").where({ id: input.id }).first()), input, sha256);
+    return repeated(toStored((await db()("photos").where({ id: input.id }).first())!), input, sha256);
   }
   return { created: true, photo };
 }
@@ -223,12 +212,13 @@ export async function storePhoto(
 export async function readPhoto(actor: Actor, id: string): Promise<StoredPhoto & { data: Uint8Array }> {
   const row = await db()("photos").where({ id }).first();
   if (!row)
-    throw new PhotoRefusal(404, "There is no such photo (it may not have been sent from the tablet yet).");
+    throw new Refusal("not-found", "There is no such photo (it may not have been sent from the tablet yet).");
   const photo = toStored(row);
   const access = await checklistAccess(actor, photo.checklistId);
-  if (!access?.canView) throw new PhotoRefusal(403, "This photo belongs to a job that is not yours.");
+  if (!access?.canView) throw new Refusal("forbidden", "This photo belongs to a job that is not yours.");
   const data = await getObject(row.storage_key);
-  if (!data) throw new PhotoRefusal(502, "The photo is recorded but its file is missing from the store.");
+  if (!data)
+    throw new Refusal("store-missing", "The photo is recorded but its file is missing from the store.");
   return { ...photo, data };
 }
 
@@ -238,7 +228,7 @@ export async function checklistPhotos(checklistId: string, knex: Knex = db()): P
     .where({ checklist_id: checklistId })
     .orderBy(["item_key", "id"])
     .select("item_key", "id", "sha256");
-  return rows.map((r: any) => ({ itemKey: r.item_key, id: r.id, sha256: r.sha256 }));
+  return rows.map((r) => ({ itemKey: r.item_key, id: r.id, sha256: r.sha256 }));
 }
 
 /**

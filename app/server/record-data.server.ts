@@ -1,9 +1,27 @@
 import type { Knex } from "knex";
 import type { RecordChecklist } from "~/lib/record/types";
+import type { Template } from "~/lib/templates";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { checklistPhotos } from "./photos.server.ts";
+import type {
+  ChecklistCommentRow,
+  ChecklistResponseRow,
+  JobChecklistRow,
+  ResponseHistoryRow,
+  TemplateVersionRow,
+} from "./tables.server.ts";
 
-const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
+type ChecklistHead = Pick<JobChecklistRow, "id" | "submitted_at" | "countersigned_at" | "digest"> &
+  Pick<TemplateVersionRow, "template_key" | "version" | "body"> & {
+    submitted_name: string | null;
+    countersigned_name: string | null;
+  };
+type Authored<Row> = Row & { name: string };
+type ResponseRow = Pick<ChecklistResponseRow, "item_key" | "value" | "rev" | "updated_at">;
+type HistoryRow = Pick<ResponseHistoryRow, "item_key" | "value" | "rev" | "at">;
+type CommentRow = Pick<ChecklistCommentRow, "item_key" | "text" | "at">;
+
 const iso = (d: Date | string | null) => (d === null ? undefined : new Date(d).toISOString());
 
 /**
@@ -15,7 +33,7 @@ export async function loadRecordChecklist(
   checklistId: string,
   knex: Knex = db(),
 ): Promise<RecordChecklist | undefined> {
-  const row = await knex("job_checklists as c")
+  const row: ChecklistHead | undefined = await knex("job_checklists as c")
     .join("template_versions as t", "t.id", "c.template_version_id")
     .leftJoin("users as s", "s.id", "c.submitted_by")
     .leftJoin("users as k", "k.id", "c.countersigned_by")
@@ -32,7 +50,11 @@ export async function loadRecordChecklist(
       "k.name as countersigned_name",
     );
   if (!row) return undefined;
-  const [responses, history, comments] = await Promise.all([
+  const [responses, history, comments]: [
+    Authored<ResponseRow>[],
+    Authored<HistoryRow>[],
+    Authored<CommentRow>[],
+  ] = await Promise.all([
     knex("checklist_responses as r")
       .join("users as u", "u.id", "r.updated_by")
       .where("r.checklist_id", checklistId)
@@ -53,7 +75,7 @@ export async function loadRecordChecklist(
   for (const h of history)
     (historyByItem[h.item_key] ??= []).push({
       rev: h.rev,
-      value: json(h.value),
+      value: parseJsonColumn(h.value),
       by: h.name,
       at: new Date(h.at).toISOString(),
     });
@@ -61,15 +83,15 @@ export async function loadRecordChecklist(
     id: row.id,
     templateKey: row.template_key,
     templateVersion: row.version,
-    template: JSON.parse(row.body),
+    template: parseJsonColumn<Template>(row.body),
     responses: Object.fromEntries(
-      responses.map((r: any) => [
+      responses.map((r) => [
         r.item_key,
-        { value: json(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString() },
+        { value: parseJsonColumn(r.value), rev: r.rev, by: r.name, at: new Date(r.updated_at).toISOString() },
       ]),
     ),
     history: historyByItem,
-    comments: comments.map((c: any) => ({
+    comments: comments.map((c) => ({
       itemKey: c.item_key,
       by: c.name,
       at: new Date(c.at).toISOString(),

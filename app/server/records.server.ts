@@ -2,31 +2,28 @@ import { randomUUID } from "node:crypto";
 import { recordCanonical } from "~/lib/record/canonical";
 import { checklistDigest, recordDigest, sha256Hex } from "~/lib/record/digest.server";
 import type { CommissioningRecord } from "~/lib/record/types";
-import type { Actor } from "~/lib/permissions";
+import { canOnJob, canReadRecord as mayReadRecord, type Actor } from "~/lib/permissions";
+import { Refusal } from "~/lib/refusal";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
 import { env } from "./env.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { findJob } from "./jobs.server.ts";
 import { sendMail } from "./mail.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
-import { ReviewError } from "./review.server.ts";
+import type { JobChecklistRow } from "./tables.server.ts";
 import { inviteUser } from "./users.server.ts";
 import { findVessel } from "./vessels.server.ts";
 
 /** The checklists a record is made of: for each template, the newest of its amendment chain. */
 export async function currentChecklists(jobId: number) {
-  const rows = await db()("job_checklists as c")
-    .join("template_versions as t", "t.id", "c.template_version_id")
-    .where("c.job_id", jobId)
-    .select("c.id", "c.state", "c.amends_id", "c.template_key", "t.title");
-  const amended = new Set(rows.map((r: any) => r.amends_id).filter(Boolean));
-  return rows.filter((r: any) => !amended.has(r.id)) as {
-    id: string;
-    state: string;
-    amends_id: string | null;
-    template_key: string;
-    title: string;
-  }[];
+  const rows: (Pick<JobChecklistRow, "id" | "state" | "amends_id" | "template_key"> & { title: string })[] =
+    await db()("job_checklists as c")
+      .join("template_versions as t", "t.id", "c.template_version_id")
+      .where("c.job_id", jobId)
+      .select("c.id", "c.state", "c.amends_id", "c.template_key", "t.title");
+  const amended = new Set(rows.map((r) => r.amends_id).filter(Boolean));
+  return rows.filter((r) => !amended.has(r.id));
 }
 
 export async function recordReadiness(jobId: number) {
@@ -47,26 +44,28 @@ const verifyUrl = (id: string) => `${env().APP_URL}/verify/${id}`;
  */
 export async function issueRecord(actor: Actor, jobId: number, emails: string[]): Promise<string> {
   const job = await findJob(jobId);
-  if (!job) throw new ReviewError("There is no such job.", 404);
-  if (!(actor.role === "manager" || (actor.role === "lead" && job.leadId === actor.id)))
-    throw new ReviewError("Only the manager or the job's lead issues its record.", 403);
+  if (!job) throw new Refusal("not-found", "There is no such job.");
+  if (!canOnJob(actor, "issue-record", job))
+    throw new Refusal("forbidden", "Only the manager or the job's lead issues its record.");
   const readiness = await recordReadiness(jobId);
   if (!readiness.ready) {
-    throw new ReviewError(
+    throw new Refusal(
+      "wrong-state",
       readiness.count
         ? `Every checklist must be countersigned first; still open: ${readiness.open.join(", ")}.`
         : "The job has no checklists yet.",
     );
   }
   const people = await db()("users").whereIn("email", emails);
-  const staff = people.filter((p: any) => p.role !== "surveyor");
+  const staff = people.filter((p) => p.role !== "surveyor");
   if (staff.length)
-    throw new ReviewError(
-      `${staff.map((p: any) => p.email).join(", ")} belongs to a yard account, not a surveyor's; use the surveyor's own address.`,
+    throw new Refusal(
+      "invalid",
+      `${staff.map((p) => p.email).join(", ")} belongs to a yard account, not a surveyor's; use the surveyor's own address.`,
     );
-  const inactive = people.filter((p: any) => !p.active);
+  const inactive = people.filter((p) => !p.active);
   if (inactive.length)
-    throw new ReviewError(`${inactive.map((p: any) => p.email).join(", ")} is deactivated.`);
+    throw new Refusal("invalid", `${inactive.map((p) => p.email).join(", ")} is deactivated.`);
 
   const vessel = (await findVessel(job.vesselId))!;
   const id = randomUUID();
@@ -111,7 +110,7 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
 
   const invitations = new Map<string, string>();
   for (const email of emails) {
-    if (!people.some((p: any) => p.email === email)) {
+    if (!people.some((p) => p.email === email)) {
       const { token } = await inviteUser({ email, name: email.split("@")[0]!, role: "surveyor" }, actor.id);
       invitations.set(email, token);
     }
@@ -127,7 +126,7 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
     });
     const recipients = await trx("users").whereIn("email", emails).select("id", "email");
     await trx("record_recipients").insert(
-      recipients.map((r: any) => ({ record_id: id, user_id: r.id, email: r.email, sent_at: issuedAt })),
+      recipients.map((r) => ({ record_id: id, user_id: r.id, email: r.email, sent_at: issuedAt })),
     );
     await audit(
       {
@@ -163,11 +162,11 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
 export async function findRecord(id: string) {
   const row = await db()("records").where({ id }).first();
   if (!row) return undefined;
-  const content = JSON.parse(row.content) as CommissioningRecord;
+  const content = parseJsonColumn<CommissioningRecord>(row.content);
   return {
-    id: row.id as string,
-    jobId: row.job_id as number,
-    digest: row.digest as string,
+    id: row.id,
+    jobId: row.job_id,
+    digest: row.digest,
     issuedAt: new Date(row.issued_at).toISOString(),
     content,
   };
@@ -175,15 +174,16 @@ export async function findRecord(id: string) {
 
 /** Surveyors see the records issued to them; the manager and the job's lead see the job's. */
 export async function canReadRecord(actor: Actor, record: { id: string; jobId: number }) {
-  if (actor.role === "manager") return true;
-  if (actor.role === "lead")
-    return !!(await db()("jobs").where({ id: record.jobId, lead_id: actor.id }).first());
-  if (actor.role === "surveyor")
-    return !!(await db()("record_recipients").where({ record_id: record.id, user_id: actor.id }).first());
-  return false;
+  const [job, recipientIds] = await Promise.all([
+    findJob(record.jobId),
+    db()("record_recipients").where({ record_id: record.id }).pluck("user_id"),
+  ]);
+  return !!job && mayReadRecord(actor, { job, recipientIds });
 }
 
-export async function recordsIssuedTo(userId: number) {
+export async function recordsIssuedTo(
+  userId: number,
+): Promise<{ id: string; issued_at: Date; vessel_name: string; engine_model: string }[]> {
   return db()("record_recipients as r")
     .join("records as d", "d.id", "r.record_id")
     .join("jobs as j", "j.id", "d.job_id")
@@ -218,7 +218,7 @@ export async function verifyRecord(id: string): Promise<Verification | undefined
   const problems: string[] = [];
   let content: CommissioningRecord | undefined;
   try {
-    content = JSON.parse(row.content);
+    content = parseJsonColumn<CommissioningRecord>(row.content);
   } catch {
     problems.push("The stored record can no longer be read.");
   }

@@ -1,52 +1,23 @@
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
-import { canFillJob, type Actor } from "~/lib/permissions";
+import { canOnJob, type Actor } from "~/lib/permissions";
+import { Refusal } from "~/lib/refusal";
 import { checklistDigest } from "~/lib/record/digest.server";
 import { progress, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
+import { checklistAccessFor, loadChecklistAccess } from "./checklist-access.server.ts";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { photosNotYetStored } from "./photos.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import { checkPassword } from "./users.server.ts";
-
-/** A review step refused, worded for the person who asked. */
-export class ReviewError extends Error {
-  constructor(
-    message: string,
-    public status = 400,
-  ) {
-    super(message);
-  }
-}
-
-const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
-
-async function checklistWithJob(trx: Knex | Knex.Transaction, checklistId: string) {
-  const row = await trx("job_checklists as c")
-    .join("template_versions as t", "t.id", "c.template_version_id")
-    .join("jobs as j", "j.id", "c.job_id")
-    .where("c.id", checklistId)
-    .first(
-      "c.id",
-      "c.state",
-      "c.job_id",
-      "c.amends_id",
-      "c.template_version_id",
-      "c.template_key",
-      "t.body",
-      "j.lead_id",
-    );
-  if (!row) throw new ReviewError("There is no such checklist.", 404);
-  const technicianIds: number[] = await trx("job_technicians").where({ job_id: row.job_id }).pluck("user_id");
-  return { ...row, job: { leadId: row.lead_id as number, technicianIds } };
-}
 
 /** What is still missing before a checklist can be submitted, recomputed on the server. */
 export async function missingItems(trx: Knex | Knex.Transaction, checklistId: string, template: Template) {
   const rows = await trx("checklist_responses")
     .where({ checklist_id: checklistId })
     .select("item_key", "value");
-  const values = Object.fromEntries(rows.map((r: any) => [r.item_key, json(r.value)]));
+  const values = Object.fromEntries(rows.map((r) => [r.item_key, parseJsonColumn(r.value)]));
   const state = progress(template, values);
   return { left: state.overall.left, attention: state.overall.attention, complete: state.complete };
 }
@@ -58,11 +29,13 @@ export async function submitChecklist(
   checklistId: string,
   deviceId: string | null,
 ): Promise<string | null> {
-  const c = await checklistWithJob(trx, checklistId);
-  if (!canFillJob(actor, c.job)) return "Only the job's technicians and its lead submit its checklists.";
+  const c = await loadChecklistAccess(checklistId, trx);
+  if (!c) return "There is no such checklist.";
+  if (!canOnJob(actor, "fill", c.job))
+    return "Only the job's technicians and its lead submit its checklists.";
   if (c.state !== "in-progress" && c.state !== "returned")
     return `The checklist is already ${c.state === "submitted" ? "waiting for review" : "countersigned"}.`;
-  const template = JSON.parse(c.body) as Template;
+  const template = parseJsonColumn<Template>(c.body);
   const missing = await missingItems(trx, checklistId, template);
   if (!missing.complete) {
     return `Not submitted: ${missing.left.length} required item(s) left and ${missing.attention.length} needing attention.`;
@@ -82,16 +55,12 @@ export async function submitChecklist(
   return null;
 }
 
-function requireLead(actor: Actor, job: { leadId: number }) {
-  if (!(actor.role === "lead" && job.leadId === actor.id))
-    throw new ReviewError("Only the job's lead reviews its checklists.", 403);
-}
+const onlyTheLead = "Only the job's lead reviews its checklists.";
 
 export async function addComment(actor: Actor, checklistId: string, itemKey: string, text: string) {
-  const c = await checklistWithJob(db(), checklistId);
-  requireLead(actor, c.job);
+  const c = await checklistAccessFor(actor, "countersign", checklistId, db(), onlyTheLead);
   if (c.state !== "submitted")
-    throw new ReviewError("Comments are written while the checklist is waiting for review.");
+    throw new Refusal("wrong-state", "Comments are written while the checklist is waiting for review.");
   await db()("checklist_comments").insert({
     checklist_id: checklistId,
     item_key: itemKey,
@@ -103,10 +72,9 @@ export async function addComment(actor: Actor, checklistId: string, itemKey: str
 
 export async function returnChecklist(actor: Actor, checklistId: string) {
   await db().transaction(async (trx) => {
-    const c = await checklistWithJob(trx, checklistId);
-    requireLead(actor, c.job);
+    const c = await checklistAccessFor(actor, "countersign", checklistId, trx, onlyTheLead);
     if (c.state !== "submitted")
-      throw new ReviewError("Only a checklist waiting for review can be returned.");
+      throw new Refusal("wrong-state", "Only a checklist waiting for review can be returned.");
     await trx("job_checklists")
       .where({ id: checklistId })
       .update({ state: "returned", updated_at: trx.fn.now(3) });
@@ -124,16 +92,20 @@ export async function returnChecklist(actor: Actor, checklistId: string) {
 export async function countersign(actor: Actor, checklistId: string, password: string): Promise<string> {
   const user = await db()("users").where({ id: actor.id }).first();
   if (!user?.password_hash || !(await checkPassword(password, user.password_hash)))
-    throw new ReviewError("That password is not right; the checklist was not countersigned.");
+    throw new Refusal(
+      "invalid",
+      "That password is not right; the checklist was not countersigned.",
+      "password",
+    );
   return db().transaction(async (trx) => {
-    const c = await checklistWithJob(trx, checklistId);
-    requireLead(actor, c.job);
+    const c = await checklistAccessFor(actor, "countersign", checklistId, trx, onlyTheLead);
     if (c.state !== "submitted")
-      throw new ReviewError("Only a checklist waiting for review can be countersigned.");
+      throw new Refusal("wrong-state", "Only a checklist waiting for review can be countersigned.");
     // The digest covers the photos: every photo an entry lists must have reached the store.
     const missing = await photosNotYetStored(checklistId, trx);
     if (missing.length)
-      throw new ReviewError(
+      throw new Refusal(
+        "wrong-state",
         `${missing.length} photo(s) listed in the entries have not reached the server yet; countersign once the technician's tablet has synced.`,
       );
     const at = new Date();
@@ -162,15 +134,20 @@ export async function countersign(actor: Actor, checklistId: string, password: s
 /** A correction of a countersigned checklist: a new checklist that references it, filled from its values. */
 export async function startAmendment(actor: Actor, checklistId: string): Promise<string> {
   return db().transaction(async (trx) => {
-    const c = await checklistWithJob(trx, checklistId);
-    if (!(actor.role === "manager" || (actor.role === "lead" && c.job.leadId === actor.id)))
-      throw new ReviewError("Only the job's lead or the manager starts an amendment.", 403);
+    const c = await checklistAccessFor(
+      actor,
+      "amend",
+      checklistId,
+      trx,
+      "Only the job's lead or the manager starts an amendment.",
+    );
     if (c.state !== "countersigned")
-      throw new ReviewError(
+      throw new Refusal(
+        "wrong-state",
         "Only a countersigned checklist is amended; this one can still be changed directly.",
       );
     if (await trx("job_checklists").where({ amends_id: checklistId }).first())
-      throw new ReviewError("This checklist already has an amendment.");
+      throw new Refusal("wrong-state", "This checklist already has an amendment.");
     const id = randomUUID();
     await trx("job_checklists").insert({
       id,
@@ -182,12 +159,12 @@ export async function startAmendment(actor: Actor, checklistId: string): Promise
     });
     const now = new Date();
     const rows = await trx("checklist_responses").where({ checklist_id: checklistId });
-    const { seq } = await trx("sync_clock").where({ id: 1 }).forUpdate().first();
+    const { seq } = (await trx("sync_clock").where({ id: 1 }).forUpdate().first())!;
     await trx("sync_clock")
       .where({ id: 1 })
       .update({ seq: Number(seq) + 1 });
     for (const r of rows) {
-      const value = typeof r.value === "string" ? r.value : JSON.stringify(r.value);
+      const value = r.value;
       await trx("checklist_responses").insert({
         checklist_id: id,
         item_key: r.item_key,

@@ -83,7 +83,7 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
     trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
   ]);
   for (const r of applied)
-    answers.set(r.op_id, { userId: r.user_id, result: { opId: r.op_id, status: "applied", rev: r.rev } });
+    answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id!, status: "applied", rev: r.rev } });
   for (const r of conflicted) {
     answers.set(r.op_id, {
       userId: r.user_id,
@@ -137,7 +137,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
     const results: OpResult[] = [];
     const wrote: Change[] = [];
     if (request.ops.length) {
-      const { seq } = await trx("sync_clock").where({ id: 1 }).forUpdate().first();
+      const { seq } = (await trx("sync_clock").where({ id: 1 }).forUpdate().first())!;
       clock = Number(seq) + 1;
       await trx("sync_clock").where({ id: 1 }).update({ seq: clock });
       const now = new Date();
@@ -303,7 +303,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       }));
       for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
     } else {
-      clock = Number((await trx("sync_clock").where({ id: 1 }).first()).seq);
+      clock = Number((await trx("sync_clock").where({ id: 1 }).first())!.seq);
     }
 
     const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;

@@ -1,6 +1,8 @@
 import type { Knex } from "knex";
 import type { Template } from "~/lib/templates";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
+import type { TemplateVersionRow as TemplateVersionTableRow } from "./tables.server.ts";
 
 export interface TemplateVersionRow {
   id: number;
@@ -11,7 +13,7 @@ export interface TemplateVersionRow {
   publishedAt: Date | null;
 }
 
-const toRow = (r: any): TemplateVersionRow => ({
+const toRow = (r: TemplateVersionTableRow): TemplateVersionRow => ({
   id: r.id,
   key: r.template_key,
   version: r.version,
@@ -22,7 +24,7 @@ const toRow = (r: any): TemplateVersionRow => ({
 
 /** The newest published version of each template: what a new checklist starts from. */
 export async function latestPublished(knex: Knex = db()): Promise<TemplateVersionRow[]> {
-  const rows = await knex("template_versions as t")
+  const rows: TemplateVersionTableRow[] = await knex("template_versions as t")
     .where("t.status", "published")
     .whereNotExists(
       knex("template_versions as n")
@@ -36,10 +38,10 @@ export async function latestPublished(knex: Knex = db()): Promise<TemplateVersio
 
 export async function findTemplateVersion(key: string, version: number) {
   const row = await db()("template_versions").where({ template_key: key, version }).first();
-  return row ? { ...toRow(row), template: JSON.parse(row.body) as Template } : undefined;
+  return row ? { ...toRow(row), template: parseJsonColumn<Template>(row.body) } : undefined;
 }
 
 export async function findTemplateVersionById(id: number, knex: Knex = db()) {
   const row = await knex("template_versions").where({ id }).first();
-  return row ? { ...toRow(row), template: JSON.parse(row.body) as Template } : undefined;
+  return row ? { ...toRow(row), template: parseJsonColumn<Template>(row.body) } : undefined;
 }

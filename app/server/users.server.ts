@@ -55,7 +55,9 @@ export async function inviteUser(
 ) {
   return db().transaction(async (trx) => {
     const email = input.email.toLowerCase();
-    let user = await trx("users").where({ email }).first();
+    let user: { id: number; password_hash?: string | null } | undefined = await trx("users")
+      .where({ email })
+      .first();
     if (user?.password_hash)
       throw new InviteError("email", "Someone with this e-mail address already has an account.");
     if (!user) {

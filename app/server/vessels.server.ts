@@ -1,6 +1,8 @@
 import { convert } from "~/lib/calc/units";
+import { Refusal } from "~/lib/refusal";
 import type { VesselInput } from "~/lib/validation/vessels";
 import { db } from "./db.server.ts";
+import type { VesselRow } from "./tables.server.ts";
 
 export interface Vessel extends VesselInput {
   id: number;
@@ -9,7 +11,7 @@ export interface Vessel extends VesselInput {
   leadIds: number[];
 }
 
-function toVessel(row: any, leadIds: number[] = []): Vessel {
+function toVessel(row: VesselRow, leadIds: number[] = []): Vessel {
   return {
     id: row.id,
     name: row.name,
@@ -47,10 +49,10 @@ export async function listVessels(): Promise<Vessel[]> {
     db()("vessels").orderBy("name"),
     db()("jobs").select("vessel_id", "lead_id"),
   ]);
-  return rows.map((r: any) =>
+  return rows.map((r) =>
     toVessel(
       r,
-      leads.filter((l: any) => l.vessel_id === r.id).map((l: any) => l.lead_id),
+      leads.filter((l) => l.vessel_id === r.id).map((l) => l.lead_id),
     ),
   );
 }
@@ -62,14 +64,12 @@ export async function findVessel(id: number): Promise<Vessel | undefined> {
   return toVessel(row, leads);
 }
 
-export class DuplicateHinError extends Error {}
-
 async function guardHin<T>(work: () => Promise<T>): Promise<T> {
   try {
     return await work();
-  } catch (error: any) {
-    if (error?.code === "ER_DUP_ENTRY")
-      throw new DuplicateHinError("Another vessel already has this hull identification number.");
+  } catch (error) {
+    if ((error as { code?: string } | null)?.code === "ER_DUP_ENTRY")
+      throw new Refusal("invalid", "Another vessel already has this hull identification number.", "hin");
     throw error;
   }
 }

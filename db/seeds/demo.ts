@@ -54,7 +54,7 @@ export async function seedDemo(knex: Knex): Promise<string> {
       owner_email: null,
       waterline_notes: null,
     },
-  ];
+  ] as const;
   const vesselIds: Record<string, number> = {};
   for (const v of vessels) {
     const row = await knex("vessels").where({ name: v.name }).first();
@@ -128,7 +128,7 @@ export async function seedDemo(knex: Knex): Promise<string> {
       lead: "lead@kittiwake-slip.example",
       techs: ["tech@kittiwake-slip.example", "tech2@kittiwake-slip.example"],
     },
-  ];
+  ] as const;
   for (const j of jobs) {
     const vesselId = vesselIds[j.vessel]!;
     if (await knex("jobs").where({ vessel_id: vesselId, engine_serial: j.engine_serial }).first()) continue;

@@ -65,9 +65,9 @@ describe("keeping the template library current", () => {
       .toMatch(/the minimum \(50\) is above the maximum \(45\)/);
     await page.getByRole("button", { name: "Save draft" }).click();
     expect(await page.getByTestId("save-status").innerText()).toMatch(/1 problem to fix/);
-    const stored = await knex("template_versions")
+    const stored = (await knex("template_versions")
       .where({ template_key: "engine-alignment", version: 2 })
-      .first();
+      .first())!;
     expect(
       JSON.parse(stored.body).sections[2].items.some(
         (i: { key: string }) => i.key === "coupling-bolt-torque",
@@ -132,7 +132,7 @@ describe("keeping the template library current", () => {
     ).rejects.toThrow(/cannot be changed/);
 
     // A new job gets version 2; Tern of Helvick keeps version 1.
-    const lead = await knex("users").where({ email: "lead@kittiwake-slip.example" }).first();
+    const lead = (await knex("users").where({ email: "lead@kittiwake-slip.example" }).first())!;
     const job = await makeJob(knex, lead.id);
     await open(page, `/jobs/${job.id}`);
     await page.getByRole("button", { name: "Start the ticked checklists" }).click();

@@ -208,7 +208,7 @@ describe("working with no connection", () => {
     await expect
       .poll(async () => (await response("Cooling", "seacock"))?.value, { timeout: 20_000 })
       .toEqual({ result: "fail" });
-    const row = await knex("sync_conflicts").where({ item_key: "seacock" }).first();
+    const row = (await knex("sync_conflicts").where({ item_key: "seacock" }).first())!;
     expect(row.resolved_at).not.toBeNull();
     await techTablet.context.close();
     await leadTablet.context.close();

@@ -53,8 +53,8 @@ beforeAll(async () => {
     body_sha256: sha256(body),
     published_at: new Date(),
   });
-  const lead = await knex("users").where({ email: "lead2@kittiwake-slip.example" }).first();
-  const tech = await knex("users").where({ email: "tech2@kittiwake-slip.example" }).first();
+  const lead = (await knex("users").where({ email: "lead2@kittiwake-slip.example" }).first())!;
+  const tech = (await knex("users").where({ email: "tech2@kittiwake-slip.example" }).first())!;
   // A hull of its own, so other tests' "Merrow" and "Tern of Helvick" links stay unique.
   const [vesselId] = await knex("vessels").insert({
     name: "Fulmar Rock",
@@ -99,7 +99,7 @@ afterAll(async () => {
 });
 
 const item = (page: Page, key: string) => page.locator(`[data-item="${key}"]`);
-const state = async () => (await knex("job_checklists").where({ job_id: jobId }).first()).state;
+const state = async () => (await knex("job_checklists").where({ job_id: jobId }).first())!.state;
 
 describe("from submission to the surveyor's verified PDF", () => {
   it("submit, return with a comment, fix, countersign, issue, download, verify", async () => {
@@ -160,7 +160,7 @@ describe("from submission to the surveyor's verified PDF", () => {
     // The lead countersigns with the password (a wrong one is refused first).
     await open(
       leadPage,
-      `/checklists/${(await knex("job_checklists").where({ job_id: jobId }).first()).id}/review`,
+      `/checklists/${(await knex("job_checklists").where({ job_id: jobId }).first())!.id}/review`,
     );
     await leadPage.getByLabel("Your password, to countersign").fill("not-my-password");
     await leadPage.getByRole("button", { name: "Countersign and lock" }).click();
@@ -171,7 +171,7 @@ describe("from submission to the surveyor's verified PDF", () => {
     await leadPage.getByLabel("Your password, to countersign").fill("slipway-demo-2026");
     await leadPage.getByRole("button", { name: "Countersign and lock" }).click();
     await leadPage.waitForURL(new RegExp(`/jobs/${jobId}$`));
-    const signed = await knex("job_checklists").where({ job_id: jobId }).first();
+    const signed = (await knex("job_checklists").where({ job_id: jobId }).first())!;
     expect(signed.state).toBe("countersigned");
     expect(signed.digest).toMatch(/^[0-9a-f]{64}$/);
 
@@ -221,7 +221,7 @@ describe("from submission to the surveyor's verified PDF", () => {
     const pdfPath = path.join(tmpdir(), `record-${Date.now()}.pdf`);
     await (await download).saveAs(pdfPath);
     const text = execFileSync("pdftotext", ["-layout", pdfPath, "-"], { encoding: "utf8" });
-    const digest = (await knex("records").where({ job_id: jobId }).first()).digest;
+    const digest = (await knex("records").where({ job_id: jobId }).first())!.digest;
     expect(text).toContain("Fulmar Rock");
     expect(text).toMatch(/0\.0015/);
     expect(text.replace(/\s+/g, "")).toContain(digest);
@@ -231,7 +231,7 @@ describe("from submission to the surveyor's verified PDF", () => {
     await open(visitor, new URL(verifyUrl).pathname);
     expect(await visitor.getByTestId("verdict").innerText()).toMatch(/Genuine and unchanged/);
     expect(await visitor.locator("main").innerText()).not.toContain("R4N-E2E");
-    const stored = await knex("records").where({ job_id: jobId }).first();
+    const stored = (await knex("records").where({ job_id: jobId }).first())!;
     await knex("records")
       .where({ id: stored.id })
       .update({ content: stored.content.replace("0.0015", "0.0009") });

@@ -2,13 +2,13 @@ import { readFileSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { parseTemplateText, templateFileName, type Template } from "~/lib/templates";
-import { ChecklistStartError, findChecklist, startChecklists } from "~/server/checklists.server";
+import { Refusal } from "~/lib/refusal";
+import { findChecklist, startChecklists } from "~/server/checklists.server";
 import {
   createDraftFrom,
   createTemplate,
   discardDraft,
   importTemplate,
-  LibraryError,
   listLibrary,
   publishDraft,
   readableVersion,
@@ -53,8 +53,8 @@ async function importPublished(name: string, change?: (t: any) => void): Promise
   return result.key;
 }
 
-const rowOf = (key: string, version: number) =>
-  knex("template_versions").where({ template_key: key, version }).first();
+const rowOf = async (key: string, version: number) =>
+  (await knex("template_versions").where({ template_key: key, version }).first())!;
 const bolt = {
   kind: "measure",
   key: "coupling-bolt-torque",
@@ -103,9 +103,9 @@ describe("publishing", () => {
     await expect(
       knex("template_versions").where({ id: published.id }).update({ title: "Changed behind its back" }),
     ).rejects.toThrow(/cannot be changed/);
-    await expect(saveDraft(key, 2, { ...v2, title: "Edited after publishing" }, manager.id)).rejects.toThrow(
-      LibraryError,
-    );
+    await expect(
+      saveDraft(key, 2, { ...v2, title: "Edited after publishing" }, manager.id),
+    ).rejects.toMatchObject({ reason: "wrong-state", status: 409 });
     await expect(publishDraft(key, 2, manager.id)).rejects.toThrow(/already published/);
     expect((await rowOf(key, 2)).body_sha256).toBe(published.body_sha256);
     expect(sha256(published.body)).toBe(published.body_sha256);
@@ -190,7 +190,7 @@ describe("retiring", () => {
 
     await retireVersion(key, 1, manager.id);
     const none = await makeJob(knex, lead.id);
-    await expect(startChecklists(none.id, [key], lead.id)).rejects.toThrow(ChecklistStartError);
+    await expect(startChecklists(none.id, [key], lead.id)).rejects.toThrow(Refusal);
     await expect(retireVersion(key, 1, manager.id)).rejects.toThrow(/Only a published version/);
     await expect(
       knex("template_versions").where({ template_key: key, version: 1 }).update({ status: "published" }),

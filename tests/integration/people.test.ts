@@ -15,7 +15,7 @@ describe("invitations", () => {
   it("create a user without a password whose link sets one, once", async () => {
     const email = `new-${Date.now()}@test.example`;
     const { userId, token } = await inviteUser({ email, name: "New Person", role: "technician" }, null);
-    const row = await knex("users").where({ id: userId }).first();
+    const row = (await knex("users").where({ id: userId }).first())!;
     expect(row.password_hash).toBeNull();
     expect((await lookUpInvitation(token)).state).toBe("valid");
     expect((await acceptInvitation(token, "a-new-password-1")).state).toBe("valid");
@@ -36,7 +36,7 @@ describe("invitations", () => {
       .update({ expires_at: new Date(Date.now() - 1000) });
     expect((await lookUpInvitation(token)).state).toBe("expired");
     expect((await acceptInvitation(token, "whatever-password")).state).toBe("expired");
-    expect((await knex("users").where({ id: userId }).first()).password_hash).toBeNull();
+    expect((await knex("users").where({ id: userId }).first())!.password_hash).toBeNull();
   });
 
   it("refuse an unknown token and an already registered address", async () => {

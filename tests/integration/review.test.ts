@@ -64,7 +64,7 @@ beforeAll(async () => {
 const device = "review-device";
 const push = (actor: typeof tech, ops: ReturnType<typeof op>[]) =>
   sync(actor, { deviceId: device, cursor: null, ops });
-const stateOf = async (id: string) => (await knex("job_checklists").where({ id }).first()).state;
+const stateOf = async (id: string) => (await knex("job_checklists").where({ id }).first())!.state;
 const actions = async (id: string) =>
   (await knex("audit_log").where({ entity_id: id }).orderBy("id").pluck("action")) as string[];
 
@@ -123,6 +123,24 @@ describe("submitting, returning and countersigning", () => {
     ]);
     await expect(countersign(lead, id, TEST_PASSWORD)).rejects.toThrow(/waiting for review/);
   });
+
+  it("refuses each step in the wrong state with 409, and a stranger with 403, whatever the step", async () => {
+    const id = await freshJobChecklist();
+    const wrongState = { reason: "wrong-state", status: 409 };
+    // In progress: nothing to comment on, return or countersign yet; nothing to amend.
+    await expect(addComment(lead, id, "b", "Too early")).rejects.toMatchObject(wrongState);
+    await expect(returnChecklist(lead, id)).rejects.toMatchObject(wrongState);
+    await expect(countersign(lead, id, TEST_PASSWORD)).rejects.toMatchObject(wrongState);
+    await expect(startAmendment(lead, id)).rejects.toMatchObject(wrongState);
+    const forbidden = { reason: "forbidden", status: 403 };
+    await expect(returnChecklist(otherLead, id)).rejects.toMatchObject(forbidden);
+    await expect(startAmendment(tech, id)).rejects.toMatchObject(forbidden);
+    await expect(countersign(lead, id, "wrong password")).rejects.toMatchObject({
+      status: 400,
+      field: "password",
+    });
+    expect(await stateOf(id)).toBe("in-progress");
+  });
 });
 
 describe("the lock", () => {
@@ -155,7 +173,7 @@ describe("the lock", () => {
         at: new Date(),
       }),
     ).rejects.toThrow(refused);
-    const { value } = await knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).first();
+    const { value } = (await knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).first())!;
     expect(typeof value === "string" ? JSON.parse(value) : value).toEqual({ text: "ok" });
   });
 
@@ -172,7 +190,7 @@ describe("the lock", () => {
     const original = (await loadRecordChecklist(id, knex))!;
     expect(original.responses.b!.value).toEqual({ text: "first" });
     expect(checklistDigest(original)).toBe(digest);
-    expect((await knex("job_checklists").where({ id: amendment }).first()).amends_id).toBe(id);
+    expect((await knex("job_checklists").where({ id: amendment }).first())!.amends_id).toBe(id);
     expect(await actions(amendment)).toContain("checklist.amended");
   });
 });
@@ -197,7 +215,7 @@ describe("issuing and verifying a record", () => {
     const recordId = await issueRecord(manager, jobId, [`surveyor-${Date.now()}@survey.example`]);
     expect((await verifyRecord(recordId))!.genuine).toBe(true);
     expect(await knex("audit_log").where({ action: "record.issued", entity_id: recordId })).toHaveLength(1);
-    const row = await knex("records").where({ id: recordId }).first();
+    const row = (await knex("records").where({ id: recordId }).first())!;
     await knex("records")
       .where({ id: recordId })
       .update({ content: row.content.replace('"text":"ok"', '"text":"OK"') });

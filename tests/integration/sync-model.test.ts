@@ -172,7 +172,7 @@ describe("offline sync under a bad network (model test)", () => {
         // The server's value is the last applied one.
         for (const row of current) {
           const last = history.filter((h: any) => h.item_key === row.item_key).at(-1);
-          expect(sameJson(parse(row.value), parse(last.value))).toBe(true);
+          expect(sameJson(parse(row.value), parse(last!.value))).toBe(true);
         }
         // Every device shows the server's state and has nothing waiting.
         for (const device of devices) {

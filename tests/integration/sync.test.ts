@@ -70,12 +70,12 @@ describe("the sync rules on MariaDB", () => {
     const stale = op(checklist, "intake-hose", check("fail", "Cracked at the clamp"), 0);
     const answer = await push(lead, [stale]);
     expect(answer.results[0]).toMatchObject({ status: "conflict", rev: 1, serverValue: check("pass") });
-    const row = await knex("sync_conflicts").where({ op_id: stale.opId }).first();
+    const row = (await knex("sync_conflicts").where({ op_id: stale.opId }).first())!;
     expect(parse(row.client_value)).toEqual(check("fail", "Cracked at the clamp"));
     expect(row.user_id).toBe(lead.id);
-    const current = await knex("checklist_responses")
+    const current = (await knex("checklist_responses")
       .where({ checklist_id: checklist, item_key: "intake-hose" })
-      .first();
+      .first())!;
     expect(parse(current.value)).toEqual(check("pass"));
 
     // The resolution is an ordinary operation on the current revision that names the conflict.
@@ -83,7 +83,7 @@ describe("the sync rules on MariaDB", () => {
       resolves: [answer.results[0]!.conflictId!],
     });
     expect((await push(lead, [decide])).results[0]).toMatchObject({ status: "applied", rev: 2 });
-    expect((await knex("sync_conflicts").where({ op_id: stale.opId }).first()).resolution_op_id).toBe(
+    expect((await knex("sync_conflicts").where({ op_id: stale.opId }).first())!.resolution_op_id).toBe(
       decide.opId,
     );
   });

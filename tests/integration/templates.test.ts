@@ -51,7 +51,7 @@ describe("the template library in MariaDB", () => {
   });
 
   it("refuses a direct UPDATE or DELETE of a published version", async () => {
-    const row = await knex("template_versions").where({ status: "published" }).first();
+    const row = (await knex("template_versions").where({ status: "published" }).first())!;
     await expect(knex("template_versions").where({ id: row.id }).update({ body: "{}" })).rejects.toThrow(
       /cannot be changed/,
     );
@@ -64,7 +64,7 @@ describe("the template library in MariaDB", () => {
     await expect(knex("template_versions").where({ id: row.id }).delete()).rejects.toThrow(
       /cannot be deleted/,
     );
-    expect((await knex("template_versions").where({ id: row.id }).first()).body_sha256).toBe(
+    expect((await knex("template_versions").where({ id: row.id }).first())!.body_sha256).toBe(
       sha256(row.body),
     );
   });
@@ -123,9 +123,9 @@ describe("a job's checklists", () => {
     expect(pinned?.version).toBe(1);
 
     // The manager publishes version 2 of the template (same content, a new title).
-    const v1 = await knex("template_versions")
+    const v1 = (await knex("template_versions")
       .where({ template_key: "engine-alignment", version: 1 })
-      .first();
+      .first())!;
     const body = JSON.stringify({ ...JSON.parse(v1.body), version: 2, title: "Engine alignment (rev. 2)" });
     await knex("template_versions").insert({
       template_key: "engine-alignment",

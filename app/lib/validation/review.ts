@@ -18,3 +18,9 @@ export const reviewActionSchema = z.discriminatedUnion("intent", [
       .min(1, "Enter your password to countersign."),
   }),
 ]);
+
+/** Starting the amendment of a countersigned checklist, from the job's page. */
+export const amendSchema = z.object({
+  intent: z.literal("amend"),
+  checklistId: z.uuid({ error: "That checklist is not one of this job's." }),
+});

@@ -2,7 +2,8 @@ import type { Route } from "./+types/photo";
 import { z } from "zod";
 import { requireApiUser } from "~/server/auth.server";
 import { env } from "~/server/env.server";
-import { PhotoRefusal, readPhoto, storePhoto } from "~/server/photos.server";
+import { Refusal } from "~/lib/refusal";
+import { readPhoto, storePhoto } from "~/server/photos.server";
 
 /**
  * PUT /api/photos/:photoId?checklistId=…&itemKey=… with the image bytes as the body: stores the
@@ -63,7 +64,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
       },
     });
   } catch (error) {
-    if (error instanceof PhotoRefusal) return problem(error.status, error.message);
+    if (error instanceof Refusal) return problem(error.status, error.message);
     throw error;
   }
 }
@@ -85,7 +86,7 @@ export async function action({ request, params }: Route.ActionArgs) {
     const { created, photo } = await storePhoto(user, { id: params.photoId, ...place.data, bytes });
     return Response.json(photo, { status: created ? 201 : 200 });
   } catch (error) {
-    if (error instanceof PhotoRefusal) return problem(error.status, error.message);
+    if (error instanceof Refusal) return problem(error.status, error.message);
     throw error;
   }
 }

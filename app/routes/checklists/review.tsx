@@ -1,29 +1,26 @@
+import { getFormProps, getInputProps, useForm, type SubmissionResult } from "@conform-to/react";
+import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/review";
 import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { FillItem } from "~/components/checklist/fill-item";
-import { FormErrors } from "~/components/field";
+import { Field, FormErrors } from "~/components/field";
 import { checklistStateLabels } from "~/lib/checklist-sets";
+import { canOnJob } from "~/lib/permissions";
+import { Refusal } from "~/lib/refusal";
 import { progress } from "~/lib/templates";
 import { reviewActionSchema } from "~/lib/validation/review";
 import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
 import { commentsOn } from "~/server/offline.server";
-import { invariantForbidden } from "~/server/permissions.server";
-import { addComment, countersign, returnChecklist, ReviewError } from "~/server/review.server";
+import { addComment, countersign, returnChecklist } from "~/server/review.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `Review: ${data?.checklist.title ?? "Checklist"} · Sternpost` },
 ];
 
-async function reviewable(request: Request, checklistId: string) {
-  const found = await requireChecklist(request, checklistId);
-  invariantForbidden(
-    found.user.role === "manager" || (found.user.role === "lead" && found.job.leadId === found.user.id),
-    "Only the job's lead and the manager open the review.",
-  );
-  return found;
-}
+const reviewable = (request: Request, checklistId: string) =>
+  requireChecklist(request, checklistId, "oversee", "Only the job's lead and the manager open the review.");
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, checklist, job } = await reviewable(request, params.checklistId);
@@ -33,36 +30,125 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     template,
     responses: await checklistResponses(checklist.id),
     comments: (await commentsOn([checklist.id])).map(({ checklistId: _, ...c }) => c),
-    canReview: user.role === "lead" && job.leadId === user.id && checklist.state === "submitted",
+    canReview: canOnJob(user, "countersign", job) && checklist.state === "submitted",
     job: { id: job.id, vesselName: job.vesselName },
   };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, checklist } = await reviewable(request, params.checklistId);
-  const parsed = reviewActionSchema.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success)
-    return data({ error: parsed.error.issues[0]!.message, itemKey: null }, { status: 400 });
+  const submission = parseWithZod(await request.formData(), { schema: reviewActionSchema });
+  if (submission.status !== "success")
+    return data({ result: submission.reply(), itemKey: itemKeyOf(submission.payload) }, { status: 400 });
+  const intent = submission.value;
   try {
-    switch (parsed.data.intent) {
+    switch (intent.intent) {
       case "comment":
-        await addComment(user, checklist.id, parsed.data.itemKey, parsed.data.text);
-        return { error: null, itemKey: parsed.data.itemKey };
+        await addComment(user, checklist.id, intent.itemKey, intent.text);
+        return { result: submission.reply({ resetForm: true }), itemKey: intent.itemKey };
       case "return":
         await returnChecklist(user, checklist.id);
         return redirect(`/jobs/${checklist.jobId}`);
       case "countersign":
-        await countersign(user, checklist.id, parsed.data.password);
+        await countersign(user, checklist.id, intent.password);
         return redirect(`/jobs/${checklist.jobId}`);
     }
   } catch (error) {
-    if (error instanceof ReviewError)
-      return data(
-        { error: error.message, itemKey: parsed.data.intent === "comment" ? parsed.data.itemKey : null },
-        { status: error.status },
-      );
-    throw error;
+    if (!(error instanceof Refusal)) throw error;
+    const result = submission.reply(
+      error.field ? { fieldErrors: { [error.field]: [error.message] } } : { formErrors: [error.message] },
+    );
+    return data(
+      { result, itemKey: intent.intent === "comment" ? intent.itemKey : null },
+      { status: error.status },
+    );
   }
+}
+
+/** The item a refused comment belongs to, so its error shows at that item. */
+const itemKeyOf = (payload: Record<string, unknown>) =>
+  payload.intent === "comment" && typeof payload.itemKey === "string" ? payload.itemKey : null;
+
+function CommentForm({
+  itemKey,
+  lastResult,
+  busy,
+}: {
+  itemKey: string;
+  lastResult: SubmissionResult<string[]> | null;
+  busy: boolean;
+}) {
+  const [form, fields] = useForm({
+    id: `comment-${itemKey}`,
+    lastResult,
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: reviewActionSchema }),
+    shouldValidate: "onSubmit",
+  });
+  const errors = [...(form.errors ?? []), ...(fields.text.errors ?? [])];
+  return (
+    <Form method="post" {...getFormProps(form)} className="flex flex-wrap items-end gap-2">
+      <input type="hidden" name="intent" value="comment" />
+      <input type="hidden" name="itemKey" value={itemKey} />
+      <label className="flex flex-1 flex-col gap-1 font-bold">
+        Comment on this item
+        <input {...getInputProps(fields.text, { type: "text" })} className="field-input font-normal" />
+      </label>
+      <button className="btn" type="submit" disabled={busy}>
+        Add comment
+      </button>
+      {errors.length > 0 && (
+        <p role="alert" id={fields.text.errorId} className="w-full font-bold text-fault">
+          ▲ {errors.join(" ")}
+        </p>
+      )}
+    </Form>
+  );
+}
+
+function DecisionForms({
+  lastResult,
+  busy,
+}: {
+  lastResult: SubmissionResult<string[]> | null;
+  busy: boolean;
+}) {
+  const [form, fields] = useForm({
+    id: "countersign",
+    lastResult,
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: reviewActionSchema }),
+    shouldValidate: "onSubmit",
+  });
+  return (
+    <section className="card flex flex-col gap-4" aria-labelledby="decision">
+      <h2 id="decision" className="text-xl font-bold">
+        Your decision
+      </h2>
+      <FormErrors errors={form.errors} />
+      <Form method="post">
+        <input type="hidden" name="intent" value="return" />
+        <button className="btn" type="submit" disabled={busy}>
+          Return to the technician with the comments
+        </button>
+      </Form>
+      <Form method="post" {...getFormProps(form)} className="flex flex-wrap items-end gap-2">
+        <input type="hidden" name="intent" value="countersign" />
+        <Field id={fields.password.id} label="Your password, to countersign" errors={fields.password.errors}>
+          <input
+            {...getInputProps(fields.password, { type: "password" })}
+            autoComplete="current-password"
+            className="field-input font-normal"
+          />
+        </Field>
+        <button className="btn btn-primary" type="submit" disabled={busy}>
+          Countersign and lock
+        </button>
+      </Form>
+      <p className="text-sm text-ink-soft">
+        Countersigning stores your name, the time and the SHA-256 digest of everything recorded here, and
+        locks the checklist. A later correction is an amendment.
+      </p>
+    </section>
+  );
 }
 
 export default function Review({ loaderData, actionData }: Route.ComponentProps) {
@@ -90,11 +176,6 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
         required items done
         {state.overall.attention.length ? `, ▲ ${state.overall.attention.length} need attention` : ""}.
       </p>
-      {actionData?.error && !actionData.itemKey && (
-        <div className="mb-4">
-          <FormErrors errors={[actionData.error]} />
-        </div>
-      )}
       {template.sections.map((section, i) => (
         <section key={section.key} className="mb-8">
           <h2 className="mb-3 border-b-2 border-ink pb-1 text-2xl font-bold">
@@ -145,22 +226,11 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
                     </p>
                   ))}
                 {canReview && (
-                  <Form method="post" className="flex flex-wrap items-end gap-2">
-                    <input type="hidden" name="intent" value="comment" />
-                    <input type="hidden" name="itemKey" value={item.key} />
-                    <label className="flex flex-1 flex-col gap-1 font-bold">
-                      Comment on this item
-                      <input name="text" className="field-input font-normal" />
-                    </label>
-                    <button className="btn" type="submit" disabled={busy}>
-                      Add comment
-                    </button>
-                    {actionData?.error && actionData.itemKey === item.key && (
-                      <p role="alert" className="w-full font-bold text-fault">
-                        ▲ {actionData.error}
-                      </p>
-                    )}
-                  </Form>
+                  <CommentForm
+                    itemKey={item.key}
+                    lastResult={actionData?.itemKey === item.key ? actionData.result : null}
+                    busy={busy}
+                  />
                 )}
               </FillItem>
             ))}
@@ -168,36 +238,10 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
         </section>
       ))}
       {canReview && (
-        <section className="card flex flex-col gap-4" aria-labelledby="decision">
-          <h2 id="decision" className="text-xl font-bold">
-            Your decision
-          </h2>
-          <Form method="post">
-            <input type="hidden" name="intent" value="return" />
-            <button className="btn" type="submit" disabled={busy}>
-              Return to the technician with the comments
-            </button>
-          </Form>
-          <Form method="post" className="flex flex-wrap items-end gap-2">
-            <input type="hidden" name="intent" value="countersign" />
-            <label className="flex flex-col gap-1 font-bold">
-              Your password, to countersign
-              <input
-                name="password"
-                type="password"
-                autoComplete="current-password"
-                className="field-input font-normal"
-              />
-            </label>
-            <button className="btn btn-primary" type="submit" disabled={busy}>
-              Countersign and lock
-            </button>
-          </Form>
-          <p className="text-sm text-ink-soft">
-            Countersigning stores your name, the time and the SHA-256 digest of everything recorded here, and
-            locks the checklist. A later correction is an amendment.
-          </p>
-        </section>
+        <DecisionForms
+          lastResult={actionData && !actionData.itemKey ? actionData.result : null}
+          busy={busy}
+        />
       )}
     </>
   );

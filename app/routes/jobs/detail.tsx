@@ -4,14 +4,14 @@ import type { Route } from "./+types/detail";
 import { IssueRecord } from "~/components/issue-record";
 import { JobChecklists } from "~/components/job-checklists";
 import { defaultTemplatesFor } from "~/lib/checklist-sets";
-import { canEditJob } from "~/lib/permissions";
-import { startChecklistsSchema } from "~/lib/validation/checklists";
-import { issueRecordSchema } from "~/lib/validation/records";
+import { canOnJob } from "~/lib/permissions";
+import { Refusal } from "~/lib/refusal";
+import { jobPageActionSchema } from "~/lib/validation/job-page";
 import { jobScopeLabels, jobStatusLabels } from "~/lib/validation/jobs";
-import { ChecklistStartError, listJobChecklists, startChecklists } from "~/server/checklists.server";
+import { listJobChecklists, startChecklists } from "~/server/checklists.server";
 import { requireJob } from "~/server/job-access.server";
 import { recordReadiness, recordsOfJob, issueRecord } from "~/server/records.server";
-import { ReviewError, startAmendment } from "~/server/review.server";
+import { startAmendment } from "~/server/review.server";
 import { latestPublished } from "~/server/templates.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
@@ -28,10 +28,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   ]);
   return {
     job,
-    canEdit: canEditJob(user, job),
-    canReview: user.role === "lead" && job.leadId === user.id,
+    canEdit: canOnJob(user, "edit", job),
+    canReview: canOnJob(user, "countersign", job),
     readiness,
-    records: user.role === "technician" ? [] : records,
+    records: canOnJob(user, "oversee", job) ? records : [],
     checklists,
     available: library.map(({ key, title, version }) => ({ key, title, version })),
     defaults: defaultTemplatesFor[job.scope],
@@ -40,52 +40,41 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, job } = await requireJob(request, params.jobId, "edit");
-  const form = await request.formData();
-  if (form.get("intent") === "issue-record") {
-    const parsed = issueRecordSchema.safeParse(Object.fromEntries(form));
-    if (!parsed.success)
-      return data(
-        { errors: null, recordError: parsed.error.issues[0]!.message, issued: null },
-        { status: 400 },
-      );
-    try {
-      await issueRecord(user, job.id, parsed.data.emails);
-    } catch (error) {
-      if (error instanceof ReviewError)
-        return data({ errors: null, recordError: error.message, issued: null }, { status: error.status });
-      throw error;
-    }
-    return { errors: null, recordError: null, issued: `Record issued to ${parsed.data.emails.join(", ")}.` };
-  }
-  if (form.get("intent") === "amend") {
-    try {
-      await startAmendment(user, String(form.get("checklistId") ?? ""));
-    } catch (error) {
-      if (error instanceof ReviewError)
-        return data({ errors: [error.message], recordError: null, issued: null }, { status: error.status });
-      throw error;
-    }
-    return { errors: null, recordError: null, issued: null };
-  }
-  const submission = parseWithZod(form, { schema: startChecklistsSchema });
+  const submission = parseWithZod(await request.formData(), { schema: jobPageActionSchema });
   if (submission.status !== "success")
     return data(
-      {
-        errors: Object.values(submission.error ?? {}).flatMap((e) => e ?? []),
-        recordError: null,
-        issued: null,
-      },
+      { intent: intentOf(submission.payload), result: submission.reply(), issued: null },
       { status: 400 },
     );
+  const form = submission.value;
   try {
-    await startChecklists(job.id, submission.value.templates, user.id);
+    switch (form.intent) {
+      case "issue-record":
+        await issueRecord(user, job.id, form.emails);
+        return {
+          intent: form.intent,
+          result: submission.reply({ resetForm: true }),
+          issued: `Record issued to ${form.emails.join(", ")}.`,
+        };
+      case "amend":
+        await startAmendment(user, form.checklistId);
+        break;
+      case "start-checklists":
+        await startChecklists(job.id, form.templates, user.id);
+        break;
+    }
   } catch (error) {
-    if (error instanceof ChecklistStartError)
-      return data({ errors: [error.message], recordError: null, issued: null }, { status: 400 });
-    throw error;
+    if (!(error instanceof Refusal)) throw error;
+    return data(
+      { intent: form.intent, result: submission.reply({ formErrors: [error.message] }), issued: null },
+      { status: error.status },
+    );
   }
-  return { errors: null, recordError: null, issued: null };
+  return { intent: form.intent, result: submission.reply(), issued: null };
 }
+
+const intentOf = (payload: Record<string, unknown>) =>
+  typeof payload.intent === "string" ? payload.intent : null;
 
 function Fact({ label, children }: { label: string; children: React.ReactNode }) {
   return (
@@ -120,14 +109,14 @@ export default function JobDetail({ loaderData, actionData }: Route.ComponentPro
         defaults={defaults}
         canStart={canEdit}
         canReview={canReview}
-        result={actionData}
+        lastResult={actionData?.intent === "issue-record" ? null : actionData?.result}
       />
       {(canEdit || records.length > 0) && (
         <IssueRecord
           readiness={readiness}
           records={records}
           canIssue={canEdit}
-          error={actionData?.recordError}
+          lastResult={actionData?.intent === "issue-record" ? actionData.result : null}
           issued={actionData?.issued}
         />
       )}

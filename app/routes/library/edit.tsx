@@ -1,7 +1,8 @@
 import { data, Link, redirect } from "react-router";
 import type { Route } from "./+types/edit";
+import { Refusal } from "~/lib/refusal";
 import { TemplateEditor } from "~/components/library/editor/template-editor";
-import { LibraryError, readableVersion, saveDraft } from "~/server/library.server";
+import { readableVersion, saveDraft } from "~/server/library.server";
 import { invariantFound, requireCapability } from "~/server/permissions.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
@@ -33,8 +34,8 @@ export async function action({ request, params }: Route.ActionArgs) {
     const result = await saveDraft(params.key, Number(params.version), body, user.id);
     if (!result.ok) return data(result, { status: 400 });
   } catch (error) {
-    if (error instanceof LibraryError)
-      return data({ ok: false as const, errors: [error.message] }, { status: 409 });
+    if (error instanceof Refusal)
+      return data({ ok: false as const, errors: [error.message] }, { status: error.status });
     throw error;
   }
   if (form.get("intent") === "save-review") return redirect(`/library/${params.key}/${params.version}`);

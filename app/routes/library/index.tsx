@@ -2,12 +2,13 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Link, redirect } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/index";
+import { Refusal } from "~/lib/refusal";
 import { PageHeader } from "~/components/app-shell";
 import { FormErrors } from "~/components/field";
 import { LibraryList } from "~/components/library/library-list";
 import { NewTemplateForm, newTemplateSchema } from "~/components/library/new-template-form";
 import { can } from "~/lib/permissions";
-import { createDraftFrom, createTemplate, LibraryError, listLibrary } from "~/server/library.server";
+import { createDraftFrom, createTemplate, listLibrary } from "~/server/library.server";
 import { requireCapability } from "~/server/permissions.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Template library · Sternpost" }];
@@ -34,11 +35,11 @@ export async function action({ request }: Route.ActionArgs) {
       const created = await createTemplate(submission.value, user.id);
       return redirect(`/library/${created.key}/${created.version}/edit`);
     } catch (error) {
-      if (!(error instanceof LibraryError)) throw error;
+      if (!(error instanceof Refusal)) throw error;
       const reply = submission.reply(
         error.field ? { fieldErrors: { [error.field]: [error.message] } } : { formErrors: [error.message] },
       );
-      return data({ newTemplate: reply, errors: null }, { status: 400 });
+      return data({ newTemplate: reply, errors: null }, { status: error.status });
     }
   }
   const parsed = newDraftSchema.safeParse(Object.fromEntries(formData));
@@ -48,8 +49,8 @@ export async function action({ request }: Route.ActionArgs) {
     const draft = await createDraftFrom(parsed.data.key, parsed.data.version, user.id);
     return redirect(`/library/${draft.key}/${draft.version}/edit`);
   } catch (error) {
-    if (error instanceof LibraryError)
-      return data({ newTemplate: null, errors: [error.message] }, { status: 409 });
+    if (error instanceof Refusal)
+      return data({ newTemplate: null, errors: [error.message] }, { status: error.status });
     throw error;
   }
 }

@@ -1,5 +1,6 @@
 import { data, Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/version";
+import { Refusal } from "~/lib/refusal";
 import { ChecklistOutline } from "~/components/checklist/checklist-outline";
 import { FormErrors } from "~/components/field";
 import { TemplateDiffView } from "~/components/library/template-diff";
@@ -12,7 +13,6 @@ import {
   createDraftFrom,
   discardDraft,
   fallbackAfterRetiring,
-  LibraryError,
   publishDraft,
   readableVersion,
   retireVersion,
@@ -79,7 +79,7 @@ export async function action({ request, params }: Route.ActionArgs) {
         return data({ errors: ["That request was not understood."] }, { status: 400 });
     }
   } catch (error) {
-    if (error instanceof LibraryError) return data({ errors: [error.message] }, { status: 409 });
+    if (error instanceof Refusal) return data({ errors: [error.message] }, { status: error.status });
     throw error;
   }
 }

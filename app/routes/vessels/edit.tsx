@@ -1,6 +1,7 @@
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, redirect } from "react-router";
 import type { Route } from "./+types/edit";
+import { Refusal } from "~/lib/refusal";
 import { PageHeader } from "~/components/app-shell";
 import { VesselForm } from "~/components/vessel-form";
 import { canEditVessel } from "~/lib/permissions";
@@ -8,7 +9,7 @@ import { vesselSchema } from "~/lib/validation/vessels";
 import { audit } from "~/server/audit.server";
 import { requireUser } from "~/server/auth.server";
 import { invariantForbidden, invariantFound } from "~/server/permissions.server";
-import { DuplicateHinError, findVessel, updateVessel } from "~/server/vessels.server";
+import { findVessel, updateVessel } from "~/server/vessels.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.vessel.name ?? "Vessel"} · Sternpost` },
@@ -37,8 +38,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   try {
     await updateVessel(vessel.id, submission.value);
   } catch (error) {
-    if (error instanceof DuplicateHinError)
-      return data(submission.reply({ fieldErrors: { hin: [error.message] } }), { status: 400 });
+    if (error instanceof Refusal && error.field)
+      return data(submission.reply({ fieldErrors: { [error.field]: [error.message] } }), {
+        status: error.status,
+      });
     throw error;
   }
   await audit({ userId: user.id, action: "vessel.updated", entity: "vessel", entityId: vessel.id });

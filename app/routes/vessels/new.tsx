@@ -1,12 +1,13 @@
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, redirect } from "react-router";
 import type { Route } from "./+types/new";
+import { Refusal } from "~/lib/refusal";
 import { PageHeader } from "~/components/app-shell";
 import { VesselForm } from "~/components/vessel-form";
 import { vesselSchema } from "~/lib/validation/vessels";
 import { audit } from "~/server/audit.server";
 import { requireCapability } from "~/server/permissions.server";
-import { createVessel, DuplicateHinError } from "~/server/vessels.server";
+import { createVessel } from "~/server/vessels.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Add a vessel · Sternpost" }];
 
@@ -24,8 +25,10 @@ export async function action({ request }: Route.ActionArgs) {
     await audit({ userId: user.id, action: "vessel.created", entity: "vessel", entityId: id });
     return redirect("/vessels");
   } catch (error) {
-    if (error instanceof DuplicateHinError)
-      return data(submission.reply({ fieldErrors: { hin: [error.message] } }), { status: 400 });
+    if (error instanceof Refusal && error.field)
+      return data(submission.reply({ fieldErrors: { [error.field]: [error.message] } }), {
+        status: error.status,
+      });
     throw error;
   }
 }
