@@ -179,6 +179,7 @@ const gapsInput = {
   accepts: ["grid", "numbers"],
   unit: "in",
   field: "gapsIn",
+  clock: true,
 } as const satisfies CalcInputSpec;
 const gaps180Input = {
   label: "Face gaps with the shaft turned 180°",
@@ -186,6 +187,7 @@ const gaps180Input = {
   unit: "in",
   optional: true,
   field: "gapsIn180",
+  clock: true,
 } as const satisfies CalcInputSpec;
 /** Shared with the mount moves, which start from the same face readings. */
 export const faceReadingInputs = { diameter: diameterInput, gaps: gapsInput, gaps180: gaps180Input };
@@ -265,6 +267,7 @@ export const couplingRimCalc = defineCalc({
       accepts: ["grid", "numbers"],
       unit: "in",
       field: "readingsIn",
+      clock: true,
     },
     maxOffset: {
       label: "Largest centre offset",
