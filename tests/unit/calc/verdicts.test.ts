@@ -71,7 +71,7 @@ describe("coupling fit: the item's own limits decide, at the tightest place (iss
 });
 
 describe("face gaps at 0° and 180° of shaft rotation are averaged (issue 12, item 7)", () => {
-  it("face wobble cancels: the mean of the two sets is the misalignment", () => {
+  it("face wobble cancels: the mean of the two sets is the misalignment (Carrier 17/19EX instructions, coupling alignment, p. 212: add the two and divide by two)", () => {
     // A face 0.002 in out of square adds at the top in one position and at the bottom after half a turn.
     const at0 = { top: 0.006, bottom: 0.002, port: 0.004, starboard: 0.004 };
     const at180 = { top: 0.004, bottom: 0.004, port: 0.004, starboard: 0.004 };
