@@ -8,7 +8,8 @@ const looks: Record<VerdictStatus, { shape: string; word: string; className: str
   ok: { shape: "✓", word: "Good", className: "border-sound bg-sound-light text-sound" },
   "out-of-range": { shape: "▲", word: "Outside limit", className: "border-fault bg-fault-light text-fault" },
   "needs-note": { shape: "✎", word: "Needs a note", className: "border-brass bg-brass-light text-ink" },
-  noted: { shape: "✓", word: "Noted", className: "border-sound bg-sound-light text-sound" },
+  // A finding with its corrective action written down is still a finding: never a green tick.
+  noted: { shape: "⚑", word: "Finding, action noted", className: "border-brass bg-brass-light text-ink" },
 };
 
 export function VerdictBadge({ verdict }: { verdict: Verdict }) {
