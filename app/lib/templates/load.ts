@@ -4,6 +4,7 @@ import { calcBindingProblems } from "./calc-inputs";
 import {
   placedItems,
   templateSchema,
+  type CalcRule,
   type Item,
   type ReadingsRule,
   type Rule,
@@ -131,7 +132,7 @@ function itemProblems(item: Item, template: Template): RawProblem[] {
     case "choice":
       return uniqueKeys(item.options, "options");
     case "calc":
-      return calcBindingProblems(item, template);
+      return [...calcBindingProblems(item, template), ...(item.rule ? ruleProblems(item.rule) : [])];
     default:
       return [];
   }
@@ -162,9 +163,10 @@ function unitProblems(unit: Unit, accepts: readonly Unit[] | undefined): RawProb
   return problems;
 }
 
-function ruleProblems(rule: Rule | ReadingsRule, itemUnit: Unit): RawProblem[] {
+/** A calc rule has no item unit to match: the result's unit is only known when it runs. */
+function ruleProblems(rule: Rule | ReadingsRule | CalcRule, itemUnit?: Unit): RawProblem[] {
   const problems: RawProblem[] = [];
-  if (dimensionOf(rule.unit) !== dimensionOf(itemUnit)) {
+  if (itemUnit !== undefined && dimensionOf(rule.unit) !== dimensionOf(itemUnit)) {
     problems.push({
       path: ["rule", "unit"],
       message: `${rule.unit} is a ${dimensionOf(rule.unit)} unit but the item is measured in ${itemUnit} (${dimensionOf(itemUnit)})`,

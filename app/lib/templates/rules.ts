@@ -1,12 +1,13 @@
 import { runCalc, type CalcOutcome } from "~/lib/calc/registry";
 import { atLeast, atMost } from "~/lib/calc/numbers";
-import { convert, type Unit } from "~/lib/calc/units";
+import { convert, dimensionOf, isUnit, type Unit } from "~/lib/calc/units";
 import { calcDefinition, gatherCalcInputs } from "./calc-inputs";
 import { describeRule, formatEntered, formatNumber, formatQuantity } from "./format";
 import { formatPath } from "./load";
 import {
   findItem,
   type CalcItem,
+  type CalcRule,
   type ChoiceItem,
   type Item,
   type MeasureItem,
@@ -44,8 +45,13 @@ export type VerdictStatus =
   | "out-of-range"
   /** failed, not applicable, or a choice that is a finding, and no note yet */
   | "needs-note"
-  /** a finding that carries its note: done, for the reviewer to judge */
-  | "noted";
+  /** not applicable, with the reason why: done */
+  | "noted"
+  /**
+   * a finding (a fail, a reading outside its limit, a flagged choice) that carries its
+   * corrective-action note: done, but still a finding for the reviewer, never a pass
+   */
+  | "action-noted";
 
 export type Finding = "fail" | "not-applicable" | "out-of-range" | "flagged-option";
 
@@ -70,15 +76,20 @@ export interface EvaluationContext {
 
 const NOTE_FOR_RANGE = "Write the corrective action in the note, or correct it and enter a new attempt.";
 
+const DONE = new Set<VerdictStatus>(["ok", "noted", "action-noted"]);
+
 function hasNote(note: string | undefined): boolean {
   return typeof note === "string" && note.trim().length > 0;
 }
 
 function verdict(status: VerdictStatus, message: string, extra: Partial<Verdict> = {}): Verdict {
-  return { status, done: status === "ok" || status === "noted", message, ...extra };
+  return { status, done: DONE.has(status), message, ...extra };
 }
 
-/** A finding: `noted` with its note, otherwise `needs-note` (or `out-of-range` for a reading). */
+/**
+ * A finding with its note is `action-noted` (`noted` for a reason why it does not apply);
+ * without it, `needs-note` (or `out-of-range` for a reading).
+ */
 function finding(
   kind: Finding,
   note: string | undefined,
@@ -86,7 +97,11 @@ function finding(
   ask: string,
   extra: Partial<Verdict> = {},
 ): Verdict {
-  if (hasNote(note)) return verdict("noted", `${what} Noted.`, { finding: kind, ...extra });
+  if (hasNote(note))
+    return verdict(kind === "not-applicable" ? "noted" : "action-noted", `${what} Noted.`, {
+      finding: kind,
+      ...extra,
+    });
   return verdict(kind === "out-of-range" ? "out-of-range" : "needs-note", `${what} ${ask}`, {
     finding: kind,
     ...extra,
@@ -161,7 +176,7 @@ interface Bounds {
 }
 
 /** min/max narrowed by nominal ± tolerance. */
-function boundsOf(rule: Rule | ReadingsRule): Bounds {
+function boundsOf(rule: Rule | ReadingsRule | CalcRule): Bounds {
   let { min: low, max: high } = rule;
   if (rule.nominal !== undefined && rule.tolerance !== undefined) {
     const lo = rule.nominal - rule.tolerance;
@@ -291,6 +306,7 @@ function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext
     return verdict("invalid", `${source ? `${source.label}: ` : ""}${outcome.error.message}`);
   }
   const summary = calcSummary(outcome);
+  if (item.rule) return judgeCalcByRule(item.rule, outcome, summary, note);
   if (outcome.verdict === "fail")
     return finding("out-of-range", note, `${summary} Outside the rule: ${outcome.rule}.`, NOTE_FOR_RANGE, {
       outcome,
@@ -300,6 +316,30 @@ function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext
   return verdict("ok", summary, { outcome });
 }
 
+/** The item's own acceptance rule on one value of the result decides, not the calculation. */
+function judgeCalcByRule(rule: CalcRule, outcome: CalcOutcome, summary: string, note?: string): Verdict {
+  const value = Object.hasOwn(outcome.values, rule.output) ? outcome.values[rule.output] : undefined;
+  if (typeof value !== "number")
+    return verdict(
+      "invalid",
+      `The rule is on "${rule.output}", which this calculation does not give as a number.`,
+      {
+        outcome,
+      },
+    );
+  const from = outcome.units[rule.output] ?? "1";
+  if (!isUnit(from) || dimensionOf(from) !== dimensionOf(rule.unit))
+    return verdict("invalid", `The rule in ${rule.unit} cannot be applied to "${rule.output}" in ${from}.`, {
+      outcome,
+    });
+  const judged = { ...outcome, verdict: "pass" as CalcOutcome["verdict"], rule: describeRule(rule) };
+  const shown = asEntered(value, from, rule.unit);
+  const crossed = crossing(convert(value, from, rule.unit), boundsOf(rule));
+  if (!crossed) return verdict("ok", `${summary} Within the rule: ${judged.rule}.`, { outcome: judged });
+  judged.verdict = "fail";
+  const what = `${summary} ${rule.output} ${shown} is ${crossed.side} the ${crossed.side === "below" ? "lower" : "upper"} limit of ${formatQuantity(crossed.limit, rule.unit)}.`;
+  return finding("out-of-range", note, what, NOTE_FOR_RANGE, { outcome: judged });
+}
 function calcSummary(outcome: CalcOutcome): string {
   const parts = Object.entries(outcome.values).map(([name, v]) => {
     const unit = outcome.units[name];

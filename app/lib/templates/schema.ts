@@ -106,6 +106,16 @@ export const calcBindingSchema = z.union(
   { error: 'expected { "item": "<item key>" } or { "value": <constant> }' },
 );
 
+/**
+ * A calc item's acceptance rule: limits on one named value of the calculation's result
+ * (`values[output]`), in `unit`; the result's own unit is converted. When present it decides the
+ * item's verdict, whatever the calculation would say on its own.
+ */
+export const calcRuleSchema = z.strictObject({
+  output: words,
+  ...ruleFields,
+});
+
 export const calcItemSchema = z.strictObject({
   kind: z.literal("calc"),
   ...itemBase,
@@ -117,6 +127,7 @@ export const calcItemSchema = z.strictObject({
     z.string().regex(CAMEL, { error: "expected an input name, like diameterIn" }),
     calcBindingSchema,
   ),
+  rule: calcRuleSchema.optional(),
 });
 
 export const choiceItemSchema = z.strictObject({
@@ -193,6 +204,7 @@ export type PhotoItem = z.output<typeof photoItemSchema>;
 export type InitialsItem = z.output<typeof initialsItemSchema>;
 export type Rule = z.output<typeof ruleSchema>;
 export type ReadingsRule = z.output<typeof readingsRuleSchema>;
+export type CalcRule = z.output<typeof calcRuleSchema>;
 export type CalcBinding = z.output<typeof calcBindingSchema>;
 
 /** The units a measure or readings item takes: its `accepts` list, or only its `unit`. */
