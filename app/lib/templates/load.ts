@@ -1,6 +1,7 @@
 import type { z } from "zod";
 import { dimensionOf, type Unit } from "~/lib/calc/units";
 import { calcBindingProblems } from "./calc-inputs";
+import { prefillProblems } from "./prefill";
 import {
   placedItems,
   templateSchema,
@@ -114,6 +115,7 @@ function itemProblems(item: Item, template: Template): RawProblem[] {
       return [
         ...unitProblems(item.unit, item.accepts),
         ...(item.rule ? ruleProblems(item.rule, item.unit) : []),
+        ...prefillProblems(item),
       ];
     case "readings": {
       const problems = [
@@ -130,7 +132,7 @@ function itemProblems(item: Item, template: Template): RawProblem[] {
       return problems;
     }
     case "choice":
-      return uniqueKeys(item.options, "options");
+      return [...uniqueKeys(item.options, "options"), ...prefillProblems(item)];
     case "calc":
       return [...calcBindingProblems(item, template), ...(item.rule ? ruleProblems(item.rule) : [])];
     default:

@@ -4,6 +4,7 @@ import { convert, dimensionOf, isUnit, type Unit } from "~/lib/calc/units";
 import { calcDefinition, gatherCalcInputs } from "./calc-inputs";
 import { describeRule, formatEntered, formatNumber, formatQuantity } from "./format";
 import { formatPath } from "./load";
+import { FROM_JOB } from "./prefill";
 import {
   findItem,
   type CalcItem,
@@ -53,7 +54,7 @@ export type VerdictStatus =
    */
   | "action-noted";
 
-export type Finding = "fail" | "not-applicable" | "out-of-range" | "flagged-option";
+export type Finding = "fail" | "not-applicable" | "out-of-range" | "flagged-option" | "changed-from-job";
 
 export interface Verdict {
   status: VerdictStatus;
@@ -202,8 +203,31 @@ function asEntered(value: number, unit: Unit, ruleUnit: Unit): string {
     : `${entered} (${formatQuantity(convert(value, unit, ruleUnit), ruleUnit)})`;
 }
 
+/** A later attempt that differs from the figure the job gave: an override, which says why. */
+function overridesJob(value: MeasureValue): boolean {
+  const [first] = value.attempts;
+  const last = value.attempts[value.attempts.length - 1];
+  return (
+    first.by === FROM_JOB && last !== first && !sameQuantity(last.value, last.unit, first.value, first.unit)
+  );
+}
+
+function sameQuantity(a: number, aUnit: Unit, b: number, bUnit: Unit): boolean {
+  if (dimensionOf(aUnit) !== dimensionOf(bUnit)) return false;
+  const converted = convert(a, aUnit, bUnit);
+  return atLeast(converted, b) && atMost(converted, b);
+}
+
 function evaluateMeasure(item: MeasureItem, value: MeasureValue): Verdict {
   const last = value.attempts[value.attempts.length - 1];
+  if (overridesJob(value) && !hasNote(value.note)) {
+    const job = value.attempts[0];
+    return verdict(
+      "needs-note",
+      `Changed from the job's equipment (${formatEntered(job.value, job.unit)}) to ${formatEntered(last.value, last.unit)}: say why in the note.`,
+      { finding: "changed-from-job" },
+    );
+  }
   const tries = value.attempts.length > 1 ? ` (attempt ${value.attempts.length})` : "";
   const rule = item.rule;
   if (!rule) return verdict("ok", `${asEntered(last.value, last.unit, last.unit)} recorded${tries}.`);

@@ -73,9 +73,24 @@ const gridLine = z.strictObject({ key: kebabKey, label: words });
 
 export const checkItemSchema = z.strictObject({ kind: z.literal("check"), ...itemBase });
 
+/** A fact of the job's installed equipment an item is filled from (see prefill.ts). */
+export const jobFactNames = [
+  "ratedRpmMin",
+  "ratedRpmMax",
+  "gearRatio",
+  "propellerDiameter",
+  "propellerPitch",
+  "shaftDiameter",
+  "shaftSystem",
+  "systemVoltage",
+] as const;
+export type JobFact = (typeof jobFactNames)[number];
+export const jobFactSchema = z.enum(jobFactNames);
+
 export const measureItemSchema = z.strictObject({
   kind: z.literal("measure"),
   ...itemBase,
+  fromJob: jobFactSchema.optional(),
   /** The unit offered first. */
   unit: unitSchema,
   /** Units a reading may be entered in (the same dimension as `unit`); only `unit` when absent. */
@@ -133,6 +148,7 @@ export const calcItemSchema = z.strictObject({
 export const choiceItemSchema = z.strictObject({
   kind: z.literal("choice"),
   ...itemBase,
+  fromJob: jobFactSchema.optional(),
   options: z
     .array(
       z.strictObject({
