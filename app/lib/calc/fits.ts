@@ -1,3 +1,4 @@
+import { defineCalc } from "./define";
 import { CalcError, requireFinite, requireFiniteResult, requirePositive } from "./errors";
 import { atLeast, atMost, tidy } from "./numbers";
 
@@ -252,10 +253,16 @@ export function fitCheck(input: FitCheckInput): FitCheckResult {
 }
 
 export interface CouplingFitInput {
+  /** The largest shaft reading: the tightest place decides the fit. */
   shaftIn: number;
+  /** The smallest bore reading. */
   boreIn: number;
-  /** The clearance wanted on the diameter; without it, only interference is machined away. */
+  /** The clearance wanted on the diameter; without it, the smallest allowed (or none). */
   targetClearanceIn?: number;
+  /** Acceptance: least clearance allowed (negative = the interference a shrink fit needs). */
+  minClearanceIn?: number;
+  /** Acceptance: most clearance allowed (negative = the least interference). */
+  maxClearanceIn?: number;
 }
 
 export interface CouplingFitResult {
@@ -263,21 +270,163 @@ export interface CouplingFitResult {
   clearanceIn: number;
   /** Material to take off the shaft diameter to reach the wanted clearance (0 if none). */
   removeFromShaftIn: number;
+  /** Within the minimum and maximum clearance, when either was given. */
+  pass?: boolean;
 }
 
 /**
  * Measured coupling fit: clearance = bore − shaft (both on the diameter, Machinery's Handbook
- * "Allowances and Tolerances for Fits"); material to remove from the shaft diameter =
- * target clearance − clearance when positive.
+ * "Allowances and Tolerances for Fits"), taken at the tightest place: the largest shaft
+ * reading against the smallest bore reading. Material to remove from the shaft diameter =
+ * wanted clearance − clearance when positive (wanted = the target, else the minimum, else 0).
+ * The verdict is the item's own acceptance rule: min ≤ clearance ≤ max.
  */
 export function couplingFit(input: CouplingFitInput): CouplingFitResult {
   const shaftIn = requirePositive("shaftIn", input?.shaftIn);
   const boreIn = requirePositive("boreIn", input.boreIn);
-  const target =
-    input.targetClearanceIn === undefined ? 0 : requireFinite("targetClearanceIn", input.targetClearanceIn);
+  const optional = (field: keyof CouplingFitInput) =>
+    input[field] === undefined ? undefined : requireFinite(field, input[field]);
+  const min = optional("minClearanceIn");
+  const max = optional("maxClearanceIn");
+  if (min !== undefined && max !== undefined && min > max) {
+    throw new CalcError("maxClearanceIn", "The maximum clearance is below the minimum.");
+  }
+  const target = optional("targetClearanceIn") ?? min ?? 0;
   const clearanceIn = tidy(boreIn - shaftIn);
+  const pass =
+    min === undefined && max === undefined
+      ? undefined
+      : (min === undefined || atLeast(clearanceIn, min)) && (max === undefined || atMost(clearanceIn, max));
   return requireFiniteResult("targetClearanceIn", {
     clearanceIn,
     removeFromShaftIn: tidy(Math.max(0, target - clearanceIn)),
+    ...(pass !== undefined ? { pass } : {}),
   });
 }
+
+export const couplingFitCalc = defineCalc({
+  name: "couplingFit",
+  title: "Coupling fit on the shaft",
+  summary:
+    "Clearance (or interference) between the coupling bore and the shaft at the tightest place, against the item's limits, and what to take off the shaft.",
+  source:
+    "Clearance = bore − shaft, on the diameter (Machinery's Handbook, allowances and tolerances for fits); limits: the coupling maker's or the job's",
+  inputs: {
+    shaft: {
+      label: "Shaft diameter readings (the largest is used)",
+      accepts: ["number", "numbers", "grid"],
+      unit: "in",
+      field: "shaftIn",
+    },
+    bore: {
+      label: "Coupling bore readings (the smallest is used)",
+      accepts: ["number", "numbers", "grid"],
+      unit: "in",
+      field: "boreIn",
+    },
+    targetClearance: {
+      label: "Clearance wanted",
+      accepts: ["number"],
+      unit: "in",
+      optional: true,
+      field: "targetClearanceIn",
+    },
+    minClearance: {
+      label: "Least clearance allowed (negative = interference)",
+      accepts: ["number"],
+      unit: "in",
+      optional: true,
+      field: "minClearanceIn",
+    },
+    maxClearance: {
+      label: "Most clearance allowed",
+      accepts: ["number"],
+      unit: "in",
+      optional: true,
+      field: "maxClearanceIn",
+    },
+  },
+  run(read, show) {
+    const min = read.number("minClearance", "in");
+    const max = read.number("maxClearance", "in");
+    const result = couplingFit({
+      shaftIn: Math.max(...read.numbers("shaft", "in")!),
+      boreIn: Math.min(...read.numbers("bore", "in")!),
+      targetClearanceIn: read.number("targetClearance", "in"),
+      minClearanceIn: min,
+      maxClearanceIn: max,
+    });
+    const limit =
+      min !== undefined && max !== undefined
+        ? `clearance from ${show.q(min, "in")} to ${show.q(max, "in")}`
+        : min !== undefined
+          ? `clearance ≥ ${show.q(min, "in")}`
+          : max !== undefined
+            ? `clearance ≤ ${show.q(max, "in")}`
+            : "no limit given";
+    return {
+      values: { clearance: result.clearanceIn, "remove from shaft": result.removeFromShaftIn },
+      units: { clearance: "in", "remove from shaft": "in" },
+      verdict: result.pass === undefined ? "info" : result.pass ? "pass" : "fail",
+      primary: "clearance",
+      rule: `${limit}; largest shaft reading against smallest bore reading, negative clearance is interference, material to remove is on the diameter`,
+      detail: result,
+    };
+  },
+});
+
+export const isoFitCalc = defineCalc({
+  name: "isoFit",
+  title: "ISO 286 fit",
+  summary: "Hole and shaft limits of an ISO fit, its kind, and measured parts against them.",
+  source: "ISO 286-1:2010 and ISO 286-2:2010 tables",
+  inputs: {
+    nominal: { label: "Nominal size", accepts: ["number"], unit: "mm", field: "nominalMm" },
+    hole: { label: "Hole class (e.g. H7)", accepts: ["text"], field: "hole" },
+    shaft: { label: "Shaft class (e.g. k6)", accepts: ["text"], field: "shaft" },
+    measuredBore: {
+      label: "Measured bore",
+      accepts: ["number"],
+      unit: "mm",
+      optional: true,
+      field: "measuredBoreMm",
+    },
+    measuredShaft: {
+      label: "Measured shaft",
+      accepts: ["number"],
+      unit: "mm",
+      optional: true,
+      field: "measuredShaftMm",
+    },
+  },
+  run(read) {
+    const result = fitCheck({
+      nominalMm: read.number("nominal", "mm")!,
+      hole: read.text("hole")!,
+      shaft: read.text("shaft")!,
+      measuredBoreMm: read.number("measuredBore", "mm"),
+      measuredShaftMm: read.number("measuredShaft", "mm"),
+    });
+    const values: Record<string, number | string> = {
+      "hole upper": result.hole.upperMm,
+      "hole lower": result.hole.lowerMm,
+      "shaft upper": result.shaft.upperMm,
+      "shaft lower": result.shaft.lowerMm,
+      fit: result.kind,
+    };
+    if (result.measuredClearanceMm !== undefined) values["measured clearance"] = result.measuredClearanceMm;
+    return {
+      values,
+      units: {
+        "hole upper": "mm",
+        "hole lower": "mm",
+        "shaft upper": "mm",
+        "shaft lower": "mm",
+        "measured clearance": "mm",
+      },
+      verdict: result.pass === undefined ? "info" : result.pass ? "pass" : "fail",
+      rule: `measured parts within the ISO 286 limits of ${read.text("hole")}/${read.text("shaft")}`,
+      detail: result,
+    };
+  },
+});

@@ -1,3 +1,4 @@
+import { defineCalc } from "./define";
 /**
  * Hull identification number check, after 33 CFR 181.25 ("Hull identification number format"):
  * twelve characters, uninterrupted by slashes, hyphens or spaces —
@@ -122,3 +123,26 @@ export function validateHin(hin: string): HinResult {
   }
   return out;
 }
+
+export const validateHinCalc = defineCalc({
+  name: "validateHin",
+  title: "Hull identification number",
+  summary: "Whether a HIN follows the 12-character layout, and why not.",
+  source: "33 CFR 181.25",
+  inputs: { hin: { label: "Hull identification number", accepts: ["text"] } },
+  run(read) {
+    const result = validateHin(read.text("hin")!);
+    const values: Record<string, string | number> = { HIN: result.hin };
+    if (result.manufacturerCode) values["maker's code"] = result.manufacturerCode;
+    if (result.modelYear !== undefined) values["model year"] = result.modelYear;
+    if (result.problems.length) values.problems = result.problems.join(" ");
+    return {
+      values,
+      units: {},
+      verdict: result.valid ? "pass" : "fail",
+      primary: "HIN",
+      rule: "33 CFR 181.25 hull identification number format",
+      detail: result,
+    };
+  },
+});

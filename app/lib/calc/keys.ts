@@ -1,5 +1,5 @@
 import { CalcError, requirePositive } from "./errors";
-import { tidy } from "./numbers";
+import { nominalInch, tidy } from "./numbers";
 
 /**
  * ASME B17.1-1967 (R2013) Table 1, key size versus shaft diameter (inch): each row covers
@@ -28,6 +28,8 @@ const B17_1_FROM_IN = 5 / 16;
 
 export interface KeyInchResult {
   standard: "ASME B17.1";
+  /** The nominal size the key was chosen for (the measure snapped to it when within 0.005 in). */
+  nominalIn: number;
   style: "square" | "rectangular";
   widthIn: number;
   heightIn: number;
@@ -42,7 +44,9 @@ export interface KeyInchResult {
 /**
  * Parallel key for an inch shaft after ASME B17.1 Table 1, with the keyseat depth H/2 and the
  * chordal-height check of Machinery's Handbook ("Keys and Keyseats"). Square keys are the usual
- * choice up to 6 1/2 in; B17.1 prefers rectangular keys above that.
+ * choice up to 6 1/2 in; B17.1 prefers rectangular keys above that. The row is chosen by the
+ * nominal size (a measured 1.2503 in shaft is a 1 1/4 in shaft); the chordal height and S
+ * dimension use the measured diameter.
  */
 export function keyForShaft(input: { diameterIn: number; style?: "square" | "rectangular" }): KeyInchResult {
   const d = requirePositive("diameterIn", input?.diameterIn);
@@ -50,7 +54,8 @@ export function keyForShaft(input: { diameterIn: number; style?: "square" | "rec
   if (style !== "square" && style !== "rectangular") {
     throw new CalcError("style", 'Key style is "square" or "rectangular".');
   }
-  const row = d > B17_1_FROM_IN ? B17_1.find(([toIn]) => d <= toIn) : undefined;
+  const nominalIn = nominalInch(d);
+  const row = nominalIn > B17_1_FROM_IN ? B17_1.find(([toIn]) => nominalIn <= toIn) : undefined;
   if (!row) {
     throw new CalcError(
       "diameterIn",
@@ -65,6 +70,7 @@ export function keyForShaft(input: { diameterIn: number; style?: "square" | "rec
   const chordalHeightIn = (d - Math.sqrt(d * d - widthIn * widthIn)) / 2;
   return {
     standard: "ASME B17.1",
+    nominalIn,
     style,
     widthIn,
     heightIn,

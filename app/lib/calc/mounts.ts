@@ -1,4 +1,5 @@
-import { readGaps, type ClockGapsIn } from "./coupling";
+import { couplingRim, faceGaps, faceReadingInputs, readGaps, type ClockGapsIn } from "./coupling";
+import { CAUTION_LIFTING, defineCalc, type Show } from "./define";
 import { CalcError, requireFinite, requireFiniteResult, requireNonNegative, requirePositive } from "./errors";
 import { tidy } from "./numbers";
 import { shimStack, type ShimStackResult } from "./shims";
@@ -94,3 +95,123 @@ export function mountMoves(input: MountMovesInput): MountMovesResult {
   };
   return { front: moveAt(frontMountIn), rear: moveAt(rearMountIn) };
 }
+
+/** A move in words whose sign and direction agree with the arrow in the diagram. */
+function moveWords(value: number, positive: string, negative: string, show: Show): string {
+  if (value === 0) return "no move";
+  return `${value > 0 ? positive : negative} ${show.q(Math.abs(value), "in")}`;
+}
+
+function turnsWords(turns: number): string {
+  const n = Math.round(Math.abs(turns) * 100) / 100;
+  if (n === 0) return "no turn";
+  return `${n} ${n === 1 ? "turn" : "turns"} to ${turns > 0 ? "raise" : "lower"}`;
+}
+
+export const mountMovesCalc = defineCalc({
+  name: "mountMoves",
+  title: "Mount moves",
+  summary:
+    "How far to raise or shift each pair of mounts to bring the faces parallel and the centres in line.",
+  source: "Similar triangles, rim-and-face alignment: move = face slope × distance − offset",
+  caution: CAUTION_LIFTING,
+  inputs: {
+    ...faceReadingInputs,
+    offsetVertical: {
+      label: "Engine centre above shaft centre",
+      accepts: ["number"],
+      unit: "in",
+      optional: true,
+      field: "offsetIn.vertical",
+    },
+    offsetHorizontal: {
+      label: "Engine centre to starboard of shaft centre",
+      accepts: ["number"],
+      unit: "in",
+      optional: true,
+      field: "offsetIn.horizontal",
+    },
+    rim: {
+      label: "Rim readings (instead of the offsets)",
+      accepts: ["grid", "numbers"],
+      unit: "in",
+      optional: true,
+      field: "readingsIn",
+    },
+    frontMount: {
+      label: "Coupling face to front mounts",
+      accepts: ["number"],
+      unit: "in",
+      field: "frontMountIn",
+    },
+    rearMount: {
+      label: "Coupling face to rear mounts",
+      accepts: ["number"],
+      unit: "in",
+      field: "rearMountIn",
+    },
+    adjusterThread: {
+      label: "Mount adjuster threads per inch",
+      accepts: ["number"],
+      unit: "tpi",
+      optional: true,
+      field: "adjusterTpi",
+    },
+    adjusterPitch: {
+      label: "Mount adjuster thread pitch (metric, mm per turn)",
+      accepts: ["number"],
+      unit: "mm",
+      optional: true,
+    },
+    shimStock: {
+      label: "Shim sizes in stock",
+      accepts: ["numbers"],
+      unit: "in",
+      optional: true,
+      field: ["shimStockIn", "thicknessIn", "stockIn"],
+    },
+  },
+  run(read, show) {
+    const gapsIn = faceGaps(read.clock("gaps", "in"), read.clock("gaps180", "in"));
+    const rim = read.clock("rim", "in");
+    const fromRim = rim ? couplingRim({ readingsIn: rim }) : undefined;
+    const vertical = read.number("offsetVertical", "in") ?? fromRim?.verticalOffsetIn;
+    const horizontal = read.number("offsetHorizontal", "in") ?? fromRim?.horizontalOffsetIn;
+    if (vertical === undefined)
+      throw new CalcError("offsetVertical", "Enter the vertical centre offset or the rim readings.");
+    if (horizontal === undefined)
+      throw new CalcError("offsetHorizontal", "Enter the sideways centre offset or the rim readings.");
+    const tpi = read.number("adjusterThread", "tpi");
+    const pitchIn = read.number("adjusterPitch", "in");
+    if (pitchIn !== undefined && pitchIn <= 0)
+      throw new CalcError("adjusterPitch", "The thread pitch must be greater than zero.");
+    const result = mountMoves({
+      diameterIn: read.number("diameter", "in")!,
+      gapsIn,
+      offsetIn: { vertical, horizontal },
+      frontMountIn: read.number("frontMount", "in")!,
+      rearMountIn: read.number("rearMount", "in")!,
+      adjusterTpi: tpi ?? (pitchIn !== undefined ? 1 / pitchIn : undefined),
+      shimStockIn: read.numbers("shimStock", "in"),
+    });
+    const values: Record<string, string> = {};
+    for (const [end, move] of [
+      ["front", result.front],
+      ["rear", result.rear],
+    ] as const) {
+      values[`${end} mounts, height`] = moveWords(move.raiseIn, "raise", "lower", show);
+      values[`${end} mounts, sideways`] = moveWords(move.toStarboardIn, "to starboard", "to port", show);
+      if (move.nutTurns !== undefined) values[`${end} adjusting nuts`] = turnsWords(move.nutTurns);
+      if (move.shims)
+        values[`${end} shims`] =
+          `${move.shims.action} ${move.shims.pieces.map((p) => `${p.count} × ${show.q(p.sizeIn, "in")}`).join(" + ")}`;
+    }
+    return {
+      values,
+      units: {},
+      verdict: "info",
+      rule: "instructions, not a check: the engine moves, the shaft stays; distances forward from the coupling face. Whether the alignment is good is the face and rim check's verdict",
+      detail: result,
+    };
+  },
+});

@@ -20,3 +20,17 @@ export function atMost(value: number, limit: number): boolean {
 export function atLeast(value: number, limit: number): boolean {
   return value >= limit - RELATIVE_SLACK * Math.max(1, Math.abs(limit));
 }
+
+/**
+ * A shaft measured within this of a nominal size is that size (worn, ground or oversize stock),
+ * for key and taper look-ups: a 1.2503 in shaft is a 1 1/4 in shaft, not the next row up.
+ */
+export const SIZE_SLACK_IN = 0.005;
+/** Inch shafting comes in sixteenths (SAE J755 sizes are all sixteenths). */
+const NOMINAL_STEP_IN = 1 / 16;
+
+/** The nominal inch size of a measured diameter: the nearest sixteenth within the slack, else the measure. */
+export function nominalInch(diameterIn: number): number {
+  const nearest = Math.round(diameterIn / NOMINAL_STEP_IN) * NOMINAL_STEP_IN;
+  return Math.abs(nearest - diameterIn) <= SIZE_SLACK_IN + 1e-12 ? nearest : diameterIn;
+}

@@ -1,3 +1,4 @@
+import { CAUTION_SEA_TRIAL, defineCalc } from "./define";
 import { CalcError, requireFiniteResult, requireNonNegative, requirePositive } from "./errors";
 import { tidy } from "./numbers";
 
@@ -79,3 +80,87 @@ export function seaTrialLoading(input: SeaTrialLoadingInput): SeaTrialLoadingRes
   const pitchChangeIn = verdict === "in-range" ? 0 : tidy((wot - targetRpm) / perInch);
   return requireFiniteResult("wotRpm", { verdict, pitchChangeIn, targetRpm });
 }
+
+export const propSlipCalc = defineCalc({
+  name: "propSlip",
+  title: "Propeller slip",
+  summary: "Shaft rpm, theoretical speed from pitch, and apparent slip.",
+  source: "Gerr, Propeller Handbook, apparent slip",
+  caution: CAUTION_SEA_TRIAL,
+  inputs: {
+    pitch: { label: "Propeller pitch", accepts: ["number"], unit: "in", field: "pitchIn" },
+    engineRpm: { label: "Engine rpm", accepts: ["number"], unit: "rpm", field: "engineRpm" },
+    gearRatio: {
+      label: "Gear ratio (e.g. 2.5 for 2.5 : 1)",
+      accepts: ["number"],
+      unit: "1",
+      field: "gearRatio",
+    },
+    speed: { label: "Speed through the water", accepts: ["number"], unit: "kn", field: "speedKnots" },
+  },
+  run(read) {
+    const result = propSlip({
+      pitchIn: read.number("pitch", "in")!,
+      engineRpm: read.number("engineRpm", "rpm")!,
+      gearRatio: read.number("gearRatio", "1")!,
+      speedKnots: read.number("speed", "kn")!,
+    });
+    return {
+      values: {
+        "shaft rpm": result.shaftRpm,
+        "theoretical speed": result.theoreticalKnots,
+        slip: result.slipPercent,
+      },
+      units: { "shaft rpm": "rpm", "theoretical speed": "kn", slip: "%" },
+      verdict: "info",
+      rule: "slip = (pitch speed − actual speed) ÷ pitch speed",
+      detail: result,
+    };
+  },
+});
+
+export const seaTrialLoadingCalc = defineCalc({
+  name: "seaTrialLoading",
+  title: "Sea-trial propeller loading",
+  summary:
+    "Whether the engine reaches its rated rpm band at wide-open throttle, and an indicative pitch change.",
+  source:
+    "Engine maker's rated rpm band; about 200 rpm per inch of pitch for planing boats, common practice (a displacement hull changes less per inch)",
+  caution: CAUTION_SEA_TRIAL,
+  inputs: {
+    wotRpm: { label: "Wide-open-throttle rpm", accepts: ["number"], unit: "rpm", field: "wotRpm" },
+    ratedRpmMin: { label: "Rated band, lowest rpm", accepts: ["number"], unit: "rpm", field: "ratedRpmMin" },
+    ratedRpmMax: { label: "Rated band, highest rpm", accepts: ["number"], unit: "rpm", field: "ratedRpmMax" },
+    rpmPerPitchIn: {
+      label: "Rpm change per inch of pitch (about 200 for a planing boat)",
+      accepts: ["number"],
+      unit: "rpm",
+      optional: true,
+      field: "rpmPerPitchIn",
+    },
+  },
+  run(read, show) {
+    const min = read.number("ratedRpmMin", "rpm")!;
+    const max = read.number("ratedRpmMax", "rpm")!;
+    const perInch = read.number("rpmPerPitchIn", "rpm");
+    const result = seaTrialLoading({
+      wotRpm: read.number("wotRpm", "rpm")!,
+      ratedRpmMin: min,
+      ratedRpmMax: max,
+      rpmPerPitchIn: perInch,
+    });
+    const words: Record<LoadingVerdict, string> = {
+      "over-propped": "over-propped (rpm below the band)",
+      "in-range": "within the rated band",
+      "under-propped": "under-propped (rpm above the band)",
+    };
+    return {
+      values: { loading: words[result.verdict], "pitch change": result.pitchChangeIn },
+      units: { "pitch change": "in" },
+      verdict: result.verdict === "in-range" ? "pass" : "fail",
+      primary: "loading",
+      rule: `wide-open-throttle rpm within ${show.q(min, "rpm")}–${show.q(max, "rpm")}${perInch === undefined ? "; pitch change at about 200 rpm per inch, a planing-boat figure" : ""}`,
+      detail: result,
+    };
+  },
+});

@@ -1,3 +1,4 @@
+import { CAUTION_ROTATING, defineCalc } from "./define";
 import { CalcError, requireFinite, requireFiniteResult, requireNonNegative } from "./errors";
 import { atMost, tidy } from "./numbers";
 
@@ -137,3 +138,60 @@ export function straighteningHistory(input: StraighteningInput): StraighteningRe
     ...(reached >= 0 ? { reachedLimitAt: reached } : {}),
   });
 }
+
+export const shaftRunoutCalc = defineCalc({
+  name: "shaftRunout",
+  title: "Shaft runout",
+  summary: "TIR at each station along the shaft, the worst station and its high spot.",
+  source:
+    "TIR = max − min over one turn (ASME Y14.5 full indicator movement, formerly TIR); limits: the job's, 0.002–0.003 in common practice",
+  caution: CAUTION_ROTATING,
+  inputs: {
+    readings: {
+      label: "Dial readings (stations × angles)",
+      accepts: ["grid"],
+      unit: "in",
+      field: ["stations", "readingsIn"],
+    },
+    positionsIn: {
+      label: "Station positions along the shaft",
+      accepts: ["numbers"],
+      unit: "in",
+      optional: true,
+      field: "positionIn",
+    },
+    limitTir: { label: "TIR limit", accepts: ["number"], unit: "in", field: "limitTirIn" },
+  },
+  run(read, show) {
+    const grid = read.grid("readings", "in")!;
+    const positions = read.numbers("positionsIn", "in");
+    const limitTirIn = read.number("limitTir", "in")!;
+    if (positions && positions.length !== grid.rows.length) {
+      throw new CalcError("positionsIn", `Give one position per station (${grid.rows.length}).`);
+    }
+    const result = shaftRunout({
+      stations: grid.values.map((readingsIn, i) => ({
+        positionIn: positions ? positions[i] : i,
+        readingsIn,
+      })),
+      limitTirIn,
+    });
+    const worst = result.stations[result.worstStation];
+    const station = grid.rowLabels[result.worstStation] ?? `station ${result.worstStation + 1}`;
+    const column = grid.columnLabels[worst.highSpotIndex];
+    // Columns of a runout grid are angles: "180" or "deg-180" both read "180°".
+    const highSpot =
+      column === undefined ? `${worst.highSpotAngleDeg}°` : /^\d+$/.test(column) ? `${column}°` : column;
+    return {
+      values: {
+        "worst TIR": result.maxTirIn,
+        where: `worst at ${station}, high spot at ${highSpot}`,
+      },
+      units: { "worst TIR": "in" },
+      verdict: result.pass ? "pass" : "fail",
+      primary: "worst TIR",
+      rule: `TIR at every station ≤ ${show.q(limitTirIn, "in")}`,
+      detail: result,
+    };
+  },
+});

@@ -1,3 +1,4 @@
+import { defineCalc } from "./define";
 import { requireFiniteResult, requirePositive } from "./errors";
 import { atLeast, atMost, tidy } from "./numbers";
 
@@ -64,3 +65,92 @@ export function bearingSpacing(input: BearingSpacingInput): BearingSpacingResult
   const actual = requirePositive("actualSpacingFt", input.actualSpacingFt);
   return { maxSpacingFt, pass: atMost(actual, maxSpacingFt) };
 }
+
+export const shaftDiameterCalc = defineCalc({
+  name: "shaftDiameter",
+  title: "Minimum shaft diameter",
+  summary: "Smallest solid propeller shaft for the power, rpm, material and safety factor.",
+  source: "Gerr, Propeller Handbook: D = ∛(321,000 × SHP × SF / (St × rpm))",
+  inputs: {
+    power: { label: "Shaft power", accepts: ["number"], unit: "hp", field: "shp" },
+    shaftRpm: { label: "Shaft rpm", accepts: ["number"], unit: "rpm", field: "shaftRpm" },
+    torsionalYield: {
+      label: "Torsional yield strength",
+      accepts: ["number"],
+      unit: "psi",
+      field: "torsionalYieldPsi",
+    },
+    safetyFactor: { label: "Safety factor", accepts: ["number"], unit: "1", field: "safetyFactor" },
+    installedDiameter: {
+      label: "Shaft fitted",
+      accepts: ["number"],
+      unit: "in",
+      optional: true,
+      field: "installedDiameterIn",
+    },
+  },
+  run(read, show) {
+    const result = shaftDiameter({
+      shp: read.number("power", "hp")!,
+      shaftRpm: read.number("shaftRpm", "rpm")!,
+      torsionalYieldPsi: read.number("torsionalYield", "psi")!,
+      safetyFactor: read.number("safetyFactor", "1")!,
+      installedDiameterIn: read.number("installedDiameter", "in"),
+    });
+    return {
+      values: { "minimum diameter": result.diameterIn },
+      units: { "minimum diameter": "in" },
+      verdict: result.pass === undefined ? "info" : result.pass ? "pass" : "fail",
+      primary: "minimum diameter",
+      rule: `shaft fitted ≥ ${show.q(result.diameterIn, "in")}`,
+      detail: result,
+    };
+  },
+});
+
+export const bearingSpacingCalc = defineCalc({
+  name: "bearingSpacing",
+  title: "Maximum bearing spacing",
+  summary: "Longest unsupported shaft span before whirling.",
+  source: "Gerr, Propeller Handbook: L = √(3.21 × D / rpm) × (E / density)^¼",
+  inputs: {
+    shaftDiameter: { label: "Shaft diameter", accepts: ["number"], unit: "in", field: "shaftDiameterIn" },
+    shaftRpm: { label: "Shaft rpm", accepts: ["number"], unit: "rpm", field: "shaftRpm" },
+    elasticModulus: {
+      label: "Modulus of elasticity",
+      accepts: ["number"],
+      unit: "psi",
+      field: "elasticModulusPsi",
+    },
+    density: {
+      label: "Density of the shaft material",
+      accepts: ["number"],
+      unit: "lb/in3",
+      field: "densityLbPerIn3",
+    },
+    actualSpacing: {
+      label: "Longest span fitted",
+      accepts: ["number"],
+      unit: "ft",
+      optional: true,
+      field: "actualSpacingFt",
+    },
+  },
+  run(read, show) {
+    const result = bearingSpacing({
+      shaftDiameterIn: read.number("shaftDiameter", "in")!,
+      shaftRpm: read.number("shaftRpm", "rpm")!,
+      elasticModulusPsi: read.number("elasticModulus", "psi")!,
+      densityLbPerIn3: read.number("density", "lb/in3")!,
+      actualSpacingFt: read.number("actualSpacing", "ft"),
+    });
+    return {
+      values: { "maximum spacing": result.maxSpacingFt },
+      units: { "maximum spacing": "ft" },
+      verdict: result.pass === undefined ? "info" : result.pass ? "pass" : "fail",
+      primary: "maximum spacing",
+      rule: `span between bearings ≤ ${show.q(result.maxSpacingFt, "ft")}`,
+      detail: result,
+    };
+  },
+});

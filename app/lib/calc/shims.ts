@@ -1,3 +1,4 @@
+import { CAUTION_LIFTING, defineCalc } from "./define";
 import { CalcError, requirePositive } from "./errors";
 import { tidy } from "./numbers";
 
@@ -75,3 +76,40 @@ export function shimStack(input: ShimStackInput): ShimStackResult {
   const totalIn = best / UNITS_PER_IN;
   return { pieces, pieceCount: fewest[best], totalIn, differenceIn: tidy(totalIn - thicknessIn) };
 }
+
+export const shimStackCalc = defineCalc({
+  name: "shimStack",
+  title: "Shim stack",
+  summary: "The fewest stock shims that make up a thickness.",
+  source: "Shop stock sizes; at most 5 shims under a foot, common practice",
+  caution: CAUTION_LIFTING,
+  inputs: {
+    thickness: { label: "Thickness wanted", accepts: ["number"], unit: "in", field: "thicknessIn" },
+    stock: { label: "Shim sizes in stock", accepts: ["numbers"], unit: "in", field: "stockIn" },
+    maxPieces: {
+      label: "Most shims in one stack",
+      accepts: ["number"],
+      unit: "1",
+      optional: true,
+      field: "maxPieces",
+    },
+  },
+  run(read, show) {
+    const result = shimStack({
+      thicknessIn: read.number("thickness", "in")!,
+      stockIn: read.numbers("stock", "in")!,
+      maxPieces: read.number("maxPieces", "1"),
+    });
+    return {
+      values: {
+        stack: result.pieces.map((p) => `${p.count} × ${show.q(p.sizeIn, "in")}`).join(" + "),
+        total: result.totalIn,
+        difference: result.differenceIn,
+      },
+      units: { total: "in", difference: "in" },
+      verdict: "info",
+      rule: "instructions, not a check: the closest total from the stock sizes, fewest pieces",
+      detail: result,
+    };
+  },
+});

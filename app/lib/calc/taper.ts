@@ -1,4 +1,6 @@
 import { CalcError, requirePositive } from "./errors";
+import { keyForShaftMm } from "./keys";
+import { SIZE_SLACK_IN, tidy } from "./numbers";
 
 /**
  * SAE J755 marine propeller-shaft ends: 3/4 in per foot taper (1:16 on the diameter) for shafts
@@ -28,8 +30,6 @@ const SAE_J755: TaperRow[] = [
   [5.0, 4.25, 12.0, 1.25, null, null],
   [5.5, 4.672, 13.25, 1.25, null, null],
 ];
-/** A shaft measured within this of a nominal size is taken as that size. */
-const SIZE_SLACK_IN = 0.005;
 
 export interface PropellerTaperResult {
   standard: "SAE J755";
@@ -66,5 +66,56 @@ export function propellerTaper(input: { shaftDiameterIn: number }): PropellerTap
     keywayWidthIn,
     ...(depth ? { keywaySideDepthIn: { min: depth[0], max: depth[1] } } : {}),
     ...(thread ? { nutThread: { nominalIn: thread[0], tpi: thread[1] } } : {}),
+  };
+}
+
+/** ISO 4566:1992, scope: propeller shaft ends of 20 mm to 160 mm with a 1:10 taper. */
+const ISO_4566_RANGE_MM: [number, number] = [20, 160];
+/** Taper 1:10: the diameter changes by 1 unit per 10 units of length (ISO 1119 rate of taper C = (D − d) / L). */
+const ISO_4566_TAPER = 0.1;
+
+export interface PropellerTaperMmResult {
+  standard: "ISO 4566";
+  /** The nominal size used (the measure snapped to the whole millimetre within 0.005 in). */
+  shaftDiameterMm: number;
+  /** Diameter change per unit of taper length: 0.1 for 1:10. */
+  taperRatio: number;
+  /** Half the included angle of the taper, for setting a lathe's top slide. */
+  halfAngleDeg: number;
+  keyStandard: "DIN 6885-1";
+  keyWidthMm: number;
+  keyHeightMm: number;
+  shaftKeywayDepthMm: number;
+  hubKeywayDepthMm: number;
+}
+
+/**
+ * A metric propeller shaft end after ISO 4566 (small craft, 1:10 taper, 20–160 mm), keyed with
+ * the DIN 6885-1 parallel key for the shaft diameter. Taper length and nut thread come from
+ * ISO 4566 Table 1 or the propeller maker's drawing; they are not held here. Half angle =
+ * atan(C / 2) for a rate of taper C.
+ */
+export function propellerTaperMm(input: { shaftDiameterMm: number }): PropellerTaperMmResult {
+  const measured = requirePositive("shaftDiameterMm", input?.shaftDiameterMm);
+  const whole = Math.round(measured);
+  const shaftDiameterMm = Math.abs(whole - measured) <= SIZE_SLACK_IN * 25.4 ? whole : measured;
+  const [from, to] = ISO_4566_RANGE_MM;
+  if (shaftDiameterMm < from || shaftDiameterMm > to) {
+    throw new CalcError(
+      "shaftDiameterMm",
+      `${measured} mm is outside ISO 4566 (propeller shafts of ${from} mm to ${to} mm).`,
+    );
+  }
+  const key = keyForShaftMm({ diameterMm: shaftDiameterMm });
+  return {
+    standard: "ISO 4566",
+    shaftDiameterMm,
+    taperRatio: ISO_4566_TAPER,
+    halfAngleDeg: tidy((Math.atan(ISO_4566_TAPER / 2) * 180) / Math.PI),
+    keyStandard: key.standard,
+    keyWidthMm: key.widthMm,
+    keyHeightMm: key.heightMm,
+    shaftKeywayDepthMm: key.shaftDepthMm,
+    hubKeywayDepthMm: key.hubDepthMm,
   };
 }

@@ -1,3 +1,4 @@
+import { defineCalc } from "./define";
 import { CalcError, requirePositive } from "./errors";
 import { tidy } from "./numbers";
 
@@ -90,3 +91,25 @@ export function threadPitch(input: { nominalIn: number; series: "UNC" | "UNF" })
   }
   return { tpi: row[1], leadIn: tidy(1 / row[1]), nominalIn: row[0] };
 }
+
+export const threadPitchCalc = defineCalc({
+  name: "threadPitch",
+  title: "Unified thread pitch",
+  summary: "Threads per inch and lead of a UNC or UNF thread.",
+  source: "ASME B1.1",
+  inputs: {
+    nominal: { label: "Nominal diameter", accepts: ["number"], unit: "in", field: "nominalIn" },
+    series: { label: "Series (UNC or UNF)", accepts: ["text"], field: "series" },
+  },
+  run(read) {
+    const series = read.text("series")!.trim().toUpperCase();
+    const result = threadPitch({ nominalIn: read.number("nominal", "in")!, series: series as "UNC" | "UNF" });
+    return {
+      values: { "threads per inch": result.tpi, lead: result.leadIn },
+      units: { "threads per inch": "tpi", lead: "in" },
+      verdict: "info",
+      rule: `ASME B1.1 ${series} series`,
+      detail: result,
+    };
+  },
+});

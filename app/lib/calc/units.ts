@@ -5,7 +5,8 @@ import { CalcError } from "./errors";
  * Appendix B: 1 in = 0.0254 m, 1 ft = 0.3048 m, 1 lb = 0.45359237 kg,
  * 1 lbf = 4.4482216152605 N, 1 US gal = 231 in³ = 3.785411784 L, 1 kn = 1852 m/h,
  * 1 mi = 1609.344 m, 1 bar = 100 kPa, 1 hp = 550 ft·lbf/s. Inches of mercury and of water are
- * the conventional units (13.5951 g/cm³ and 1 g/cm³ under standard gravity 9.80665 m/s²).
+ * the conventional units (13.5951 g/cm³ and 1 g/cm³ under standard gravity 9.80665 m/s²);
+ * 1 mm H2O = 9.80665 Pa and 1 mbar = 100 Pa (NIST SP 811, B.8); 1 nautical mile = 1852 m.
  */
 const LBF_N = 4.4482216152605;
 const IN_M = 0.0254;
@@ -25,6 +26,7 @@ export type Dimension =
   | "temperature"
   | "speed"
   | "volume"
+  | "flow"
   | "power"
   | "mass"
   | "force"
@@ -47,12 +49,15 @@ const definitions = {
   thou: { dimension: "length", factor: IN_M / 1000 },
   ft: { dimension: "length", factor: FT_M },
   m: { dimension: "length", factor: 1 },
+  nmi: { dimension: "length", factor: 1852 },
   // pressure, base pascal
   psi: { dimension: "pressure", factor: LBF_N / (IN_M * IN_M) },
   kPa: { dimension: "pressure", factor: 1000 },
   bar: { dimension: "pressure", factor: 100_000 },
   inHg: { dimension: "pressure", factor: 13_595.1 * STANDARD_GRAVITY * IN_M },
   inH2O: { dimension: "pressure", factor: 1000 * STANDARD_GRAVITY * IN_M },
+  mbar: { dimension: "pressure", factor: 100 },
+  mmH2O: { dimension: "pressure", factor: 1000 * STANDARD_GRAVITY * 0.001 },
   // temperature, base kelvin
   degF: { dimension: "temperature", factor: 5 / 9, offset: 459.67 },
   degC: { dimension: "temperature", factor: 1, offset: 273.15 },
@@ -63,6 +68,9 @@ const definitions = {
   // volume, base litre
   gal: { dimension: "volume", factor: 3.785411784 },
   L: { dimension: "volume", factor: 1 },
+  // flow, base litre per minute
+  "L/min": { dimension: "flow", factor: 1 },
+  "gal/min": { dimension: "flow", factor: 3.785411784 },
   // power, base watt
   hp: { dimension: "power", factor: 550 * FT_M * LBF_N },
   kW: { dimension: "power", factor: 1000 },

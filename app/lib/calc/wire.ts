@@ -1,5 +1,6 @@
+import { CAUTION_BATTERIES, defineCalc, type CalcInputSpec, type Reader } from "./define";
 import { CalcError, requireFiniteResult, requirePositive } from "./errors";
-import { atLeast, tidy } from "./numbers";
+import { atLeast, atMost, tidy } from "./numbers";
 
 /** NEC Chapter 9 Table 8 (ASTM B258 sizes): conductor area in circular mils. */
 const AWG_CIRCULAR_MILS: [string, number][] = [
@@ -89,3 +90,252 @@ export function conductorCircularMils(size: string): number {
   if (metric) return tidy(requirePositive("mm2", Number(metric[1])) / MM2_PER_CIRCULAR_MIL);
   return awgCircularMils(size);
 }
+
+/**
+ * ABYC E-11, table of allowable amperage of conductors for systems under 50 V, outside engine
+ * spaces, by insulation temperature rating (°C). From memory: the columns as reproduced in the
+ * marine wire charts that quote E-11; the standard itself governs.
+ */
+const INSULATION_RATINGS_C = [60, 75, 80, 90, 105, 125, 200] as const;
+type InsulationRating = (typeof INSULATION_RATINGS_C)[number];
+const E11_AMPACITY: Record<string, number[]> = {
+  "18": [10, 10, 15, 20, 20, 25, 25],
+  "16": [15, 15, 20, 25, 25, 30, 35],
+  "14": [20, 20, 25, 30, 35, 40, 45],
+  "12": [25, 25, 35, 40, 45, 50, 55],
+  "10": [40, 40, 50, 55, 60, 70, 70],
+  "8": [55, 65, 70, 70, 80, 90, 100],
+  "6": [80, 95, 100, 100, 120, 125, 135],
+  "4": [105, 125, 130, 135, 160, 170, 180],
+  "3": [120, 145, 150, 155, 180, 195, 210],
+  "2": [140, 170, 175, 180, 210, 225, 240],
+  "1": [165, 195, 210, 210, 245, 265, 280],
+  "1/0": [195, 230, 245, 245, 285, 305, 325],
+  "2/0": [225, 265, 285, 285, 330, 355, 370],
+  "3/0": [260, 310, 330, 330, 385, 410, 430],
+  "4/0": [300, 360, 385, 385, 445, 475, 510],
+};
+/** ABYC E-11: inside engine spaces the allowable amperage is multiplied by these (same order; from memory). */
+const ENGINE_SPACE_FACTOR = [0.58, 0.75, 0.78, 0.82, 0.86, 0.89, 1.0];
+/** ABYC E-11 overcurrent protection: a fuse or breaker rated at most 150 % of the conductor's allowable amperage. */
+const MAX_OVERCURRENT_RATIO = 1.5;
+
+export interface ConductorCheckInput extends WireSizeInput {
+  /** The conductor fitted: an AWG size ("16", "1/0") or a metric one ("2.5 mm²"). */
+  awg: string;
+  insulationRatingC: number;
+  inEngineSpace: boolean;
+  /** Rating of the fuse or breaker protecting the conductor. */
+  overcurrentA?: number;
+}
+
+export interface ConductorCheckResult {
+  minAwgForDrop: string;
+  /** The conductor's allowable amperage where it runs (derated inside engine spaces). */
+  ampacityA: number;
+  /** The AWG row of the ampacity table used (a metric conductor is read as the next AWG size down). */
+  ampacityRow: string;
+  insulationRatingC: InsulationRating;
+  engineSpaceFactor: number;
+  circularMilsNeeded: number;
+  circularMilsFitted: number;
+  pass: boolean;
+  problems: string[];
+}
+
+/**
+ * A conductor against ABYC E-11 on three counts: voltage drop (the wireSize method), allowable
+ * amperage by insulation rating, derated inside engine spaces, and the overcurrent device
+ * (at most 150 % of the allowable amperage, and no smaller than the load it must carry).
+ */
+export function conductorCheck(input: ConductorCheckInput): ConductorCheckResult {
+  const drop = wireSize(input);
+  const circularMilsFitted = conductorCircularMils(input.awg);
+  const rating = requirePositive("insulationRatingC", input.insulationRatingC);
+  const column = INSULATION_RATINGS_C.indexOf(rating as InsulationRating);
+  if (column < 0) {
+    throw new CalcError(
+      "insulationRatingC",
+      `ABYC E-11 gives allowable amperage for insulation rated ${INSULATION_RATINGS_C.join(", ")} °C, not ${rating} °C.`,
+    );
+  }
+  if (typeof input.inEngineSpace !== "boolean") {
+    throw new CalcError("inEngineSpace", "Say whether the conductor runs inside an engine space.");
+  }
+  // The largest AWG row no bigger than the conductor: a metric size between two rows takes the smaller.
+  const row = [...AWG_CIRCULAR_MILS].reverse().find(([, cm]) => atMost(cm, circularMilsFitted));
+  if (!row)
+    throw new CalcError("awg", `"${input.awg}" is smaller than 18 AWG, the smallest conductor E-11 lists.`);
+  const engineSpaceFactor = input.inEngineSpace ? ENGINE_SPACE_FACTOR[column] : 1;
+  const ampacityA = tidy(E11_AMPACITY[row[0]][column] * engineSpaceFactor);
+  const current = input.currentA;
+  const problems: string[] = [];
+  if (!atLeast(circularMilsFitted, drop.circularMils)) {
+    problems.push(
+      `Too small for the voltage drop: ${drop.allowedDropV} V allowed needs ${drop.awg} AWG (${Math.round(drop.circularMils)} circular mils) or larger.`,
+    );
+  }
+  if (!atMost(current, ampacityA)) {
+    problems.push(
+      `${current} A is more than the conductor's allowable ${ampacityA} A (${row[0]} AWG, ${rating} °C insulation${input.inEngineSpace ? ", inside an engine space" : ""}).`,
+    );
+  }
+  if (input.overcurrentA !== undefined) {
+    const device = requirePositive("overcurrentA", input.overcurrentA);
+    const most = tidy(ampacityA * MAX_OVERCURRENT_RATIO);
+    if (!atMost(device, most)) {
+      problems.push(
+        `A ${device} A fuse or breaker is larger than 150 % of the conductor's ${ampacityA} A (${most} A at most).`,
+      );
+    }
+    if (device < current)
+      problems.push(`A ${device} A fuse or breaker is smaller than the ${current} A load and will open.`);
+  }
+  return {
+    minAwgForDrop: drop.awg,
+    ampacityA,
+    ampacityRow: row[0],
+    insulationRatingC: rating as InsulationRating,
+    engineSpaceFactor,
+    circularMilsNeeded: drop.circularMils,
+    circularMilsFitted,
+    pass: problems.length === 0,
+    problems,
+  };
+}
+
+const dropInputs = {
+  current: { label: "Current", accepts: ["number"], unit: "A", field: "currentA" },
+  roundTripLength: {
+    label: "Round-trip conductor length",
+    accepts: ["number"],
+    unit: "ft",
+    field: "roundTripFt",
+  },
+  systemVoltage: {
+    label: "System voltage (12, 24...)",
+    accepts: ["number"],
+    unit: "V",
+    field: "systemVolts",
+  },
+  dropPercent: {
+    label: "Allowed voltage drop (3 or 10 %)",
+    accepts: ["number"],
+    unit: "%",
+    field: "dropPercent",
+  },
+} satisfies Record<string, CalcInputSpec>;
+
+function readDrop(read: Reader): WireSizeInput {
+  return {
+    currentA: read.number("current", "A")!,
+    roundTripFt: read.number("roundTripLength", "ft")!,
+    systemVolts: read.number("systemVoltage", "V")!,
+    dropPercent: read.number("dropPercent", "%")!,
+  };
+}
+
+export const wireSizeCalc = defineCalc({
+  name: "wireSize",
+  title: "Conductor size for voltage drop",
+  summary: "Circular mils and the smallest AWG and metric conductor for the allowed voltage drop.",
+  source: "ABYC E-11: CM = 10.75 × I × L / E; areas from NEC Chapter 9 Table 8",
+  caution: CAUTION_BATTERIES,
+  inputs: {
+    ...dropInputs,
+    installed: {
+      label: "Conductor fitted (AWG or mm²)",
+      accepts: ["text"],
+      optional: true,
+      field: ["awg", "mm2"],
+    },
+  },
+  run(read) {
+    const result = wireSize(readDrop(read));
+    const installed = read.text("installed");
+    const installedCm = installed === undefined ? undefined : conductorCircularMils(installed);
+    const values: Record<string, number | string> = {
+      "circular mils": Math.round(result.circularMils),
+      AWG: result.awg,
+    };
+    if (result.metricMm2 !== undefined) values["metric"] = result.metricMm2;
+    return {
+      values,
+      units: { "circular mils": "CM", metric: "mm²" },
+      verdict:
+        installedCm === undefined ? "info" : atLeast(installedCm, result.circularMils) ? "pass" : "fail",
+      primary: "circular mils",
+      rule: `conductor of at least ${Math.round(result.circularMils)} circular mils for ${result.allowedDropV} V drop (voltage drop only: use the conductor check for ampacity and overcurrent protection)`,
+      detail: { ...result, ...(installedCm !== undefined ? { installedCircularMils: installedCm } : {}) },
+    };
+  },
+});
+
+/** An insulation rating from a number (°C or °F) or a text such as "105", "105 °C". */
+function readRating(read: Reader): number {
+  if (read.unitOf("insulationRating") !== undefined)
+    return Math.round(read.number("insulationRating", "degC")!);
+  const text = read.text("insulationRating")!;
+  const match = /^\s*(\d+)\s*(?:°?\s*c)?\s*$/i.exec(text);
+  if (!match)
+    throw new CalcError("insulationRating", `"${text}" is not an insulation rating in °C (such as 105).`);
+  return Number(match[1]);
+}
+
+export const conductorCheckCalc = defineCalc({
+  name: "conductorCheck",
+  title: "Conductor check",
+  summary:
+    "A fitted conductor against ABYC E-11: voltage drop, allowable amperage for its insulation (derated inside engine spaces), and its fuse or breaker.",
+  source:
+    "ABYC E-11: voltage drop CM = 10.75 × I × L / E; allowable amperage of conductors by insulation rating, engine-space correction factors; overcurrent device at most 150 % of the allowable amperage",
+  caution: CAUTION_BATTERIES,
+  inputs: {
+    ...dropInputs,
+    conductor: { label: "Conductor fitted (AWG or mm²)", accepts: ["text"], field: ["awg", "mm2"] },
+    insulationRating: {
+      label: "Insulation temperature rating (°C)",
+      accepts: ["number", "text"],
+      unit: "degC",
+      field: "insulationRatingC",
+    },
+    inEngineSpace: {
+      label: "Runs inside an engine space (yes or no)",
+      accepts: ["text"],
+      field: "inEngineSpace",
+    },
+    overcurrent: {
+      label: "Fuse or breaker rating",
+      accepts: ["number"],
+      unit: "A",
+      optional: true,
+      field: "overcurrentA",
+    },
+  },
+  run(read) {
+    const result = conductorCheck({
+      ...readDrop(read),
+      awg: read.text("conductor")!,
+      insulationRatingC: readRating(read),
+      inEngineSpace: read.yesNo("inEngineSpace")!,
+      overcurrentA: read.number("overcurrent", "A"),
+    });
+    const values: Record<string, number | string> = {
+      "smallest for the drop": `${result.minAwgForDrop} AWG`,
+      "allowable amperage": result.ampacityA,
+    };
+    if (result.problems.length) values.problems = result.problems.join(" ");
+    const where =
+      result.engineSpaceFactor === 1
+        ? "outside engine spaces"
+        : `inside an engine space (× ${result.engineSpaceFactor})`;
+    return {
+      values,
+      units: { "allowable amperage": "A" },
+      verdict: result.pass ? "pass" : "fail",
+      primary: "allowable amperage",
+      rule: `ABYC E-11: voltage drop, allowable amperage from the ${result.insulationRatingC} °C column for ${result.ampacityRow} AWG ${where}, fuse or breaker at most 150 % of it`,
+      detail: result,
+    };
+  },
+});

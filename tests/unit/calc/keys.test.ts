@@ -12,9 +12,9 @@ describe("keyForShaft — ASME B17.1 Table 1", () => {
 
   it("boundary sizes belong to the row they end", () => {
     expect(keyForShaft({ diameterIn: 7 / 8 }).widthIn).toBe(3 / 16); // 9/16 – 7/8
-    expect(keyForShaft({ diameterIn: 0.876 }).widthIn).toBe(1 / 4); // over 7/8
+    expect(keyForShaft({ diameterIn: 0.885 }).widthIn).toBe(1 / 4); // over 7/8 (beyond the 0.005 in slack)
     expect(keyForShaft({ diameterIn: 1.25 }).widthIn).toBe(1 / 4); // 7/8 – 1 1/4
-    expect(keyForShaft({ diameterIn: 1.2501 }).widthIn).toBe(5 / 16); // 1 1/4 – 1 3/8
+    expect(keyForShaft({ diameterIn: 1.26 }).widthIn).toBe(5 / 16); // 1 1/4 – 1 3/8
     expect(keyForShaft({ diameterIn: 1.75 }).widthIn).toBe(3 / 8); // 1 3/8 – 1 3/4
     expect(keyForShaft({ diameterIn: 2.25 }).widthIn).toBe(1 / 2); // 1 3/4 – 2 1/4
     expect(keyForShaft({ diameterIn: 3 }).widthIn).toBe(3 / 4); // 2 3/4 – 3 1/4

@@ -68,9 +68,11 @@ describe("calculation registry", () => {
       positionsIn: { kind: "numbers", values: [0, 18, 36], unit: "in" },
       limitTir: num(0.003, "in"),
     });
-    expect(r.values["worst TIR"]).toBeCloseTo(0.004, 12);
-    expect(r.values["worst station"]).toBe("mid");
-    expect(r.values["high spot"]).toBe("180");
+    // A millimetre shop sees millimetres, the rule too (issue 12, item 12); 0.003 in = 0.0762 mm.
+    expect(r.values["worst TIR"]).toBe(0.102);
+    expect(r.units["worst TIR"]).toBe("mm");
+    expect(r.rule).toBe("TIR at every station ≤ 0.076 mm");
+    expect(r.values.where).toBe("worst at mid, high spot at 180°");
     expect(r.verdict).toBe("fail");
   });
 
@@ -101,9 +103,9 @@ describe("calculation registry", () => {
       rearMount: num(12, "in"),
       adjusterPitch: num(2, "mm"),
     });
-    expect(r.values["front raise"]).toBeCloseTo(0.004, 12);
-    expect(r.values["rear raise"]).toBeCloseTo(0.004, 12);
-    expect(r.values["front nut turns"]).toBeCloseTo(0.05, 2); // 0.004 × 12.7 = 0.0508
+    expect(r.values["front mounts, height"]).toBe("raise 0.004 in");
+    expect(r.values["rear mounts, height"]).toBe("raise 0.004 in");
+    expect(r.values["front adjusting nuts"]).toBe("0.05 turns to raise"); // 0.004 × 12.7 = 0.0508
     expect(r.verdict).toBe("info");
   });
 
@@ -178,9 +180,9 @@ describe("calculation registry", () => {
   });
 
   it("runs the remaining calculations end to end", () => {
-    expect(
-      outcome("couplingFit", { shaft: num(25.4, "mm"), bore: num(1.001, "in") }).values.clearance,
-    ).toBeCloseTo(0.001, 12);
+    expect(outcome("couplingFit", { shaft: num(25.4, "mm"), bore: num(1.001, "in") }).values.clearance).toBe(
+      0.025,
+    ); // 0.001 in = 0.0254 mm, shown in the unit the shaft was measured in
     expect(
       outcome("isoFit", {
         nominal: num(1, "in"),
@@ -191,7 +193,10 @@ describe("calculation registry", () => {
     ).toBe("pass");
     expect(outcome("keyForShaft", { diameter: num(1, "in") }).values["key width"]).toBe(0.25);
     expect(outcome("keyForShaftMm", { diameter: num(34, "mm") }).values["hub keyway depth"]).toBe(3.3);
-    expect(outcome("propellerTaper", { shaftDiameter: num(25.4, "mm") }).values["taper length"]).toBe(2.75);
+    expect(
+      outcome("propellerTaper", { shaftDiameter: num(1, "in"), system: { kind: "text", value: "inch" } })
+        .values["taper length"],
+    ).toBe(2.75);
     expect(
       outcome("threadPitch", { nominal: num(0.5, "in"), series: { kind: "text", value: "unc" } }).values[
         "threads per inch"
@@ -228,14 +233,14 @@ describe("calculation registry", () => {
         ratedRpmMin: num(3400, "rpm"),
         ratedRpmMax: num(3600, "rpm"),
       }),
-    ).toMatchObject({ verdict: "fail", values: { loading: "over-propped" } });
+    ).toMatchObject({ verdict: "fail", values: { loading: "over-propped (rpm below the band)" } });
     expect(outcome("exhaustInjection", { injectionHeight: num(200, "mm") }).verdict).toBe("pass"); // 7.87 in ≥ 6 in
     expect(
       outcome("shimStack", {
         thickness: num(0.017, "in"),
         stock: { kind: "numbers", values: [0.002, 0.005, 0.01], unit: "in" },
       }).values.stack,
-    ).toBe("1 × 0.01 + 1 × 0.005 + 1 × 0.002");
+    ).toBe("1 × 0.01 in + 1 × 0.005 in + 1 × 0.002 in");
     expect(
       outcome("couplingRim", {
         rim: { kind: "numbers", values: [0, -0.012, -0.004, -0.008], unit: "in" },

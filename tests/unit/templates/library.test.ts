@@ -240,7 +240,7 @@ describe("each template filled in for a sound installation", () => {
     };
     const v = evaluate(findItem(template, "runout-result")!, undefined, { template, responses });
     expect(v.status).toBe("out-of-range");
-    expect(v.message).toMatch(/worst station middle/);
+    expect(v.message).toMatch(/worst at middle, high spot at 180°/);
     expect(progress(template, responses).overall.attention).toEqual(["runout-result"]);
   });
 
