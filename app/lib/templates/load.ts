@@ -3,6 +3,7 @@ import { dimensionOf, type Unit } from "~/lib/calc/units";
 import { calcBindingProblems } from "./calc-inputs";
 import { prefillProblems } from "./prefill";
 import {
+  findItem,
   placedItems,
   templateSchema,
   type CalcRule,
@@ -103,7 +104,7 @@ export function crossCheck(template: Template): RawProblem[] {
         path: [...at, "key"],
         message: `item key "${item.key}" is already used at ${earlier}`,
       });
-    for (const problem of itemProblems(item, template))
+    for (const problem of [...itemProblems(item, template), ...conditionProblems(item, template)])
       problems.push({ path: [...at, ...problem.path], message: problem.message });
   }
   return problems;
@@ -138,6 +139,37 @@ function itemProblems(item: Item, template: Template): RawProblem[] {
     default:
       return [];
   }
+}
+
+function conditionProblems(item: Item, template: Template): RawProblem[] {
+  const when = item.appliesWhen;
+  if (!when) return [];
+  const at = (...rest: (string | number)[]) => ["appliesWhen", ...rest];
+  const source = findItem(template, when.item);
+  if (!source) return [{ path: at("item"), message: `no item "${when.item}" in this template` }];
+  if (source.key === item.key) return [{ path: at("item"), message: "an item cannot depend on itself" }];
+  if (source.appliesWhen)
+    return [{ path: at("item"), message: `"${source.key}" itself applies only sometimes` }];
+  if (source.kind === "choice") {
+    if (!when.options || when.values)
+      return [{ path: at(), message: `"${source.key}" is a choice: give its options` }];
+    return when.options.flatMap((option, i) =>
+      source.options.some((o) => o.key === option)
+        ? []
+        : [{ path: at("options", i), message: `"${source.key}" has no option "${option}"` }],
+    );
+  }
+  if (source.kind === "measure") {
+    if (!when.values || when.options)
+      return [{ path: at(), message: `"${source.key}" is a measure: give its values` }];
+    return [];
+  }
+  return [
+    {
+      path: at("item"),
+      message: `"${source.key}" is a ${source.kind} item; a condition takes a choice or a measure`,
+    },
+  ];
 }
 
 function uniqueKeys(list: readonly { key: string }[], field: string): RawProblem[] {

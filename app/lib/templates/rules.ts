@@ -7,6 +7,7 @@ import { formatPath } from "./load";
 import { FROM_JOB } from "./prefill";
 import {
   findItem,
+  type AppliesWhen,
   type CalcItem,
   type CalcRule,
   type ChoiceItem,
@@ -114,6 +115,10 @@ function finding(
  * validated against the item first. A calc item needs the context: its inputs are other items.
  */
 export function evaluate(item: Item, value: unknown, context?: EvaluationContext): Verdict {
+  if (context && item.appliesWhen) {
+    const condition = appliesNow(item.appliesWhen, context);
+    if (!condition.applies) return condition.verdict;
+  }
   if (item.kind === "calc") return evaluateCalc(item, value, context);
   if (value === undefined || value === null) return verdict("unanswered", "Not answered yet.");
   const parsed = valueSchemaFor(item).safeParse(value);
@@ -143,6 +148,35 @@ export function evaluate(item: Item, value: unknown, context?: EvaluationContext
     case "initials":
       return verdict("ok", `Confirmed by ${(parsed.data as InitialsValue).initials.trim()}.`);
   }
+}
+
+/** Whether an item with a condition applies, from the answer to the item it depends on. */
+function appliesNow(
+  when: AppliesWhen,
+  context: EvaluationContext,
+): { applies: true } | { applies: false; verdict: Verdict } {
+  const source = findItem(context.template, when.item);
+  const raw = context.responses[when.item];
+  if (!source || raw === undefined || raw === null)
+    return { applies: false, verdict: verdict("unanswered", `Waits for: ${source?.label ?? when.item}.`) };
+  const parsed = valueSchemaFor(source).safeParse(raw);
+  if (!parsed.success)
+    return { applies: false, verdict: verdict("unanswered", `Waits for: ${source.label}.`) };
+  let answer: string | undefined;
+  if (source.kind === "choice") {
+    const option = (parsed.data as ChoiceValue).option;
+    if (when.options?.includes(option)) return { applies: true };
+    answer = source.options.find((o) => o.key === option)?.label;
+  } else if (source.kind === "measure") {
+    const last = (parsed.data as MeasureValue).attempts.at(-1)!;
+    const inUnit = convert(last.value, last.unit, source.unit);
+    if (when.values?.some((v) => atLeast(inUnit, v) && atMost(inUnit, v))) return { applies: true };
+    answer = formatEntered(last.value, last.unit);
+  } else return { applies: true };
+  return {
+    applies: false,
+    verdict: verdict("noted", `Does not apply: ${source.label}: ${answer}.`, { finding: "not-applicable" }),
+  };
 }
 
 /** Every item of a template, keyed by item key. */

@@ -34,6 +34,20 @@ export const phaseLabels: Record<Phase, string> = {
   "after-sea-trial": "After the sea trial",
 };
 
+/**
+ * The item applies only when another item of the template has one of these answers: a choice one
+ * of `options`, a measure one of `values` (in that item's unit). Otherwise it does not apply and
+ * asks for nothing (petrol-only steps on a diesel boat, a tapered coupling's checks on a keyed one).
+ */
+export const appliesWhenSchema = z.strictObject({
+  item: kebabKey,
+  options: z.array(kebabKey).min(1, { error: "needs at least one option" }).optional(),
+  values: z
+    .array(z.number({ error: "expected a number" }))
+    .min(1, { error: "needs at least one value" })
+    .optional(),
+});
+
 const itemBase = {
   key: kebabKey,
   label: words,
@@ -45,6 +59,7 @@ const itemBase = {
   reference: words.optional(),
   required: z.boolean({ error: "expected true or false" }).default(true),
   phase: phaseSchema.optional(),
+  appliesWhen: appliesWhenSchema.optional(),
 };
 
 const limit = z.number({ error: "expected a number" });
@@ -221,6 +236,7 @@ export type InitialsItem = z.output<typeof initialsItemSchema>;
 export type Rule = z.output<typeof ruleSchema>;
 export type ReadingsRule = z.output<typeof readingsRuleSchema>;
 export type CalcRule = z.output<typeof calcRuleSchema>;
+export type AppliesWhen = z.output<typeof appliesWhenSchema>;
 export type CalcBinding = z.output<typeof calcBindingSchema>;
 
 /** The units a measure or readings item takes: its `accepts` list, or only its `unit`. */

@@ -300,6 +300,28 @@ describe("cross-checks between fields", () => {
     expect(problemsOf(t)).toEqual([]);
   });
 
+  test("a condition on an item that is missing, of the wrong kind, or without that option", () => {
+    const t = base();
+    t.sections[0].items[1].appliesWhen = { item: "nowhere", options: ["x"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen.item: no item "nowhere" in this template',
+    ]);
+    t.sections[0].items[1].appliesWhen = { item: "gaps", options: ["x"] };
+    expect(problemsOf(t)).toEqual(["sections[0].items[1].appliesWhen.item: an item cannot depend on itself"]);
+    t.sections[0].items[1].appliesWhen = { item: "a", options: ["x"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen.item: "a" is a check item; a condition takes a choice or a measure',
+    ]);
+    t.sections[0].items[1].appliesWhen = { item: "seal", options: ["gland", "bellows"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen.options[1]: "seal" has no option "bellows"',
+    ]);
+    t.sections[0].items[1].appliesWhen = { item: "diameter", options: ["x"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen: "diameter" is a measure: give its values',
+    ]);
+  });
+
   test("an unknown calculation, an unknown input, a missing input, a constant of the wrong kind", () => {
     const t = base();
     t.sections[0].items[2].calc = "couplingSquareness";

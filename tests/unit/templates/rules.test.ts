@@ -525,3 +525,53 @@ describe("a calc item's own acceptance rule", () => {
     expect(run(fit({ output: "clearance", max: 1, unit: "psi" }), loose).status).toBe("invalid");
   });
 });
+
+describe("an item that applies only after a given answer", () => {
+  const t = templateOf(
+    {
+      kind: "choice",
+      key: "fuel",
+      label: "Fuel",
+      options: [
+        { key: "diesel", label: "Diesel" },
+        { key: "petrol", label: "Petrol" },
+      ],
+    },
+    { kind: "measure", key: "volts", label: "System voltage", unit: "V" },
+    {
+      kind: "check",
+      key: "blower",
+      label: "Blower runs",
+      appliesWhen: { item: "fuel", options: ["petrol"] },
+    },
+    {
+      kind: "measure",
+      key: "charge-24",
+      label: "Charging voltage, 24 V system",
+      unit: "V",
+      rule: { min: 26.4, max: 29.6, unit: "V" },
+      appliesWhen: { item: "volts", values: [24] },
+    },
+  );
+  const [, , blower, charge24] = t.sections[0].items;
+  const run = (item: typeof blower, value: unknown, responses: Record<string, unknown>) =>
+    evaluate(item, value, { template: t, responses });
+
+  test("waits for the answer it depends on, then applies or does not", () => {
+    expect(run(blower, undefined, {})).toMatchObject({ status: "unanswered", message: "Waits for: Fuel." });
+    expect(run(blower, undefined, { fuel: { option: "diesel" } })).toMatchObject({
+      status: "noted",
+      done: true,
+      finding: "not-applicable",
+      message: "Does not apply: Fuel: Diesel.",
+    });
+    expect(run(blower, undefined, { fuel: { option: "petrol" } }).status).toBe("unanswered");
+    expect(run(blower, { result: "pass" }, { fuel: { option: "petrol" } }).status).toBe("ok");
+  });
+
+  test("a condition on a measured value, in the measure's unit", () => {
+    expect(run(charge24, undefined, { volts: measured([12, "V"]) }).status).toBe("noted");
+    expect(run(charge24, measured([28.2, "V"]), { volts: measured([24, "V"]) }).status).toBe("ok");
+    expect(run(charge24, measured([14.2, "V"]), { volts: measured([24, "V"]) }).status).toBe("out-of-range");
+  });
+});
