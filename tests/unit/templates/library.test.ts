@@ -250,7 +250,7 @@ const sound: Record<string, [number, Unit] | (number | null)[][] | string> = {
   "recheck-gaps-180": [[0.004, 0.0032, 0.0035, 0.0036]],
   "injection-off-centre": [3, "in"],
   "heel-angle": [20, "deg"],
-  "flow-volume": [10, "L"],
+  "raw-water-flow": [10, "L"],
   "flow-time": [20, "s"],
   "flow-minimum": [25, "L/min"],
   "system-voltage": [12, "V"],
