@@ -15,6 +15,9 @@ import {
   jobScopes,
   jobStatusLabels,
   jobStatuses,
+  shaftSystemLabels,
+  shaftSystems,
+  systemVoltages,
   type JobInput,
 } from "~/lib/validation/jobs";
 
@@ -52,6 +55,8 @@ export function JobForm({
       scope: "repower",
       status: "planned",
       propBlades: "3",
+      shaftSystem: "inch",
+      systemVolts: "12",
       ...Object.fromEntries(
         Object.entries(defaults ?? {}).map(([k, v]) => [
           k,
@@ -131,9 +136,33 @@ export function JobForm({
         {numeric("propDiameterIn", "Propeller diameter", "in")}
         {numeric("propPitchIn", "Propeller pitch", "in")}
         {numeric("propBlades", "Propeller blades", "count")}
-        {numeric("shaftDiameterIn", "Shaft diameter", "in")}
+        <Field
+          id={fields.shaftSystem.id}
+          label="Shaft system"
+          hint="Decides the key, taper and nut tables the checklists use."
+          errors={fields.shaftSystem.errors}
+        >
+          <select {...getSelectProps(fields.shaftSystem)} className="field-input">
+            {shaftSystems.map((s) => (
+              <option key={s} value={s}>
+                {shaftSystemLabels[s]}
+              </option>
+            ))}
+          </select>
+        </Field>
+        {numeric("shaftDiameterIn", "Shaft diameter, inch shaft", "in")}
+        {numeric("shaftDiameterMm", "Shaft diameter, metric shaft", "mm")}
         {text("shaftMaterial", "Shaft material")}
         {text("couplingType", "Coupling type")}
+        <Field id={fields.systemVolts.id} label="DC system voltage" errors={fields.systemVolts.errors}>
+          <select {...getSelectProps(fields.systemVolts)} className="field-input">
+            {systemVoltages.map((v) => (
+              <option key={v} value={v}>
+                {v} V
+              </option>
+            ))}
+          </select>
+        </Field>
       </fieldset>
       <fieldset className="card grid gap-4 md:grid-cols-2">
         <legend className="px-1 text-xl font-bold">People</legend>

@@ -190,6 +190,7 @@ function readVerdict(item: Item, verdict: Verdict): Reading {
       };
     }
     case "noted":
+    case "action-noted":
       switch (verdict.finding) {
         case "fail":
           return {
@@ -611,7 +612,7 @@ function tally(checklist: RecordChecklist): Tally {
     for (const item of section.items) {
       const verdict = evaluate(item, responses[item.key], { template: checklist.template, responses });
       t.items += 1;
-      if (verdict.status === "noted" && verdict.finding !== "not-applicable") t.findings += 1;
+      if (verdict.status === "action-noted") t.findings += 1;
       else if (verdict.status === "unanswered") t.unanswered += 1;
       else if (!verdict.done) t.open += 1;
     }

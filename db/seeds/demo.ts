@@ -7,6 +7,15 @@ import { DEMO_PASSWORD, demoPeople } from "./demo-people.ts";
  * The demo: Kittiwake Slip, an invented boatyard, with its people, three boats and jobs in
  * different states. Idempotent: rows are found by natural keys and only added when missing.
  */
+const STARTED_ON_VERSION_1 = [
+  "cooling",
+  "engine-alignment",
+  "exhaust",
+  "instruments-and-electrical",
+  "propeller-shaft-and-coupling",
+  "sea-trial",
+];
+
 export async function seedDemo(knex: Knex): Promise<string> {
   const hash = await bcrypt.hash(DEMO_PASSWORD, 10);
   const ids: Record<string, number> = {};
@@ -142,15 +151,16 @@ export async function seedDemo(knex: Knex): Promise<string> {
     await knex("job_technicians").insert(techs.map((t) => ({ job_id: jobId, user_id: ids[t] })));
     added++;
   }
-  // The repower under way has its checklists started from the library's current versions.
+  // The repower under way was started before version 2 of the starter library was published:
+  // its six checklists stay on version 1, as a yard's jobs already in progress do (a job started
+  // now takes version 2, and the new fuel and ventilation templates).
   const underway = await knex("jobs").where({ status: "underway" }).first();
   if (underway && !(await knex("job_checklists").where({ job_id: underway.id }).first())) {
     const versions = await knex("template_versions")
-      .where({ status: "published" })
-      .orderBy("version", "desc");
-    const newest = new Map<string, any>();
-    for (const v of versions) if (!newest.has(v.template_key)) newest.set(v.template_key, v);
-    for (const v of newest.values()) {
+      .where({ status: "published", version: 1 })
+      .whereIn("template_key", STARTED_ON_VERSION_1)
+      .orderBy("id");
+    for (const v of versions) {
       await knex("job_checklists").insert({
         id: randomUUID(),
         job_id: underway.id,

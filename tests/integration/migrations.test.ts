@@ -24,6 +24,15 @@ describe("migrations", () => {
           "audit_log",
         ]),
       );
+      // 009: the shaft's system, a metric shaft's diameter and the DC system voltage on the job.
+      const jobColumns = (await knex.raw("SHOW COLUMNS FROM jobs"))[0] as {
+        Field: string;
+        Default: string | null;
+      }[];
+      const column = (name: string) => jobColumns.find((c) => c.Field === name);
+      expect(column("shaft_system")?.Default).toBe("inch");
+      expect(column("system_volts")?.Default).toBe("12");
+      expect(column("shaft_diameter_mm")).toBeDefined();
       await knex.migrate.rollback(undefined, true);
       expect((await tables()).filter((t: string) => !t.startsWith("knex_"))).toEqual([]);
       const [, again] = await knex.migrate.latest();

@@ -2,8 +2,9 @@ import { cpSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { randomUUID } from "node:crypto";
+import { loadTemplateFile } from "~/lib/templates";
 import { findChecklist, listJobChecklists, startChecklists } from "~/server/checklists.server";
-import { latestPublished } from "~/server/templates.server";
 import { LIBRARY_DIR, seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
 import { makeJob, makeUser } from "../support/fixtures.ts";
@@ -17,31 +18,71 @@ const snapshot = async () =>
     .orderBy("id")
     .select("id", "template_key", "version", "status", "body_sha256", "published_at");
 
+const starters = [
+  "cooling",
+  "engine-alignment",
+  "exhaust",
+  "instruments-and-electrical",
+  "propeller-shaft-and-coupling",
+  "sea-trial",
+];
+const fileText = (key: string, version: number) =>
+  readFileSync(path.join(LIBRARY_DIR, `${key}.v${version}.json`), "utf8");
+
 describe("the template library in MariaDB", () => {
-  it("holds the six starter templates, published", async () => {
-    // Other test files add templates of their own to the shared database; the six are there, published.
-    const keys = (await latestPublished()).map((t) => t.key);
-    expect(keys).toEqual(
+  it("holds the six starter templates at versions 1 and 2 side by side, and fuel and ventilation, published", async () => {
+    // Other test files add templates of their own to the shared database; the starters are there.
+    const rows = await knex("template_versions")
+      .whereIn("template_key", [...starters, "fuel-system", "ventilation"])
+      .whereIn("version", [1, 2])
+      .orderBy(["template_key", "version"])
+      .select("template_key", "version", "status", "body");
+    const loaded = rows.map((r: any) => `${r.template_key}.v${r.version} ${r.status}`);
+    expect(loaded).toEqual(
       expect.arrayContaining([
-        "cooling",
-        "engine-alignment",
-        "exhaust",
-        "instruments-and-electrical",
-        "propeller-shaft-and-coupling",
-        "sea-trial",
+        ...starters.flatMap((k) => [`${k}.v1 published`, `${k}.v2 published`]),
+        "fuel-system.v1 published",
+        "ventilation.v1 published",
       ]),
     );
-    const files = await knex("template_versions")
-      .whereIn("template_key", [
-        "cooling",
-        "engine-alignment",
-        "exhaust",
-        "instruments-and-electrical",
-        "propeller-shaft-and-coupling",
-        "sea-trial",
-      ])
-      .where({ version: 1 });
-    expect(files.every((f: any) => f.status === "published")).toBe(true);
+    // Each version as its file says, version 1 unchanged by version 2's arrival.
+    for (const r of rows.filter((r: any) => r.status === "published")) {
+      const file = loadTemplateFile(
+        `${r.template_key}.v${r.version}.json`,
+        fileText(r.template_key, r.version),
+      );
+      expect(JSON.parse(r.body), `${r.template_key}.v${r.version}`).toEqual(file);
+    }
+  });
+
+  it("a job started on version 1 keeps it; a job started now takes version 2", async () => {
+    const lead = await makeUser(knex, "lead");
+    const job = await makeJob(knex, lead.id);
+    // Started before version 2 was published: pinned to version 1, as the jobs already in a yard are.
+    const v1 = await knex("template_versions").where({ template_key: "exhaust", version: 1 }).first();
+    const id = randomUUID();
+    await knex("job_checklists").insert({
+      id,
+      job_id: job.id,
+      template_version_id: v1.id,
+      template_key: "exhaust",
+      started_by: lead.id,
+    });
+    await seedLibrary(knex);
+    const pinned = await findChecklist(id);
+    expect(pinned).toMatchObject({ version: 1, newerVersion: 2 });
+    expect(pinned?.template).toEqual(loadTemplateFile("exhaust.v1.json", fileText("exhaust", 1)));
+    // Version 1's "against the lines" stays in its own checklist; the new one measures under way.
+    expect(JSON.stringify(pinned?.template)).toMatch(/against the lines/);
+
+    const newer = await makeJob(knex, lead.id);
+    const [started] = await startChecklists(newer.id, ["exhaust", "fuel-system", "ventilation"], lead.id);
+    const fresh = await findChecklist(started!);
+    expect(fresh).toMatchObject({ version: 2, newerVersion: null });
+    expect(JSON.stringify(fresh?.template)).not.toMatch(/against the lines/);
+    expect((await listJobChecklists(newer.id)).map((c) => `${c.key}.v${c.version}`)).toEqual(
+      expect.arrayContaining(["exhaust.v2", "fuel-system.v1", "ventilation.v1"]),
+    );
   });
 
   it("seeding twice changes nothing", async () => {
@@ -116,26 +157,29 @@ describe("the template library in MariaDB", () => {
 
 describe("a job's checklists", () => {
   it("are pinned to the version published when they started", async () => {
+    // A key of its own (a copy of the starter alignment), so the starters stay as other files expect.
+    const key = `pinning-${Date.now().toString(36)}`;
+    const publish = async (version: number, title: string) => {
+      const body = JSON.stringify({ ...JSON.parse(fileText("engine-alignment", 1)), key, version, title });
+      await knex("template_versions").insert({
+        template_key: key,
+        version,
+        status: "published",
+        title,
+        body,
+        body_sha256: sha256(body),
+        published_at: new Date(),
+      });
+    };
+    await publish(1, "Engine alignment");
     const lead = await makeUser(knex, "lead");
     const job = await makeJob(knex, lead.id);
-    const [first] = await startChecklists(job.id, ["engine-alignment"], lead.id);
+    const [first] = await startChecklists(job.id, [key], lead.id);
     const pinned = await findChecklist(first!);
     expect(pinned?.version).toBe(1);
 
     // The manager publishes version 2 of the template (same content, a new title).
-    const v1 = (await knex("template_versions")
-      .where({ template_key: "engine-alignment", version: 1 })
-      .first())!;
-    const body = JSON.stringify({ ...JSON.parse(v1.body), version: 2, title: "Engine alignment (rev. 2)" });
-    await knex("template_versions").insert({
-      template_key: "engine-alignment",
-      version: 2,
-      status: "published",
-      title: "Engine alignment (rev. 2)",
-      body,
-      body_sha256: sha256(body),
-      published_at: new Date(),
-    });
+    await publish(2, "Engine alignment (rev. 2)");
 
     const after = await findChecklist(first!);
     expect(after?.version).toBe(1);
@@ -145,7 +189,7 @@ describe("a job's checklists", () => {
 
     // A job started now gets version 2.
     const newer = await makeJob(knex, lead.id);
-    const [second] = await startChecklists(newer.id, ["engine-alignment"], lead.id);
+    const [second] = await startChecklists(newer.id, [key], lead.id);
     expect((await findChecklist(second!))?.version).toBe(2);
   });
 

@@ -1,5 +1,5 @@
 import type { Unit } from "~/lib/calc/units";
-import type { ReadingsRule, Rule } from "./schema";
+import type { CalcRule, ReadingsRule, Rule } from "./schema";
 
 /** How a unit is written next to a number in a message or a rule. */
 const symbols: Partial<Record<Unit, string>> = {
@@ -38,7 +38,7 @@ export function formatEntered(value: number, unit: Unit): string {
 }
 
 /** The acceptance rule in words, as the checklist shows it beside the item. */
-export function describeRule(rule: Rule | ReadingsRule): string {
+export function describeRule(rule: Rule | ReadingsRule | CalcRule): string {
   const q = (value: number) => formatQuantity(value, rule.unit);
   const parts: string[] = [];
   if (rule.nominal !== undefined && rule.tolerance !== undefined) {
@@ -49,6 +49,7 @@ export function describeRule(rule: Rule | ReadingsRule): string {
   else if (rule.min !== undefined) parts.push(`at least ${q(rule.min)}`);
   else if (rule.max !== undefined) parts.push(`at most ${q(rule.max)}`);
   const text = parts.join(", and ");
+  if ("output" in rule) return `${rule.output} ${text}`;
   return "appliesTo" in rule && rule.appliesTo === "row-spread"
     ? `largest minus smallest in each row ${text}`
     : text;

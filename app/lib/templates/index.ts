@@ -7,6 +7,7 @@ export {
   acceptedUnits,
   findItem,
   itemSchema,
+  jobFactNames,
   phaseLabels,
   phases,
   placedItems,
@@ -17,11 +18,13 @@ export {
 export type {
   CalcBinding,
   CalcItem,
+  CalcRule,
   CheckItem,
   ChoiceItem,
   InitialsItem,
   Item,
   ItemKind,
+  JobFact,
   MeasureItem,
   Phase,
   PhotoItem,
@@ -69,5 +72,8 @@ export { describeRule, formatQuantity, unitSymbol } from "./format";
 export { calcDefinition, gatherCalcInputs } from "./calc-inputs";
 export type { GatheredInputs } from "./calc-inputs";
 export { describeValue } from "./describe-value";
+export { byWorkOrder, workOrder, workOrderIndex } from "./work-order";
+export { FROM_JOB, jobFacts, prefillResponses } from "./prefill";
+export type { JobEquipment } from "./prefill";
 export { diffTemplates } from "./diff";
 export type { ChangeStatus, FieldChange, ItemChange, ItemPlace, SectionChange, TemplateDiff } from "./diff";

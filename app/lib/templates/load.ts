@@ -1,9 +1,12 @@
 import type { z } from "zod";
 import { dimensionOf, type Unit } from "~/lib/calc/units";
 import { calcBindingProblems } from "./calc-inputs";
+import { prefillProblems } from "./prefill";
 import {
+  findItem,
   placedItems,
   templateSchema,
+  type CalcRule,
   type Item,
   type ReadingsRule,
   type Rule,
@@ -101,7 +104,7 @@ export function crossCheck(template: Template): RawProblem[] {
         path: [...at, "key"],
         message: `item key "${item.key}" is already used at ${earlier}`,
       });
-    for (const problem of itemProblems(item, template))
+    for (const problem of [...itemProblems(item, template), ...conditionProblems(item, template)])
       problems.push({ path: [...at, ...problem.path], message: problem.message });
   }
   return problems;
@@ -113,6 +116,7 @@ function itemProblems(item: Item, template: Template): RawProblem[] {
       return [
         ...unitProblems(item.unit, item.accepts),
         ...(item.rule ? ruleProblems(item.rule, item.unit) : []),
+        ...prefillProblems(item),
       ];
     case "readings": {
       const problems = [
@@ -129,12 +133,43 @@ function itemProblems(item: Item, template: Template): RawProblem[] {
       return problems;
     }
     case "choice":
-      return uniqueKeys(item.options, "options");
+      return [...uniqueKeys(item.options, "options"), ...prefillProblems(item)];
     case "calc":
-      return calcBindingProblems(item, template);
+      return [...calcBindingProblems(item, template), ...(item.rule ? ruleProblems(item.rule) : [])];
     default:
       return [];
   }
+}
+
+function conditionProblems(item: Item, template: Template): RawProblem[] {
+  const when = item.appliesWhen;
+  if (!when) return [];
+  const at = (...rest: (string | number)[]) => ["appliesWhen", ...rest];
+  const source = findItem(template, when.item);
+  if (!source) return [{ path: at("item"), message: `no item "${when.item}" in this template` }];
+  if (source.key === item.key) return [{ path: at("item"), message: "an item cannot depend on itself" }];
+  if (source.appliesWhen)
+    return [{ path: at("item"), message: `"${source.key}" itself applies only sometimes` }];
+  if (source.kind === "choice") {
+    if (!when.options || when.values)
+      return [{ path: at(), message: `"${source.key}" is a choice: give its options` }];
+    return when.options.flatMap((option, i) =>
+      source.options.some((o) => o.key === option)
+        ? []
+        : [{ path: at("options", i), message: `"${source.key}" has no option "${option}"` }],
+    );
+  }
+  if (source.kind === "measure") {
+    if (!when.values || when.options)
+      return [{ path: at(), message: `"${source.key}" is a measure: give its values` }];
+    return [];
+  }
+  return [
+    {
+      path: at("item"),
+      message: `"${source.key}" is a ${source.kind} item; a condition takes a choice or a measure`,
+    },
+  ];
 }
 
 function uniqueKeys(list: readonly { key: string }[], field: string): RawProblem[] {
@@ -162,9 +197,10 @@ function unitProblems(unit: Unit, accepts: readonly Unit[] | undefined): RawProb
   return problems;
 }
 
-function ruleProblems(rule: Rule | ReadingsRule, itemUnit: Unit): RawProblem[] {
+/** A calc rule has no item unit to match: the result's unit is only known when it runs. */
+function ruleProblems(rule: Rule | ReadingsRule | CalcRule, itemUnit?: Unit): RawProblem[] {
   const problems: RawProblem[] = [];
-  if (dimensionOf(rule.unit) !== dimensionOf(itemUnit)) {
+  if (itemUnit !== undefined && dimensionOf(rule.unit) !== dimensionOf(itemUnit)) {
     problems.push({
       path: ["rule", "unit"],
       message: `${rule.unit} is a ${dimensionOf(rule.unit)} unit but the item is measured in ${itemUnit} (${dimensionOf(itemUnit)})`,

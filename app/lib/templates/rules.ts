@@ -1,12 +1,15 @@
 import { runCalc, type CalcOutcome } from "~/lib/calc/registry";
 import { atLeast, atMost } from "~/lib/calc/numbers";
-import { convert, type Unit } from "~/lib/calc/units";
+import { convert, dimensionOf, isUnit, type Unit } from "~/lib/calc/units";
 import { calcDefinition, gatherCalcInputs } from "./calc-inputs";
 import { describeRule, formatEntered, formatNumber, formatQuantity } from "./format";
 import { formatPath } from "./load";
+import { FROM_JOB } from "./prefill";
 import {
   findItem,
+  type AppliesWhen,
   type CalcItem,
+  type CalcRule,
   type ChoiceItem,
   type Item,
   type MeasureItem,
@@ -44,10 +47,15 @@ export type VerdictStatus =
   | "out-of-range"
   /** failed, not applicable, or a choice that is a finding, and no note yet */
   | "needs-note"
-  /** a finding that carries its note: done, for the reviewer to judge */
-  | "noted";
+  /** not applicable, with the reason why: done */
+  | "noted"
+  /**
+   * a finding (a fail, a reading outside its limit, a flagged choice) that carries its
+   * corrective-action note: done, but still a finding for the reviewer, never a pass
+   */
+  | "action-noted";
 
-export type Finding = "fail" | "not-applicable" | "out-of-range" | "flagged-option";
+export type Finding = "fail" | "not-applicable" | "out-of-range" | "flagged-option" | "changed-from-job";
 
 export interface Verdict {
   status: VerdictStatus;
@@ -70,15 +78,20 @@ export interface EvaluationContext {
 
 const NOTE_FOR_RANGE = "Write the corrective action in the note, or correct it and enter a new attempt.";
 
+const DONE = new Set<VerdictStatus>(["ok", "noted", "action-noted"]);
+
 function hasNote(note: string | undefined): boolean {
   return typeof note === "string" && note.trim().length > 0;
 }
 
 function verdict(status: VerdictStatus, message: string, extra: Partial<Verdict> = {}): Verdict {
-  return { status, done: status === "ok" || status === "noted", message, ...extra };
+  return { status, done: DONE.has(status), message, ...extra };
 }
 
-/** A finding: `noted` with its note, otherwise `needs-note` (or `out-of-range` for a reading). */
+/**
+ * A finding with its note is `action-noted` (`noted` for a reason why it does not apply);
+ * without it, `needs-note` (or `out-of-range` for a reading).
+ */
 function finding(
   kind: Finding,
   note: string | undefined,
@@ -86,7 +99,11 @@ function finding(
   ask: string,
   extra: Partial<Verdict> = {},
 ): Verdict {
-  if (hasNote(note)) return verdict("noted", `${what} Noted.`, { finding: kind, ...extra });
+  if (hasNote(note))
+    return verdict(kind === "not-applicable" ? "noted" : "action-noted", `${what} Noted.`, {
+      finding: kind,
+      ...extra,
+    });
   return verdict(kind === "out-of-range" ? "out-of-range" : "needs-note", `${what} ${ask}`, {
     finding: kind,
     ...extra,
@@ -98,6 +115,10 @@ function finding(
  * validated against the item first. A calc item needs the context: its inputs are other items.
  */
 export function evaluate(item: Item, value: unknown, context?: EvaluationContext): Verdict {
+  if (context && item.appliesWhen) {
+    const condition = appliesNow(item.appliesWhen, context);
+    if (!condition.applies) return condition.verdict;
+  }
   if (item.kind === "calc") return evaluateCalc(item, value, context);
   if (value === undefined || value === null) return verdict("unanswered", "Not answered yet.");
   const parsed = valueSchemaFor(item).safeParse(value);
@@ -127,6 +148,35 @@ export function evaluate(item: Item, value: unknown, context?: EvaluationContext
     case "initials":
       return verdict("ok", `Confirmed by ${(parsed.data as InitialsValue).initials.trim()}.`);
   }
+}
+
+/** Whether an item with a condition applies, from the answer to the item it depends on. */
+function appliesNow(
+  when: AppliesWhen,
+  context: EvaluationContext,
+): { applies: true } | { applies: false; verdict: Verdict } {
+  const source = findItem(context.template, when.item);
+  const raw = context.responses[when.item];
+  if (!source || raw === undefined || raw === null)
+    return { applies: false, verdict: verdict("unanswered", `Waits for: ${source?.label ?? when.item}.`) };
+  const parsed = valueSchemaFor(source).safeParse(raw);
+  if (!parsed.success)
+    return { applies: false, verdict: verdict("unanswered", `Waits for: ${source.label}.`) };
+  let answer: string | undefined;
+  if (source.kind === "choice") {
+    const option = (parsed.data as ChoiceValue).option;
+    if (when.options?.includes(option)) return { applies: true };
+    answer = source.options.find((o) => o.key === option)?.label;
+  } else if (source.kind === "measure") {
+    const last = (parsed.data as MeasureValue).attempts.at(-1)!;
+    const inUnit = convert(last.value, last.unit, source.unit);
+    if (when.values?.some((v) => atLeast(inUnit, v) && atMost(inUnit, v))) return { applies: true };
+    answer = formatEntered(last.value, last.unit);
+  } else return { applies: true };
+  return {
+    applies: false,
+    verdict: verdict("noted", `Does not apply: ${source.label}: ${answer}.`, { finding: "not-applicable" }),
+  };
 }
 
 /** Every item of a template, keyed by item key. */
@@ -161,7 +211,7 @@ interface Bounds {
 }
 
 /** min/max narrowed by nominal ± tolerance. */
-function boundsOf(rule: Rule | ReadingsRule): Bounds {
+function boundsOf(rule: Rule | ReadingsRule | CalcRule): Bounds {
   let { min: low, max: high } = rule;
   if (rule.nominal !== undefined && rule.tolerance !== undefined) {
     const lo = rule.nominal - rule.tolerance;
@@ -187,8 +237,31 @@ function asEntered(value: number, unit: Unit, ruleUnit: Unit): string {
     : `${entered} (${formatQuantity(convert(value, unit, ruleUnit), ruleUnit)})`;
 }
 
+/** A later attempt that differs from the figure the job gave: an override, which says why. */
+function overridesJob(value: MeasureValue): boolean {
+  const [first] = value.attempts;
+  const last = value.attempts[value.attempts.length - 1];
+  return (
+    first.by === FROM_JOB && last !== first && !sameQuantity(last.value, last.unit, first.value, first.unit)
+  );
+}
+
+function sameQuantity(a: number, aUnit: Unit, b: number, bUnit: Unit): boolean {
+  if (dimensionOf(aUnit) !== dimensionOf(bUnit)) return false;
+  const converted = convert(a, aUnit, bUnit);
+  return atLeast(converted, b) && atMost(converted, b);
+}
+
 function evaluateMeasure(item: MeasureItem, value: MeasureValue): Verdict {
   const last = value.attempts[value.attempts.length - 1];
+  if (overridesJob(value) && !hasNote(value.note)) {
+    const job = value.attempts[0];
+    return verdict(
+      "needs-note",
+      `Changed from the job's equipment (${formatEntered(job.value, job.unit)}) to ${formatEntered(last.value, last.unit)}: say why in the note.`,
+      { finding: "changed-from-job" },
+    );
+  }
   const tries = value.attempts.length > 1 ? ` (attempt ${value.attempts.length})` : "";
   const rule = item.rule;
   if (!rule) return verdict("ok", `${asEntered(last.value, last.unit, last.unit)} recorded${tries}.`);
@@ -291,6 +364,7 @@ function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext
     return verdict("invalid", `${source ? `${source.label}: ` : ""}${outcome.error.message}`);
   }
   const summary = calcSummary(outcome);
+  if (item.rule) return judgeCalcByRule(item.rule, outcome, summary, note);
   if (outcome.verdict === "fail")
     return finding("out-of-range", note, `${summary} Outside the rule: ${outcome.rule}.`, NOTE_FOR_RANGE, {
       outcome,
@@ -300,6 +374,30 @@ function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext
   return verdict("ok", summary, { outcome });
 }
 
+/** The item's own acceptance rule on one value of the result decides, not the calculation. */
+function judgeCalcByRule(rule: CalcRule, outcome: CalcOutcome, summary: string, note?: string): Verdict {
+  const value = Object.hasOwn(outcome.values, rule.output) ? outcome.values[rule.output] : undefined;
+  if (typeof value !== "number")
+    return verdict(
+      "invalid",
+      `The rule is on "${rule.output}", which this calculation does not give as a number.`,
+      {
+        outcome,
+      },
+    );
+  const from = outcome.units[rule.output] ?? "1";
+  if (!isUnit(from) || dimensionOf(from) !== dimensionOf(rule.unit))
+    return verdict("invalid", `The rule in ${rule.unit} cannot be applied to "${rule.output}" in ${from}.`, {
+      outcome,
+    });
+  const judged = { ...outcome, verdict: "pass" as CalcOutcome["verdict"], rule: describeRule(rule) };
+  const shown = asEntered(value, from, rule.unit);
+  const crossed = crossing(convert(value, from, rule.unit), boundsOf(rule));
+  if (!crossed) return verdict("ok", `${summary} Within the rule: ${judged.rule}.`, { outcome: judged });
+  judged.verdict = "fail";
+  const what = `${summary} ${rule.output} ${shown} is ${crossed.side} the ${crossed.side === "below" ? "lower" : "upper"} limit of ${formatQuantity(crossed.limit, rule.unit)}.`;
+  return finding("out-of-range", note, what, NOTE_FOR_RANGE, { outcome: judged });
+}
 function calcSummary(outcome: CalcOutcome): string {
   const parts = Object.entries(outcome.values).map(([name, v]) => {
     const unit = outcome.units[name];

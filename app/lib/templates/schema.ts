@@ -34,6 +34,20 @@ export const phaseLabels: Record<Phase, string> = {
   "after-sea-trial": "After the sea trial",
 };
 
+/**
+ * The item applies only when another item of the template has one of these answers: a choice one
+ * of `options`, a measure one of `values` (in that item's unit). Otherwise it does not apply and
+ * asks for nothing (petrol-only steps on a diesel boat, a tapered coupling's checks on a keyed one).
+ */
+export const appliesWhenSchema = z.strictObject({
+  item: kebabKey,
+  options: z.array(kebabKey).min(1, { error: "needs at least one option" }).optional(),
+  values: z
+    .array(z.number({ error: "expected a number" }))
+    .min(1, { error: "needs at least one value" })
+    .optional(),
+});
+
 const itemBase = {
   key: kebabKey,
   label: words,
@@ -45,6 +59,7 @@ const itemBase = {
   reference: words.optional(),
   required: z.boolean({ error: "expected true or false" }).default(true),
   phase: phaseSchema.optional(),
+  appliesWhen: appliesWhenSchema.optional(),
 };
 
 const limit = z.number({ error: "expected a number" });
@@ -73,9 +88,24 @@ const gridLine = z.strictObject({ key: kebabKey, label: words });
 
 export const checkItemSchema = z.strictObject({ kind: z.literal("check"), ...itemBase });
 
+/** A fact of the job's installed equipment an item is filled from (see prefill.ts). */
+export const jobFactNames = [
+  "ratedRpmMin",
+  "ratedRpmMax",
+  "gearRatio",
+  "propellerDiameter",
+  "propellerPitch",
+  "shaftDiameter",
+  "shaftSystem",
+  "systemVoltage",
+] as const;
+export type JobFact = (typeof jobFactNames)[number];
+export const jobFactSchema = z.enum(jobFactNames);
+
 export const measureItemSchema = z.strictObject({
   kind: z.literal("measure"),
   ...itemBase,
+  fromJob: jobFactSchema.optional(),
   /** The unit offered first. */
   unit: unitSchema,
   /** Units a reading may be entered in (the same dimension as `unit`); only `unit` when absent. */
@@ -106,6 +136,16 @@ export const calcBindingSchema = z.union(
   { error: 'expected { "item": "<item key>" } or { "value": <constant> }' },
 );
 
+/**
+ * A calc item's acceptance rule: limits on one named value of the calculation's result
+ * (`values[output]`), in `unit`; the result's own unit is converted. When present it decides the
+ * item's verdict, whatever the calculation would say on its own.
+ */
+export const calcRuleSchema = z.strictObject({
+  output: words,
+  ...ruleFields,
+});
+
 export const calcItemSchema = z.strictObject({
   kind: z.literal("calc"),
   ...itemBase,
@@ -117,11 +157,13 @@ export const calcItemSchema = z.strictObject({
     z.string().regex(CAMEL, { error: "expected an input name, like diameterIn" }),
     calcBindingSchema,
   ),
+  rule: calcRuleSchema.optional(),
 });
 
 export const choiceItemSchema = z.strictObject({
   kind: z.literal("choice"),
   ...itemBase,
+  fromJob: jobFactSchema.optional(),
   options: z
     .array(
       z.strictObject({
@@ -193,6 +235,8 @@ export type PhotoItem = z.output<typeof photoItemSchema>;
 export type InitialsItem = z.output<typeof initialsItemSchema>;
 export type Rule = z.output<typeof ruleSchema>;
 export type ReadingsRule = z.output<typeof readingsRuleSchema>;
+export type CalcRule = z.output<typeof calcRuleSchema>;
+export type AppliesWhen = z.output<typeof appliesWhenSchema>;
 export type CalcBinding = z.output<typeof calcBindingSchema>;
 
 /** The units a measure or readings item takes: its `accepts` list, or only its `unit`. */

@@ -14,6 +14,16 @@ export const jobStatusLabels: Record<(typeof jobStatuses)[number], string> = {
   completed: "Completed",
 };
 
+/** Inch shafts take ASME B17.1 keys and SAE J755 tapers; metric ones DIN 6885-1 and ISO 4566. */
+export const shaftSystems = ["inch", "metric"] as const;
+export type ShaftSystem = (typeof shaftSystems)[number];
+export const shaftSystemLabels: Record<ShaftSystem, string> = {
+  inch: "Inch (SAE J755 taper, ASME B17.1 key)",
+  metric: "Metric (ISO 4566 taper, DIN 6885-1 key)",
+};
+/** The DC system voltages the electrical checks are written for. */
+export const systemVoltages = [12, 24] as const;
+
 const number = (label: string) => z.coerce.number({ error: `Enter ${label} as a number.` });
 const text = (label: string, max = 120) =>
   z
@@ -26,6 +36,8 @@ const date = z
   .optional()
   .transform((v) => (v ? v : undefined))
   .pipe(z.iso.date({ error: "Enter a date as YYYY-MM-DD." }).optional());
+
+const MM_PER_IN = 25.4; // exact, by definition
 
 /** The job form, on both sides: the installed equipment and who works on it. */
 export const jobSchema = z
@@ -54,9 +66,21 @@ export const jobSchema = z
       .positive("The propeller pitch must be more than zero.")
       .max(120),
     propBlades: number("the number of blades").int().min(2, "A propeller has two blades or more.").max(7),
+    shaftSystem: z.enum(shaftSystems, { error: "Choose inch or metric." }).default("inch"),
+    // Entered in the shaft's own system; an inch figure is kept for both (the record and the
+    // older screens read it), a metric shaft also keeps its millimetres as entered.
     shaftDiameterIn: number("the shaft diameter")
       .positive("The shaft diameter must be more than zero.")
-      .max(12),
+      .max(12)
+      .optional(),
+    shaftDiameterMm: number("the shaft diameter in mm")
+      .positive("The shaft diameter must be more than zero.")
+      .max(300)
+      .optional(),
+    systemVolts: z.coerce
+      .number({ error: "Choose 12 V or 24 V." })
+      .pipe(z.union([z.literal(12), z.literal(24)], { error: "Choose 12 V or 24 V." }))
+      .default(12),
     shaftMaterial: text("the shaft material", 60),
     couplingType: text("the coupling type", 60),
     startDate: date,
@@ -74,6 +98,20 @@ export const jobSchema = z
   .refine((j) => !j.startDate || !j.dueDate || j.dueDate >= j.startDate, {
     path: ["dueDate"],
     message: "The due date is before the start date.",
-  });
+  })
+  .refine((j) => j.shaftSystem !== "inch" || j.shaftDiameterIn !== undefined, {
+    path: ["shaftDiameterIn"],
+    message: "Enter the shaft diameter in inches.",
+  })
+  .refine((j) => j.shaftSystem !== "metric" || j.shaftDiameterMm !== undefined, {
+    path: ["shaftDiameterMm"],
+    message: "Enter the metric shaft's diameter in millimetres.",
+  })
+  .transform((j) => ({
+    ...j,
+    shaftDiameterIn:
+      j.shaftSystem === "metric" ? Number((j.shaftDiameterMm! / MM_PER_IN).toFixed(4)) : j.shaftDiameterIn!,
+    shaftDiameterMm: j.shaftSystem === "metric" ? j.shaftDiameterMm : undefined,
+  }));
 
-export type JobInput = z.infer<typeof jobSchema>;
+export type JobInput = z.output<typeof jobSchema>;

@@ -285,6 +285,43 @@ describe("cross-checks between fields", () => {
     ]);
   });
 
+  test("a calc item's rule: limits in order, a known unit, no unknown field", () => {
+    const t = base();
+    t.sections[0].items[2].rule = { output: "slope", min: 0.002, max: 0.001, unit: "in" };
+    expect(problemsOf(t)).toEqual([
+      "sections[0].items[2].rule.min: the minimum (0.002) is above the maximum (0.001)",
+    ]);
+    t.sections[0].items[2].rule = { output: "slope", max: 0.001, unit: "furlong", limit: 1 };
+    expect(problemsOf(t)).toEqual([
+      expect.stringMatching(/^sections\[0\]\.items\[2\]\.rule\.unit: expected a unit Sternpost knows/),
+      "sections[0].items[2].rule.limit: unknown field",
+    ]);
+    t.sections[0].items[2].rule = { output: "slope", max: 0.001, unit: "in" };
+    expect(problemsOf(t)).toEqual([]);
+  });
+
+  test("a condition on an item that is missing, of the wrong kind, or without that option", () => {
+    const t = base();
+    t.sections[0].items[1].appliesWhen = { item: "nowhere", options: ["x"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen.item: no item "nowhere" in this template',
+    ]);
+    t.sections[0].items[1].appliesWhen = { item: "gaps", options: ["x"] };
+    expect(problemsOf(t)).toEqual(["sections[0].items[1].appliesWhen.item: an item cannot depend on itself"]);
+    t.sections[0].items[1].appliesWhen = { item: "a", options: ["x"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen.item: "a" is a check item; a condition takes a choice or a measure',
+    ]);
+    t.sections[0].items[1].appliesWhen = { item: "seal", options: ["gland", "bellows"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen.options[1]: "seal" has no option "bellows"',
+    ]);
+    t.sections[0].items[1].appliesWhen = { item: "diameter", options: ["x"] };
+    expect(problemsOf(t)).toEqual([
+      'sections[0].items[1].appliesWhen: "diameter" is a measure: give its values',
+    ]);
+  });
+
   test("an unknown calculation, an unknown input, a missing input, a constant of the wrong kind", () => {
     const t = base();
     t.sections[0].items[2].calc = "couplingSquareness";

@@ -141,12 +141,13 @@ describe("measure: attempts and notes", () => {
     );
   });
 
-  test("out of range with a corrective-action note is done, and still shows the finding", () => {
+  test("out of range with a corrective-action note is done, and still a finding, never ok", () => {
+    // Issue 12 §1.13: a reading outside its limit with an action note is "finding, action noted".
     const v = evaluate(measure("face-runout"), {
       ...measured([0.0015, "in"]),
       note: "Faced again; limit agreed with the lead.",
     });
-    expect(v).toMatchObject({ status: "noted", done: true, finding: "out-of-range" });
+    expect(v).toMatchObject({ status: "action-noted", done: true, finding: "out-of-range" });
   });
 
   test("a blank note is no note", () => {
@@ -342,7 +343,7 @@ describe("check, choice, text, photo, initials", () => {
       finding: "not-applicable",
     });
     expect(evaluate(check, { result: "fail", note: "Hose clamp replaced." })).toMatchObject({
-      status: "noted",
+      status: "action-noted",
       done: true,
       finding: "fail",
     });
@@ -364,7 +365,7 @@ describe("check, choice, text, photo, initials", () => {
     });
     expect(
       evaluate(choice, { option: "objectionable", note: "At 2,200 rpm; mount re-torqued." }).status,
-    ).toBe("noted");
+    ).toBe("action-noted");
     expect(evaluate(choice, { option: "rough" }).status).toBe("invalid");
   });
 
@@ -437,7 +438,7 @@ describe("calc items", () => {
     const v = run(over);
     expect(v).toMatchObject({ status: "out-of-range", finding: "out-of-range" });
     expect(v.outcome?.verdict).toBe("fail");
-    expect(run(over, "Engine lowered at the front; see the next attempt.").status).toBe("noted");
+    expect(run(over, "Engine lowered at the front; see the next attempt.").status).toBe("action-noted");
   });
 
   test("millimetre readings against the inch-per-inch rule", () => {
@@ -465,5 +466,112 @@ describe("calc items", () => {
     const v = run({ diameter: measured([-4, "in"]), gaps: grid("in", [[0.006, 0.002, 0.003, 0.003]]) });
     expect(v.status).toBe("invalid");
     expect(v.message).toMatch(/^Coupling flange diameter: /);
+  });
+});
+
+describe("a calc item's own acceptance rule", () => {
+  const fit = (rule: Record<string, unknown>) =>
+    templateOf(
+      { kind: "measure", key: "shaft", label: "Shaft, largest reading", unit: "in", accepts: ["in", "mm"] },
+      { kind: "measure", key: "bore", label: "Bore, smallest reading", unit: "in", accepts: ["in", "mm"] },
+      {
+        kind: "calc",
+        key: "fit",
+        label: "Coupling fit",
+        calc: "couplingFit",
+        inputs: { shaft: { item: "shaft" }, bore: { item: "bore" } },
+        rule: rule as never,
+      },
+    );
+  const run = (template: ReturnType<typeof fit>, responses: Record<string, unknown>, note?: string) =>
+    evaluate(itemOf(template, "fit"), note === undefined ? undefined : { note }, { template, responses });
+
+  // Issue 12 §1.1, reproduced with shaft 1.4993 in and bore 1.5010 in: clearance = bore − shaft
+  // = 0.0017 in (Machinery's Handbook, allowances and tolerances for fits: clearance on the
+  // diameter), against the item's own limit of 0 to 0.001 in (common practice). It was "Good".
+  const inch = fit({ output: "clearance", min: 0, max: 0.001, unit: "in" });
+  const loose = { shaft: measured([1.4993, "in"]), bore: measured([1.501, "in"]) };
+
+  test("a clearance over the item's limit is outside it, not Good", () => {
+    const v = run(inch, loose);
+    expect(v).toMatchObject({ status: "out-of-range", finding: "out-of-range", done: false });
+    expect(v.outcome?.verdict).toBe("fail");
+    expect(v.message).toMatch(/clearance 0\.0017 in is above the upper limit of 0\.001 in/);
+    expect(run(inch, loose, "Bore sleeved and re-bored; see new readings.").status).toBe("action-noted");
+  });
+
+  test("within the limit it passes, and the rule is said in words", () => {
+    const v = run(inch, { shaft: measured([1.5002, "in"]), bore: measured([1.501, "in"]) });
+    expect(v.status).toBe("ok");
+    expect(v.outcome?.rule).toBe("clearance between 0 in and 0.001 in");
+  });
+
+  test("interference is below a minimum clearance of 0", () => {
+    expect(run(inch, { shaft: measured([1.5012, "in"]), bore: measured([1.501, "in"]) }).status).toBe(
+      "out-of-range",
+    );
+  });
+
+  test("a rule in millimetres is applied to a result in inches by conversion", () => {
+    // 0.0017 in = 0.04318 mm exactly (1 in = 25.4 mm); limit 0.025 mm.
+    const metric = fit({ output: "clearance", max: 0.025, unit: "mm" });
+    expect(run(metric, loose).message).toMatch(/0\.04318 mm/);
+    expect(run(metric, loose).status).toBe("out-of-range");
+    expect(run(metric, { shaft: measured([1.5002, "in"]), bore: measured([1.501, "in"]) }).status).toBe("ok");
+  });
+
+  test("a rule on a value the calculation does not give, or in another dimension, does not fit", () => {
+    expect(run(fit({ output: "gap", max: 1, unit: "in" }), loose).status).toBe("invalid");
+    expect(run(fit({ output: "clearance", max: 1, unit: "psi" }), loose).status).toBe("invalid");
+  });
+});
+
+describe("an item that applies only after a given answer", () => {
+  const t = templateOf(
+    {
+      kind: "choice",
+      key: "fuel",
+      label: "Fuel",
+      options: [
+        { key: "diesel", label: "Diesel" },
+        { key: "petrol", label: "Petrol" },
+      ],
+    },
+    { kind: "measure", key: "volts", label: "System voltage", unit: "V" },
+    {
+      kind: "check",
+      key: "blower",
+      label: "Blower runs",
+      appliesWhen: { item: "fuel", options: ["petrol"] },
+    },
+    {
+      kind: "measure",
+      key: "charge-24",
+      label: "Charging voltage, 24 V system",
+      unit: "V",
+      rule: { min: 26.4, max: 29.6, unit: "V" },
+      appliesWhen: { item: "volts", values: [24] },
+    },
+  );
+  const [, , blower, charge24] = t.sections[0].items;
+  const run = (item: typeof blower, value: unknown, responses: Record<string, unknown>) =>
+    evaluate(item, value, { template: t, responses });
+
+  test("waits for the answer it depends on, then applies or does not", () => {
+    expect(run(blower, undefined, {})).toMatchObject({ status: "unanswered", message: "Waits for: Fuel." });
+    expect(run(blower, undefined, { fuel: { option: "diesel" } })).toMatchObject({
+      status: "noted",
+      done: true,
+      finding: "not-applicable",
+      message: "Does not apply: Fuel: Diesel.",
+    });
+    expect(run(blower, undefined, { fuel: { option: "petrol" } }).status).toBe("unanswered");
+    expect(run(blower, { result: "pass" }, { fuel: { option: "petrol" } }).status).toBe("ok");
+  });
+
+  test("a condition on a measured value, in the measure's unit", () => {
+    expect(run(charge24, undefined, { volts: measured([12, "V"]) }).status).toBe("noted");
+    expect(run(charge24, measured([28.2, "V"]), { volts: measured([24, "V"]) }).status).toBe("ok");
+    expect(run(charge24, measured([14.2, "V"]), { volts: measured([24, "V"]) }).status).toBe("out-of-range");
   });
 });
