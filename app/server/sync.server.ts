@@ -1,10 +1,13 @@
 import type { Knex } from "knex";
 import { canFillJob, canViewJob, type Actor } from "~/lib/permissions";
 import {
+  describeProblems,
+  operationSchema,
   sameJson,
   type Change,
   type Operation,
   type OpResult,
+  type RefusalCode,
   type SyncRequest,
   type SyncResponse,
 } from "~/lib/sync/protocol";
@@ -21,7 +24,12 @@ interface ChecklistAccess {
 }
 
 const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
-const reject = (op: Operation, reason: string): OpResult => ({ opId: op.opId, status: "rejected", reason });
+const reject = (op: { opId: string }, code: RefusalCode, reason: string): OpResult => ({
+  opId: op.opId,
+  status: "rejected",
+  code,
+  reason,
+});
 const itemId = (checklistId: string, itemKey: string) => `${checklistId}|${itemKey}`;
 
 /** The checklists of the jobs this person may see (the scope of what they pull). */
@@ -100,24 +108,44 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
   return answers;
 }
 
-function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
-  if (!access || !access.canView) return reject(op, "This checklist is not on one of your jobs.");
-  if (!access.canFill) return reject(op, "Only the job's technicians and its lead record entries.");
+/** Why this person may not write to this checklist at all, or null. */
+function accessRefusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
+  if (!access || !access.canView)
+    return reject(op, "not-on-your-job", "This checklist is not on one of your jobs.");
+  if (!access.canFill)
+    return reject(op, "not-allowed", "Only the job's technicians and its lead record entries.");
   if (access.state === "submitted")
-    return reject(op, "The checklist has been submitted for review and takes no more entries.");
+    return reject(op, "locked", "The checklist has been submitted for review and takes no more entries.");
   if (access.state === "countersigned")
-    return reject(op, "The checklist is countersigned and locked; a correction is an amendment.");
+    return reject(op, "locked", "The checklist is countersigned and locked; a correction is an amendment.");
+  return null;
+}
+
+function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
+  const denied = accessRefusal(op, access);
+  if (denied || !access) return denied;
   const item = findItem(access.template, op.itemKey);
-  if (!item) return reject(op, `The checklist has no item "${op.itemKey}".`);
+  if (!item) return reject(op, "unknown-item", `The checklist has no item "${op.itemKey}".`);
   const parsed = valueSchemaFor(item).safeParse(op.value);
   if (!parsed.success) {
     const first = parsed.error.issues[0]!;
     return reject(
       op,
+      "invalid-value",
       `The entry for "${item.label}" is not valid: ${[...first.path].join(".") || "value"} ${first.message}.`,
     );
   }
   return null;
+}
+
+/** An operation read on its own: a malformed one is refused by itself, never failing the batch. */
+function readOperation(raw: SyncRequest["ops"][number]): Operation | OpResult {
+  const parsed = operationSchema.safeParse(raw);
+  if (parsed.success) return parsed.data as Operation;
+  const problems = describeProblems(parsed.error)
+    .map((p) => `${p.path || "operation"} ${p.message}`)
+    .join("; ");
+  return reject(raw, "invalid-operation", `The entry could not be read: ${problems}.`);
 }
 
 /**
@@ -146,13 +174,15 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         trx,
         request.ops.map((o) => o.opId),
       );
-      const checklistIds = [...new Set(request.ops.map((o) => o.checklistId))];
+      const ops = request.ops.map(readOperation);
+      const valid = ops.filter((o): o is Operation => !("status" in o));
+      const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
       const access = await loadAccess(trx, actor, checklistIds);
       const currentRows = await trx("checklist_responses")
         // No row locks needed: every applier holds the clock lock, so none runs beside this one.
         .whereIn(
           ["checklist_id", "item_key"],
-          [...new Set(request.ops.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
+          [...new Set(valid.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
         );
       const current = new Map<string, { rev: number; value: unknown }>(
         currentRows.map((r: any) => [
@@ -168,22 +198,33 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       const recorded: { op: Operation; resultIndex: number }[] = [];
       const submissions: { op: Operation; resultIndex: number }[] = [];
 
-      for (const op of request.ops) {
-        const seen = known.get(op.opId);
+      const submittedHere = new Set<string>();
+      for (const read of ops) {
+        const seen = known.get(read.opId);
         if (seen) {
-          // A retry: the first answer, unchanged (another person's opId is simply refused).
+          // A retry: the first answer, marked as a repeat (another person's opId is simply refused).
           results.push(
             seen.userId === actor.id
-              ? { ...seen.result, opId: op.opId }
-              : reject(op, "This operation id was used by someone else."),
+              ? { ...seen.result, opId: read.opId, repeat: true }
+              : reject(read, "op-id-taken", "This operation id was used by someone else."),
           );
           continue;
         }
+        if ("status" in read) {
+          results.push(read); // malformed: refused on its own, nothing stored
+          continue;
+        }
+        const op = read;
         if (op.itemKey === SUBMIT_KEY) {
           // Decided after this batch's entries are written: they count towards "complete".
-          submissions.push({ op, resultIndex: results.length });
-          results.push(reject(op, "Not decided yet."));
-          known.set(op.opId, { userId: actor.id, result: results.at(-1)! });
+          const denied = accessRefusal(op, access.get(op.checklistId));
+          if (denied) {
+            results.push(denied);
+            recorded.push({ op, resultIndex: results.length - 1 });
+          } else {
+            submissions.push({ op, resultIndex: results.length });
+            results.push({ opId: op.opId, status: "applied", rev: 0 }); // replaced once decided
+          }
           continue;
         }
         const key = itemId(op.checklistId, op.itemKey);
@@ -213,7 +254,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
               device_id: request.deviceId,
               op_id: op.opId,
               at: now,
-              client_at: new Date(op.at),
+              client_at: op.at,
             });
             result = { opId: op.opId, status: "applied", rev: rev + 1 };
             if (op.resolves?.length) resolutions.push({ op });
@@ -235,14 +276,13 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
                 client_value: JSON.stringify(op.value),
                 user_id: actor.id,
                 device_id: request.deviceId,
-                client_at: new Date(op.at),
+                client_at: op.at,
                 received_at: now,
               },
             });
           }
         }
         results.push(result);
-        known.set(op.opId, { userId: actor.id, result });
         // Applied values and conflicts are their own record; only the rest needs a row of its own.
         if (
           result.status === "rejected" ||
@@ -286,8 +326,13 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
       }
       for (const { op, resultIndex } of submissions) {
-        const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
-        results[resultIndex] = refused ? reject(op, refused) : { opId: op.opId, status: "applied", rev: 0 };
+        const refused = submittedHere.has(op.checklistId)
+          ? "The checklist is already waiting for review."
+          : await submitChecklist(trx, actor, op.checklistId, request.deviceId);
+        if (!refused) submittedHere.add(op.checklistId);
+        results[resultIndex] = refused
+          ? reject(op, submittedHere.has(op.checklistId) ? "locked" : "incomplete", refused)
+          : { opId: op.opId, status: "applied", rev: 0 };
         recorded.push({ op, resultIndex });
       }
       const opRows = recorded.map(({ op, resultIndex }) => ({
