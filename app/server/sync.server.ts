@@ -42,6 +42,20 @@ function visibleChecklists(knex: Knex, actor: Actor) {
   return q.whereRaw("1 = 0");
 }
 
+/**
+ * Published template versions never change, so each is parsed once per process: the item
+ * schemas cached on its items (valueSchemaFor) then serve every later batch.
+ */
+const parsedTemplates = new Map<number, Template>();
+async function templatesById(trx: Knex.Transaction, ids: number[]): Promise<Map<number, Template>> {
+  const missing = ids.filter((id) => !parsedTemplates.has(id));
+  if (missing.length) {
+    const bodies = await trx("template_versions").whereIn("id", missing).select("id", "body");
+    for (const b of bodies) parsedTemplates.set(b.id, JSON.parse(b.body));
+  }
+  return new Map(ids.map((id) => [id, parsedTemplates.get(id)!]));
+}
+
 /** Who may do what on each checklist the batch touches, read in two queries. */
 async function loadAccess(
   trx: Knex.Transaction,
@@ -52,15 +66,12 @@ async function loadAccess(
     .join("jobs as j", "j.id", "c.job_id")
     .whereIn("c.id", checklistIds)
     .select("c.id", "c.state", "c.template_version_id", "j.id as job_id", "j.lead_id");
-  const [crew, bodies] = await Promise.all([
+  const [crew, templates] = await Promise.all([
     trx("job_technicians")
       .whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))])
       .select("job_id", "user_id"),
-    trx("template_versions")
-      .whereIn("id", [...new Set(rows.map((r: any) => r.template_version_id))])
-      .select("id", "body"),
+    templatesById(trx, [...new Set(rows.map((r: any) => r.template_version_id as number))]),
   ]);
-  const templates = new Map<number, Template>(bodies.map((b: any) => [b.id, JSON.parse(b.body)]));
   return new Map(
     rows.map((r: any) => {
       const job = {
@@ -193,6 +204,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
 
       const responses = new Map<string, any>();
       const history: any[] = [];
+      const writtenOps = new Set<string>();
       const conflicts: { op: Operation; row: any; resultIndex: number }[] = [];
       const resolutions: { op: Operation }[] = [];
       const recorded: { op: Operation; resultIndex: number }[] = [];
@@ -245,6 +257,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
               updated_at: now,
               change_seq: clock,
             });
+            writtenOps.add(op.opId);
             history.push({
               checklist_id: op.checklistId,
               item_key: op.itemKey,
@@ -286,12 +299,11 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         // Applied values and conflicts are their own record; only the rest needs a row of its own.
         if (
           result.status === "rejected" ||
-          (result.status === "applied" && !history.some((h) => h.op_id === op.opId))
+          (result.status === "applied" && !writtenOps.has(op.opId))
         ) {
           recorded.push({ op, resultIndex: results.length - 1 });
         }
       }
-
       // Conflict ids come from one multi-row insert: InnoDB gives such an insert consecutive ids.
       if (conflicts.length) {
         const [firstId] = await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
