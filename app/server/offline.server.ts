@@ -27,10 +27,14 @@ export async function openConflicts(checklistIds: string[]): Promise<ConflictRec
   if (!checklistIds.length) return [];
   const rows = await db()("sync_conflicts as k")
     .join("users as u", "u.id", "k.user_id")
+    .leftJoin("response_history as h", (j) =>
+      j.on("h.checklist_id", "k.checklist_id").on("h.item_key", "k.item_key").on("h.rev", "k.server_rev"),
+    )
+    .leftJoin("users as su", "su.id", "h.user_id")
     .whereIn("k.checklist_id", checklistIds)
     .whereNull("k.resolved_at")
     .orderBy("k.id")
-    .select("k.*", "u.name");
+    .select("k.*", "u.name", "su.name as server_by", "h.at as server_at");
   return rows.map((r: any) => ({
     id: r.id,
     checklistId: r.checklist_id,
@@ -38,6 +42,7 @@ export async function openConflicts(checklistIds: string[]): Promise<ConflictRec
     serverValue: json(r.server_value),
     serverRev: r.server_rev,
     clientValue: json(r.client_value),
+    ...(r.server_by ? { serverBy: r.server_by, serverAt: new Date(r.server_at).toISOString() } : {}),
     by: r.name,
     at: new Date(r.received_at).toISOString(),
     deviceId: r.device_id,

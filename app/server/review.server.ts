@@ -6,6 +6,7 @@ import { progress, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
 import { photosNotYetStored } from "./photos.server.ts";
+import { checklistStateChanged } from "./sync-clock.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import { checkPassword } from "./users.server.ts";
 
@@ -20,6 +21,16 @@ export class ReviewError extends Error {
 }
 
 const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
+
+/** How many conflicts on a checklist still wait for a person: it cannot be submitted or countersigned. */
+export async function undecidedConflicts(trx: Knex | Knex.Transaction, checklistId: string) {
+  const row = await trx("sync_conflicts")
+    .where({ checklist_id: checklistId })
+    .whereNull("resolved_at")
+    .count({ n: "*" })
+    .first();
+  return Number(row?.n ?? 0);
+}
 
 async function checklistWithJob(trx: Knex | Knex.Transaction, checklistId: string) {
   const row = await trx("job_checklists as c")
@@ -62,6 +73,9 @@ export async function submitChecklist(
   if (!canFillJob(actor, c.job)) return "Only the job's technicians and its lead submit its checklists.";
   if (c.state !== "in-progress" && c.state !== "returned")
     return `The checklist is already ${c.state === "submitted" ? "waiting for review" : "countersigned"}.`;
+  const undecided = await undecidedConflicts(trx, checklistId);
+  if (undecided)
+    return `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided on the To-decide page.`;
   const template = JSON.parse(c.body) as Template;
   const missing = await missingItems(trx, checklistId, template);
   if (!missing.complete) {
@@ -107,6 +121,7 @@ export async function returnChecklist(actor: Actor, checklistId: string) {
     requireLead(actor, c.job);
     if (c.state !== "submitted")
       throw new ReviewError("Only a checklist waiting for review can be returned.");
+    await checklistStateChanged(trx, checklistId); // other tablets learn it from their pull
     await trx("job_checklists")
       .where({ id: checklistId })
       .update({ state: "returned", updated_at: trx.fn.now(3) });
@@ -130,6 +145,12 @@ export async function countersign(actor: Actor, checklistId: string, password: s
     requireLead(actor, c.job);
     if (c.state !== "submitted")
       throw new ReviewError("Only a checklist waiting for review can be countersigned.");
+    const undecided = await undecidedConflicts(trx, checklistId);
+    if (undecided)
+      throw new ReviewError(
+        `${undecided} conflict(s) on this checklist wait to be decided on the To-decide page; return it to the technician or decide them first.`,
+      );
+    await checklistStateChanged(trx, checklistId); // the clock first: it is every applier's first lock
     // The digest covers the photos: every photo an entry lists must have reached the store.
     const missing = await photosNotYetStored(checklistId, trx);
     if (missing.length)

@@ -14,7 +14,8 @@ import {
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { db } from "./db.server.ts";
-import { submitChecklist } from "./review.server.ts";
+import { submitChecklist, undecidedConflicts } from "./review.server.ts";
+import { lastChangeNumber, nextChangeNumber } from "./sync-clock.server.ts";
 
 interface ChecklistAccess {
   state: string;
@@ -96,9 +97,14 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
   const answers = new Map<string, { userId: number; result: OpResult }>();
   const [applied, conflicted, others] = await Promise.all([
     trx("response_history").whereIn("op_id", opIds).select("op_id", "user_id", "rev"),
-    trx("sync_conflicts")
-      .whereIn("op_id", opIds)
-      .select("op_id", "user_id", "id", "server_rev", "server_value"),
+    trx("sync_conflicts as k")
+      // Who set the server's value, and when: its history row.
+      .leftJoin("response_history as h", (j) =>
+        j.on("h.checklist_id", "k.checklist_id").on("h.item_key", "k.item_key").on("h.rev", "k.server_rev"),
+      )
+      .leftJoin("users as u", "u.id", "h.user_id")
+      .whereIn("k.op_id", opIds)
+      .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at"),
     trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
   ]);
   for (const r of applied)
@@ -111,6 +117,7 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
         status: "conflict",
         rev: r.server_rev,
         serverValue: r.server_value === null ? null : json(r.server_value),
+        ...(r.name ? { serverBy: r.name, serverAt: new Date(r.at).toISOString() } : {}),
         conflictId: r.id,
       },
     });
@@ -176,9 +183,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
     const results: OpResult[] = [];
     const wrote: Change[] = [];
     if (request.ops.length) {
-      const { seq } = await trx("sync_clock").where({ id: 1 }).forUpdate().first();
-      clock = Number(seq) + 1;
-      await trx("sync_clock").where({ id: 1 }).update({ seq: clock });
+      clock = await nextChangeNumber(trx);
       const now = new Date();
 
       const known = await answersGiven(
@@ -189,16 +194,29 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       const valid = ops.filter((o): o is Operation => !("status" in o));
       const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
       const access = await loadAccess(trx, actor, checklistIds);
-      const currentRows = await trx("checklist_responses")
+      const currentRows = await trx("checklist_responses as r")
+        .join("users as u", "u.id", "r.updated_by")
+        .select("r.checklist_id", "r.item_key", "r.rev", "r.value", "r.updated_at", "u.name")
         // No row locks needed: every applier holds the clock lock, so none runs beside this one.
         .whereIn(
-          ["checklist_id", "item_key"],
+          ["r.checklist_id", "r.item_key"],
           [...new Set(valid.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
         );
-      const current = new Map<string, { rev: number; value: unknown }>(
+      // Conflicts still waiting on the batch's checklists: an entry applied on the item decides them.
+      const waiting = new Map<string, number[]>();
+      for (const c of checklistIds.length
+        ? await trx("sync_conflicts")
+            .whereIn("checklist_id", checklistIds)
+            .whereNull("resolved_at")
+            .select("id", "checklist_id", "item_key")
+        : []) {
+        const key = itemId(c.checklist_id, c.item_key);
+        waiting.set(key, [...(waiting.get(key) ?? []), c.id]);
+      }
+      const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
         currentRows.map((r: any) => [
           itemId(r.checklist_id, r.item_key),
-          { rev: r.rev, value: json(r.value) },
+          { rev: r.rev, value: json(r.value), by: r.name, at: new Date(r.updated_at) },
         ]),
       );
 
@@ -206,7 +224,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       const history: any[] = [];
       const writtenOps = new Set<string>();
       const conflicts: { op: Operation; row: any; resultIndex: number }[] = [];
-      const resolutions: { op: Operation }[] = [];
+      const resolutions: { op: Operation; ids: number[] }[] = [];
       const recorded: { op: Operation; resultIndex: number }[] = [];
       const submissions: { op: Operation; resultIndex: number }[] = [];
 
@@ -246,7 +264,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           const rev = now_?.rev ?? 0;
           if (op.baseRev === rev) {
             const value = JSON.stringify(op.value);
-            current.set(key, { rev: rev + 1, value: op.value });
+            current.set(key, { rev: rev + 1, value: op.value, by: actor.name, at: now });
             responses.set(key, {
               checklist_id: op.checklistId,
               item_key: op.itemKey,
@@ -270,12 +288,25 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
               client_at: op.at,
             });
             result = { opId: op.opId, status: "applied", rev: rev + 1 };
-            if (op.resolves?.length) resolutions.push({ op });
+            // Made on the server's current value, this entry decides every conflict waiting on the
+            // item: those already stored, and those this batch raised before it.
+            const ids = [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])];
+            if (ids.length) resolutions.push({ op, ids });
+            waiting.delete(key);
+            for (const c of conflicts)
+              if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
+                Object.assign(c.row, { resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
           } else if (now_ && sameJson(now_.value, op.value)) {
             result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
-            if (op.resolves?.length) resolutions.push({ op });
+            if (op.resolves?.length) resolutions.push({ op, ids: op.resolves });
           } else {
-            result = { opId: op.opId, status: "conflict", rev, serverValue: now_?.value ?? null };
+            result = {
+              opId: op.opId,
+              status: "conflict",
+              rev,
+              serverValue: now_?.value ?? null,
+              ...(now_ ? { serverBy: now_.by, serverAt: now_.at.toISOString() } : {}),
+            };
             conflicts.push({
               op,
               resultIndex: results.length,
@@ -297,10 +328,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         }
         results.push(result);
         // Applied values and conflicts are their own record; only the rest needs a row of its own.
-        if (
-          result.status === "rejected" ||
-          (result.status === "applied" && !writtenOps.has(op.opId))
-        ) {
+        if (result.status === "rejected" || (result.status === "applied" && !writtenOps.has(op.opId))) {
           recorded.push({ op, resultIndex: results.length - 1 });
         }
       }
@@ -330,22 +358,36 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       }
       for (let i = 0; i < history.length; i += 500)
         await trx("response_history").insert(history.slice(i, i + 500));
-      for (const { op } of resolutions) {
+      for (const { op, ids } of resolutions) {
         await trx("sync_conflicts")
-          .whereIn("id", op.resolves!)
+          .whereIn("id", ids)
           .where({ checklist_id: op.checklistId, item_key: op.itemKey })
           .whereNull("resolved_at")
           .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
       }
       for (const { op, resultIndex } of submissions) {
-        const refused = submittedHere.has(op.checklistId)
-          ? "The checklist is already waiting for review."
-          : await submitChecklist(trx, actor, op.checklistId, request.deviceId);
-        if (!refused) submittedHere.add(op.checklistId);
-        results[resultIndex] = refused
-          ? reject(op, submittedHere.has(op.checklistId) ? "locked" : "incomplete", refused)
-          : { opId: op.opId, status: "applied", rev: 0 };
         recorded.push({ op, resultIndex });
+        if (submittedHere.has(op.checklistId)) {
+          results[resultIndex] = reject(op, "locked", "The checklist is already waiting for review.");
+          continue;
+        }
+        const undecided = await undecidedConflicts(trx, op.checklistId);
+        if (undecided) {
+          results[resultIndex] = reject(
+            op,
+            "conflict-undecided",
+            `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided on the To-decide page.`,
+          );
+          continue;
+        }
+        const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
+        if (refused) {
+          results[resultIndex] = reject(op, "incomplete", refused);
+          continue;
+        }
+        submittedHere.add(op.checklistId);
+        await trx("job_checklists").where({ id: op.checklistId }).update({ change_seq: clock });
+        results[resultIndex] = { opId: op.opId, status: "applied", rev: 0 };
       }
       const opRows = recorded.map(({ op, resultIndex }) => ({
         op_id: op.opId,
@@ -360,7 +402,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       }));
       for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
     } else {
-      clock = Number((await trx("sync_clock").where({ id: 1 }).first()).seq);
+      clock = await lastChangeNumber(trx);
     }
 
     const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
@@ -381,6 +423,16 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       at: new Date(r.updated_at).toISOString(),
     }));
     if (since < clock) changes.push(...wrote);
-    return { results, changes, cursor: String(clock) };
+    // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
+    const states = await visibleChecklists(trx, actor)
+      .where("c.change_seq", ">", since)
+      .where("c.change_seq", "<=", clock)
+      .select("c.id", "c.state");
+    return {
+      results,
+      changes,
+      checklists: states.map((c: any) => ({ id: c.id, state: c.state })),
+      cursor: String(clock),
+    };
   });
 }

@@ -5,7 +5,7 @@ import * as m003 from "./003_checklist_templates.ts";
 import * as m004 from "./004_responses_and_sync.ts";
 import * as m005 from "./005_photos.ts";
 import * as m006 from "./006_review_and_records.ts";
-import * as m007 from "./007_sync_device_clock_as_sent.ts";
+import * as m007 from "./007_sync_hardening.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
 const migrations: Record<string, Knex.Migration> = {
@@ -15,7 +15,7 @@ const migrations: Record<string, Knex.Migration> = {
   "004_responses_and_sync": m004,
   "005_photos": m005,
   "006_review_and_records": m006,
-  "007_sync_device_clock_as_sent": m007,
+  "007_sync_hardening": m007,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

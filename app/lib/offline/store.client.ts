@@ -1,6 +1,6 @@
 import type { OfflineBundle } from "../sync/bundle.ts";
 import { SUBMIT_KEY, submitValue } from "../sync/submission.ts";
-import { unstorableJson, type Change, type OpResult } from "../sync/protocol.ts";
+import { unstorableJson, type Change, type ChecklistStateChange, type OpResult } from "../sync/protocol.ts";
 import { localDb, type LocalResponse, type OutboxEntry } from "./db.client.ts";
 
 /**
@@ -133,6 +133,11 @@ export async function recordEntry(
   }
   const responses = tx.objectStore("responses");
   const current = await responses.get([checklistId, itemKey]);
+  // Any entry made on an item after its conflict was shown decides that conflict.
+  const decided = (await tx.objectStore("conflicts").index("byChecklist").getAll(checklistId))
+    .filter((c) => c.itemKey === itemKey)
+    .map((c) => c.id);
+  resolves = [...new Set([...(resolves ?? []), ...decided])];
   const seq = (((await tx.objectStore("meta").get("seq")) as number | undefined) ?? 0) + 1;
   const at = new Date().toISOString();
   const entry: OutboxEntry = {
@@ -167,9 +172,14 @@ export async function recordEntry(
 export async function queueSubmission(checklistId: string): Promise<OutboxEntry> {
   const id = await deviceId();
   const db = await localDb();
-  const tx = db.transaction(["checklists", "outbox", "meta"], "readwrite");
+  const tx = db.transaction(["checklists", "outbox", "meta", "conflicts"], "readwrite");
   const checklist = await tx.objectStore("checklists").get(checklistId);
   if (!checklist) throw new LocalStoreError("This checklist is not on this tablet.");
+  const undecided = await tx.objectStore("conflicts").index("byChecklist").count(checklistId);
+  if (undecided)
+    throw new LocalStoreError(
+      `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided (see To decide).`,
+    );
   if (checklist.state !== "in-progress" && checklist.state !== "returned")
     throw new LocalStoreError("This checklist has already been submitted.");
   const seq = (((await tx.objectStore("meta").get("seq")) as number | undefined) ?? 0) + 1;
@@ -198,7 +208,7 @@ export async function outboxInOrder(): Promise<OutboxEntry[]> {
 /** Takes in a sync answer: confirmed entries leave the outbox, conflicts and refusals are kept for the person. */
 export async function applySyncAnswer(
   sent: OutboxEntry[],
-  answer: { results: OpResult[]; changes: Change[]; cursor?: string },
+  answer: { results: OpResult[]; changes: Change[]; checklists?: ChecklistStateChange[]; cursor?: string },
   me: string,
 ) {
   const db = await localDb();
@@ -269,6 +279,7 @@ export async function applySyncAnswer(
           serverValue: result.serverValue,
           serverRev: result.rev!,
           clientValue: op.value,
+          ...(result.serverBy ? { serverBy: result.serverBy, serverAt: result.serverAt } : {}),
           by: me,
           at: new Date().toISOString(),
           deviceId: op.deviceId,
@@ -296,6 +307,15 @@ export async function applySyncAnswer(
         pending: false,
       });
     }
+  }
+  // Another tablet's submission, or the lead's return: unless this tablet's own submission still waits.
+  const submitting = new Set(
+    (await outbox.getAll()).filter((o) => o.itemKey === SUBMIT_KEY).map((o) => o.checklistId),
+  );
+  for (const change of answer.checklists ?? []) {
+    const checklist = await tx.objectStore("checklists").get(change.id);
+    if (checklist && !submitting.has(change.id))
+      await tx.objectStore("checklists").put({ ...checklist, state: change.state });
   }
   if (answer.cursor !== undefined) {
     await tx.objectStore("meta").put(answer.cursor, "cursor");

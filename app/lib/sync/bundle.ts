@@ -46,6 +46,9 @@ export interface ConflictRecord {
   serverValue: unknown;
   serverRev: number;
   clientValue: unknown;
+  /** Who set the server's value, and when (absent when the item had none). */
+  serverBy?: string;
+  serverAt?: string;
   by: string;
   at: string;
   deviceId: string;

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import type { ChecklistState } from "../checklist-sets.ts";
 
 /**
  * The sync protocol between a tablet and POST /api/sync, shared by both sides.
@@ -143,6 +144,9 @@ export interface OpResult {
   reason?: string;
   code?: RefusalCode;
   conflictId?: number;
+  /** For a conflict: who set the value the server holds, and when (the server's clock). */
+  serverBy?: string;
+  serverAt?: string;
   /**
    * Set when this answer was given before (a repeated operation): it describes the server as it
    * was then, so its revision is no news — the tablet never lowers a revision it knows for it.
@@ -159,9 +163,16 @@ export interface Change {
   at: string;
 }
 
+/** A checklist whose state changed after the cursor (submitted, returned, countersigned). */
+export interface ChecklistStateChange {
+  id: string;
+  state: ChecklistState;
+}
+
 export interface SyncResponse {
   results: OpResult[];
   changes: Change[];
+  checklists: ChecklistStateChange[];
   cursor: string;
 }
 

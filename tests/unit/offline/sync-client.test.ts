@@ -6,6 +6,7 @@ import {
   applySyncAnswer,
   LocalStoreError,
   outboxInOrder,
+  queueSubmission,
   readChecklist,
   recordEntry,
   saveBundle,
@@ -163,5 +164,49 @@ describe("an entry no server could store", () => {
       LocalStoreError,
     );
     expect(await outboxInOrder()).toEqual([]);
+  });
+});
+
+describe("conflicts on the tablet", () => {
+  const conflict = {
+    id: 7,
+    checklistId: CHECKLIST,
+    itemKey: "a",
+    serverValue: { text: "lead's" },
+    serverRev: 1,
+    clientValue: { text: "mine" },
+    by: "T",
+    at: "2026-01-01T00:00:00Z",
+    deviceId: "d",
+  };
+  it("are decided by any later entry on the item, which carries the decision to the server", async () => {
+    await saveBundle({ ...bundle(), conflicts: [conflict] });
+    const entry = await recordEntry(CHECKLIST, "a", { text: "measured again" }, "T");
+    expect(entry.resolves).toEqual([7]);
+    expect((await allConflicts()).conflicts).toEqual([]);
+  });
+
+  it("block the submission, offline, with the reason", async () => {
+    await saveBundle({ ...bundle(), conflicts: [conflict] });
+    await expect(queueSubmission(CHECKLIST)).rejects.toThrow(/conflict/);
+    expect(await outboxInOrder()).toEqual([]);
+  });
+});
+
+describe("a checklist's state from the pull", () => {
+  it("is taken in (returned by the lead), unless this tablet's own submission still waits", async () => {
+    await applySyncAnswer(
+      [],
+      { results: [], changes: [], checklists: [{ id: CHECKLIST, state: "returned" }], cursor: "2" },
+      "T",
+    );
+    expect((await readChecklist(CHECKLIST))!.checklist.state).toBe("returned");
+    await queueSubmission(CHECKLIST);
+    await applySyncAnswer(
+      [],
+      { results: [], changes: [], checklists: [{ id: CHECKLIST, state: "in-progress" }], cursor: "3" },
+      "T",
+    );
+    expect((await readChecklist(CHECKLIST))!.checklist.state).toBe("submitted");
   });
 });
