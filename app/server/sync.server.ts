@@ -2,6 +2,7 @@ import type { Knex } from "knex";
 import { canFillJob, canViewJob, type Actor } from "~/lib/permissions";
 import {
   describeProblems,
+  MAX_CHANGES_PER_PULL,
   operationSchema,
   sameJson,
   type Change,
@@ -164,6 +165,46 @@ function readOperation(raw: SyncRequest["ops"][number]): Operation | OpResult {
     .map((p) => `${p.path || "operation"} ${p.message}`)
     .join("; ");
   return reject(raw, "invalid-operation", `The entry could not be read: ${problems}.`);
+}
+
+/**
+ * One page of the change feed after `since` (up to `upTo`), at most about `limit` changes: a page
+ * ends only between change numbers, so a batch's changes are never split and the cursor (the
+ * last number included) is exact. `more` says the device should pull again from that cursor.
+ */
+export async function changesPage(
+  trx: Knex.Transaction,
+  scope: () => Knex.QueryBuilder | string[],
+  since: number,
+  upTo: number,
+  limit = MAX_CHANGES_PER_PULL,
+): Promise<{ changes: Change[]; cursor: number; more: boolean }> {
+  const feed = () =>
+    trx("checklist_responses as r")
+      .join("users as u", "u.id", "r.updated_by")
+      .whereIn("r.checklist_id", scope())
+      .where("r.change_seq", ">", since)
+      .where("r.change_seq", "<=", upTo)
+      .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name");
+  const toChange = (r: any): Change => ({
+    checklistId: r.checklist_id,
+    itemKey: r.item_key,
+    value: json(r.value),
+    rev: r.rev,
+    by: r.name,
+    at: new Date(r.updated_at).toISOString(),
+  });
+  const rows = await feed()
+    .orderBy("r.change_seq")
+    .limit(limit + 1);
+  if (rows.length <= limit) return { changes: rows.map(toChange), cursor: upTo, more: false };
+  const last = Number(rows[limit - 1].change_seq);
+  const whole = await feed().where("r.change_seq", last); // the last number's changes, all of them
+  return {
+    changes: [...rows.filter((r: any) => Number(r.change_seq) < last), ...whole].map(toChange),
+    cursor: last,
+    more: last < upTo,
+  };
 }
 
 /**
@@ -407,32 +448,26 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
 
     const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
     // This batch's own changes carry the new clock value and are known here; read only the rest.
-    const rows = await trx("checklist_responses as r")
-      .join("users as u", "u.id", "r.updated_by")
-      .whereIn("r.checklist_id", visibleChecklists(trx, actor).select("c.id"))
-      .where("r.change_seq", ">", since)
-      .where("r.change_seq", wrote.length ? "<" : "<=", clock)
-      .orderBy("r.change_seq")
-      .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
-    const changes: Change[] = rows.map((r: any) => ({
-      checklistId: r.checklist_id,
-      itemKey: r.item_key,
-      value: json(r.value),
-      rev: r.rev,
-      by: r.name,
-      at: new Date(r.updated_at).toISOString(),
-    }));
-    if (since < clock) changes.push(...wrote);
+    const page = await changesPage(
+      trx,
+      () => visibleChecklists(trx, actor).select("c.id"),
+      since,
+      wrote.length ? clock - 1 : clock,
+    );
+    const changes = page.changes;
+    const cursor = page.more ? page.cursor : clock;
+    if (!page.more && since < clock) changes.push(...wrote);
     // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
     const states = await visibleChecklists(trx, actor)
       .where("c.change_seq", ">", since)
-      .where("c.change_seq", "<=", clock)
+      .where("c.change_seq", "<=", cursor)
       .select("c.id", "c.state");
     return {
       results,
       changes,
       checklists: states.map((c: any) => ({ id: c.id, state: c.state })),
-      cursor: String(clock),
+      cursor: String(cursor),
+      ...(page.more ? { more: true as const } : {}),
     };
   });
 }

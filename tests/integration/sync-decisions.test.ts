@@ -3,7 +3,7 @@ import { SUBMIT_KEY, submitValue } from "~/lib/sync/submission";
 import { startChecklists } from "~/server/checklists.server";
 import { openConflicts } from "~/server/offline.server";
 import { countersign, returnChecklist } from "~/server/review.server";
-import { sync } from "~/server/sync.server";
+import { changesPage, sync } from "~/server/sync.server";
 import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
 import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
@@ -134,5 +134,35 @@ describe("a checklist's state reaches other tablets through the pull", () => {
     await returnChecklist(lead, id);
     const afterReturn = await push(tech, [], afterSubmit.cursor, "other-tablet");
     expect(afterReturn.checklists).toEqual([{ id, state: "returned" }]);
+  });
+});
+
+describe("paged pulls (issue 13 §5)", () => {
+  it("answer a bounded page, never split a batch, and say when more waits", async () => {
+    const job = await makeJob(knex, lead.id, [tech.id]);
+    const [id] = await startChecklists(job.id, ["cooling"], lead.id);
+    const { cursor: start } = await push(tech, [], null, "pager");
+    // Three batches of two changes each: three change numbers.
+    const pass = { result: "pass" };
+    await push(tech, [op(id!, "seacock", pass, 0), op(id!, "strainer", pass, 0)]);
+    await push(tech, [op(id!, "impeller", pass, 0), op(id!, "heat-exchanger", pass, 0)]);
+    await push(tech, [op(id!, "thermostat", pass, 0), op(id!, "cooling-hoses", pass, 0)]);
+    const end = Number((await push(tech, [], null, "pager")).cursor);
+    const pages: { changes: number; more: boolean }[] = [];
+    let cursor = Number(start);
+    await knex.transaction(async (trx) => {
+      for (let more = true; more;) {
+        const page = await changesPage(trx, () => [id!], cursor, end, 3);
+        pages.push({ changes: page.changes.length, more: page.more });
+        expect(page.cursor).toBeGreaterThan(cursor);
+        ({ cursor, more } = page);
+      }
+    });
+    // A page of 3 ends between change numbers: the second batch comes whole with the first.
+    expect(pages).toEqual([
+      { changes: 4, more: true },
+      { changes: 2, more: false },
+    ]);
+    expect(cursor).toBe(end);
   });
 });

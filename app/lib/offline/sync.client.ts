@@ -120,7 +120,9 @@ export async function syncOnce(
     pushed += batch.length;
     onProgress({ sent: Math.min(pushed, total), total });
     limit = Math.min(BATCH, limit * 2);
-    if (batch.length === 0 || (await outboxInOrder()).length === 0) return { ok: true, pushed };
+    // Done when nothing is left to send and the pull has reached the end of the feed.
+    if (!answer.more && (batch.length === 0 || (await outboxInOrder()).length === 0))
+      return { ok: true, pushed };
   }
   return { ok: true, pushed };
 }

@@ -28,6 +28,8 @@ export interface OfflineBundle {
   responses: { checklistId: string; itemKey: string; value: unknown; rev: number; by: string; at: string }[];
   conflicts: ConflictRecord[];
   cursor: string;
+  /** Only the first page of responses came: the tablet pulls the rest from the cursor. */
+  more?: true;
 }
 
 /** A lead's remark on an item, shown to the technician at the item. */

@@ -17,6 +17,8 @@ import type { ChecklistState } from "../checklist-sets.ts";
 export const MAX_OPS_PER_REQUEST = 1000;
 /** The largest request body the route reads, in bytes (413 beyond it). */
 export const MAX_SYNC_BODY_BYTES = 4 * 1024 * 1024;
+/** About how many changes one pull answers (a page ends between change numbers); `more` asks for the next. */
+export const MAX_CHANGES_PER_PULL = 500;
 /** The largest number the unsigned INT columns (seq, revisions, conflict ids) hold. */
 export const MAX_UINT32 = 4_294_967_295;
 /** How deep a value may nest; the deepest item kind (readings: attempts → cells → row) needs 5. */
@@ -174,6 +176,8 @@ export interface SyncResponse {
   changes: Change[];
   checklists: ChecklistStateChange[];
   cursor: string;
+  /** More changes wait after this cursor: pull again (the tablet does, until this is absent). */
+  more?: true;
 }
 
 /** Field paths and messages of a malformed request, as the 400 body lists them. */

@@ -210,3 +210,36 @@ describe("a checklist's state from the pull", () => {
     expect((await readChecklist(CHECKLIST))!.checklist.state).toBe("submitted");
   });
 });
+
+describe("a long pull", () => {
+  it("goes on, page by page, until the server says nothing more waits", async () => {
+    const cursors: (string | null)[] = [];
+    const pager = (async (_url: string, init: RequestInit) => {
+      const { cursor } = JSON.parse(String(init.body));
+      cursors.push(cursor);
+      const page = Number(cursor ?? 0) + 1;
+      return Response.json({
+        results: [],
+        changes: [
+          {
+            checklistId: CHECKLIST,
+            itemKey: "a",
+            value: { text: `page ${page}` },
+            rev: page,
+            by: "L",
+            at: "x",
+          },
+        ],
+        checklists: [],
+        cursor: String(page),
+        ...(page < 3 ? { more: true } : {}),
+      });
+    }) as typeof fetch;
+    expect(await syncOnce(pager)).toEqual({ ok: true, pushed: 0 });
+    expect(cursors).toEqual(["0", "1", "2"]);
+    expect((await readChecklist(CHECKLIST))!.responses.a).toMatchObject({
+      value: { text: "page 3" },
+      rev: 3,
+    });
+  });
+});
