@@ -66,7 +66,7 @@ try {
   const target = await knexA("job_checklists as c")
     .join("job_technicians as t", "t.job_id", "c.job_id")
     .join("template_versions as v", "v.id", "c.template_version_id")
-    .where({ "t.user_id": tech.id })
+    .where({ "t.user_id": tech!.id })
     .whereIn("c.state", ["in-progress", "returned"])
     .first("c.id", "v.body");
   const items: string[] = [];

@@ -10,6 +10,7 @@ const initial: SyncStatus = {
   lastSyncAt: null,
   syncing: false,
   problem: null,
+  progress: null,
 };
 
 /** The status the brief asks to be always on screen: connection, waiting entries, last sync, conflicts. */
@@ -52,8 +53,16 @@ export function SyncStatusBar() {
           ⚑ {status.conflicts} to decide{status.refused ? `, ${status.refused} refused` : ""}
         </Link>
       )}
-      {status.problem && status.online && (
-        <span className="text-brass">Sync will retry: {status.problem}</span>
+      {status.progress && status.progress.total > 1 && (
+        <span data-testid="sync-progress">
+          Sent {status.progress.sent.toLocaleString("en-GB")} of{" "}
+          {status.progress.total.toLocaleString("en-GB")}
+        </span>
+      )}
+      {status.problem && (
+        <span className="text-brass" data-testid="sync-problem">
+          {status.problem}
+        </span>
       )}
     </div>
   );

@@ -13,16 +13,28 @@ export async function clientLoader() {
   const describe = async (checklistId: string, itemKey: string) => {
     const checklist = await db.get("checklists", checklistId);
     const template = checklist ? await db.get("templates", [checklist.key, checklist.version]) : undefined;
+    const job = checklist ? await db.get("jobs", checklist.jobId) : undefined;
     const item = template ? findItem(template.template, itemKey) : undefined;
-    return { checklistTitle: checklist?.title ?? "A checklist", item };
+    return {
+      checklistTitle: checklist?.title ?? "A checklist",
+      // Where it is: the vessel, the job, the checklist.
+      place: [
+        job?.vesselName,
+        job ? `job ${job.id} (${job.engineModel})` : null,
+        checklist?.title ?? "A checklist",
+      ]
+        .filter(Boolean)
+        .join(" · "),
+      item,
+    };
   };
   return {
     conflicts: await Promise.all(
       conflicts.map(async (c) => {
-        const { checklistTitle, item } = await describe(c.checklistId, c.itemKey);
+        const { place, item } = await describe(c.checklistId, c.itemKey);
         return {
           ...c,
-          checklistTitle,
+          place,
           label: item?.label ?? c.itemKey,
           server: describeValue(item, c.serverValue),
           sent: describeValue(item, c.clientValue),
@@ -31,8 +43,8 @@ export async function clientLoader() {
     ),
     rejections: await Promise.all(
       rejections.map(async (r) => {
-        const { checklistTitle, item } = await describe(r.checklistId, r.itemKey);
-        return { ...r, checklistTitle, label: item?.label ?? r.itemKey, sent: describeValue(item, r.value) };
+        const { place, item } = await describe(r.checklistId, r.itemKey);
+        return { ...r, place, label: item?.label ?? r.itemKey, sent: describeValue(item, r.value) };
       }),
     ),
   };
@@ -77,10 +89,16 @@ export default function ToDecide({ loaderData }: Route.ComponentProps) {
         {conflicts.map((c) => (
           <li key={c.id} className="card flex flex-col gap-3" data-testid="conflict">
             <h2 className="text-xl font-bold">{c.label}</h2>
-            <p className="text-ink-soft">{c.checklistTitle}</p>
+            <p className="text-ink-soft" data-testid="conflict-place">
+              {c.place}
+            </p>
             <div className="grid gap-3 md:grid-cols-2">
               <div className="rounded-md border-2 border-rule p-3">
-                <p className="text-sm font-bold">On the server now (revision {c.serverRev})</p>
+                <p className="text-sm font-bold" data-testid="server-set-by">
+                  On the server now
+                  {c.serverBy &&
+                    `, set by ${c.serverBy}${c.serverAt ? `, ${new Date(c.serverAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}` : ""}`}
+                </p>
                 <p className="num text-lg" data-testid="server-value">
                   {c.server}
                 </p>
@@ -112,7 +130,7 @@ export default function ToDecide({ loaderData }: Route.ComponentProps) {
         {rejections.map((r) => (
           <li key={r.opId} className="card flex flex-col gap-2 border-fault" data-testid="rejection">
             <h2 className="text-xl font-bold">Refused: {r.label}</h2>
-            <p className="text-ink-soft">{r.checklistTitle}</p>
+            <p className="text-ink-soft">{r.place}</p>
             <p>
               <strong>Why: </strong>
               {r.reason}

@@ -1,5 +1,6 @@
 import { canFillJob, type Actor } from "~/lib/permissions";
 import type { ConflictRecord, OfflineBundle } from "~/lib/sync/bundle";
+import { changesPage } from "./sync.server.ts";
 import { db } from "./db.server.ts";
 import { listVisibleJobs } from "./jobs.server.ts";
 import type { User } from "./users.server.ts";
@@ -27,10 +28,14 @@ export async function openConflicts(checklistIds: string[]): Promise<ConflictRec
   if (!checklistIds.length) return [];
   const rows = await db()("sync_conflicts as k")
     .join("users as u", "u.id", "k.user_id")
+    .leftJoin("response_history as h", (j) =>
+      j.on("h.checklist_id", "k.checklist_id").on("h.item_key", "k.item_key").on("h.rev", "k.server_rev"),
+    )
+    .leftJoin("users as su", "su.id", "h.user_id")
     .whereIn("k.checklist_id", checklistIds)
     .whereNull("k.resolved_at")
     .orderBy("k.id")
-    .select("k.*", "u.name");
+    .select("k.*", "u.name", "su.name as server_by", "h.at as server_at");
   return rows.map((r: any) => ({
     id: r.id,
     checklistId: r.checklist_id,
@@ -38,6 +43,7 @@ export async function openConflicts(checklistIds: string[]): Promise<ConflictRec
     serverValue: json(r.server_value),
     serverRev: r.server_rev,
     clientValue: json(r.client_value),
+    ...(r.server_by ? { serverBy: r.server_by, serverAt: new Date(r.server_at).toISOString() } : {}),
     by: r.name,
     at: new Date(r.received_at).toISOString(),
     deviceId: r.device_id,
@@ -60,12 +66,10 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
           .select("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version", "t.body")
       : [];
     const ids = checklistRows.map((c: any) => c.id);
-    const responses = ids.length
-      ? await trx("checklist_responses as r")
-          .join("users as u", "u.id", "r.updated_by")
-          .whereIn("r.checklist_id", ids)
-          .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name")
-      : [];
+    // Bounded like a pull: the first page of responses, and the cursor to pull the rest from.
+    const page = ids.length
+      ? await changesPage(trx, () => ids, 0, Number(cursor))
+      : { changes: [], cursor: Number(cursor), more: false };
     const comments = ids.length ? await commentsOn(ids, trx) : [];
     const templates = new Map<string, OfflineBundle["templates"][number]>();
     for (const c of checklistRows)
@@ -99,16 +103,10 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
         };
       }),
       templates: [...templates.values()],
-      responses: responses.map((r: any) => ({
-        checklistId: r.checklist_id,
-        itemKey: r.item_key,
-        value: json(r.value),
-        rev: r.rev,
-        by: r.name,
-        at: new Date(r.updated_at).toISOString(),
-      })),
+      responses: page.changes,
       conflicts: await openConflicts(ids),
-      cursor,
+      cursor: String(page.cursor),
+      ...(page.more ? { more: true as const } : {}),
     };
   });
 }

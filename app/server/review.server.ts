@@ -9,8 +9,19 @@ import { checklistAccessFor, loadChecklistAccess } from "./checklist-access.serv
 import { db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import { photosNotYetStored } from "./photos.server.ts";
+import { checklistStateChanged } from "./sync-clock.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import { checkPassword } from "./users.server.ts";
+
+/** How many conflicts on a checklist still wait for a person: it cannot be submitted or countersigned. */
+export async function undecidedConflicts(trx: Knex | Knex.Transaction, checklistId: string) {
+  const row = await trx("sync_conflicts")
+    .where({ checklist_id: checklistId })
+    .whereNull("resolved_at")
+    .count({ n: "*" })
+    .first();
+  return Number(row?.n ?? 0);
+}
 
 /** What is still missing before a checklist can be submitted, recomputed on the server. */
 export async function missingItems(trx: Knex | Knex.Transaction, checklistId: string, template: Template) {
@@ -35,6 +46,9 @@ export async function submitChecklist(
     return "Only the job's technicians and its lead submit its checklists.";
   if (c.state !== "in-progress" && c.state !== "returned")
     return `The checklist is already ${c.state === "submitted" ? "waiting for review" : "countersigned"}.`;
+  const undecided = await undecidedConflicts(trx, checklistId);
+  if (undecided)
+    return `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided on the To-decide page.`;
   const template = parseJsonColumn<Template>(c.body);
   const missing = await missingItems(trx, checklistId, template);
   if (!missing.complete) {
@@ -75,6 +89,7 @@ export async function returnChecklist(actor: Actor, checklistId: string) {
     const c = await checklistAccessFor(actor, "countersign", checklistId, trx, onlyTheLead);
     if (c.state !== "submitted")
       throw new Refusal("wrong-state", "Only a checklist waiting for review can be returned.");
+    await checklistStateChanged(trx, checklistId); // other tablets learn it from their pull
     await trx("job_checklists")
       .where({ id: checklistId })
       .update({ state: "returned", updated_at: trx.fn.now(3) });
@@ -101,6 +116,13 @@ export async function countersign(actor: Actor, checklistId: string, password: s
     const c = await checklistAccessFor(actor, "countersign", checklistId, trx, onlyTheLead);
     if (c.state !== "submitted")
       throw new Refusal("wrong-state", "Only a checklist waiting for review can be countersigned.");
+    const undecided = await undecidedConflicts(trx, checklistId);
+    if (undecided)
+      throw new Refusal(
+        "wrong-state",
+        `${undecided} conflict(s) on this checklist wait to be decided on the To-decide page; return it to the technician or decide them first.`,
+      );
+    await checklistStateChanged(trx, checklistId); // the clock first: it is every applier's first lock
     // The digest covers the photos: every photo an entry lists must have reached the store.
     const missing = await photosNotYetStored(checklistId, trx);
     if (missing.length)

@@ -1,17 +1,23 @@
 import type { Knex } from "knex";
 import { canFillJob, canViewJob, type Actor } from "~/lib/permissions";
 import {
+  describeProblems,
+  MAX_CHANGES_PER_PULL,
+  operationSchema,
   sameJson,
   type Change,
   type Operation,
   type OpResult,
+  type RefusalCode,
   type SyncRequest,
   type SyncResponse,
 } from "~/lib/sync/protocol";
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { db } from "./db.server.ts";
-import { submitChecklist } from "./review.server.ts";
+import { withRetry } from "./retry.server.ts";
+import { submitChecklist, undecidedConflicts } from "./review.server.ts";
+import { lastChangeNumber, nextChangeNumber } from "./sync-clock.server.ts";
 
 interface ChecklistAccess {
   state: string;
@@ -21,7 +27,12 @@ interface ChecklistAccess {
 }
 
 const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
-const reject = (op: Operation, reason: string): OpResult => ({ opId: op.opId, status: "rejected", reason });
+const reject = (op: { opId: string }, code: RefusalCode, reason: string): OpResult => ({
+  opId: op.opId,
+  status: "rejected",
+  code,
+  reason,
+});
 const itemId = (checklistId: string, itemKey: string) => `${checklistId}|${itemKey}`;
 
 /** The checklists of the jobs this person may see (the scope of what they pull). */
@@ -34,6 +45,20 @@ function visibleChecklists(knex: Knex, actor: Actor) {
   return q.whereRaw("1 = 0");
 }
 
+/**
+ * Published template versions never change, so each is parsed once per process: the item
+ * schemas cached on its items (valueSchemaFor) then serve every later batch.
+ */
+const parsedTemplates = new Map<number, Template>();
+async function templatesById(trx: Knex.Transaction, ids: number[]): Promise<Map<number, Template>> {
+  const missing = ids.filter((id) => !parsedTemplates.has(id));
+  if (missing.length) {
+    const bodies = await trx("template_versions").whereIn("id", missing).select("id", "body");
+    for (const b of bodies) parsedTemplates.set(b.id, JSON.parse(b.body));
+  }
+  return new Map(ids.map((id) => [id, parsedTemplates.get(id)!]));
+}
+
 /** Who may do what on each checklist the batch touches, read in two queries. */
 async function loadAccess(
   trx: Knex.Transaction,
@@ -44,15 +69,12 @@ async function loadAccess(
     .join("jobs as j", "j.id", "c.job_id")
     .whereIn("c.id", checklistIds)
     .select("c.id", "c.state", "c.template_version_id", "j.id as job_id", "j.lead_id");
-  const [crew, bodies] = await Promise.all([
+  const [crew, templates] = await Promise.all([
     trx("job_technicians")
       .whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))])
       .select("job_id", "user_id"),
-    trx("template_versions")
-      .whereIn("id", [...new Set(rows.map((r: any) => r.template_version_id))])
-      .select("id", "body"),
+    templatesById(trx, [...new Set(rows.map((r: any) => r.template_version_id as number))]),
   ]);
-  const templates = new Map<number, Template>(bodies.map((b: any) => [b.id, JSON.parse(b.body)]));
   return new Map(
     rows.map((r: any) => {
       const job = {
@@ -77,9 +99,14 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
   const answers = new Map<string, { userId: number; result: OpResult }>();
   const [applied, conflicted, others] = await Promise.all([
     trx("response_history").whereIn("op_id", opIds).select("op_id", "user_id", "rev"),
-    trx("sync_conflicts")
-      .whereIn("op_id", opIds)
-      .select("op_id", "user_id", "id", "server_rev", "server_value"),
+    trx("sync_conflicts as k")
+      // Who set the server's value, and when: its history row.
+      .leftJoin("response_history as h", (j) =>
+        j.on("h.checklist_id", "k.checklist_id").on("h.item_key", "k.item_key").on("h.rev", "k.server_rev"),
+      )
+      .leftJoin("users as u", "u.id", "h.user_id")
+      .whereIn("k.op_id", opIds)
+      .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at"),
     trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
   ]);
   for (const r of applied)
@@ -92,6 +119,7 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
         status: "conflict",
         rev: r.server_rev,
         serverValue: r.server_value === null ? null : json(r.server_value),
+        ...(r.name ? { serverBy: r.name, serverAt: new Date(r.at).toISOString() } : {}),
         conflictId: r.id,
       },
     });
@@ -100,24 +128,84 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
   return answers;
 }
 
-function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
-  if (!access || !access.canView) return reject(op, "This checklist is not on one of your jobs.");
-  if (!access.canFill) return reject(op, "Only the job's technicians and its lead record entries.");
+/** Why this person may not write to this checklist at all, or null. */
+function accessRefusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
+  if (!access || !access.canView)
+    return reject(op, "not-on-your-job", "This checklist is not on one of your jobs.");
+  if (!access.canFill)
+    return reject(op, "not-allowed", "Only the job's technicians and its lead record entries.");
   if (access.state === "submitted")
-    return reject(op, "The checklist has been submitted for review and takes no more entries.");
+    return reject(op, "locked", "The checklist has been submitted for review and takes no more entries.");
   if (access.state === "countersigned")
-    return reject(op, "The checklist is countersigned and locked; a correction is an amendment.");
+    return reject(op, "locked", "The checklist is countersigned and locked; a correction is an amendment.");
+  return null;
+}
+
+function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult | null {
+  const denied = accessRefusal(op, access);
+  if (denied || !access) return denied;
   const item = findItem(access.template, op.itemKey);
-  if (!item) return reject(op, `The checklist has no item "${op.itemKey}".`);
+  if (!item) return reject(op, "unknown-item", `The checklist has no item "${op.itemKey}".`);
   const parsed = valueSchemaFor(item).safeParse(op.value);
   if (!parsed.success) {
     const first = parsed.error.issues[0]!;
     return reject(
       op,
+      "invalid-value",
       `The entry for "${item.label}" is not valid: ${[...first.path].join(".") || "value"} ${first.message}.`,
     );
   }
   return null;
+}
+
+/** An operation read on its own: a malformed one is refused by itself, never failing the batch. */
+function readOperation(raw: SyncRequest["ops"][number]): Operation | OpResult {
+  const parsed = operationSchema.safeParse(raw);
+  if (parsed.success) return parsed.data as Operation;
+  const problems = describeProblems(parsed.error)
+    .map((p) => `${p.path || "operation"} ${p.message}`)
+    .join("; ");
+  return reject(raw, "invalid-operation", `The entry could not be read: ${problems}.`);
+}
+
+/**
+ * One page of the change feed after `since` (up to `upTo`), at most about `limit` changes: a page
+ * ends only between change numbers, so a batch's changes are never split and the cursor (the
+ * last number included) is exact. `more` says the device should pull again from that cursor.
+ */
+export async function changesPage(
+  trx: Knex.Transaction,
+  scope: () => Knex.QueryBuilder | string[],
+  since: number,
+  upTo: number,
+  limit = MAX_CHANGES_PER_PULL,
+): Promise<{ changes: Change[]; cursor: number; more: boolean }> {
+  const feed = () =>
+    trx("checklist_responses as r")
+      .join("users as u", "u.id", "r.updated_by")
+      .whereIn("r.checklist_id", scope())
+      .where("r.change_seq", ">", since)
+      .where("r.change_seq", "<=", upTo)
+      .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name");
+  const toChange = (r: any): Change => ({
+    checklistId: r.checklist_id,
+    itemKey: r.item_key,
+    value: json(r.value),
+    rev: r.rev,
+    by: r.name,
+    at: new Date(r.updated_at).toISOString(),
+  });
+  const rows = await feed()
+    .orderBy("r.change_seq")
+    .limit(limit + 1);
+  if (rows.length <= limit) return { changes: rows.map(toChange), cursor: upTo, more: false };
+  const last = Number(rows[limit - 1].change_seq);
+  const whole = await feed().where("r.change_seq", last); // the last number's changes, all of them
+  return {
+    changes: [...rows.filter((r: any) => Number(r.change_seq) < last), ...whole].map(toChange),
+    cursor: last,
+    more: last < upTo,
+  };
 }
 
 /**
@@ -132,198 +220,271 @@ function refusal(op: Operation, access: ChecklistAccess | undefined): OpResult |
  * few multi-row statements, so a thousand operations cost a handful of round trips.
  */
 export async function sync(actor: Actor & { name: string }, request: SyncRequest): Promise<SyncResponse> {
-  return db().transaction(async (trx) => {
-    let clock: number;
-    const results: OpResult[] = [];
-    const wrote: Change[] = [];
-    if (request.ops.length) {
-      const { seq } = (await trx("sync_clock").where({ id: 1 }).forUpdate().first())!;
-      clock = Number(seq) + 1;
-      await trx("sync_clock").where({ id: 1 }).update({ seq: clock });
-      const now = new Date();
+  // A deadlock, or a lost certification on a Galera cluster, runs the whole batch again.
+  return withRetry(() =>
+    db().transaction(async (trx) => {
+      let clock: number;
+      const results: OpResult[] = [];
+      const wrote: Change[] = [];
+      if (request.ops.length) {
+        clock = await nextChangeNumber(trx);
+        const now = new Date();
 
-      const known = await answersGiven(
-        trx,
-        request.ops.map((o) => o.opId),
-      );
-      const checklistIds = [...new Set(request.ops.map((o) => o.checklistId))];
-      const access = await loadAccess(trx, actor, checklistIds);
-      const currentRows = await trx("checklist_responses")
-        // No row locks needed: every applier holds the clock lock, so none runs beside this one.
-        .whereIn(
-          ["checklist_id", "item_key"],
-          [...new Set(request.ops.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
+        const known = await answersGiven(
+          trx,
+          request.ops.map((o) => o.opId),
         );
-      const current = new Map<string, { rev: number; value: unknown }>(
-        currentRows.map((r: any) => [
-          itemId(r.checklist_id, r.item_key),
-          { rev: r.rev, value: json(r.value) },
-        ]),
-      );
-
-      const responses = new Map<string, any>();
-      const history: any[] = [];
-      const conflicts: { op: Operation; row: any; resultIndex: number }[] = [];
-      const resolutions: { op: Operation }[] = [];
-      const recorded: { op: Operation; resultIndex: number }[] = [];
-      const submissions: { op: Operation; resultIndex: number }[] = [];
-
-      for (const op of request.ops) {
-        const seen = known.get(op.opId);
-        if (seen) {
-          // A retry: the first answer, unchanged (another person's opId is simply refused).
-          results.push(
-            seen.userId === actor.id
-              ? { ...seen.result, opId: op.opId }
-              : reject(op, "This operation id was used by someone else."),
+        const ops = request.ops.map(readOperation);
+        const valid = ops.filter((o): o is Operation => !("status" in o));
+        const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
+        const access = await loadAccess(trx, actor, checklistIds);
+        const currentRows = await trx("checklist_responses as r")
+          .join("users as u", "u.id", "r.updated_by")
+          .select("r.checklist_id", "r.item_key", "r.rev", "r.value", "r.updated_at", "u.name")
+          // No row locks needed: every applier holds the clock lock, so none runs beside this one.
+          .whereIn(
+            ["r.checklist_id", "r.item_key"],
+            [...new Set(valid.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
           );
-          continue;
+        // Conflicts still waiting on the batch's checklists: an entry applied on the item decides them.
+        const waiting = new Map<string, number[]>();
+        for (const c of checklistIds.length
+          ? await trx("sync_conflicts")
+              .whereIn("checklist_id", checklistIds)
+              .whereNull("resolved_at")
+              .select("id", "checklist_id", "item_key")
+          : []) {
+          const key = itemId(c.checklist_id, c.item_key);
+          waiting.set(key, [...(waiting.get(key) ?? []), c.id]);
         }
-        if (op.itemKey === SUBMIT_KEY) {
-          // Decided after this batch's entries are written: they count towards "complete".
-          submissions.push({ op, resultIndex: results.length });
-          results.push(reject(op, "Not decided yet."));
-          known.set(op.opId, { userId: actor.id, result: results.at(-1)! });
-          continue;
-        }
-        const key = itemId(op.checklistId, op.itemKey);
-        let result = refusal(op, access.get(op.checklistId));
-        if (!result) {
-          const now_ = current.get(key);
-          const rev = now_?.rev ?? 0;
-          if (op.baseRev === rev) {
-            const value = JSON.stringify(op.value);
-            current.set(key, { rev: rev + 1, value: op.value });
-            responses.set(key, {
-              checklist_id: op.checklistId,
-              item_key: op.itemKey,
-              value,
-              rev: rev + 1,
-              updated_by: actor.id,
-              device_id: request.deviceId,
-              updated_at: now,
-              change_seq: clock,
-            });
-            history.push({
-              checklist_id: op.checklistId,
-              item_key: op.itemKey,
-              rev: rev + 1,
-              value,
-              user_id: actor.id,
-              device_id: request.deviceId,
-              op_id: op.opId,
-              at: now,
-              client_at: new Date(op.at),
-            });
-            result = { opId: op.opId, status: "applied", rev: rev + 1 };
-            if (op.resolves?.length) resolutions.push({ op });
-          } else if (now_ && sameJson(now_.value, op.value)) {
-            result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
-            if (op.resolves?.length) resolutions.push({ op });
-          } else {
-            result = { opId: op.opId, status: "conflict", rev, serverValue: now_?.value ?? null };
-            conflicts.push({
-              op,
-              resultIndex: results.length,
-              row: {
+        const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
+          currentRows.map((r: any) => [
+            itemId(r.checklist_id, r.item_key),
+            { rev: r.rev, value: json(r.value), by: r.name, at: new Date(r.updated_at) },
+          ]),
+        );
+
+        const responses = new Map<string, any>();
+        const history: any[] = [];
+        const writtenOps = new Set<string>();
+        const conflicts: { op: Operation; row: any; resultIndex: number }[] = [];
+        const resolutions: { op: Operation; ids: number[] }[] = [];
+        const recorded: { op: Operation; resultIndex: number }[] = [];
+        const submissions: { op: Operation; resultIndex: number }[] = [];
+
+        const submittedHere = new Set<string>();
+        for (const read of ops) {
+          const seen = known.get(read.opId);
+          if (seen) {
+            // A retry: the first answer, marked as a repeat (another person's opId is simply refused).
+            results.push(
+              seen.userId === actor.id
+                ? { ...seen.result, opId: read.opId, repeat: true }
+                : reject(read, "op-id-taken", "This operation id was used by someone else."),
+            );
+            continue;
+          }
+          if ("status" in read) {
+            results.push(read); // malformed: refused on its own, nothing stored
+            continue;
+          }
+          const op = read;
+          if (op.itemKey === SUBMIT_KEY) {
+            // Decided after this batch's entries are written: they count towards "complete".
+            const denied = accessRefusal(op, access.get(op.checklistId));
+            if (denied) {
+              results.push(denied);
+              recorded.push({ op, resultIndex: results.length - 1 });
+            } else {
+              submissions.push({ op, resultIndex: results.length });
+              results.push({ opId: op.opId, status: "applied", rev: 0 }); // replaced once decided
+            }
+            continue;
+          }
+          const key = itemId(op.checklistId, op.itemKey);
+          let result = refusal(op, access.get(op.checklistId));
+          if (!result) {
+            const now_ = current.get(key);
+            const rev = now_?.rev ?? 0;
+            if (op.baseRev === rev) {
+              const value = JSON.stringify(op.value);
+              current.set(key, { rev: rev + 1, value: op.value, by: actor.name, at: now });
+              responses.set(key, {
                 checklist_id: op.checklistId,
                 item_key: op.itemKey,
-                op_id: op.opId,
-                base_rev: op.baseRev,
-                server_rev: rev,
-                server_value: now_ ? JSON.stringify(now_.value) : null,
-                client_value: JSON.stringify(op.value),
+                value,
+                rev: rev + 1,
+                updated_by: actor.id,
+                device_id: request.deviceId,
+                updated_at: now,
+                change_seq: clock,
+              });
+              writtenOps.add(op.opId);
+              history.push({
+                checklist_id: op.checklistId,
+                item_key: op.itemKey,
+                rev: rev + 1,
+                value,
                 user_id: actor.id,
                 device_id: request.deviceId,
-                client_at: new Date(op.at),
-                received_at: now,
-              },
-            });
+                op_id: op.opId,
+                at: now,
+                client_at: op.at,
+              });
+              result = { opId: op.opId, status: "applied", rev: rev + 1 };
+              // Made on the server's current value, this entry decides every conflict waiting on the
+              // item: those already stored, and those this batch raised before it.
+              const ids = [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])];
+              if (ids.length) resolutions.push({ op, ids });
+              waiting.delete(key);
+              for (const c of conflicts)
+                if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
+                  Object.assign(c.row, {
+                    resolved_at: now,
+                    resolved_by: actor.id,
+                    resolution_op_id: op.opId,
+                  });
+            } else if (now_ && sameJson(now_.value, op.value)) {
+              result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
+              if (op.resolves?.length) resolutions.push({ op, ids: op.resolves });
+            } else {
+              result = {
+                opId: op.opId,
+                status: "conflict",
+                rev,
+                serverValue: now_?.value ?? null,
+                ...(now_ ? { serverBy: now_.by, serverAt: now_.at.toISOString() } : {}),
+              };
+              conflicts.push({
+                op,
+                resultIndex: results.length,
+                row: {
+                  checklist_id: op.checklistId,
+                  item_key: op.itemKey,
+                  op_id: op.opId,
+                  base_rev: op.baseRev,
+                  server_rev: rev,
+                  server_value: now_ ? JSON.stringify(now_.value) : null,
+                  client_value: JSON.stringify(op.value),
+                  user_id: actor.id,
+                  device_id: request.deviceId,
+                  client_at: op.at,
+                  received_at: now,
+                },
+              });
+            }
+          }
+          results.push(result);
+          // Applied values and conflicts are their own record; only the rest needs a row of its own.
+          if (result.status === "rejected" || (result.status === "applied" && !writtenOps.has(op.opId))) {
+            recorded.push({ op, resultIndex: results.length - 1 });
           }
         }
-        results.push(result);
-        known.set(op.opId, { userId: actor.id, result });
-        // Applied values and conflicts are their own record; only the rest needs a row of its own.
-        if (
-          result.status === "rejected" ||
-          (result.status === "applied" && !history.some((h) => h.op_id === op.opId))
-        ) {
-          recorded.push({ op, resultIndex: results.length - 1 });
+        // One multi-row insert, then the ids read back by opId: a Galera cluster hands out
+        // auto-increment ids in steps of the node count, so they are not consecutive there.
+        if (conflicts.length) {
+          await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
+          const ids = new Map(
+            (
+              await trx("sync_conflicts")
+                .whereIn(
+                  "op_id",
+                  conflicts.map((c) => c.op.opId),
+                )
+                .select("id", "op_id")
+            ).map((r) => [r.op_id, Number(r.id)]),
+          );
+          for (const c of conflicts)
+            results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: ids.get(c.op.opId)! };
         }
+        for (const r of responses.values()) {
+          wrote.push({
+            checklistId: r.checklist_id,
+            itemKey: r.item_key,
+            value: JSON.parse(r.value),
+            rev: r.rev,
+            by: actor.name,
+            at: now.toISOString(),
+          });
+        }
+        if (responses.size) {
+          await trx("checklist_responses")
+            .insert([...responses.values()])
+            .onConflict(["checklist_id", "item_key"])
+            .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
+        }
+        for (let i = 0; i < history.length; i += 500)
+          await trx("response_history").insert(history.slice(i, i + 500));
+        for (const { op, ids } of resolutions) {
+          await trx("sync_conflicts")
+            .whereIn("id", ids)
+            .where({ checklist_id: op.checklistId, item_key: op.itemKey })
+            .whereNull("resolved_at")
+            .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
+        }
+        for (const { op, resultIndex } of submissions) {
+          recorded.push({ op, resultIndex });
+          if (submittedHere.has(op.checklistId)) {
+            results[resultIndex] = reject(op, "locked", "The checklist is already waiting for review.");
+            continue;
+          }
+          const undecided = await undecidedConflicts(trx, op.checklistId);
+          if (undecided) {
+            results[resultIndex] = reject(
+              op,
+              "conflict-undecided",
+              `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided on the To-decide page.`,
+            );
+            continue;
+          }
+          const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
+          if (refused) {
+            results[resultIndex] = reject(op, "incomplete", refused);
+            continue;
+          }
+          submittedHere.add(op.checklistId);
+          await trx("job_checklists").where({ id: op.checklistId }).update({ change_seq: clock });
+          results[resultIndex] = { opId: op.opId, status: "applied", rev: 0 };
+        }
+        const opRows = recorded.map(({ op, resultIndex }) => ({
+          op_id: op.opId,
+          device_id: request.deviceId,
+          seq: op.seq,
+          user_id: actor.id,
+          checklist_id: op.checklistId,
+          item_key: op.itemKey,
+          status: results[resultIndex]!.status,
+          result: JSON.stringify(results[resultIndex]),
+          received_at: now,
+        }));
+        for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
+      } else {
+        clock = await lastChangeNumber(trx);
       }
 
-      // Conflict ids come from one multi-row insert: InnoDB gives such an insert consecutive ids.
-      if (conflicts.length) {
-        const [firstId] = await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
-        conflicts.forEach(
-          (c, i) =>
-            (results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: Number(firstId) + i }),
-        );
-      }
-      for (const r of responses.values()) {
-        wrote.push({
-          checklistId: r.checklist_id,
-          itemKey: r.item_key,
-          value: JSON.parse(r.value),
-          rev: r.rev,
-          by: actor.name,
-          at: now.toISOString(),
-        });
-      }
-      if (responses.size) {
-        await trx("checklist_responses")
-          .insert([...responses.values()])
-          .onConflict(["checklist_id", "item_key"])
-          .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
-      }
-      for (let i = 0; i < history.length; i += 500)
-        await trx("response_history").insert(history.slice(i, i + 500));
-      for (const { op } of resolutions) {
-        await trx("sync_conflicts")
-          .whereIn("id", op.resolves!)
-          .where({ checklist_id: op.checklistId, item_key: op.itemKey })
-          .whereNull("resolved_at")
-          .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
-      }
-      for (const { op, resultIndex } of submissions) {
-        const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
-        results[resultIndex] = refused ? reject(op, refused) : { opId: op.opId, status: "applied", rev: 0 };
-        recorded.push({ op, resultIndex });
-      }
-      const opRows = recorded.map(({ op, resultIndex }) => ({
-        op_id: op.opId,
-        device_id: request.deviceId,
-        seq: op.seq,
-        user_id: actor.id,
-        checklist_id: op.checklistId,
-        item_key: op.itemKey,
-        status: results[resultIndex]!.status,
-        result: JSON.stringify(results[resultIndex]),
-        received_at: now,
-      }));
-      for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
-    } else {
-      clock = Number((await trx("sync_clock").where({ id: 1 }).first())!.seq);
-    }
-
-    const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
-    // This batch's own changes carry the new clock value and are known here; read only the rest.
-    const rows = await trx("checklist_responses as r")
-      .join("users as u", "u.id", "r.updated_by")
-      .whereIn("r.checklist_id", visibleChecklists(trx, actor).select("c.id"))
-      .where("r.change_seq", ">", since)
-      .where("r.change_seq", wrote.length ? "<" : "<=", clock)
-      .orderBy("r.change_seq")
-      .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
-    const changes: Change[] = rows.map((r: any) => ({
-      checklistId: r.checklist_id,
-      itemKey: r.item_key,
-      value: json(r.value),
-      rev: r.rev,
-      by: r.name,
-      at: new Date(r.updated_at).toISOString(),
-    }));
-    if (since < clock) changes.push(...wrote);
-    return { results, changes, cursor: String(clock) };
-  });
+      const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
+      // This batch's own changes carry the new clock value and are known here; read only the rest.
+      const page = await changesPage(
+        trx,
+        () => visibleChecklists(trx, actor).select("c.id"),
+        since,
+        wrote.length ? clock - 1 : clock,
+      );
+      const changes = page.changes;
+      const cursor = page.more ? page.cursor : clock;
+      if (!page.more && since < clock) changes.push(...wrote);
+      // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
+      const states = await visibleChecklists(trx, actor)
+        .where("c.change_seq", ">", since)
+        .where("c.change_seq", "<=", cursor)
+        .select("c.id", "c.state");
+      return {
+        results,
+        changes,
+        checklists: states.map((c: any) => ({ id: c.id, state: c.state })),
+        cursor: String(cursor),
+        ...(page.more ? { more: true as const } : {}),
+      };
+    }),
+  );
 }

@@ -82,9 +82,13 @@ export interface JobRow {
   prop_diameter_in: string | number;
   prop_pitch_in: string | number;
   prop_blades: number;
+  shaft_system: "inch" | "metric";
   shaft_diameter_in: string | number;
+  /** A metric shaft's diameter as entered (migration 009). */
+  shaft_diameter_mm: string | number | null;
   shaft_material: string;
   coupling_type: string;
+  system_volts: 12 | 24;
   start_date: Date | string | null;
   due_date: Date | string | null;
   lead_id: number;
@@ -130,6 +134,8 @@ export interface JobChecklistRow {
   countersigned_at: Date | null;
   digest: string | null;
   amends_id: string | null;
+  /** The change-feed number of its last state change, so other tablets pull it (migration 007). */
+  change_seq: BigIntColumn | null;
   created_at: Date;
   updated_at: Date;
 }
@@ -155,7 +161,8 @@ export interface ResponseHistoryRow {
   device_id: string | null;
   op_id: string | null;
   at: Date;
-  client_at: Date | null;
+  /** The device's clock exactly as the device sent it (migration 007): it decides nothing. */
+  client_at: string | null;
 }
 
 export interface SyncOpRow {
@@ -181,7 +188,8 @@ export interface SyncConflictRow {
   client_value: JsonColumn;
   user_id: number;
   device_id: string;
-  client_at: Date | null;
+  /** The device's clock exactly as the device sent it (migration 007): it decides nothing. */
+  client_at: string | null;
   received_at: Date;
   resolved_at: Date | null;
   resolved_by: number | null;

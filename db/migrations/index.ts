@@ -5,6 +5,7 @@ import * as m003 from "./003_checklist_templates.ts";
 import * as m004 from "./004_responses_and_sync.ts";
 import * as m005 from "./005_photos.ts";
 import * as m006 from "./006_review_and_records.ts";
+import * as m007 from "./007_sync_hardening.ts";
 import * as m009 from "./009_job_shaft_system_and_voltage.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
@@ -15,6 +16,7 @@ const migrations: Record<string, Knex.Migration> = {
   "004_responses_and_sync": m004,
   "005_photos": m005,
   "006_review_and_records": m006,
+  "007_sync_hardening": m007,
   "009_job_shaft_system_and_voltage": m009,
 };
 

@@ -52,7 +52,8 @@ describe("the sync rules on MariaDB", () => {
     const once = op(checklist, "strainer", check("pass"), 0);
     const first = await push(tech, [once]);
     const again = await push(tech, [once]);
-    expect(again.results).toEqual(first.results);
+    // The first answer again, marked as a repeat: its revision describes the server back then.
+    expect(again.results).toEqual(first.results.map((r) => ({ ...r, repeat: true })));
     expect(await history("strainer")).toHaveLength(1);
     // An applied operation's record is its history row: exactly one.
     expect((await history("strainer")).map((h: any) => h.op_id)).toEqual([once.opId]);
@@ -209,9 +210,8 @@ describe("POST /api/sync", () => {
     });
     expect(response.status).toBe(400);
     const body = await response.json();
-    expect(body.fields.map((f: any) => f.path)).toEqual(
-      expect.arrayContaining(["ops[1].opId", "ops[1].baseRev"]),
-    );
+    // The envelope needs a UUID per operation; the rest of an operation is read on its own.
+    expect(body.fields.map((f: any) => f.path)).toEqual(["ops[1].opId"]);
     expect(await knex("response_history").where({ op_id: good.opId })).toHaveLength(0);
     expect((await post("{not json")).status).toBe(400);
   });

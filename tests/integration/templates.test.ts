@@ -64,7 +64,7 @@ describe("the template library in MariaDB", () => {
     await knex("job_checklists").insert({
       id,
       job_id: job.id,
-      template_version_id: v1.id,
+      template_version_id: v1!.id,
       template_key: "exhaust",
       started_by: lead.id,
     });

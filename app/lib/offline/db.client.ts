@@ -1,6 +1,7 @@
 import type { DBSchema, IDBPDatabase } from "idb";
 import type { ChecklistState } from "../checklist-sets.ts";
 import type { ConflictRecord, OfflineBundle, ReviewComment } from "../sync/bundle.ts";
+import type { RefusalCode } from "../sync/protocol.ts";
 import type { Template } from "../templates/index.ts";
 import { reopeningDatabase } from "./reopening-db.client.ts";
 
@@ -35,6 +36,8 @@ export interface Rejection {
   itemKey: string;
   value: unknown;
   reason: string;
+  /** The server's machine-readable refusal code (see REFUSAL_CODES in the sync protocol). */
+  code?: RefusalCode;
   at: string;
 }
 

@@ -1,7 +1,7 @@
 import { localDb } from "./db.client.ts";
 import { getMeta } from "./store.client.ts";
 import { uploadPendingPhotos } from "./photos.client.ts";
-import { syncOnce } from "./sync.client.ts";
+import { syncOnce, type SyncResult } from "./sync.client.ts";
 
 export interface SyncStatus {
   online: boolean;
@@ -11,6 +11,8 @@ export interface SyncStatus {
   lastSyncAt: string | null;
   syncing: boolean;
   problem: string | null;
+  /** During a long push: entries sent so far of those waiting when it began. */
+  progress: { sent: number; total: number } | null;
 }
 
 let status: SyncStatus = {
@@ -21,6 +23,7 @@ let status: SyncStatus = {
   lastSyncAt: null,
   syncing: false,
   problem: null,
+  progress: null,
 };
 const listeners = new Set<() => void>();
 
@@ -63,21 +66,22 @@ export function onSynced(listener: () => void) {
 export async function requestSync() {
   clearTimeout(timer);
   const run = async () => {
-    publish({ syncing: true });
-    const result = await syncOnce().catch((error) => ({
-      ok: false as const,
-      reason: "server" as const,
-      message: String(error),
+    publish({ syncing: true, progress: null });
+    const result = await syncOnce(fetch, "", (progress) => publish({ progress })).catch((): SyncResult => ({
+      ok: false,
+      reason: "server",
+      message: "Sync stopped on this tablet; your entries are kept and it will try again.",
     }));
     // Photos go after the entries that reference them.
     if (result.ok) await uploadPendingPhotos().catch(() => undefined);
-    publish({ syncing: false, problem: result.ok ? null : result.message });
+    publish({ syncing: false, progress: null, problem: result.ok ? null : result.message });
     if (result.ok) {
       failures = 0;
       for (const l of afterSync) l();
     } else failures++;
     await refreshStatus();
-    const delay = result.ok ? 30_000 : Math.min(60_000, 2000 * 2 ** Math.min(failures, 5));
+    const backoff = Math.min(60_000, 2000 * 2 ** Math.min(failures, 5));
+    const delay = result.ok ? 30_000 : Math.max(backoff, Math.min(result.retryAfterMs ?? 0, 300_000));
     timer = setTimeout(requestSync, delay);
   };
   if (navigator.locks)

@@ -1,6 +1,6 @@
 import type { OfflineBundle } from "../sync/bundle.ts";
 import { SUBMIT_KEY, submitValue } from "../sync/submission.ts";
-import type { Change, OpResult } from "../sync/protocol.ts";
+import { unstorableJson, type Change, type ChecklistStateChange, type OpResult } from "../sync/protocol.ts";
 import { localDb, type LocalResponse, type OutboxEntry } from "./db.client.ts";
 
 /**
@@ -120,6 +120,9 @@ export async function recordEntry(
   by: string,
   resolves?: number[],
 ): Promise<OutboxEntry> {
+  // Refused here, at the field, rather than queued for a server that cannot store it.
+  const problem = unstorableJson(value);
+  if (problem) throw new LocalStoreError(`This entry ${problem}; correct it and save again.`);
   const id = await deviceId();
   const db = await localDb();
   const tx = db.transaction(["checklists", "responses", "outbox", "meta", "conflicts"], "readwrite");
@@ -130,6 +133,11 @@ export async function recordEntry(
   }
   const responses = tx.objectStore("responses");
   const current = await responses.get([checklistId, itemKey]);
+  // Any entry made on an item after its conflict was shown decides that conflict.
+  const decided = (await tx.objectStore("conflicts").index("byChecklist").getAll(checklistId))
+    .filter((c) => c.itemKey === itemKey)
+    .map((c) => c.id);
+  resolves = [...new Set([...(resolves ?? []), ...decided])];
   const seq = (((await tx.objectStore("meta").get("seq")) as number | undefined) ?? 0) + 1;
   const at = new Date().toISOString();
   const entry: OutboxEntry = {
@@ -164,9 +172,14 @@ export async function recordEntry(
 export async function queueSubmission(checklistId: string): Promise<OutboxEntry> {
   const id = await deviceId();
   const db = await localDb();
-  const tx = db.transaction(["checklists", "outbox", "meta"], "readwrite");
+  const tx = db.transaction(["checklists", "outbox", "meta", "conflicts"], "readwrite");
   const checklist = await tx.objectStore("checklists").get(checklistId);
   if (!checklist) throw new LocalStoreError("This checklist is not on this tablet.");
+  const undecided = await tx.objectStore("conflicts").index("byChecklist").count(checklistId);
+  if (undecided)
+    throw new LocalStoreError(
+      `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided (see To decide).`,
+    );
   if (checklist.state !== "in-progress" && checklist.state !== "returned")
     throw new LocalStoreError("This checklist has already been submitted.");
   const seq = (((await tx.objectStore("meta").get("seq")) as number | undefined) ?? 0) + 1;
@@ -195,7 +208,7 @@ export async function outboxInOrder(): Promise<OutboxEntry[]> {
 /** Takes in a sync answer: confirmed entries leave the outbox, conflicts and refusals are kept for the person. */
 export async function applySyncAnswer(
   sent: OutboxEntry[],
-  answer: { results: OpResult[]; changes: Change[]; cursor: string },
+  answer: { results: OpResult[]; changes: Change[]; checklists?: ChecklistStateChange[]; cursor?: string },
   me: string,
 ) {
   const db = await localDb();
@@ -206,6 +219,16 @@ export async function applySyncAnswer(
   const outbox = tx.objectStore("outbox");
   const responses = tx.objectStore("responses");
   const byId = new Map(sent.map((op) => [op.opId, op]));
+  const keepRejection = (op: OutboxEntry, result: OpResult) =>
+    tx.objectStore("rejections").put({
+      opId: op.opId,
+      checklistId: op.checklistId,
+      itemKey: op.itemKey,
+      value: op.value,
+      reason: result.reason ?? "Refused.",
+      ...(result.code ? { code: result.code } : {}),
+      at: op.at,
+    });
   for (const result of answer.results) {
     const op = byId.get(result.opId);
     if (!op) continue;
@@ -215,14 +238,7 @@ export async function applySyncAnswer(
         // Refused (say, an item left): the checklist is open again here, and the reason is shown.
         const checklist = await tx.objectStore("checklists").get(op.checklistId);
         if (checklist) await tx.objectStore("checklists").put({ ...checklist, state: "in-progress" });
-        await tx.objectStore("rejections").put({
-          opId: op.opId,
-          checklistId: op.checklistId,
-          itemKey: op.itemKey,
-          value: op.value,
-          reason: result.reason ?? "Refused.",
-          at: op.at,
-        });
+        await keepRejection(op, result);
       }
       continue;
     }
@@ -230,25 +246,29 @@ export async function applySyncAnswer(
       (o) => o.checklistId === op.checklistId && o.itemKey === op.itemKey,
     );
     const local = await responses.get([op.checklistId, op.itemKey]);
+    const base = local ?? { checklistId: op.checklistId, itemKey: op.itemKey, by: me, at: op.at };
+    // A repeated answer describes the server as it was at its first decision: when this tablet
+    // already knows a newer revision, the answer only confirms the entry left the outbox.
+    const stale = result.rev !== undefined && local !== undefined && result.rev < local.rev;
     if (result.status === "applied") {
       // Later entries on this item were made on top of this one: they follow its new revision.
       for (const next of later)
-        if (next.baseRev === op.baseRev) await outbox.put({ ...next, baseRev: result.rev! });
+        if (next.baseRev === op.baseRev && !stale) await outbox.put({ ...next, baseRev: result.rev! });
       await responses.put({
-        ...(local ?? { checklistId: op.checklistId, itemKey: op.itemKey, by: me, at: op.at }),
-        value: later.length ? local?.value : op.value,
-        serverValue: op.value,
-        rev: result.rev!,
+        ...base,
+        value: later.length ? local?.value : stale ? local?.serverValue : op.value,
+        serverValue: stale ? local?.serverValue : op.value,
+        rev: stale ? local!.rev : result.rev!,
         pending: later.length > 0,
       } as LocalResponse);
     } else {
-      const serverValue = result.status === "conflict" ? result.serverValue : local?.serverValue;
-      const rev = result.status === "conflict" ? result.rev! : (local?.rev ?? 0);
+      const fresh = result.status === "conflict" && !stale;
+      const serverValue = fresh ? result.serverValue : local?.serverValue;
       await responses.put({
-        ...(local ?? { checklistId: op.checklistId, itemKey: op.itemKey, by: me, at: op.at }),
+        ...base,
         value: later.length ? local?.value : serverValue,
         serverValue,
-        rev,
+        rev: fresh ? result.rev! : (local?.rev ?? 0),
         pending: later.length > 0,
       } as LocalResponse);
       if (result.status === "conflict" && result.conflictId) {
@@ -257,21 +277,15 @@ export async function applySyncAnswer(
           checklistId: op.checklistId,
           itemKey: op.itemKey,
           serverValue: result.serverValue,
-          serverRev: rev,
+          serverRev: result.rev!,
           clientValue: op.value,
+          ...(result.serverBy ? { serverBy: result.serverBy, serverAt: result.serverAt } : {}),
           by: me,
           at: new Date().toISOString(),
           deviceId: op.deviceId,
         });
       } else if (result.status === "rejected") {
-        await tx.objectStore("rejections").put({
-          opId: op.opId,
-          checklistId: op.checklistId,
-          itemKey: op.itemKey,
-          value: op.value,
-          reason: result.reason ?? "Refused.",
-          at: op.at,
-        });
+        await keepRejection(op, result);
       }
     }
   }
@@ -294,9 +308,33 @@ export async function applySyncAnswer(
       });
     }
   }
-  await tx.objectStore("meta").put(answer.cursor, "cursor");
-  await tx.objectStore("meta").put(new Date().toISOString(), "lastSyncAt");
+  // Another tablet's submission, or the lead's return: unless this tablet's own submission still waits.
+  const submitting = new Set(
+    (await outbox.getAll()).filter((o) => o.itemKey === SUBMIT_KEY).map((o) => o.checklistId),
+  );
+  for (const change of answer.checklists ?? []) {
+    const checklist = await tx.objectStore("checklists").get(change.id);
+    if (checklist && !submitting.has(change.id))
+      await tx.objectStore("checklists").put({ ...checklist, state: change.state });
+  }
+  if (answer.cursor !== undefined) {
+    await tx.objectStore("meta").put(answer.cursor, "cursor");
+    await tx.objectStore("meta").put(new Date().toISOString(), "lastSyncAt");
+  }
   await tx.done;
+}
+
+/**
+ * An entry the server refuses as a whole request (not as one operation of a batch): it leaves
+ * the outbox as a refusal the technician sees, exactly as a refused operation does.
+ */
+export async function refuseLocally(op: OutboxEntry, reason: string) {
+  const me = (await getMeta<{ name: string }>("user"))?.name ?? "me";
+  await applySyncAnswer(
+    [op],
+    { results: [{ opId: op.opId, status: "rejected", code: "invalid-operation", reason }], changes: [] },
+    me,
+  );
 }
 
 export async function dismissRejection(opId: string) {

@@ -1,6 +1,7 @@
 import type { OfflineBundle } from "../sync/bundle.ts";
 import { PAGES_CACHE } from "./pages.ts";
 import { saveBundle } from "./store.client.ts";
+import { syncOnce } from "./sync.client.ts";
 
 /** The pages a technician needs with no connection, besides each checklist's own page. */
 const STATIC_PAGES = ["/", "/sync", "/calculators"];
@@ -19,6 +20,7 @@ export async function takeOffline(
     );
   const bundle = (await response.json()) as OfflineBundle;
   await saveBundle(bundle);
+  if (bundle.more) await syncOnce(); // the rest of the responses, page by page
   await navigator.storage?.persist?.().catch(() => false);
   const pages = [...STATIC_PAGES, ...calculatorPages, ...bundle.checklists.map((c) => `/checklists/${c.id}`)];
   if ("caches" in window) {

@@ -28,6 +28,8 @@ export interface OfflineBundle {
   responses: { checklistId: string; itemKey: string; value: unknown; rev: number; by: string; at: string }[];
   conflicts: ConflictRecord[];
   cursor: string;
+  /** Only the first page of responses came: the tablet pulls the rest from the cursor. */
+  more?: true;
 }
 
 /** A lead's remark on an item, shown to the technician at the item. */
@@ -46,6 +48,9 @@ export interface ConflictRecord {
   serverValue: unknown;
   serverRev: number;
   clientValue: unknown;
+  /** Who set the server's value, and when (absent when the item had none). */
+  serverBy?: string;
+  serverAt?: string;
   by: string;
   at: string;
   deviceId: string;

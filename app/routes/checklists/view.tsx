@@ -1,5 +1,5 @@
 import { useEffect, useState } from "react";
-import { Link, useFetcher, useRevalidator } from "react-router";
+import { Link, useFetcher, useLocation, useRevalidator } from "react-router";
 import type { Route } from "./+types/view";
 import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { FillItem } from "~/components/checklist/fill-item";
@@ -168,7 +168,18 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
   const { checklist, template, responses, job, me } = loaderData;
   const fetcher = useFetcher<typeof clientAction>();
   const revalidator = useRevalidator();
-  const [sectionIndex, setSectionIndex] = useState(0);
+  // "#item-<key>" (as "Enter a new value" links) opens the checklist at that item's section.
+  const { hash } = useLocation();
+  const target = hash.startsWith("#item-") ? decodeURIComponent(hash.slice("#item-".length)) : null;
+  const [sectionIndex, setSectionIndex] = useState(() =>
+    Math.max(
+      0,
+      template.sections.findIndex((s) => s.items.some((i) => i.key === target)),
+    ),
+  );
+  useEffect(() => {
+    if (target) document.getElementById(`item-${target}`)?.scrollIntoView({ block: "center" });
+  }, [target]);
   const values = Object.fromEntries(Object.entries(responses).map(([k, r]) => [k, r.value]));
   const state = progress(template, values);
   const locked = checklist.state === "submitted" || checklist.state === "countersigned";
