@@ -5,6 +5,7 @@ import * as m003 from "./003_checklist_templates.ts";
 import * as m004 from "./004_responses_and_sync.ts";
 import * as m005 from "./005_photos.ts";
 import * as m006 from "./006_review_and_records.ts";
+import * as m008 from "./008_utf8mb4_everywhere.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
 const migrations: Record<string, Knex.Migration> = {
@@ -14,6 +15,7 @@ const migrations: Record<string, Knex.Migration> = {
   "004_responses_and_sync": m004,
   "005_photos": m005,
   "006_review_and_records": m006,
+  "008_utf8mb4_everywhere": m008,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {
