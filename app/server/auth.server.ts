@@ -6,6 +6,7 @@ import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { loginSchema } from "~/lib/validation/people";
 import { checkPassword, findUserByEmail, findUserById, PASSWORD_COST, type User } from "./users.server.ts";
+import { noteUser } from "./request-log.server.ts";
 import { getSession, sessionStorage } from "./session.server.ts";
 import {
   accountSlowdownMs,
@@ -106,7 +107,9 @@ export async function currentUser(request: Request): Promise<User | null> {
   const id = session.get("userId");
   if (!id) return null;
   const user = await findUserById(id);
-  return user?.active ? user : null;
+  if (!user?.active) return null;
+  noteUser(request, user.id);
+  return user;
 }
 
 /** Pages: send anonymous visitors to the sign-in page and back afterwards. */
