@@ -99,7 +99,8 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   ["/no-such-page", { anonymous: 404, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
   // The integration setup runs a local mail sink, so its development page exists, for managers only.
   ["/dev/mail", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
-  ["/calculators", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
+  ["/calculators", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  ["/calculators/propSlip", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/library", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/audit", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
   ["/sync", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
