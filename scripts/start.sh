@@ -14,6 +14,8 @@ start_s3_fake
 session_secret
 export NODE_ENV=production PORT="${PORT:-3000}"
 if [ -n "$LAN" ]; then start_https_proxy; fi
+# This is the local demo with its own mail sink: show the caught mail to signed-in managers.
+export DEV_MAIL_PAGE="${DEV_MAIL_PAGE:-on}"
 export APP_URL="${APP_URL:-http://localhost:$PORT}"
 node_modules/.bin/tsx scripts/db.ts create migrate seed
 log "building the app"
@@ -39,7 +41,8 @@ cat <<MSG
   Demo sign-ins (password for all: $demo_password):
 $demo_people
 
-  Mail sent by the app (the local SMTP sink): $APP_URL/dev/mail — for a signed-in manager only.
+  Mail sent by the app (the local SMTP sink): $APP_URL/dev/mail — signed-in managers only
+  (DEV_MAIL_PAGE=off hides it).
   Services started: MariaDB on 127.0.0.1:$MARIADB_PORT, the SMTP sink on 127.0.0.1:$SMTP_PORT,
   the S3 stand-in on 127.0.0.1:${S3_PORT:-4569}${LAN:+, Caddy (HTTPS) on $LAN_HOST:$HTTPS_PORT}.
   Stop everything with: npm stop

@@ -1,12 +1,17 @@
 import { data } from "react-router";
 import type { Route } from "./+types/dev-mail";
 import { listSunkMail } from "~/server/mail-sink.server";
+import { requireCapability } from "~/server/permissions.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Mail caught locally · Sternpost" }];
 
-/** Only exists while the local SMTP sink is configured (development, demo, tests). */
-export async function loader() {
+/**
+ * Only exists while the local SMTP sink is on (development, demo, tests), and only for a signed-in
+ * manager: the messages hold invitation links, and reading one must not hand out an account.
+ */
+export async function loader({ request }: Route.LoaderArgs) {
   const messages = await listSunkMail();
+  if (messages) await requireCapability(request, "users:manage");
   if (!messages) throw data({ message: "No local mail sink is configured on this server." }, { status: 404 });
   return { messages };
 }

@@ -4,6 +4,7 @@ import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/invitation";
 import { Field, FormErrors } from "~/components/field";
 import { newPasswordSchema } from "~/lib/validation/people";
+import { strongPasswordSchema } from "~/server/password-strength.server";
 import { acceptInvitation, lookUpInvitation, type InvitationState } from "~/server/users.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Set your password · Sternpost" }];
@@ -21,12 +22,17 @@ export async function loader({ params }: Route.LoaderArgs) {
   return { refusal: null, name: invitation.user.name, email: invitation.user.email };
 }
 
+// A refused form never carries the typed password back to the page.
+const hideFields = ["password", "confirm"];
+
 export async function action({ request, params }: Route.ActionArgs) {
-  const submission = parseWithZod(await request.formData(), { schema: newPasswordSchema });
-  if (submission.status !== "success") return data(submission.reply(), { status: 400 });
+  const invitation = await lookUpInvitation(params.token);
+  const knownAbout = invitation.state === "valid" ? [invitation.user.email, invitation.user.name] : [];
+  const submission = parseWithZod(await request.formData(), { schema: strongPasswordSchema(knownAbout) });
+  if (submission.status !== "success") return data(submission.reply({ hideFields }), { status: 400 });
   const outcome = await acceptInvitation(params.token, submission.value.password);
   if (outcome.state !== "valid")
-    return data(submission.reply({ formErrors: [refusals[outcome.state]] }), { status: 400 });
+    return data(submission.reply({ formErrors: [refusals[outcome.state]], hideFields }), { status: 400 });
   return redirect("/login?welcome=1");
 }
 
@@ -56,7 +62,7 @@ export default function Invitation({ loaderData, actionData }: Route.ComponentPr
           <Field
             id={fields.password.id}
             label="New password"
-            hint="At least 10 characters."
+            hint="At least 10 characters and hard to guess: three or four unrelated words work well."
             errors={fields.password.errors}
           >
             <input

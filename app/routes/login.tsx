@@ -1,14 +1,13 @@
+import { getFormProps, getInputProps, useForm } from "@conform-to/react";
+import { getZodConstraint, parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, redirect, useNavigation } from "react-router";
 import type { Route } from "./+types/login";
 import { Field, FormErrors } from "~/components/field";
+import { safeRedirect } from "~/lib/safe-redirect";
+import { loginSchema } from "~/lib/validation/people";
 import { currentUser, LoginError, signIn } from "~/server/auth.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Sign in · Sternpost" }];
-
-/** Only same-site paths, so a crafted link cannot bounce a signed-in person elsewhere. */
-function safeRedirect(to: unknown) {
-  return typeof to === "string" && to.startsWith("/") && !to.startsWith("//") ? to : "/";
-}
 
 export async function loader({ request }: Route.LoaderArgs) {
   if (await currentUser(request)) throw redirect("/");
@@ -16,20 +15,25 @@ export async function loader({ request }: Route.LoaderArgs) {
 }
 
 export async function action({ request, context }: Route.ActionArgs) {
-  const form = await request.clone().formData();
   try {
+    // The FormStrategy reads a copy of the form, so the body is still readable here for redirectTo.
     const cookie = await signIn(request, context.clientAddress ?? "unknown");
+    const form = await request.formData();
     return redirect(safeRedirect(form.get("redirectTo")), { headers: { "Set-Cookie": cookie } });
   } catch (error) {
-    if (error instanceof LoginError) {
-      return data({ error: error.message, email: String(form.get("email") ?? "") }, { status: 400 });
-    }
+    if (error instanceof LoginError) return data(error.reply, { status: error.status });
     throw error;
   }
 }
 
 export default function Login({ loaderData, actionData }: Route.ComponentProps) {
   const busy = useNavigation().state !== "idle";
+  const [form, fields] = useForm({
+    lastResult: actionData,
+    constraint: getZodConstraint(loginSchema),
+    onValidate: ({ formData }) => parseWithZod(formData, { schema: loginSchema }),
+    shouldValidate: "onSubmit",
+  });
   return (
     <main className="mx-auto flex min-h-dvh max-w-md flex-col justify-center gap-6 p-6">
       <div className="flex items-center gap-3">
@@ -39,28 +43,21 @@ export default function Login({ loaderData, actionData }: Route.ComponentProps) 
           <p className="text-ink-soft">Engine installation records for the yard</p>
         </div>
       </div>
-      <Form method="post" className="card flex flex-col gap-4">
+      <Form method="post" {...getFormProps(form)} className="card flex flex-col gap-4">
         <h2 className="text-xl font-bold">Sign in</h2>
-        <FormErrors errors={actionData?.error ? [actionData.error] : null} />
+        <FormErrors errors={form.errors} />
         <input type="hidden" name="redirectTo" value={loaderData.redirectTo} />
-        <Field id="email" label="E-mail address">
+        <Field id={fields.email.id} label="E-mail address" errors={fields.email.errors}>
           <input
-            id="email"
-            name="email"
-            type="email"
+            {...getInputProps(fields.email, { type: "email" })}
             autoComplete="username"
-            required
             className="field-input"
-            defaultValue={actionData?.email}
           />
         </Field>
-        <Field id="password" label="Password">
+        <Field id={fields.password.id} label="Password" errors={fields.password.errors}>
           <input
-            id="password"
-            name="password"
-            type="password"
+            {...getInputProps(fields.password, { type: "password" })}
             autoComplete="current-password"
-            required
             className="field-input"
           />
         </Field>

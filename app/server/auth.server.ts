@@ -1,62 +1,100 @@
+import { parseWithZod } from "@conform-to/zod/v4";
+import type { SubmissionResult } from "@conform-to/react";
+import bcrypt from "bcryptjs";
 import { redirect } from "react-router";
 import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { loginSchema } from "~/lib/validation/people";
-import { checkPassword, findUserByEmail, findUserById, type User } from "./users.server.ts";
+import { checkPassword, findUserByEmail, findUserById, PASSWORD_COST, type User } from "./users.server.ts";
+import { noteUser } from "./request-log.server.ts";
 import { getSession, sessionStorage } from "./session.server.ts";
-import { clearFailedLogins, loginBlockedFor, recordFailedLogin } from "./rate-limit.server.ts";
+import {
+  accountSlowdownMs,
+  clearFailedLogins,
+  loginBlockedFor,
+  recordFailedLogin,
+} from "./rate-limit.server.ts";
 
-/** A sign-in refusal worded for the person at the door. */
+/** A sign-in refusal: the form's reply (never holding the password) and its HTTP status. */
 export class LoginError extends Error {
   constructor(
-    message: string,
-    public countsAsFailure = true,
+    public reply: SubmissionResult<string[]>,
+    public status = 400,
   ) {
-    super(message);
+    super(reply.error?.[""]?.[0] ?? "Sign-in refused");
   }
 }
+
+// The address the request came from, as the server saw it, handed to the strategy in a header that
+// signIn always overwrites (remix-auth passes the strategy a copy of the request, not the original).
+const ADDRESS_HEADER = "x-sternpost-sign-in-from";
+
+// Compared against when the account is unknown or has no password yet, so every attempt costs one
+// bcrypt comparison and the time taken does not tell which addresses have accounts.
+let dummyHash: Promise<string> | undefined;
+const unusableHash = () => (dummyHash ??= bcrypt.hash("no account has this password", PASSWORD_COST));
+
+const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
 
 const authenticator = new Authenticator<User>();
 
 authenticator.use(
-  new FormStrategy(async ({ form }) => {
-    const parsed = loginSchema.safeParse(Object.fromEntries(form));
-    if (!parsed.success) throw new LoginError("Enter your e-mail address and password.", false);
-    const found = await findUserByEmail(parsed.data.email);
-    // Same words for an unknown address and a wrong password: no account discovery.
-    if (!found?.passwordHash || !(await checkPassword(parsed.data.password, found.passwordHash))) {
-      throw new LoginError("That e-mail address and password do not match.");
+  new FormStrategy(async ({ form, request }) => {
+    const submission = parseWithZod(form, { schema: loginSchema });
+    const refuse = (message?: string) =>
+      new LoginError(
+        submission.reply({ formErrors: message ? [message] : undefined, hideFields: ["password"] }),
+      );
+    if (submission.status !== "success") throw refuse();
+    const { email, password } = submission.value;
+    const address = request.headers.get(ADDRESS_HEADER) ?? "unknown";
+
+    const minutes = await loginBlockedFor(email, address);
+    if (minutes > 0) {
+      throw refuse(
+        `Too many failed sign-ins from here. Try again in ${minutes} minute${minutes === 1 ? "" : "s"}.`,
+      );
     }
-    if (!found.active)
-      throw new LoginError("This account has been deactivated. Ask your shop manager.", false);
+    await sleep(await accountSlowdownMs(email));
+
+    const found = await findUserByEmail(email);
+    const matches = await checkPassword(password, found?.passwordHash ?? (await unusableHash()));
+    // Same words for an unknown address and a wrong password: no account discovery.
+    if (!found?.passwordHash || !matches) {
+      await recordFailedLogin(email, address);
+      throw refuse("That e-mail address and password do not match.");
+    }
+    if (!found.active) throw refuse("This account has been deactivated. Ask your shop manager.");
+    await clearFailedLogins(email, address);
     const { passwordHash: _, ...user } = found;
     return user;
   }),
   "password",
 );
 
-/** Signs in from the login form; returns the Set-Cookie header or throws LoginError. */
+/**
+ * Signs in from the login form and returns the Set-Cookie header of a brand-new session (the one
+ * the request carried, if any, is destroyed: no session fixation). Throws LoginError.
+ */
 export async function signIn(request: Request, clientAddress: string) {
-  const email = String((await request.clone().formData()).get("email") ?? "").trim();
-  const minutes = await loginBlockedFor(email, clientAddress);
-  if (minutes > 0) {
-    throw new LoginError(
-      `Too many failed sign-ins. This account is locked for ${minutes} more minute${minutes === 1 ? "" : "s"}.`,
-      false,
-    );
-  }
+  const headers = new Headers(request.headers);
+  headers.set(ADDRESS_HEADER, clientAddress);
   let user: User;
   try {
-    user = await authenticator.authenticate("password", request);
+    user = await authenticator.authenticate("password", new Request(request.clone(), { headers }));
   } catch (error) {
-    if (error instanceof LoginError && error.countsAsFailure) await recordFailedLogin(email, clientAddress);
+    // A body that is not a form at all (JSON, garbage): a refusal, not a server error.
+    if (error instanceof TypeError) throw new LoginError({ status: "error", error: { "": [BAD_FORM] } }, 415);
     throw error;
   }
-  await clearFailedLogins(email);
-  const session = await getSession(request);
+  const previous = await getSession(request);
+  if (previous.id) await sessionStorage().destroySession(previous);
+  const session = await sessionStorage().getSession();
   session.set("userId", user.id);
   return sessionStorage().commitSession(session);
 }
+
+const BAD_FORM = "The sign-in form did not arrive as a form. Reload the page and try again.";
 
 export async function signOut(request: Request) {
   const session = await getSession(request);
@@ -69,7 +107,9 @@ export async function currentUser(request: Request): Promise<User | null> {
   const id = session.get("userId");
   if (!id) return null;
   const user = await findUserById(id);
-  return user?.active ? user : null;
+  if (!user?.active) return null;
+  noteUser(request, user.id);
+  return user;
 }
 
 /** Pages: send anonymous visitors to the sign-in page and back afterwards. */

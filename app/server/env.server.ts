@@ -11,8 +11,10 @@ const schema = z.object({
   MAIL_FROM: z.string().default("Sternpost <no-reply@sternpost.invalid>"),
   /** The boatyard's name, printed on its commissioning records. */
   YARD_NAME: z.string().min(1).default("Kittiwake Slip"),
-  /** Folder where the local SMTP sink keeps messages; when set, /dev/mail shows them. */
+  /** Folder where the local SMTP sink keeps messages; when set, /dev/mail shows them to managers. */
   MAIL_SINK_DIR: z.string().optional(),
+  /** A production server shows /dev/mail only when asked explicitly (npm start's local demo does). */
+  DEV_MAIL_PAGE: z.enum(["on", "off"]).default("off"),
   /** Login attempts allowed per account and per address in 15 minutes. */
   LOGIN_ATTEMPTS: z.coerce.number().int().positive().default(8),
   /** The S3-compatible store for photos; the defaults are the local stand-in (scripts/s3-fake.ts). */

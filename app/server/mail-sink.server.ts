@@ -11,9 +11,15 @@ export interface SunkMessage {
   text: string;
 }
 
-/** Messages caught by the local SMTP sink (scripts/mail-sink.ts), newest first. */
+/** The sink's folder when its page is on: never in production unless DEV_MAIL_PAGE=on says so. */
+function pageDirectory() {
+  const { MAIL_SINK_DIR, NODE_ENV, DEV_MAIL_PAGE } = env();
+  return NODE_ENV === "production" && DEV_MAIL_PAGE !== "on" ? undefined : MAIL_SINK_DIR;
+}
+
+/** Messages caught by the local SMTP sink (scripts/mail-sink.ts), newest first; null when off. */
 export async function listSunkMail(): Promise<SunkMessage[] | null> {
-  const dir = env().MAIL_SINK_DIR;
+  const dir = pageDirectory();
   if (!dir) return null;
   const names = (await readdir(dir).catch(() => [])).filter((n) => n.endsWith(".json"));
   const messages = await Promise.all(

@@ -43,8 +43,13 @@ export async function listUsersByRole(role: Role): Promise<User[]> {
   return (await db()("users").where({ role, active: true }).orderBy("name")).map(toUser);
 }
 
-export const hashPassword = (password: string) => bcrypt.hash(password, 10);
-export const checkPassword = (password: string, hash: string) => bcrypt.compare(password, hash);
+export const PASSWORD_COST = 10;
+export const hashPassword = (password: string) => bcrypt.hash(password, PASSWORD_COST);
+/** bcrypt reads only 72 bytes; a longer password never matches (none longer can be set). */
+export const checkPassword = async (password: string, hash: string) => {
+  const matches = await bcrypt.compare(password, hash);
+  return matches && Buffer.byteLength(password, "utf8") <= 72;
+};
 
 const hashToken = (token: string) => createHash("sha256").update(token).digest("hex");
 

@@ -6,6 +6,7 @@ import * as m004 from "./004_responses_and_sync.ts";
 import * as m005 from "./005_photos.ts";
 import * as m006 from "./006_review_and_records.ts";
 import * as m007 from "./007_sync_hardening.ts";
+import * as m008 from "./008_utf8mb4_everywhere.ts";
 import * as m009 from "./009_job_shaft_system_and_voltage.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
@@ -17,6 +18,7 @@ const migrations: Record<string, Knex.Migration> = {
   "005_photos": m005,
   "006_review_and_records": m006,
   "007_sync_hardening": m007,
+  "008_utf8mb4_everywhere": m008,
   "009_job_shaft_system_and_voltage": m009,
 };
 

@@ -1,4 +1,7 @@
+import type { RouteConfigEntry } from "@react-router/dev/routes";
+import { matchRoutes, type RouteObject } from "react-router";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import routes from "~/routes";
 import type { Role } from "~/lib/roles";
 import { appHandler, signInCookie } from "../support/app.ts";
 import { testDb } from "../support/db.ts";
@@ -97,9 +100,10 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   ],
   ["/healthz", { anonymous: 200, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
   ["/no-such-page", { anonymous: 404, technician: 404, lead: 404, manager: 404, surveyor: 404 }],
-  // The integration setup runs a local mail sink, so its development page exists (for everyone: invitees read it).
-  ["/dev/mail", { anonymous: 200, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
-  ["/calculators", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
+  // The integration setup runs a local mail sink, so its development page exists, for managers only.
+  ["/dev/mail", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/calculators", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  ["/calculators/propSlip", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/library", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/audit", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
   ["/sync", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
@@ -125,9 +129,68 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   ],
   ["/api/offline", { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/api/sync", { anonymous: 405, technician: 405, lead: 405, manager: 405, surveyor: 405 }],
+  // The routes the matrix used to miss (issue 14, section 5).
+  ["/logout", { anonymous: 302, technician: 302, lead: 302, manager: 302, surveyor: 302 }],
+  ["/invitation/not-a-token", { anonymous: 200, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
+  [
+    "/records/00000000-0000-4000-8000-000000000000/pdf",
+    { anonymous: 302, technician: 404, lead: 404, manager: 404, surveyor: 404 },
+  ],
+  [
+    "/api/photos/00000000-0000-4000-8000-000000000001",
+    { anonymous: 401, technician: 404, lead: 404, manager: 404, surveyor: 404 },
+  ],
+  [
+    "/api/templates/cooling/1/export",
+    { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 },
+  ],
+  ["/library/import", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/library/cooling/compare", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  ["/library/cooling/1", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  // A published version is not edited in place: the manager is sent to its draft.
+  ["/library/cooling/1/edit", { anonymous: 302, technician: 403, lead: 403, manager: 302, surveyor: 403 }],
 ];
 
+const posts: [string | (() => string), Record<Who, number>][] = [
+  ["/people", { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
+  ["/jobs/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
+  ["/vessels/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
+  [
+    () => `/jobs/${otherJob}/edit`,
+    { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 },
+  ],
+  [() => `/jobs/${ownJob}`, { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
+  [() => `/jobs/${otherJob}`, { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
+  [
+    () => `/checklists/${ownChecklist}/review`,
+    { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 },
+  ],
+];
+
+/** The route module a URL reaches, matched against app/routes.ts as React Router matches it. */
+function routeFileOf(url: string): string | undefined {
+  const toObjects = (entries: RouteConfigEntry[]): RouteObject[] =>
+    entries.map((e) =>
+      e.index
+        ? { id: e.file, index: true, path: e.path }
+        : { id: e.file, path: e.path, children: e.children ? toObjects(e.children) : undefined },
+    );
+  return matchRoutes(toObjects(routes), new URL(url, "http://localhost").pathname)?.at(-1)?.route.id;
+}
+
+/** Every route module of app/routes.ts that answers a URL itself (layouts only wrap others). */
+function leafRouteFiles(entries: RouteConfigEntry[]): string[] {
+  return entries.flatMap((e) => (e.children?.length ? leafRouteFiles(e.children) : [e.file]));
+}
+
 describe("role matrix: every page and API route for every role", () => {
+  it("has a row for every route of app/routes.ts", () => {
+    const urls = [...matrix, ...posts].map(([path]) => (typeof path === "string" ? path : path()));
+    const covered = new Set(urls.map(routeFileOf));
+    const missing = leafRouteFiles(routes).filter((file) => !covered.has(file));
+    expect(missing, "routes with no row in the role matrix").toEqual([]);
+  });
+
   for (const [path, expected] of matrix) {
     for (const who of everyone) {
       it(`${typeof path === "string" ? path : path.toString().replace(/^\(\) => /, "")} as ${who} → ${expected[who]}`, async () => {
@@ -135,26 +198,11 @@ describe("role matrix: every page and API route for every role", () => {
         const response = await app(url, { cookie: cookies[who] });
         expect(response.status).toBe(expected[who]);
         if (expected[who] === 302 && who === "anonymous")
-          expect(response.headers.get("Location")).toMatch(/^\/login/);
+          expect(response.headers.get("Location")).toMatch(/^\/(login|$)/);
       });
     }
   }
 
-  const posts: [string | (() => string), Record<Who, number>][] = [
-    ["/people", { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
-    ["/jobs/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
-    ["/vessels/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
-    [
-      () => `/jobs/${otherJob}/edit`,
-      { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 },
-    ],
-    [() => `/jobs/${ownJob}`, { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
-    [() => `/jobs/${otherJob}`, { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
-    [
-      () => `/checklists/${ownChecklist}/review`,
-      { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 },
-    ],
-  ];
   for (const [path, expected] of posts) {
     for (const who of everyone) {
       it(`POST ${typeof path === "string" ? path : path.toString().replace(/^\(\) => /, "")} with an empty form as ${who} → ${expected[who]}`, async () => {

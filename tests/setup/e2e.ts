@@ -50,6 +50,7 @@ export default async function setup() {
     SMTP_URL: `smtp://127.0.0.1:${SMTP_PORT}`,
     SMTP_PORT: String(SMTP_PORT),
     MAIL_SINK_DIR: mailDir,
+    DEV_MAIL_PAGE: "on",
     S3_ENDPOINT: s3.endpoint,
     S3_BUCKET: "sternpost-photos",
     S3_ACCESS_KEY_ID: "S3RVER",

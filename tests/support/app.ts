@@ -12,11 +12,12 @@ export async function appHandler() {
     throw new Error("No production build: run `npx react-router build` first (npm test does).");
   const build = (await import(pathToFileURL(buildFile).href)) as ServerBuild;
   const handle = createRequestHandler(build, "production");
-  return (url: string, init: RequestInit & { cookie?: string } = {}) => {
-    const headers = new Headers(init.headers);
-    if (init.cookie) headers.set("Cookie", init.cookie);
-    return handle(new Request(`http://localhost${url}`, { ...init, headers, redirect: "manual" }), {
-      clientAddress: "127.0.0.1",
+  return (url: string, init: RequestInit & { cookie?: string; clientAddress?: string } = {}) => {
+    const { cookie, clientAddress = "127.0.0.1", ...rest } = init;
+    const headers = new Headers(rest.headers);
+    if (cookie) headers.set("Cookie", cookie);
+    return handle(new Request(`http://localhost${url}`, { ...rest, headers, redirect: "manual" }), {
+      clientAddress,
     });
   };
 }

@@ -19,9 +19,17 @@ export const inviteSchema = z.object({
   role: z.enum(roles, { error: "Choose a role." }),
 });
 
+/** bcrypt reads only the first 72 bytes of a password: anything longer is refused, not cut. */
+export const PASSWORD_MAX_BYTES = 72;
+
 export const newPasswordSchema = z
   .object({
-    password: z.string({ error: "Choose a password." }).min(10, "Use at least 10 characters.").max(200),
+    password: z
+      .string({ error: "Choose a password." })
+      .min(10, "Use at least 10 characters.")
+      .refine((p) => new TextEncoder().encode(p).length <= PASSWORD_MAX_BYTES, {
+        message: `This password is too long: keep it under ${PASSWORD_MAX_BYTES} bytes (about 70 letters, fewer with accents or emoji).`,
+      }),
     confirm: z.string({ error: "Type the password again." }),
   })
   .refine((v) => v.password === v.confirm, { path: ["confirm"], message: "The two passwords differ." });

@@ -1,12 +1,28 @@
 import { Link } from "react-router";
 import type { Route } from "./+types/calculator";
+import { requireCapability } from "~/server/permissions.server";
 import { PageHeader } from "~/components/app-shell";
 import { Calculator } from "~/components/calculators/calculator";
 import { calculations } from "~/lib/calc";
 
 const definitionOf = (name: string) => (Object.hasOwn(calculations, name) ? calculations[name] : undefined);
 
-// No loader or action: the calculation runs in the browser and must work with no connection.
+/** The calculators are part of the yard's work: a surveyor has no use for them (403). */
+export async function loader({ request }: Route.LoaderArgs) {
+  await requireCapability(request, "calculators:use");
+  return null;
+}
+
+/** With no connection the check was made when the page was first loaded; the arithmetic runs here. */
+export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
+  try {
+    return await serverLoader();
+  } catch (error) {
+    if (error instanceof Response) throw error;
+    return null;
+  }
+}
+
 export const meta: Route.MetaFunction = ({ params }) => [
   { title: `${definitionOf(params.name)?.title ?? "No such calculator"} · Sternpost` },
 ];

@@ -1,10 +1,26 @@
 import type { Route } from "./+types/index";
+import { requireCapability } from "~/server/permissions.server";
 import { PageHeader } from "~/components/app-shell";
 import { CalculatorList } from "~/components/calculators/calculator-list";
 import { calculations } from "~/lib/calc";
 
-// No loader: the calculators compute in the browser and must work with no connection.
 export const meta: Route.MetaFunction = () => [{ title: "Calculators · Sternpost" }];
+
+/** The calculators are part of the yard's work: a surveyor has no use for them (403). */
+export async function loader({ request }: Route.LoaderArgs) {
+  await requireCapability(request, "calculators:use");
+  return null;
+}
+
+/** With no connection the check was made when the page was first loaded; the arithmetic runs here. */
+export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
+  try {
+    return await serverLoader();
+  } catch (error) {
+    if (error instanceof Response) throw error;
+    return null;
+  }
+}
 
 export default function Calculators() {
   return (

@@ -1,0 +1,122 @@
+import { randomBytes, randomUUID } from "node:crypto";
+import type { IncomingMessage, ServerResponse } from "node:http";
+import compression from "compression";
+import express, { type NextFunction, type Request, type Response } from "express";
+import helmet from "helmet";
+import { pinoHttp } from "pino-http";
+import type { ServerBuild } from "react-router";
+import { databaseIsUp } from "../database-health.server.ts";
+import { env } from "../env.server.ts";
+import { logger } from "../logger.server.ts";
+import { sendRefusal, sendUnavailable } from "./answers.server.ts";
+import { reactRouterHandler } from "./bridge.server.ts";
+import { refusal } from "./guards.server.ts";
+
+/** A path fit for a log line: no query string (it may carry anything) and no invitation token. */
+export const loggedPath = (url: string) =>
+  url.split("?")[0]!.replace(/^\/invitation\/[^/]+/, "/invitation/:token");
+
+const requestLogger = pinoHttp({
+  logger,
+  genReqId: () => randomUUID(),
+  // One line per request: id, method, route, status, time and user id; nothing from the body,
+  // no cookie, no query string.
+  serializers: {
+    req: (req: { id: string; method: string; url: string }) => ({
+      id: req.id,
+      method: req.method,
+      route: loggedPath(req.url),
+    }),
+    res: (res: { statusCode: number }) => ({ status: res.statusCode }),
+    // pino-http makes up an error for every 5xx; the real ones are logged with their stack where
+    // they happen (entry.server.tsx), so the made-up one is left out.
+    err: () => undefined,
+  },
+  customProps: (_req: IncomingMessage, res: ServerResponse) => {
+    const userId = (res as Response).locals?.userId;
+    return userId ? { userId } : {};
+  },
+  customLogLevel: (_req, res, error) => (error || res.statusCode >= 500 ? "error" : "info"),
+  customSuccessMessage: () => "request",
+  customErrorMessage: () => "request",
+});
+
+const https = () => env().APP_URL.startsWith("https:");
+
+/** Content-Security-Policy: this origin only, scripts and styles inline only with the request's nonce. */
+const securityHeaders = () =>
+  helmet({
+    contentSecurityPolicy: {
+      useDefaults: false,
+      directives: {
+        defaultSrc: ["'self'"],
+        scriptSrc: ["'self'", (_req, res) => `'nonce-${(res as Response).locals.cspNonce}'`],
+        styleSrc: ["'self'", (_req, res) => `'nonce-${(res as Response).locals.cspNonce}'`],
+        imgSrc: ["'self'", "data:", "blob:"],
+        fontSrc: ["'self'"],
+        connectSrc: ["'self'"],
+        workerSrc: ["'self'"],
+        manifestSrc: ["'self'"],
+        objectSrc: ["'none'"],
+        baseUri: ["'self'"],
+        formAction: ["'self'"],
+        frameAncestors: ["'none'"],
+        upgradeInsecureRequests: https() ? [] : null,
+      },
+    },
+    strictTransportSecurity: https() ? { maxAge: 31_536_000, includeSubDomains: true } : false,
+    referrerPolicy: { policy: "same-origin" },
+    xFrameOptions: { action: "deny" },
+    // Photos and fonts are this origin's own; nothing is embedded from elsewhere.
+    crossOriginEmbedderPolicy: false,
+  });
+
+/**
+ * The production HTTP server around React Router (server.js starts it): request logs, security
+ * headers, static files, the checks every state-changing request passes, and 503 while the
+ * database is down. It keeps no state, so any number can run side by side.
+ */
+export function createHttpApp(build: ServerBuild) {
+  const app = express();
+  app.disable("x-powered-by");
+  if (process.env.TRUST_PROXY) app.set("trust proxy", process.env.TRUST_PROXY);
+  app.use(requestLogger);
+  app.use((_req, res, next) => {
+    res.locals.cspNonce = randomBytes(16).toString("base64");
+    res.set("Permissions-Policy", "camera=(self), geolocation=()");
+    next();
+  });
+  app.use(securityHeaders());
+  app.use(compression());
+  app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
+  // The service worker and manifest must be revalidated so updates reach the tablets.
+  app.use(express.static("build/client", { maxAge: 0 }));
+
+  app.use((req, res, next) => {
+    const refused = refusal({
+      method: req.method,
+      pathname: req.path,
+      ownOrigin: `${req.protocol}://${req.get("host")}`,
+      header: (name) => req.get(name),
+    });
+    if (refused) return sendRefusal(req, res, refused);
+    next();
+  });
+  app.use(async (req, res, next) => {
+    if (await databaseIsUp()) return next();
+    sendUnavailable(req, res);
+  });
+  app.all(
+    "*splat",
+    reactRouterHandler(build, (req, res) => ({
+      clientAddress: req.ip ?? req.socket.remoteAddress ?? "unknown",
+      cspNonce: String(res.locals.cspNonce),
+    })),
+  );
+  app.use((error: unknown, req: Request, res: Response, _next: NextFunction) => {
+    logger.error({ err: error, requestId: req.id }, "unhandled error");
+    if (!res.headersSent) res.status(500).type("text").send("Unexpected server error");
+    else res.end();
+  });
+  return app;
+}
