@@ -2,6 +2,7 @@ import { Outlet, redirect, type ShouldRevalidateFunctionArgs } from "react-route
 import type { Route } from "./+types/shell";
 import { AppShell } from "~/components/app-shell";
 import { requireUser } from "~/server/auth.server";
+import type { Role } from "~/lib/roles";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
@@ -18,7 +19,7 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
     const user = await getMeta<{
       id: number;
       name: string;
-      role: "technician" | "lead" | "manager" | "surveyor";
+      role: Role;
       email: string;
     }>("user");
     if (!user) throw redirect("/login");
