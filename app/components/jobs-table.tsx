@@ -9,6 +9,7 @@ import {
 } from "@tanstack/react-table";
 import { useMemo, useState } from "react";
 import { Link } from "react-router";
+import { TableBody } from "./table-body.tsx";
 import { jobScopeLabels, jobStatusLabels, jobStatuses } from "~/lib/validation/jobs";
 
 export interface JobRow {
@@ -135,17 +136,7 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
               </tr>
             ))}
           </thead>
-          <tbody>
-            {rows.map((row) => (
-              <tr key={row.id} className="border-b border-rule">
-                {row.getVisibleCells().map((cell) => (
-                  <td key={cell.id} className="px-2 py-1">
-                    {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                  </td>
-                ))}
-              </tr>
-            ))}
-          </tbody>
+          <TableBody rows={rows} rowClassName="border-b border-rule" />
         </table>
       </div>
       {rows.length === 0 && <p className="mt-4 text-ink-soft">No jobs match.</p>}

@@ -24,6 +24,7 @@ import {
 import { listAuditEntries, type AuditLogEntry } from "~/server/audit-log.server";
 import { requireCapability } from "~/server/permissions.server";
 import { listUsers } from "~/server/users.server";
+import { TableBody } from "~/components/table-body";
 
 export const meta: Route.MetaFunction = () => [{ title: "Audit log · Sternpost" }];
 
@@ -157,17 +158,7 @@ function AuditTable({ entries, zone }: { entries: AuditLogEntry[]; zone: string 
             </tr>
           ))}
         </thead>
-        <tbody>
-          {table.getRowModel().rows.map((row) => (
-            <tr key={row.id} className="border-b border-rule align-top">
-              {row.getVisibleCells().map((cell) => (
-                <td key={cell.id} className="px-2 py-1">
-                  {flexRender(cell.column.columnDef.cell, cell.getContext())}
-                </td>
-              ))}
-            </tr>
-          ))}
-        </tbody>
+        <TableBody rows={table.getRowModel().rows} rowClassName="border-b border-rule align-top" />
       </table>
     </div>
   );

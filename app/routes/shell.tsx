@@ -3,6 +3,7 @@ import type { Route } from "./+types/shell";
 import { AppShell } from "~/components/app-shell";
 import { ErrorMessage } from "~/components/error-page";
 import { requireUser } from "~/server/auth.server";
+import type { Role } from "~/lib/roles";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
@@ -19,7 +20,7 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
     const user = await getMeta<{
       id: number;
       name: string;
-      role: "technician" | "lead" | "manager" | "surveyor";
+      role: Role;
       email: string;
     }>("user");
     if (!user) throw redirect("/login");

@@ -9,6 +9,7 @@ import { env } from "~/server/env.server";
 import { listChecklistsOfJobs } from "~/server/checklists.server";
 import { listVisibleJobs } from "~/server/jobs.server";
 import { recordsIssuedTo } from "~/server/records.server";
+import type { Role } from "~/lib/roles";
 
 export const meta: Route.MetaFunction = () => [{ title: "Today · Sternpost" }];
 
@@ -54,9 +55,7 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
   } catch (error) {
     if (error instanceof Response) throw error;
     const store = await import("~/lib/offline/store.client");
-    const user = await store.getMeta<{ name: string; role: "technician" | "lead" | "manager" | "surveyor" }>(
-      "user",
-    );
+    const user = await store.getMeta<{ name: string; role: Role }>("user");
     const jobs: TodayJob[] = (await store.listLocalJobs()).map((j) => ({
       id: j.id,
       vesselName: j.vesselName,

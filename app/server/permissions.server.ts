@@ -2,6 +2,7 @@ import { data } from "react-router";
 import { can, type Capability } from "~/lib/permissions";
 import type { User } from "./users.server.ts";
 import { requireApiUser, requireUser } from "./auth.server.ts";
+import { problem } from "./problem.server.ts";
 
 /** Throws a 403 page unless the condition holds. */
 export function invariantForbidden(
@@ -24,6 +25,6 @@ export async function requireCapability(request: Request, capability: Capability
 
 export async function requireApiCapability(request: Request, capability: Capability): Promise<User> {
   const user = await requireApiUser(request);
-  if (!can(user, capability)) throw Response.json({ error: "Your role may not use this." }, { status: 403 });
+  if (!can(user, capability)) throw problem(403, "Your role may not use this.");
   return user;
 }

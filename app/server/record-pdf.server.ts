@@ -57,7 +57,7 @@ export interface RecordPdfOptions {
   photoBytes?: (id: string) => Promise<Buffer | undefined>;
 }
 
-/** The app's statement, on the cover and at the foot of every page (DESIGN.md section 8). */
+/** The app's statement of what governs, on the cover and at the foot of every page. */
 export const GOVERNING_STATEMENT =
   "Sternpost records and computes. The engine maker's installation instructions, the applicable standards and local regulations, and the judgement of a qualified person govern.";
 
@@ -97,25 +97,16 @@ const TNUM = { features: ["tnum" as const] };
 
 // ---- words ----------------------------------------------------------------------------------
 
-const MONTHS = [
-  "January",
-  "February",
-  "March",
-  "April",
-  "May",
-  "June",
-  "July",
-  "August",
-  "September",
-  "October",
-  "November",
-  "December",
-];
+const dayFormat = new Intl.DateTimeFormat("en-GB", {
+  day: "numeric",
+  month: "long",
+  year: "numeric",
+  timeZone: "UTC",
+});
 
 /** "12 May 2025": a date no reader can take for another. */
 function day(iso: string): string {
-  const [y, m, d] = iso.slice(0, 10).split("-").map(Number);
-  return `${d} ${MONTHS[m - 1]} ${y}`;
+  return dayFormat.format(new Date(`${iso.slice(0, 10)}T00:00:00Z`));
 }
 
 /** "12 May 2025, 09:14 UTC": every time in the record is in UTC, and says so. */

@@ -33,5 +33,3 @@ export function VerdictBadge({ verdict }: { verdict: Verdict }) {
     </div>
   );
 }
-
-export const verdictWord = (status: VerdictStatus) => `${looks[status].shape} ${looks[status].word}`;

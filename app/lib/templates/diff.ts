@@ -1,3 +1,4 @@
+import { sameJson } from "~/lib/sync/protocol";
 import type { Item, Section, Template } from "./schema";
 
 /**
@@ -219,7 +220,7 @@ function itemFieldChanges(before: Item, after: Item): FieldChange[] {
 }
 
 function changedFields(field: string, before: unknown, after: unknown): FieldChange[] {
-  return sameValue(before, after) ? [] : [{ field, before, after }];
+  return sameJson(before, after) ? [] : [{ field, before, after }];
 }
 
 /** Keys of the newer object first, in its order, then those only the older one has. */
@@ -229,21 +230,6 @@ function unionKeys(newer: Record<string, unknown>, older: Record<string, unknown
 
 function isPlainObject(value: unknown): value is Record<string, unknown> {
   return typeof value === "object" && value !== null && !Array.isArray(value);
-}
-
-/** Structural equality of JSON values; the order of an object's keys does not matter. */
-export function sameValue(a: unknown, b: unknown): boolean {
-  if (a === b) return true;
-  if (Array.isArray(a) || Array.isArray(b)) {
-    return (
-      Array.isArray(a) && Array.isArray(b) && a.length === b.length && a.every((x, i) => sameValue(x, b[i]))
-    );
-  }
-  if (isPlainObject(a) && isPlainObject(b)) {
-    const keys = unionKeys(a, b);
-    return keys.every((k) => sameValue(a[k], b[k]));
-  }
-  return false;
 }
 
 /**

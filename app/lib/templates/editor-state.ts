@@ -1,6 +1,6 @@
 import { dimensionOf, isUnit, units, type Unit } from "~/lib/calc/units";
+import { sameJson } from "~/lib/sync/protocol";
 import { calcBindingProblems, calcDefinition } from "./calc-inputs";
-import { sameValue } from "./diff";
 import { formatPath, parseTemplate, type TemplateParse, type TemplateProblem } from "./load";
 import type { CalcBinding, CalcItem, Item, ItemKind, Phase, Template } from "./schema";
 
@@ -372,7 +372,7 @@ export function checkDraft(state: EditorState): TemplateParse {
 /** True when the draft, read by the schema, is the template (ids, spacing and typing aside). */
 export function sameAsTemplate(state: EditorState, template: Template): boolean {
   const parsed = checkDraft(state);
-  return parsed.ok && sameValue(parsed.template, template);
+  return parsed.ok && sameJson(parsed.template, template);
 }
 
 // ---- problems at fields --------------------------------------------------------------------

@@ -4,6 +4,7 @@ import { requireApiUser } from "~/server/auth.server";
 import { env } from "~/server/env.server";
 import { Refusal } from "~/lib/refusal";
 import { readPhoto, storePhoto } from "~/server/photos.server";
+import { problem } from "~/server/problem.server";
 
 /**
  * PUT /api/photos/:photoId?checklistId=…&itemKey=… with the image bytes as the body: stores the
@@ -19,8 +20,6 @@ const placeSchema = z.object({
   itemKey: z.string().min(1, { error: "itemKey is missing" }).max(80, { error: "itemKey is too long" }),
 });
 const idSchema = z.uuid();
-
-const problem = (status: number, error: string) => Response.json({ error }, { status });
 
 /** The body, or null once it passes `max` bytes (reading stops there). */
 async function readBody(request: Request, max: number): Promise<Uint8Array | null> {

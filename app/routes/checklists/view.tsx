@@ -5,7 +5,7 @@ import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { FillItem } from "~/components/checklist/fill-item";
 import { checklistStateLabels } from "~/lib/checklist-sets";
 import { canFillJob } from "~/lib/permissions";
-import { findItem, progress, valueSchemaFor, type Template } from "~/lib/templates";
+import { findItem, progress, valueSchemaFor, type ItemValue, type Template } from "~/lib/templates";
 import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
 import { commentsOn, openConflicts } from "~/server/offline.server";
@@ -60,10 +60,11 @@ export async function clientLoader({ params, serverLoader }: Route.ClientLoaderA
 clientLoader.hydrate = true as const;
 
 export async function clientAction({ request, params }: Route.ClientActionArgs) {
-  const form = await request.formData();
-  const itemKey = String(form.get("itemKey") ?? "");
+  // Posted as JSON by this screen's fetcher: the entry arrives as the value it is, never re-parsed.
+  const body = (await request.json()) as { intent?: string; itemKey?: unknown; value?: unknown };
+  const itemKey = String(body.itemKey ?? "");
   const store = await import("~/lib/offline/store.client");
-  if (form.get("intent") === "submit") {
+  if (body.intent === "submit") {
     try {
       await store.queueSubmission(params.checklistId);
     } catch (error) {
@@ -84,13 +85,7 @@ export async function clientAction({ request, params }: Route.ClientActionArgs) 
     };
   const item = findItem(local.template, itemKey);
   if (!item) return { itemKey, error: "No such item on this checklist." };
-  let value: unknown;
-  try {
-    value = JSON.parse(String(form.get("value")));
-  } catch {
-    return { itemKey, error: "The entry could not be read." };
-  }
-  const parsed = valueSchemaFor(item).safeParse(value);
+  const parsed = valueSchemaFor(item).safeParse(body.value);
   if (!parsed.success) return { itemKey, error: `Not saved: ${parsed.error.issues[0]!.message}.` };
   const me = (await store.getMeta<{ name: string }>("user"))?.name ?? "";
   try {
@@ -194,7 +189,11 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
   }, [revalidator]);
 
   const save = (itemKey: string) => (value: unknown) =>
-    fetcher.submit({ itemKey, value: JSON.stringify(value) }, { method: "post" });
+    fetcher.submit(
+      // An entry's value is plain JSON (a template value); clientAction checks it with its item's schema.
+      { intent: "save", itemKey, value: value as ItemValue },
+      { method: "post", encType: "application/json" },
+    );
   const failed = fetcher.data?.error ? fetcher.data : null;
 
   return (
@@ -318,7 +317,9 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
             state={state}
             template={template}
             onJump={setSectionIndex}
-            onSubmit={() => fetcher.submit({ intent: "submit" }, { method: "post" })}
+            onSubmit={() =>
+              fetcher.submit({ intent: "submit" }, { method: "post", encType: "application/json" })
+            }
           />
         )}
         <div className="mt-6 flex justify-between gap-2">

@@ -1,3 +1,5 @@
+import { useForm } from "@conform-to/react";
+import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/version";
 import { Refusal } from "~/lib/refusal";
@@ -9,6 +11,7 @@ import { shortDate, VersionStatusBadge } from "~/components/library/version-stat
 import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
 import { can } from "~/lib/permissions";
 import { diffTemplates } from "~/lib/templates";
+import { versionActionSchema } from "~/lib/validation/library";
 import {
   createDraftFrom,
   discardDraft,
@@ -59,9 +62,10 @@ export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireCapability(request, "library:edit");
   const version = Number(params.version);
   const here = `/library/${params.key}/${version}`;
-  const intent = (await request.formData()).get("intent");
+  const submission = parseWithZod(await request.formData(), { schema: versionActionSchema });
+  if (submission.status !== "success") return data(submission.reply(), { status: 400 });
   try {
-    switch (intent) {
+    switch (submission.value.intent) {
       case "publish":
         await publishDraft(params.key, version, user.id);
         return redirect(here);
@@ -75,11 +79,10 @@ export async function action({ request, params }: Route.ActionArgs) {
         const draft = await createDraftFrom(params.key, version, user.id);
         return redirect(`/library/${draft.key}/${draft.version}/edit`);
       }
-      default:
-        return data({ errors: ["That request was not understood."] }, { status: 400 });
     }
   } catch (error) {
-    if (error instanceof Refusal) return data({ errors: [error.message] }, { status: error.status });
+    if (error instanceof Refusal)
+      return data(submission.reply({ formErrors: [error.message] }), { status: error.status });
     throw error;
   }
 }
@@ -95,6 +98,7 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
   const previous = others.find((o) => o.version < template.version);
   const onPrevious = newestPublished !== null ? others.find((o) => o.version === newestPublished) : undefined;
   const compareWith = others[0];
+  const [form, fields] = useForm({ id: "template-version", lastResult: actionData });
   return (
     <>
       <p className="mb-1">
@@ -137,7 +141,7 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
         </div>
       </div>
       <div className="mb-4">
-        <FormErrors errors={actionData?.errors} />
+        <FormErrors errors={[...(form.errors ?? []), ...(fields.intent.errors ?? [])]} />
       </div>
 
       <section className="card mb-6" aria-labelledby="uses-title">
