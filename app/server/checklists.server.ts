@@ -1,6 +1,6 @@
 import { randomUUID } from "node:crypto";
-import { defaultTemplatesFor, type ChecklistState } from "~/lib/checklist-sets";
-import type { Template } from "~/lib/templates";
+import type { ChecklistState } from "~/lib/checklist-sets";
+import { workOrderIndex, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
 import { latestPublished } from "./templates.server.ts";
@@ -19,12 +19,6 @@ export interface JobChecklistSummary {
   amendedBy: string | null;
 }
 
-/** The order the work is done in, whatever order the checklists were started in. */
-const workOrder = (key: string) => {
-  const i = defaultTemplatesFor.repower.indexOf(key);
-  return i === -1 ? defaultTemplatesFor.repower.length : i;
-};
-
 /** The checklists of several jobs at once (two queries, however many jobs), by job id. */
 export async function listChecklistsOfJobs(jobIds: number[]): Promise<Map<number, JobChecklistSummary[]>> {
   const byJob = new Map<number, JobChecklistSummary[]>(jobIds.map((id) => [id, []]));
@@ -37,7 +31,8 @@ export async function listChecklistsOfJobs(jobIds: number[]): Promise<Map<number
       .select("c.id", "c.job_id", "c.state", "c.amends_id", "t.template_key", "t.title", "t.version"),
     latestPublished(),
   ]);
-  rows.sort((a: any, b: any) => workOrder(a.template_key) - workOrder(b.template_key));
+  // The order the work is done in, whatever order the checklists were started in.
+  rows.sort((a: any, b: any) => workOrderIndex(a.template_key) - workOrderIndex(b.template_key));
   for (const r of rows) {
     const newest = latest.find((l) => l.key === r.template_key);
     byJob.get(r.job_id)!.push({

@@ -9,6 +9,7 @@ import { startChecklistsSchema } from "~/lib/validation/checklists";
 import { issueRecordSchema } from "~/lib/validation/records";
 import { jobScopeLabels, jobStatusLabels } from "~/lib/validation/jobs";
 import { ChecklistStartError, listJobChecklists, startChecklists } from "~/server/checklists.server";
+import { prefillFromJob } from "~/server/prefill.server";
 import { requireJob } from "~/server/job-access.server";
 import { recordReadiness, recordsOfJob, issueRecord } from "~/server/records.server";
 import { ReviewError, startAmendment } from "~/server/review.server";
@@ -78,7 +79,8 @@ export async function action({ request, params }: Route.ActionArgs) {
       { status: 400 },
     );
   try {
-    await startChecklists(job.id, submission.value.templates, user.id);
+    const started = await startChecklists(job.id, submission.value.templates, user.id);
+    await prefillFromJob(user, job, started);
   } catch (error) {
     if (error instanceof ChecklistStartError)
       return data({ errors: [error.message], recordError: null, issued: null }, { status: 400 });
