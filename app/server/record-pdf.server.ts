@@ -8,8 +8,9 @@ import { renderToStaticMarkup } from "react-dom/server";
 // @ts-expect-error TS7016
 import svgToPdfkit from "svg-to-pdfkit";
 import { diagramFor } from "~/components/diagrams/for-calc";
+import { presentValue } from "~/lib/calc/present";
 import type { CalcInput } from "~/lib/calc/registry";
-import { convert, isUnit, type Unit } from "~/lib/calc/units";
+import { convert, type Unit } from "~/lib/calc/units";
 import type { CommissioningRecord, RecordChecklist, RecordRevision } from "~/lib/record/types";
 import {
   calcDefinition,
@@ -1275,10 +1276,7 @@ function calcResult(
   const labels = keyLabels(checklist.template, item);
   const rows = Object.entries(outcome.values).map(([name, v]): Cell[] => {
     const unit = outcome.units[name];
-    const text =
-      typeof v === "number"
-        ? minus(unit ? formatNumberWithUnit(v, unit) : String(Number(v.toPrecision(6))))
-        : (labels.get(v) ?? v);
+    const text = typeof v === "number" ? minus(presentValue(name, v, unit).text) : (labels.get(v) ?? v);
     return [{ text: name }, { text, bold: true }];
   });
   // The description, the table's head and its first rows stay on one page.
@@ -1316,11 +1314,6 @@ function calcResult(
   const gathered = gatherCalcInputs(item, definition, checklist.template, ctx.responses);
   const svg = gathered.ready ? svgForCalc(item.calc, outcome.detail, gathered.inputs) : undefined;
   if (svg) placeSvg(w, svg, indent, Math.min(width, 360));
-}
-
-/** A number and its calc unit, which may be a unit Sternpost knows or a plain word ("turns"). */
-function formatNumberWithUnit(value: number, unit: string): string {
-  return isUnit(unit) ? formatQuantity(value, unit) : `${Number(value.toPrecision(6))} ${unit}`;
 }
 
 /** Labels for the row and column keys a calculation reports ("middle" → "Mid-length"). */

@@ -91,6 +91,32 @@ describe("the calculators on a tablet", () => {
     await context.close();
   });
 
+  it("the conductor check fails 40 A on 16 AWG in an engine space, and says which table it used", async () => {
+    // 33 CFR 183.425 Table 5: 16 AWG, 105 °C insulation, 25 A; × 0.85 inside an engine space = 21.25 A.
+    const { context, errors } = await tabletContext(browser);
+    const page = await context.newPage();
+    await signIn(page, "tech@kittiwake-slip.example");
+    await open(page, "/calculators/conductorCheck");
+    await page.getByRole("heading", { level: 1, name: "Conductor check" }).waitFor();
+    await page.getByLabel("Current", { exact: true }).fill("40");
+    await page.getByLabel("Round-trip conductor length", { exact: true }).fill("2");
+    await page.getByLabel("System voltage (12, 24...)", { exact: true }).fill("12");
+    await page.getByLabel("Allowed voltage drop (3 or 10 %)", { exact: true }).fill("10");
+    await page.getByLabel("Conductor fitted (AWG or mm²)", { exact: true }).fill("16");
+    await page.getByLabel("Insulation temperature rating (°C)", { exact: true }).fill("105");
+    await page.getByLabel("Runs inside an engine space (yes or no)", { exact: true }).fill("yes");
+    const result = page.getByTestId("calc-result");
+    await expect.poll(() => result.getAttribute("data-verdict")).toBe("fail");
+    const text = await result.innerText();
+    expect(text).toMatch(
+      /40 A is more than the conductor's allowable 21.25 A \(16 AWG, 105 °C insulation, inside an engine space\)/,
+    );
+    expect(text).toMatch(/105 °C column for 16 AWG inside an engine space \(× 0.85\)/);
+    expect(await page.locator('[data-result="allowable amperage"]').innerText()).toMatch(/^21.3 A/);
+    expectNoConsoleErrors(errors);
+    await context.close();
+  });
+
   it("converts a length when the unit is switched, and says when a calculator does not exist", async () => {
     const { context, errors } = await tabletContext(browser);
     const page = await context.newPage();

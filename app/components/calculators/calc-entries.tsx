@@ -32,11 +32,11 @@ export const carriedBy: Record<string, Record<string, string>> = {
 const RUNOUT_COLUMNS = ["0°", "90°", "180°", "270°"];
 const stationNames = (count: number) => Array.from({ length: count }, (_, i) => `Station ${i + 1}`);
 
-/** The editor an input gets from the kinds it accepts; grid-or-four-numbers is a clock of gaps or rim readings. */
+/** The editor an input gets from its spec: a clock of gaps or rim readings, text, a grid, a list or one number. */
 function shapeOf(spec: CalcInputSpec): Entry["shape"] {
+  if (spec.clock) return "clock";
   if (spec.accepts.includes("text")) return "text";
-  if (spec.accepts.includes("grid") && spec.accepts.includes("numbers")) return "clock";
-  if (spec.accepts.includes("grid")) return "grid";
+  if (spec.accepts.includes("grid") && !spec.accepts.includes("numbers")) return "grid";
   if (spec.accepts.includes("numbers")) return "list";
   return "number";
 }

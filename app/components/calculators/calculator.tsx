@@ -25,9 +25,20 @@ const conventions: Record<string, string> = {
   couplingRim:
     "Dial clamped to the shaft's half, plunger on the rim of the engine's half, both halves turned together. The offset is half the difference of opposite readings; the two side readings added should equal top and bottom added.",
   mountMoves:
-    "The engine moves, the shaft does not. Distances are measured forward from the coupling face to the front and rear mounts. Offset: how far the engine's coupling centre sits above the shaft's (negative: below) and to starboard (negative: to port), or give the rim readings instead. A gap larger at the top means the engine's nose is low. A positive raise lifts that pair of mounts, a positive move to starboard shifts it to starboard; nut turns are the move times the adjuster's threads per inch.",
+    "The engine moves, the shaft does not. Distances are measured forward from the coupling face to the front and rear mounts. Offset: how far the engine's coupling centre sits above the shaft's (negative: below) and to starboard (negative: to port), or give the rim readings instead. A gap larger at the top means the engine's nose is low. The result says each move in words (raise or lower, to port or to starboard) as the diagram's arrows show it; nut turns come from threads per inch or a metric pitch in mm. These are instructions: the face and rim checks give the verdict.",
+  couplingFit:
+    "Measure the shaft and the bore in several places and enter every reading: the largest shaft reading against the smallest bore reading decides the fit. Give the coupling maker's clearance limits for a verdict (negative = interference).",
+  conductorCheck:
+    "Round-trip length: from the source to the load and back. Conductor as printed on it (16, 1/0) or in mm² (2.5 mm²). Insulation rating in °C as printed on the cable (105 for most boat cable). Inside an engine space: yes or no.",
+  speedRuns:
+    "Run the same distance in opposite directions, one leg after the other, and enter each leg's time: the speed is the mean of the speeds over and back, which takes out the current.",
+  heeledHeight:
+    "Height of the point above the waterline with the boat upright, and its distance off the centreline towards the side that goes down.",
+  tachPulses: "Pulley diameters in the same unit; poles as given by the alternator maker (often 12 or 14).",
+  installationAngle:
+    "Engine angle at rest, front up positive (on the engine's level pad), and the hull's bow-up trim under way.",
   propSlip:
-    "Speed through the water: the average of two runs in opposite directions takes out the current (common practice).",
+    "Speed through the water: the mean of the speeds of two runs in opposite directions takes out the current (use Speed from timed runs).",
   seaTrialLoading:
     "Wide-open-throttle rpm with the boat at its normal load; the rated band is the engine maker's.",
   wireSize:

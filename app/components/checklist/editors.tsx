@@ -1,4 +1,5 @@
 import { useState } from "react";
+import { OutcomeValues } from "~/components/calculators/outcome-values";
 import type { Unit } from "~/lib/calc/units";
 import { useDirtyMark } from "~/lib/pwa/dirty";
 import {
@@ -468,16 +469,7 @@ export function CalcPanel({
     <div className="flex flex-col gap-3">
       {outcome ? (
         <>
-          <dl className="grid grid-cols-2 gap-2 md:grid-cols-3">
-            {Object.entries(outcome.values).map(([label, v]) => (
-              <div key={label}>
-                <dt className="text-sm text-ink-soft">{label}</dt>
-                <dd className="num text-lg font-bold">
-                  {typeof v === "number" ? `${Number(v.toPrecision(4))} ${outcome.units[label] ?? ""}` : v}
-                </dd>
-              </div>
-            ))}
-          </dl>
+          <OutcomeValues outcome={outcome} size="small" />
           <p className="text-sm">
             <strong>Rule: </strong>
             {outcome.rule}

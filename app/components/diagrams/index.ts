@@ -15,3 +15,5 @@ export type { SeaTrialDiagramProps, SeaTrialPoint } from "./sea-trial-diagram";
 export { diagramFor } from "./for-calc";
 export type { DiagramOptions } from "./for-calc";
 export { formatLength, type LengthUnit } from "./svg-kit";
+export { StraighteningFromReadings, straighteningFromReadings } from "./straightening-from-readings";
+export type { RunoutAttempt } from "./straightening-from-readings";

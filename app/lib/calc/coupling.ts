@@ -27,8 +27,9 @@ export function readGaps(field: string, gaps: ClockGapsIn | undefined, allowNega
  * The face gaps at each clock position: the 0° set, or the mean of the 0° and 180° sets when
  * both were read. Readings at the same place in space with the coupling turned half a turn:
  * the faces' own wobble adds to one and takes from the other, so the mean is the misalignment
- * alone (face-reading practice of millwright alignment, from memory: Piotrowski, Shaft
- * Alignment Handbook, on face runout).
+ * alone (Carrier 17/19EX Start-Up, Operation and Maintenance Instructions, coupling alignment,
+ * p. 212: readings repeated after half a turn, "add the two amounts and then divide by two to
+ * get the actual or net misalignment").
  */
 export function faceGaps(gapsIn: ClockGapsIn | undefined, gapsIn180?: ClockGapsIn): ClockGapsIn {
   const first = readGaps("gapsIn", gapsIn);
@@ -179,6 +180,7 @@ const gapsInput = {
   accepts: ["grid", "numbers"],
   unit: "in",
   field: "gapsIn",
+  clock: true,
 } as const satisfies CalcInputSpec;
 const gaps180Input = {
   label: "Face gaps with the shaft turned 180°",
@@ -186,6 +188,7 @@ const gaps180Input = {
   unit: "in",
   optional: true,
   field: "gapsIn180",
+  clock: true,
 } as const satisfies CalcInputSpec;
 /** Shared with the mount moves, which start from the same face readings. */
 export const faceReadingInputs = { diameter: diameterInput, gaps: gapsInput, gaps180: gaps180Input };
@@ -265,6 +268,7 @@ export const couplingRimCalc = defineCalc({
       accepts: ["grid", "numbers"],
       unit: "in",
       field: "readingsIn",
+      clock: true,
     },
     maxOffset: {
       label: "Largest centre offset",

@@ -33,6 +33,8 @@ export interface CalcInputSpec {
    * an error the calculation raises about that argument is reported against this input.
    */
   field?: string | string[];
+  /** Four readings at top, bottom, port and starboard (seen from aft): a screen shows a clock. */
+  clock?: boolean;
 }
 
 export type UnitSystem = "inch" | "metric";

