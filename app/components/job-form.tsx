@@ -150,8 +150,8 @@ export function JobForm({
             ))}
           </select>
         </Field>
-        {numeric("shaftDiameterIn", "Shaft diameter, inch shaft", "in")}
-        {numeric("shaftDiameterMm", "Shaft diameter, metric shaft", "mm")}
+        {numeric("shaftDiameterIn", "Shaft diameter", "in", "For an inch shaft.")}
+        {numeric("shaftDiameterMm", "Metric shaft diameter", "mm", "For a metric shaft, instead of inches.")}
         {text("shaftMaterial", "Shaft material")}
         {text("couplingType", "Coupling type")}
         <Field id={fields.systemVolts.id} label="DC system voltage" errors={fields.systemVolts.errors}>

@@ -1,7 +1,7 @@
 import { randomUUID } from "node:crypto";
-import { defaultTemplatesFor, type ChecklistState } from "~/lib/checklist-sets";
+import type { ChecklistState } from "~/lib/checklist-sets";
 import { Refusal } from "~/lib/refusal";
-import type { Template } from "~/lib/templates";
+import { workOrderIndex, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
@@ -26,12 +26,6 @@ export interface JobChecklistSummary {
 type ChecklistListRow = Pick<JobChecklistRow, "id" | "job_id" | "state" | "amends_id"> &
   Pick<TemplateVersionRow, "template_key" | "title" | "version">;
 
-/** The order the work is done in, whatever order the checklists were started in. */
-const workOrder = (key: string) => {
-  const i = defaultTemplatesFor.repower.indexOf(key);
-  return i === -1 ? defaultTemplatesFor.repower.length : i;
-};
-
 /** The checklists of several jobs at once (two queries, however many jobs), by job id. */
 export async function listChecklistsOfJobs(jobIds: number[]): Promise<Map<number, JobChecklistSummary[]>> {
   const byJob = new Map<number, JobChecklistSummary[]>(jobIds.map((id) => [id, []]));
@@ -46,7 +40,8 @@ export async function listChecklistsOfJobs(jobIds: number[]): Promise<Map<number
       latestPublished(),
     ],
   );
-  rows.sort((a, b) => workOrder(a.template_key) - workOrder(b.template_key));
+  // The order the work is done in, whatever order the checklists were started in.
+  rows.sort((a, b) => workOrderIndex(a.template_key) - workOrderIndex(b.template_key));
   for (const r of rows) {
     const newest = latest.find((l) => l.key === r.template_key);
     byJob.get(r.job_id)!.push({

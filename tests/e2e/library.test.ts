@@ -12,11 +12,11 @@ beforeAll(async () => {
   knex = connect(process.env.E2E_DATABASE_URL!);
 });
 afterAll(async () => {
-  // Other files expect the starter library: whatever this test published is retired again.
+  // Other files expect the starter library (versions 1 and 2): whatever this test published is retired again.
   await knex?.("template_versions").where({ template_key: "engine-alignment", status: "draft" }).delete();
   await knex?.("template_versions")
     .where({ template_key: "engine-alignment", status: "published" })
-    .where("version", ">", 1)
+    .where("version", ">", 2)
     .update({ status: "retired", retired_at: new Date() });
   await knex?.destroy();
   await browser?.close();
@@ -33,28 +33,28 @@ async function jobChecklists(page: Page, jobId: number) {
 }
 
 describe("keeping the template library current", () => {
-  it("a manager makes version 2 of engine alignment with a toleranced measurement, reviews the difference and publishes it", async () => {
+  it("a manager makes version 3 of engine alignment with a toleranced measurement, reviews the difference and publishes it", async () => {
     const { context, errors } = await tabletContext(browser);
     const page = await context.newPage();
     await signIn(page, "manager@kittiwake-slip.example");
 
     await open(page, "/library");
     const alignment = page.locator('[data-template="engine-alignment"]');
-    await alignment.getByRole("button", { name: "New draft from version 1" }).click();
-    await page.waitForURL(/\/library\/engine-alignment\/2\/edit$/);
+    await alignment.getByRole("button", { name: "New draft from version 2" }).click();
+    await page.waitForURL(/\/library\/engine-alignment\/3\/edit$/);
     await hydrated(page);
 
     // A measurement at the end of the final alignment; the cursor lands in its label.
     const final = page.locator('[data-section-key="final-alignment"]');
     await final.getByLabel("Kind of new item").selectOption("measure");
     await final.getByRole("button", { name: "+ Add item" }).click();
-    await page.keyboard.type("Coupling bolt torque");
-    const item = final.locator('[data-item-key="coupling-bolt-torque"]');
+    await page.keyboard.type("Mount stud torque");
+    const item = final.locator('[data-item-key="mount-stud-torque"]');
     await item.getByLabel("Unit", { exact: true }).selectOption("lbfFt");
     await item
       .getByLabel("How (hint)")
-      .fill("Torque the coupling bolts in a cross pattern, in two stages, to the coupling maker's figure.");
-    await item.getByLabel("Reference").fill("Coupling maker's installation instructions");
+      .fill("Torque the mount stud lock nuts in two stages to the mount maker's figure.");
+    await item.getByLabel("Reference").fill("Mount maker's installation instructions");
 
     // Limits the wrong way round are refused at the field, and nothing is saved.
     await item.getByLabel("Judge the reading against limits").check();
@@ -66,12 +66,10 @@ describe("keeping the template library current", () => {
     await page.getByRole("button", { name: "Save draft" }).click();
     expect(await page.getByTestId("save-status").innerText()).toMatch(/1 problem to fix/);
     const stored = (await knex("template_versions")
-      .where({ template_key: "engine-alignment", version: 2 })
+      .where({ template_key: "engine-alignment", version: 3 })
       .first())!;
     expect(
-      JSON.parse(stored.body).sections[2].items.some(
-        (i: { key: string }) => i.key === "coupling-bolt-torque",
-      ),
+      JSON.parse(stored.body).sections[2].items.some((i: { key: string }) => i.key === "mount-stud-torque"),
     ).toBe(false);
 
     // 40 ± 2 lbf·ft instead.
@@ -82,12 +80,12 @@ describe("keeping the template library current", () => {
     await expect.poll(() => item.innerText()).toMatch(/Technicians will read: Accept: 40 ± 2 lbf·ft/);
 
     // Reordered by keyboard, then by dragging its handle onto the adjuster's threads per inch.
-    await item.getByRole("button", { name: "Move “Coupling bolt torque” up" }).click();
+    await item.getByRole("button", { name: "Move “Mount stud torque” up" }).click();
     expect((await itemKeys(page, "final-alignment")).slice(-2)).toEqual([
-      "coupling-bolt-torque",
+      "mount-stud-torque",
       "shaft-free-after",
     ]);
-    await item.getByRole("button", { name: /Coupling bolt torque/, expanded: true }).click();
+    await item.getByRole("button", { name: /Mount stud torque/, expanded: true }).click();
     const handle = item.getByRole("button", { name: /drag/ });
     const target = final.locator('[data-item-key="adjuster-tpi"]');
     await target.scrollIntoViewIfNeeded();
@@ -97,81 +95,86 @@ describe("keeping the template library current", () => {
     await page.mouse.down();
     await page.mouse.move(to.x + to.width / 2, to.y + 6, { steps: 8 });
     await page.mouse.up();
-    expect((await itemKeys(page, "final-alignment")).slice(-5)).toEqual([
-      "rear-mount-distance",
-      "coupling-bolt-torque",
+    expect((await itemKeys(page, "final-alignment")).slice(-7)).toEqual([
+      "adjuster-thread-kind",
+      "mount-stud-torque",
       "adjuster-tpi",
+      "adjuster-pitch",
       "mount-moves",
+      "flexible-coupling-tolerance",
       "shaft-free-after",
     ]);
 
     await page.getByRole("button", { name: "Save and review" }).click();
-    await page.waitForURL(/\/library\/engine-alignment\/2$/);
+    await page.waitForURL(/\/library\/engine-alignment\/3$/);
     await hydrated(page);
 
-    // The difference against version 1, item by item.
+    // The difference against version 2, item by item.
     const review = page.getByRole("region", { name: "Before you publish" });
     expect(await review.getByTestId("diff-summary").innerText()).toMatch(
-      /Version 1 → version 2: 1 added · 0 removed · 0 moved · 0 changed/,
+      /Version 2 → version 3: 1 added · 0 removed · 0 moved · 0 changed/,
     );
-    const added = review.locator('[data-change="added"][data-item="coupling-bolt-torque"]');
+    const added = review.locator('[data-change="added"][data-item="mount-stud-torque"]');
     expect(await added.innerText()).toMatch(
-      /Added[\s\S]*Coupling bolt torque[\s\S]*In Final alignment afloat, place 10[\s\S]*Accept: 40 ± 2 lbf·ft/,
+      /Added[\s\S]*Mount stud torque[\s\S]*In Final alignment afloat, place 16[\s\S]*Accept: 40 ± 2 lbf·ft/,
     );
 
-    await review.getByRole("button", { name: "Publish version 2…" }).click();
-    expect(await review.innerText()).toMatch(/The \d+ jobs? on version 1 keeps? version 1\./);
-    await review.getByRole("button", { name: "Publish version 2", exact: true }).click();
+    await review.getByRole("button", { name: "Publish version 3…" }).click();
+    // Jobs on version 2 are named only where there are some (the demo's jobs are on version 1).
+    expect(await review.innerText()).toMatch(
+      /Version 3 will never change again, and new jobs will start from it\.( The \d+ jobs? on version 2 keeps? version 2\.)?/,
+    );
+    await review.getByRole("button", { name: "Publish version 3", exact: true }).click();
     await expect
       .poll(() => page.locator('[data-status="published"]').first().innerText())
       .toMatch(/new jobs start here/);
     await expect(
       knex("template_versions")
-        .where({ template_key: "engine-alignment", version: 2 })
+        .where({ template_key: "engine-alignment", version: 3 })
         .update({ title: "Edited" }),
     ).rejects.toThrow(/cannot be changed/);
 
-    // A new job gets version 2; Tern of Helvick keeps version 1.
+    // A new job gets version 3; Tern of Helvick keeps version 1.
     const lead = (await knex("users").where({ email: "lead@kittiwake-slip.example" }).first())!;
     const job = await makeJob(knex, lead.id);
     await open(page, `/jobs/${job.id}`);
     await page.getByRole("button", { name: "Start the ticked checklists" }).click();
     await expect
       .poll(() => page.getByTestId("job-checklists").innerText())
-      .toMatch(/Engine alignment\s*Version 2/);
+      .toMatch(/Engine alignment\s*Version 3/);
     const checklist = await knex("job_checklists as c")
       .join("template_versions as t", "t.id", "c.template_version_id")
       .where({ "c.job_id": job.id, "c.template_key": "engine-alignment" })
       .first("t.version");
-    expect(checklist.version).toBe(2);
+    expect(checklist.version).toBe(3);
 
     const tern = await knex("jobs")
       .join("vessels", "vessels.id", "jobs.vessel_id")
       .where("vessels.name", "Tern of Helvick")
       .first("jobs.id");
     expect(await jobChecklists(page, tern.id)).toMatch(
-      /Engine alignment\s*Version 1\s*Version 2 published since/,
+      /Engine alignment\s*Version 1\s*Version 3 published since/,
     );
 
     await open(page, "/library");
     expect(await alignment.getByTestId("newest-published").innerText()).toBe(
-      "New jobs start from version 2.",
+      "New jobs start from version 3.",
     );
     expect(await alignment.locator('tr[data-version="1"]').innerText()).toMatch(
       /Published · superseded[\s\S]*\d+ jobs?[\s\S]*Tern of Helvick/,
     );
 
-    // Retiring version 2 sends new jobs back to version 1 (and leaves the demo library as it was).
-    await open(page, "/library/engine-alignment/2");
-    await page.getByRole("button", { name: "Retire version 2…" }).click();
-    expect(await page.getByRole("group", { name: "Retire version 2…" }).innerText()).toMatch(
-      /New jobs will start from version 1 again/,
+    // Retiring version 3 sends new jobs back to version 2 (and leaves the demo library as it was).
+    await open(page, "/library/engine-alignment/3");
+    await page.getByRole("button", { name: "Retire version 3…" }).click();
+    expect(await page.getByRole("group", { name: "Retire version 3…" }).innerText()).toMatch(
+      /New jobs will start from version 2 again/,
     );
-    await page.getByRole("button", { name: "Retire version 2", exact: true }).click();
+    await page.getByRole("button", { name: "Retire version 3", exact: true }).click();
     await expect.poll(() => page.locator('[data-status="retired"]').count()).toBe(1);
     await open(page, "/library");
     expect(await alignment.getByTestId("newest-published").innerText()).toBe(
-      "New jobs start from version 1.",
+      "New jobs start from version 2.",
     );
 
     expectNoConsoleErrors(errors);

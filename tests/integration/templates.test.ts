@@ -5,6 +5,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { randomUUID } from "node:crypto";
 import { loadTemplateFile } from "~/lib/templates";
 import { findChecklist, listJobChecklists, startChecklists } from "~/server/checklists.server";
+import { findJob } from "~/server/jobs.server";
+import { prefillFromJob } from "~/server/prefill.server";
 import { LIBRARY_DIR, seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
 import { makeJob, makeUser } from "../support/fixtures.ts";
@@ -205,5 +207,38 @@ describe("a job's checklists", () => {
     await expect(startChecklists(job.id, ["no-such-template"], lead.id)).rejects.toThrow(
       /No published template/,
     );
+  });
+});
+
+describe("items filled from the job's equipment", () => {
+  it("are written when the checklists start, in the shaft's own system, and attributed to the job", async () => {
+    const lead = await makeUser(knex, "lead");
+    const made = await makeJob(knex, lead.id);
+    await knex("jobs")
+      .where({ id: made.id })
+      .update({ shaft_system: "metric", shaft_diameter_mm: 35, shaft_diameter_in: 1.378, system_volts: 24 });
+    const job = (await findJob(made.id))!;
+    const ids = await startChecklists(made.id, ["propeller-shaft-and-coupling", "sea-trial"], lead.id);
+    // Shaft: system, diameter, propeller diameter and pitch; sea trial: rpm band, pitch, gear ratio.
+    expect(await prefillFromJob(lead, job, ids)).toBe(8);
+
+    const stored = async (checklistId: string, itemKey: string) => {
+      const row = await knex("checklist_responses")
+        .where({ checklist_id: checklistId, item_key: itemKey })
+        .first();
+      return row && (typeof row.value === "string" ? JSON.parse(row.value) : row.value);
+    };
+    const [shaft, trial] = ids;
+    expect(await stored(shaft!, "shaft-system")).toEqual({ option: "metric" });
+    expect(await stored(shaft!, "shaft-diameter")).toMatchObject({
+      attempts: [{ value: 35, unit: "mm", by: "job-equipment" }],
+    });
+    expect(await stored(shaft!, "propeller-pitch")).toMatchObject({ attempts: [{ value: 18, unit: "in" }] });
+    expect(await stored(trial!, "rated-rpm-low")).toMatchObject({ attempts: [{ value: 2600, unit: "rpm" }] });
+    expect(await stored(trial!, "gear-ratio")).toMatchObject({ attempts: [{ value: 2, unit: "1" }] });
+    const history = await knex("response_history")
+      .whereIn("checklist_id", ids)
+      .select("device_id", "user_id");
+    expect(history.every((h: any) => h.device_id === "job-equipment" && h.user_id === lead.id)).toBe(true);
   });
 });

@@ -9,7 +9,7 @@ const looks: Record<VerdictStatus, { shape: string; word: string; className: str
   "out-of-range": { shape: "▲", word: "Outside limit", className: "border-fault bg-fault-light text-fault" },
   "needs-note": { shape: "✎", word: "Needs a note", className: "border-brass bg-brass-light text-ink" },
   noted: { shape: "–", word: "Not applicable, reason given", className: "border-rule text-ink-soft" },
-  // Still a finding: never the green tick of "Good".
+  // A finding with its corrective action written down is still a finding: never a green tick.
   "action-noted": {
     shape: "⚑",
     word: "Finding, action noted",

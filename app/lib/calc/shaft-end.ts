@@ -26,6 +26,15 @@ function isMetric(read: Reader, diameter: string): boolean {
   throw new CalcError("system", `The shaft system is "inch" or "metric", not "${system}".`);
 }
 
+/** Which standard the coupling's keyway is cut to, when the template asks. */
+function readCutTo(read: Reader): "sae-j755" | "asme-b17.1" | undefined {
+  const text = read.text("cutTo")?.trim().toLowerCase().replace(/\s+/g, "-");
+  if (text === undefined) return undefined;
+  if (/j755/.test(text)) return "sae-j755";
+  if (/b17/.test(text)) return "asme-b17.1";
+  throw new CalcError("cutTo", `The keyway is cut to "sae-j755" or "asme-b17.1", not "${text}".`);
+}
+
 /** The SAE J755 keyway width of a standard propeller shaft size, when it is one. */
 function j755KeywayIn(nominalIn: number): number | undefined {
   try {
@@ -49,6 +58,11 @@ export const keyForShaftCalc = defineCalc({
       field: ["diameterIn", "diameterMm"],
     },
     system: systemInput,
+    cutTo: {
+      label: "Keyway the coupling is cut to (sae-j755 or asme-b17.1)",
+      accepts: ["text"],
+      optional: true,
+    },
   },
   run(read, show): CalcOutcome {
     if (isMetric(read, "diameter")) {
@@ -86,10 +100,18 @@ export const keyForShaftCalc = defineCalc({
       "keyseat depth": "in",
     };
     let rule = `ASME B17.1 key for a ${show.q(result.nominalIn, "in")} shaft`;
+    const cutTo = readCutTo(read);
     if (j755 !== undefined && j755 !== result.widthIn) {
       values["SAE J755 keyway width"] = j755;
       units["SAE J755 keyway width"] = "in";
-      rule += `; a propeller or coupling cut to SAE J755 has a ${show.q(j755, "in")} keyway: fit the key to the keyway the part is cut to`;
+      rule +=
+        cutTo === "sae-j755"
+          ? `; the coupling is cut to SAE J755: key width ${show.q(j755, "in")}`
+          : cutTo === "asme-b17.1"
+            ? "; the coupling is cut to ASME B17.1"
+            : `; a propeller or coupling cut to SAE J755 has a ${show.q(j755, "in")} keyway: fit the key to the keyway the part is cut to`;
+    } else if (cutTo !== undefined) {
+      rule += "; SAE J755 and ASME B17.1 agree for this size";
     }
     return { values, units, verdict: "info", rule, detail: { ...result, j755KeywayWidthIn: j755 } };
   },

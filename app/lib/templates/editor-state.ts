@@ -2,7 +2,7 @@ import { dimensionOf, isUnit, units, type Unit } from "~/lib/calc/units";
 import { sameJson } from "~/lib/sync/protocol";
 import { calcBindingProblems, calcDefinition } from "./calc-inputs";
 import { formatPath, parseTemplate, type TemplateParse, type TemplateProblem } from "./load";
-import type { CalcBinding, CalcItem, Item, ItemKind, Phase, Template } from "./schema";
+import type { AppliesWhen, CalcBinding, CalcItem, Item, ItemKind, JobFact, Phase, Template } from "./schema";
 
 /**
  * The template editor's state and every change the manager can make to it, as a pure reducer.
@@ -35,6 +35,8 @@ export interface RuleDraft {
   unit: string;
   /** Readings items only. */
   appliesTo: "each-cell" | "row-spread";
+  /** Calc items only: the value of the result the rule is on. */
+  output: string;
 }
 
 /** A constant is typed as text and written as the kind of value its input takes. */
@@ -53,6 +55,10 @@ export interface ItemDraft {
   reference: string;
   required: boolean;
   phase: Phase | "";
+  /** Kept as the file has it (the editor does not change it yet). */
+  appliesWhen: AppliesWhen | null;
+  /** measure and choice: the job's fact it is filled from; kept as the file has it. */
+  fromJob: JobFact | "";
   /** measure and readings */
   unit: string;
   accepts: string[] | null;
@@ -155,6 +161,7 @@ function ruleDraft(rule: {
   tolerance?: number;
   unit: string;
   appliesTo?: RuleDraft["appliesTo"];
+  output?: string;
 }): RuleDraft {
   return {
     min: text(rule.min),
@@ -163,6 +170,7 @@ function ruleDraft(rule: {
     tolerance: text(rule.tolerance),
     unit: rule.unit,
     appliesTo: rule.appliesTo ?? "each-cell",
+    output: rule.output ?? "",
   };
 }
 
@@ -186,6 +194,8 @@ function blankItem(id: Id, kind: ItemKind, key: string, autoKey: boolean): ItemD
     reference: "",
     required: true,
     phase: "",
+    appliesWhen: null,
+    fromJob: "",
     unit: "",
     accepts: null,
     rule: null,
@@ -222,11 +232,13 @@ export function fromTemplate(template: Template): EditorState {
         reference: item.reference ?? "",
         required: item.required,
         phase: item.phase ?? "",
+        appliesWhen: item.appliesWhen ? structuredClone(item.appliesWhen) : null,
       };
       switch (item.kind) {
         case "measure":
           return {
             ...draft,
+            fromJob: item.fromJob ?? "",
             unit: item.unit,
             accepts: item.accepts ? [...item.accepts] : null,
             rule: item.rule ? ruleDraft(item.rule) : null,
@@ -245,9 +257,14 @@ export function fromTemplate(template: Template): EditorState {
             ...draft,
             calc: item.calc,
             inputs: Object.fromEntries(Object.entries(item.inputs).map(([k, b]) => [k, bindingDraft(b)])),
+            rule: item.rule ? ruleDraft(item.rule) : null,
           };
         case "choice":
-          return { ...draft, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote })) };
+          return {
+            ...draft,
+            fromJob: item.fromJob ?? "",
+            options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote })),
+          };
         case "photo":
           return { ...draft, minPhotos: String(item.minPhotos) };
         default:
@@ -298,6 +315,7 @@ function ruleInput(rule: RuleDraft, kind: ItemKind) {
     tolerance: numberFrom(rule.tolerance),
     unit: rule.unit,
     ...(kind === "readings" ? { appliesTo: rule.appliesTo } : {}),
+    ...(kind === "calc" ? { output: rule.output } : {}),
   };
 }
 
@@ -312,12 +330,15 @@ export function toItemInput(item: ItemDraft): Record<string, unknown> {
     reference: optionalText(item.reference),
     required: item.required,
     phase: item.phase || undefined,
+    appliesWhen: item.appliesWhen ?? undefined,
   };
+  const fromJob = item.fromJob || undefined;
   const line = (l: LineDraft) => ({ key: l.key, label: l.label });
   switch (item.kind) {
     case "measure":
       return {
         ...base,
+        fromJob,
         unit: item.unit,
         accepts: item.accepts ?? undefined,
         rule: item.rule ? ruleInput(item.rule, item.kind) : undefined,
@@ -341,9 +362,10 @@ export function toItemInput(item: ItemDraft): Record<string, unknown> {
             b.from === "item" ? { item: b.item } : { value: constantValue(b) },
           ]),
         ),
+        rule: item.rule ? ruleInput(item.rule, item.kind) : undefined,
       };
     case "choice":
-      return { ...base, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote })) };
+      return { ...base, fromJob, options: item.options.map((o) => ({ ...line(o), needsNote: o.needsNote })) };
     case "photo":
       return { ...base, minPhotos: numberFrom(item.minPhotos) };
     default:
@@ -486,7 +508,10 @@ function renameItemKey(state: EditorState, id: Id, key: string): EditorState {
   const wasUnique = allItems(state).filter((i) => i.key === oldKey).length === 1;
   return mapItems(state, (other) => {
     if (other.id === id) return { ...other, key };
-    if (!wasUnique || other.kind !== "calc") return other;
+    if (!wasUnique) return other;
+    if (other.appliesWhen?.item === oldKey)
+      other = { ...other, appliesWhen: { ...other.appliesWhen, item: key } };
+    if (other.kind !== "calc") return other;
     const inputs = Object.fromEntries(
       Object.entries(other.inputs).map(([name, b]) => [
         name,
@@ -690,6 +715,7 @@ export function editorReducer(state: EditorState, action: EditorAction): EditorS
           tolerance: "",
           unit: item.unit,
           appliesTo: "each-cell" as const,
+          output: "",
         };
         return { ...item, rule: { ...rule, ...action.patch } };
       });

@@ -9,6 +9,7 @@ import { Refusal } from "~/lib/refusal";
 import { jobPageActionSchema } from "~/lib/validation/job-page";
 import { jobScopeLabels, jobStatusLabels } from "~/lib/validation/jobs";
 import { listJobChecklists, startChecklists } from "~/server/checklists.server";
+import { prefillFromJob } from "~/server/prefill.server";
 import { requireJob } from "~/server/job-access.server";
 import { recordReadiness, recordsOfJob, issueRecord } from "~/server/records.server";
 import { startAmendment } from "~/server/review.server";
@@ -60,7 +61,7 @@ export async function action({ request, params }: Route.ActionArgs) {
         await startAmendment(user, form.checklistId);
         break;
       case "start-checklists":
-        await startChecklists(job.id, form.templates, user.id);
+        await prefillFromJob(user, job, await startChecklists(job.id, form.templates, user.id));
         break;
     }
   } catch (error) {

@@ -43,6 +43,13 @@ describe("keyForShaft reads the nominal size (issue 12, item 5)", () => {
     expect(r.rule).toMatch(
       /cut to SAE J755 has a 0.3125 in keyway: fit the key to the keyway the part is cut to/,
     );
+    // Says which one the coupling is cut to when the template asks.
+    expect(outcome("keyForShaft", { diameter: num(1.25, "in"), cutTo: text("sae-j755") }).rule).toMatch(
+      /the coupling is cut to SAE J755: key width 0.3125 in$/,
+    );
+    expect(runCalc("keyForShaft", { diameter: num(1.25, "in"), cutTo: text("din") })).toMatchObject({
+      error: { field: "cutTo" },
+    });
     // 1 in: B17.1 1/4 in and J755 1/4 in agree, so no second figure.
     expect(
       outcome("keyForShaft", { diameter: num(1, "in") }).values["SAE J755 keyway width"],

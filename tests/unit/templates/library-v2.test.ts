@@ -98,6 +98,23 @@ describe("issue 12 §1, fixed in version 2", () => {
     expect((item(shaftV1, "key-size") as { inputs: object }).inputs).not.toHaveProperty("system");
   });
 
+  test("§1.5 the key is read for the nominal size, and against the keyway the coupling is cut to", () => {
+    // ASME B17.1 Table 1: shafts over 1 1/8 up to 1 3/8 in take a 5/16 in square key, over 7/8 up
+    // to 1 1/4 in a 1/4 in key; a measured 1.2503 in shaft is a 1 1/4 in nominal (from memory).
+    const key = item(shaftV2, "key-size") as { inputs: Record<string, unknown> };
+    expect(key.inputs.cutTo).toEqual({ item: "keyway-cut-to" });
+    const v = evaluate(item(shaftV2, "key-size"), undefined, {
+      template: shaftV2,
+      responses: {
+        "shaft-system": { option: "inch" },
+        "keyway-cut-to": { option: "sae-j755" },
+        "shaft-diameter": measured([1.2503, "in"]),
+      },
+    });
+    expect(v.status).toBe("ok");
+    expect(v.outcome?.values["key width"]).toBe(0.25);
+  });
+
   test("§1.6 shaft and coupling in a yard's order: fit, key, spot-drill, lock, then face and read runout", () => {
     const order = placedItems(shaftV2).map(({ item }) => item.key);
     const at = (key: string) => order.indexOf(key);
