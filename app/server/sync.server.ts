@@ -13,6 +13,7 @@ import {
   type SyncResponse,
 } from "~/lib/sync/protocol";
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
+import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { db } from "./db.server.ts";
 import { submitChecklist, undecidedConflicts } from "./review.server.ts";
@@ -303,9 +304,24 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         if (!result) {
           const now_ = current.get(key);
           const rev = now_?.rev ?? 0;
-          if (op.baseRev === rev) {
-            const value = JSON.stringify(op.value);
-            current.set(key, { rev: rev + 1, value: op.value, by: actor.name, at: now });
+          const onCurrent = op.baseRev === rev;
+          const kind = findItem(access.get(op.checklistId)!.template, op.itemKey)!.kind;
+          // What the entry does to the item, by its kind's merge rule (app/lib/sync/merge.ts).
+          let next: { write: unknown } | { same: true } | { conflict: true };
+          if (mergeRuleFor(kind) === "log" && now_) {
+            const merged = mergeLog(now_.value, op.value, onCurrent);
+            next =
+              "conflict" in merged
+                ? merged
+                : sameJson(merged.value, now_.value)
+                  ? { same: true }
+                  : { write: merged.value };
+          } else if (onCurrent) next = { write: op.value };
+          else if (now_ && sameJson(now_.value, op.value)) next = { same: true };
+          else next = { conflict: true };
+          if ("write" in next) {
+            const value = JSON.stringify(next.write);
+            current.set(key, { rev: rev + 1, value: next.write, by: actor.name, at: now });
             responses.set(key, {
               checklist_id: op.checklistId,
               item_key: op.itemKey,
@@ -331,13 +347,19 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
             result = { opId: op.opId, status: "applied", rev: rev + 1 };
             // Made on the server's current value, this entry decides every conflict waiting on the
             // item: those already stored, and those this batch raised before it.
-            const ids = [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])];
+            const ids = onCurrent ? [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])] : [];
             if (ids.length) resolutions.push({ op, ids });
-            waiting.delete(key);
-            for (const c of conflicts)
-              if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
-                Object.assign(c.row, { resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
-          } else if (now_ && sameJson(now_.value, op.value)) {
+            if (onCurrent) {
+              waiting.delete(key);
+              for (const c of conflicts)
+                if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
+                  Object.assign(c.row, {
+                    resolved_at: now,
+                    resolved_by: actor.id,
+                    resolution_op_id: op.opId,
+                  });
+            }
+          } else if ("same" in next) {
             result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
             if (op.resolves?.length) resolutions.push({ op, ids: op.resolves });
           } else {
