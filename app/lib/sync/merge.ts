@@ -61,9 +61,8 @@ export function mergeLog(server: unknown, incoming: unknown, onCurrent: boolean)
     list === "photos"
       ? union(s.photos ?? [], i.photos ?? [])
       : union(s.attempts ?? [], i.attempts ?? [], byTimeThenId);
-  let note = s.note;
-  if (onCurrent) note = i.note;
-  else if (i.note !== undefined && s.note !== undefined && i.note !== s.note) return { conflict: true };
-  else note = s.note ?? i.note;
+  if (!onCurrent && i.note !== undefined && s.note !== undefined && i.note !== s.note)
+    return { conflict: true };
+  const note = onCurrent ? i.note : (s.note ?? i.note);
   return { value: { [list]: entries, ...(note !== undefined ? { note } : {}) } };
 }
