@@ -175,7 +175,7 @@ function readOperation(raw: SyncRequest["ops"][number]): Operation | OpResult {
  */
 export async function changesPage(
   trx: Knex.Transaction,
-  scope: () => Knex.QueryBuilder | string[],
+  scope: string[],
   since: number,
   upTo: number,
   limit = MAX_CHANGES_PER_PULL,
@@ -183,7 +183,7 @@ export async function changesPage(
   const feed = () =>
     trx("checklist_responses as r")
       .join("users as u", "u.id", "r.updated_by")
-      .whereIn("r.checklist_id", scope())
+      .whereIn("r.checklist_id", scope)
       .where("r.change_seq", ">", since)
       .where("r.change_seq", "<=", upTo)
       .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name");
@@ -419,8 +419,8 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           .onConflict(["checklist_id", "item_key"])
           .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
       }
-      for (let i = 0; i < history.length; i += 500)
-        await trx("response_history").insert(history.slice(i, i + 500));
+      // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
+      if (history.length) await trx("response_history").insert(history);
       for (const { op, ids } of resolutions) {
         await trx("sync_conflicts")
           .whereIn("id", ids)
@@ -463,24 +463,25 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         result: JSON.stringify(results[resultIndex]),
         received_at: now,
       }));
-      for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
+      if (opRows.length) await trx("sync_ops").insert(opRows);
     } else {
       clock = await lastChangeNumber(trx);
     }
 
     const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
     // This batch's own changes carry the new clock value and are known here; read only the rest.
-    const page = await changesPage(
-      trx,
-      () => visibleChecklists(trx, actor).select("c.id"),
-      since,
-      wrote.length ? clock - 1 : clock,
-    );
+    // The visible checklists first, as a list: the feed query then reads only the change numbers
+    // after the cursor, instead of every response of every visible checklist.
+    const scope: string[] = await visibleChecklists(trx, actor).pluck("c.id");
+    const page = scope.length
+      ? await changesPage(trx, scope, since, wrote.length ? clock - 1 : clock)
+      : { changes: [], cursor: clock, more: false };
     const changes = page.changes;
     const cursor = page.more ? page.cursor : clock;
     if (!page.more && since < clock) changes.push(...wrote);
     // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
-    const states = await visibleChecklists(trx, actor)
+    const states = await trx("job_checklists as c")
+      .whereIn("c.id", scope)
       .where("c.change_seq", ">", since)
       .where("c.change_seq", "<=", cursor)
       .select("c.id", "c.state");

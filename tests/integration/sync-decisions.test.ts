@@ -152,7 +152,7 @@ describe("paged pulls (issue 13 §5)", () => {
     let cursor = Number(start);
     await knex.transaction(async (trx) => {
       for (let more = true; more;) {
-        const page = await changesPage(trx, () => [id!], cursor, end, 3);
+        const page = await changesPage(trx, [id!], cursor, end, 3);
         pages.push({ changes: page.changes.length, more: page.more });
         expect(page.cursor).toBeGreaterThan(cursor);
         ({ cursor, more } = page);
@@ -210,7 +210,9 @@ describe("merge by item kind on the server (issue 13 §4)", () => {
     });
 
     await push(tech, [op(id!, "flow-against-maker", { option: "at-or-above" }, 0)]);
-    const stale = await push(lead, [op(id!, "flow-against-maker", { option: "no-figure", note: "None published" }, 0)]);
+    const stale = await push(lead, [
+      op(id!, "flow-against-maker", { option: "no-figure", note: "None published" }, 0),
+    ]);
     expect(stale.results[0]).toMatchObject({ status: "conflict" });
   });
 });
