@@ -9,6 +9,8 @@ import type { ItemKind } from "../templates/index.ts";
  *   attempts recorded before ids existed are known by their content), and none is ever removed.
  *   Attempts are ordered by the time taken, then id; photos keep the server's order with new
  *   ones after. Two tablets adding attempts to one item both keep their work: no conflict.
+ *   A photo list sent on the current revision stands as sent (a photo taken by mistake may be
+ *   removed by someone who saw the server's list; the item's history keeps it).
  *   The note beside them is a scalar: a different note on both sides is still a conflict.
  * - scalar kinds — check, choice, text, initials, calc (its note): the value is one answer. An
  *   entry on the current revision replaces it; the same value is accepted; a different value on
@@ -57,6 +59,9 @@ export function mergeLog(server: unknown, incoming: unknown, onCurrent: boolean)
   const s = server as LogValue;
   const i = incoming as LogValue;
   const list = "photos" in i || "photos" in s ? "photos" : "attempts";
+  // A photo taken by mistake may be removed by someone who saw the server's list (history keeps
+  // it); an attempt is never removed.
+  if (list === "photos" && onCurrent) return { value: incoming };
   const entries =
     list === "photos"
       ? union(s.photos ?? [], i.photos ?? [])

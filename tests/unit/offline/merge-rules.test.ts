@@ -67,4 +67,11 @@ describe("merge rules by kind", () => {
       value: { photos: [p(B), p(A), p(C)] },
     });
   });
+
+  it("lets someone who saw the server's photos remove one taken by mistake", () => {
+    const p = (id: string) => ({ id });
+    expect(mergeLog({ photos: [p(A), p(B)] }, { photos: [p(A)] }, true)).toEqual({
+      value: { photos: [p(A)] },
+    });
+  });
 });
