@@ -68,7 +68,7 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
     const ids = checklistRows.map((c: any) => c.id);
     // Bounded like a pull: the first page of responses, and the cursor to pull the rest from.
     const page = ids.length
-      ? await changesPage(trx, () => ids, 0, Number(cursor))
+      ? await changesPage(trx, ids, 0, Number(cursor))
       : { changes: [], cursor: Number(cursor), more: false };
     const comments = ids.length ? await commentsOn(ids, trx) : [];
     const templates = new Map<string, OfflineBundle["templates"][number]>();

@@ -13,6 +13,7 @@ import {
   type SyncResponse,
 } from "~/lib/sync/protocol";
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
+import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { db } from "./db.server.ts";
 import { withRetry } from "./retry.server.ts";
@@ -110,7 +111,7 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
     trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
   ]);
   for (const r of applied)
-    answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id!, status: "applied", rev: r.rev } });
+    answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id, status: "applied", rev: r.rev } });
   for (const r of conflicted) {
     answers.set(r.op_id, {
       userId: r.user_id,
@@ -175,7 +176,7 @@ function readOperation(raw: SyncRequest["ops"][number]): Operation | OpResult {
  */
 export async function changesPage(
   trx: Knex.Transaction,
-  scope: () => Knex.QueryBuilder | string[],
+  scope: string[],
   since: number,
   upTo: number,
   limit = MAX_CHANGES_PER_PULL,
@@ -183,7 +184,7 @@ export async function changesPage(
   const feed = () =>
     trx("checklist_responses as r")
       .join("users as u", "u.id", "r.updated_by")
-      .whereIn("r.checklist_id", scope())
+      .whereIn("r.checklist_id", scope)
       .where("r.change_seq", ">", since)
       .where("r.change_seq", "<=", upTo)
       .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name");
@@ -306,9 +307,24 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           if (!result) {
             const now_ = current.get(key);
             const rev = now_?.rev ?? 0;
-            if (op.baseRev === rev) {
-              const value = JSON.stringify(op.value);
-              current.set(key, { rev: rev + 1, value: op.value, by: actor.name, at: now });
+            const onCurrent = op.baseRev === rev;
+            const kind = findItem(access.get(op.checklistId)!.template, op.itemKey)!.kind;
+            // What the entry does to the item, by its kind's merge rule (app/lib/sync/merge.ts).
+            let next: { write: unknown } | { same: true } | { conflict: true };
+            if (mergeRuleFor(kind) === "log" && now_) {
+              const merged = mergeLog(now_.value, op.value, onCurrent);
+              next =
+                "conflict" in merged
+                  ? merged
+                  : sameJson(merged.value, now_.value)
+                    ? { same: true }
+                    : { write: merged.value };
+            } else if (onCurrent) next = { write: op.value };
+            else if (now_ && sameJson(now_.value, op.value)) next = { same: true };
+            else next = { conflict: true };
+            if ("write" in next) {
+              const value = JSON.stringify(next.write);
+              current.set(key, { rev: rev + 1, value: next.write, by: actor.name, at: now });
               responses.set(key, {
                 checklist_id: op.checklistId,
                 item_key: op.itemKey,
@@ -334,17 +350,21 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
               result = { opId: op.opId, status: "applied", rev: rev + 1 };
               // Made on the server's current value, this entry decides every conflict waiting on the
               // item: those already stored, and those this batch raised before it.
-              const ids = [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])];
+              const ids = onCurrent
+                ? [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])]
+                : [];
               if (ids.length) resolutions.push({ op, ids });
-              waiting.delete(key);
-              for (const c of conflicts)
-                if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
-                  Object.assign(c.row, {
-                    resolved_at: now,
-                    resolved_by: actor.id,
-                    resolution_op_id: op.opId,
-                  });
-            } else if (now_ && sameJson(now_.value, op.value)) {
+              if (onCurrent) {
+                waiting.delete(key);
+                for (const c of conflicts)
+                  if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
+                    Object.assign(c.row, {
+                      resolved_at: now,
+                      resolved_by: actor.id,
+                      resolution_op_id: op.opId,
+                    });
+              }
+            } else if ("same" in next) {
               result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
               if (op.resolves?.length) resolutions.push({ op, ids: op.resolves });
             } else {
@@ -413,8 +433,8 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
             .onConflict(["checklist_id", "item_key"])
             .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
         }
-        for (let i = 0; i < history.length; i += 500)
-          await trx("response_history").insert(history.slice(i, i + 500));
+        // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
+        if (history.length) await trx("response_history").insert(history);
         for (const { op, ids } of resolutions) {
           await trx("sync_conflicts")
             .whereIn("id", ids)
@@ -457,24 +477,25 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           result: JSON.stringify(results[resultIndex]),
           received_at: now,
         }));
-        for (let i = 0; i < opRows.length; i += 500) await trx("sync_ops").insert(opRows.slice(i, i + 500));
+        if (opRows.length) await trx("sync_ops").insert(opRows);
       } else {
         clock = await lastChangeNumber(trx);
       }
 
       const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
       // This batch's own changes carry the new clock value and are known here; read only the rest.
-      const page = await changesPage(
-        trx,
-        () => visibleChecklists(trx, actor).select("c.id"),
-        since,
-        wrote.length ? clock - 1 : clock,
-      );
+      // The visible checklists first, as a list: the feed query then reads only the change numbers
+      // after the cursor, instead of every response of every visible checklist.
+      const scope: string[] = await visibleChecklists(trx, actor).pluck("c.id");
+      const page = scope.length
+        ? await changesPage(trx, scope, since, wrote.length ? clock - 1 : clock)
+        : { changes: [], cursor: clock, more: false };
       const changes = page.changes;
       const cursor = page.more ? page.cursor : clock;
       if (!page.more && since < clock) changes.push(...wrote);
       // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
-      const states = await visibleChecklists(trx, actor)
+      const states = await trx("job_checklists as c")
+        .whereIn("c.id", scope)
         .where("c.change_seq", ">", since)
         .where("c.change_seq", "<=", cursor)
         .select("c.id", "c.state");

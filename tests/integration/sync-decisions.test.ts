@@ -152,7 +152,7 @@ describe("paged pulls (issue 13 §5)", () => {
     let cursor = Number(start);
     await knex.transaction(async (trx) => {
       for (let more = true; more;) {
-        const page = await changesPage(trx, () => [id!], cursor, end, 3);
+        const page = await changesPage(trx, [id!], cursor, end, 3);
         pages.push({ changes: page.changes.length, more: page.more });
         expect(page.cursor).toBeGreaterThan(cursor);
         ({ cursor, more } = page);
@@ -164,5 +164,55 @@ describe("paged pulls (issue 13 §5)", () => {
       { changes: 2, more: false },
     ]);
     expect(cursor).toBe(end);
+  });
+});
+
+describe("merge by item kind on the server (issue 13 §4)", () => {
+  const attempt = (value: number, at: string) => ({
+    id: crypto.randomUUID(),
+    value,
+    unit: "degF",
+    at,
+    by: "T",
+  });
+  it("adds attempts from two tablets to one measure item, no conflict; a choice still conflicts", async () => {
+    const job = await makeJob(knex, lead.id, [tech.id]);
+    const [id] = await startChecklists(job.id, ["cooling"], lead.id);
+    const first = attempt(180, "2026-05-01T09:00:00Z");
+    await push(tech, [op(id!, "coolant-temperature-cruise", { attempts: [first] }, 0)]);
+    // Both tablets start from rev 1 and each adds an attempt while apart.
+    const mine = attempt(182, "2026-05-01T10:00:00Z");
+    const theirs = attempt(181, "2026-05-01T09:30:00Z");
+    const a = await push(
+      tech,
+      [op(id!, "coolant-temperature-cruise", { attempts: [first, mine] }, 1)],
+      null,
+      "tab-a",
+    );
+    const b = await push(
+      lead,
+      [op(id!, "coolant-temperature-cruise", { attempts: [first, theirs] }, 1)],
+      null,
+      "tab-b",
+    );
+    expect(a.results[0]).toMatchObject({ status: "applied", rev: 2 });
+    expect(b.results[0]).toMatchObject({ status: "applied", rev: 3 });
+    const row = await knex("checklist_responses")
+      .where({ checklist_id: id, item_key: "coolant-temperature-cruise" })
+      .first();
+    const stored = typeof row!.value === "string" ? JSON.parse(row!.value) : row!.value;
+    expect(stored.attempts.map((x: any) => x.value)).toEqual([180, 181, 182]);
+    expect(await knex("sync_conflicts").where({ checklist_id: id })).toHaveLength(0);
+    // The merged value reaches the tablet that sent the other attempt, with the new revision.
+    expect(b.changes.find((c) => c.itemKey === "coolant-temperature-cruise")).toMatchObject({
+      rev: 3,
+      value: stored,
+    });
+
+    await push(tech, [op(id!, "flow-against-maker", { option: "at-or-above" }, 0)]);
+    const stale = await push(lead, [
+      op(id!, "flow-against-maker", { option: "no-figure", note: "None published" }, 0),
+    ]);
+    expect(stale.results[0]).toMatchObject({ status: "conflict" });
   });
 });

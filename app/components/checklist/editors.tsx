@@ -128,7 +128,7 @@ export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: Ed
     setError(null);
     setText("");
     onSave({
-      attempts: [...(v?.attempts ?? []), { value: reading, unit, at: now(), by }],
+      attempts: [...(v?.attempts ?? []), { id: crypto.randomUUID(), value: reading, unit, at: now(), by }],
       ...(v?.note ? { note: v.note } : {}),
     });
   }
@@ -245,7 +245,7 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
       );
     setError(null);
     onSave({
-      attempts: [...(v?.attempts ?? []), { cells: numbers, unit, at: now(), by }],
+      attempts: [...(v?.attempts ?? []), { id: crypto.randomUUID(), cells: numbers, unit, at: now(), by }],
       ...(v?.note ? { note: v.note } : {}),
     });
   }

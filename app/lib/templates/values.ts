@@ -24,7 +24,20 @@ export const checkValueSchema = z.strictObject({
   note,
 });
 
-export const measureAttemptSchema = z.strictObject({ value: reading, unit: unitSchema, at, by });
+/**
+ * An attempt's own id, made on the tablet: two tablets' attempts on one item merge by it (see
+ * app/lib/sync/merge.ts). Attempts recorded before ids existed have none and are left as stored,
+ * so countersigned records keep their digests; the merge knows them by their content.
+ */
+const attemptId = z.uuid({ error: "expected a UUID" }).optional();
+
+export const measureAttemptSchema = z.strictObject({
+  id: attemptId,
+  value: reading,
+  unit: unitSchema,
+  at,
+  by,
+});
 
 /** Every attempt is kept (a shaft straightened three times has three); the last one is reported. */
 export const measureValueSchema = z.strictObject({
@@ -34,6 +47,7 @@ export const measureValueSchema = z.strictObject({
 
 /** cells[row][column] in the item's row and column order; null = not read yet. */
 export const readingsAttemptSchema = z.strictObject({
+  id: attemptId,
   cells: z.array(z.array(z.union([reading, z.null()], { error: "expected a number or null" }))),
   unit: unitSchema,
   at,
