@@ -167,6 +167,25 @@ describe("bodies a page cannot read (finding 5)", () => {
   });
 });
 
+describe("a sync op with a 2,000-deep JSON value (finding 5)", () => {
+  it("is refused with 4xx, not 500", async () => {
+    const deep = JSON.parse(`${"[".repeat(2000)}${"]".repeat(2000)}`);
+    const response = await fetch(`${server.url}/api/sync`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", Origin: server.url, Cookie: techCookie },
+      body: JSON.stringify({
+        deviceId: crypto.randomUUID(),
+        cursor: null,
+        ops: [
+          { opId: crypto.randomUUID(), seq: 1, checklistId, itemKey: "seacock", value: deep, baseRev: 0 },
+        ],
+      }),
+    });
+    expect(response.status).toBe(400);
+    expect((await response.json()).error).toMatch(/nested more than 64 levels/);
+  });
+});
+
 describe("cross-site requests (finding 6)", () => {
   const syncBody = () => JSON.stringify({ deviceId: crypto.randomUUID(), cursor: 0, ops: [] });
 

@@ -1,5 +1,6 @@
 import { MAX_SYNC_BODY_BYTES } from "~/lib/sync/protocol";
 import { env } from "../env.server.ts";
+import { MAX_JSON_DEPTH } from "./json-depth.server.ts";
 
 /** The largest body of a page's form (templates, the biggest forms, are ~20 kB). */
 export const FORM_MAX_BYTES = 1024 * 1024;
@@ -63,7 +64,12 @@ export const tooLarge = (limit: number): Refusal => ({
   message: `This request is larger than the ${Math.round(limit / 1024)} kB this address accepts.`,
 });
 
-/** Raised inside a route's body stream when the body runs past its limit (answered 413). */
+export const tooDeep = (): Refusal => ({
+  status: 400,
+  message: `The JSON in this request is nested more than ${MAX_JSON_DEPTH} levels deep.`,
+});
+
+/** Raised inside a route's body stream when the body runs past its limit or its depth (413, 400). */
 export class BodyOverLimit extends Error {
   constructor() {
     super("request body over its limit");
