@@ -30,13 +30,18 @@ interface Incoming {
 }
 
 const mediaType = (header: string | undefined) => header?.split(";")[0]!.trim().toLowerCase() ?? "";
-const FORM_TYPES = new Set(["application/x-www-form-urlencoded", "multipart/form-data"]);
+// Pages take forms, and JSON from code (fetcher.submit with encType "application/json").
+const PAGE_BODY_TYPES = new Set([
+  "application/x-www-form-urlencoded",
+  "multipart/form-data",
+  "application/json",
+]);
 
 /**
  * Checks made before a state-changing request reaches a route: it comes from this site (the
  * Origin header, or Sec-Fetch-Site where a browser sends no Origin), it is no larger than its
- * route accepts as declared, and its body is of the kind the route reads — a form for pages,
- * JSON for the sync API. null when the request may go on.
+ * route accepts as declared, and its body is of a kind the route can read — a form (or JSON from
+ * code) for pages, JSON for the sync API. null when the request may go on.
  */
 export function refusal(req: Incoming): Refusal | null {
   if (READS_NO_BODY.has(req.method)) return null;
@@ -53,7 +58,7 @@ export function refusal(req: Incoming): Refusal | null {
   if (req.pathname === "/api/sync" && type !== "application/json") {
     return { status: 415, message: "Send the sync request as application/json." };
   }
-  if (!isApi(req.pathname) && hasBody && !FORM_TYPES.has(type)) {
+  if (!isApi(req.pathname) && hasBody && !PAGE_BODY_TYPES.has(type)) {
     return { status: 415, message: "This page takes a form; the request's body was something else." };
   }
   return null;
