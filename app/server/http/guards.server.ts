@@ -17,7 +17,7 @@ export function bodyLimit(pathname: string): number {
 }
 
 export interface Refusal {
-  status: 400 | 403 | 413 | 415;
+  status: 400 | 403 | 413 | 415 | 429;
   message: string;
 }
 
