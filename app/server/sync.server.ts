@@ -111,7 +111,7 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
     trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
   ]);
   for (const r of applied)
-    answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id, status: "applied", rev: r.rev } });
+    answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id!, status: "applied", rev: r.rev } });
   for (const r of conflicted) {
     answers.set(r.op_id, {
       userId: r.user_id,

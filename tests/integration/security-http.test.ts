@@ -167,6 +167,66 @@ describe("bodies a page cannot read (finding 5)", () => {
   });
 });
 
+describe("a sync op with a 2,000-deep JSON value (finding 5)", () => {
+  it("is refused with 4xx, not 500", async () => {
+    const deep = JSON.parse(`${"[".repeat(2000)}${"]".repeat(2000)}`);
+    const response = await fetch(`${server.url}/api/sync`, {
+      method: "POST",
+      headers: { "Content-Type": "application/json", Origin: server.url, Cookie: techCookie },
+      body: JSON.stringify({
+        deviceId: crypto.randomUUID(),
+        cursor: null,
+        ops: [
+          { opId: crypto.randomUUID(), seq: 1, checklistId, itemKey: "seacock", value: deep, baseRev: 0 },
+        ],
+      }),
+    });
+    expect(response.status).toBe(400);
+    expect((await response.json()).error).toMatch(/nested more than 64 levels/);
+  });
+});
+
+describe("what one account can make the server store (finding 10)", () => {
+  it("pauses the sync of an account whose refused operations reached the hour's bound", async () => {
+    const spammer = await makeUser(knex, "technician");
+    const cookie = await signIn(spammer.email);
+    const sync = () =>
+      fetch(`${server.url}/api/sync`, {
+        method: "POST",
+        headers: { "Content-Type": "application/json", Origin: server.url, Cookie: cookie },
+        body: JSON.stringify({ deviceId: "spam-device", cursor: null, ops: [] }),
+      });
+    expect((await sync()).status).toBe(200);
+    // 5,000 refused operations' bookkeeping rows in the last hour, as 5 full requests would leave.
+    const rows = Array.from({ length: 5000 }, (_, i) => ({
+      op_id: crypto.randomUUID(),
+      device_id: "spam-device",
+      seq: i,
+      user_id: spammer.id,
+      checklist_id: checklistId,
+      item_key: "seacock",
+      status: "rejected" as const,
+      result: JSON.stringify({ status: "rejected", reason: "test" }),
+      received_at: new Date(),
+    }));
+    for (let i = 0; i < rows.length; i += 1000) await knex("sync_ops").insert(rows.slice(i, i + 1000));
+    const paused = await sync();
+    expect(paused.status).toBe(429);
+    expect(paused.headers.get("Retry-After")).toMatch(/^\d+$/);
+    expect((await paused.json()).error).toMatch(/refused in the last hour/);
+    // Others sync on.
+    expect(
+      (
+        await fetch(`${server.url}/api/sync`, {
+          method: "POST",
+          headers: { "Content-Type": "application/json", Origin: server.url, Cookie: techCookie },
+          body: JSON.stringify({ deviceId: "tech-device-1", cursor: null, ops: [] }),
+        })
+      ).status,
+    ).toBe(200);
+  });
+});
+
 describe("cross-site requests (finding 6)", () => {
   const syncBody = () => JSON.stringify({ deviceId: crypto.randomUUID(), cursor: 0, ops: [] });
 

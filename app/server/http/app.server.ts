@@ -11,6 +11,7 @@ import { logger } from "../logger.server.ts";
 import { sendRefusal, sendUnavailable } from "./answers.server.ts";
 import { reactRouterHandler } from "./bridge.server.ts";
 import { refusal } from "./guards.server.ts";
+import { SYNC_BUDGET_RETRY_S, syncBudgetRefusal } from "./sync-budget.server.ts";
 
 /** A path fit for a log line: no query string (it may carry anything) and no invitation token. */
 export const loggedPath = (url: string) =>
@@ -73,8 +74,8 @@ const securityHeaders = () =>
 
 /**
  * The production HTTP server around React Router (server.js starts it): request logs, security
- * headers, static files, the checks every state-changing request passes, and 503 while the
- * database is down. It keeps no state, so any number can run side by side.
+ * headers, static files, the checks every state-changing request passes, a bound on the refused
+ * sync operations an account can leave behind, and 503 while the database is down. It keeps no state, so any number can run side by side.
  */
 export function createHttpApp(build: ServerBuild) {
   const app = express();
@@ -105,6 +106,12 @@ export function createHttpApp(build: ServerBuild) {
   app.use(async (req, res, next) => {
     if (await databaseIsUp()) return next();
     sendUnavailable(req, res);
+  });
+  app.post("/api/sync", async (req, res, next) => {
+    const refused = await syncBudgetRefusal(req.get("cookie") ?? null);
+    if (!refused) return next();
+    res.set("Retry-After", String(SYNC_BUDGET_RETRY_S));
+    sendRefusal(req, res, refused);
   });
   app.all(
     "*splat",

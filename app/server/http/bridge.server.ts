@@ -4,24 +4,28 @@ import type { Request as ExpressRequest, Response as ExpressResponse } from "exp
 import { createRequestHandler, type AppLoadContext, type ServerBuild } from "react-router";
 import { databaseIsUp } from "../database-health.server.ts";
 import { REQUEST_ID_HEADER, takeNotes } from "../request-log.server.ts";
-import { BodyOverLimit, bodyLimit, tooLarge, type Refusal } from "./guards.server.ts";
+import { BodyOverLimit, bodyLimit, tooDeep, tooLarge, type Refusal } from "./guards.server.ts";
+import { jsonDepthWatch } from "./json-depth.server.ts";
 import { sendRefusal, sendUnavailable } from "./answers.server.ts";
 
 /**
- * The request's body as a web stream that stops at `limit` bytes. Past it the stream fails,
- * `overflowed` is called and the rest of the body is read and dropped, never held.
+ * The request's body as a web stream that stops at `limit` bytes, or at JSON nested deeper than
+ * MAX_JSON_DEPTH. Then the stream fails, `refuse` is told why (413 or 400), and the rest of the
+ * body is read and dropped, never held.
  */
-function limitedBody(req: IncomingMessage, limit: number, overflowed: () => void) {
+function limitedBody(req: IncomingMessage, limit: number, refuse: (refusal: Refusal) => void) {
   let total = 0;
   let settled = false;
+  const depth = /^application\/json\b/i.test(req.headers["content-type"] ?? "") ? jsonDepthWatch() : null;
   return new ReadableStream<Uint8Array>(
     {
       start(controller) {
         const onData = (chunk: Buffer) => {
           total += chunk.byteLength;
-          if (total > limit) {
+          const refusal = total > limit ? tooLarge(limit) : depth && !depth.push(chunk) ? tooDeep() : null;
+          if (refusal) {
             settled = true;
-            overflowed();
+            refuse(refusal);
             controller.error(new BodyOverLimit());
             // Read the rest and drop it: memory stays flat and the client, still sending, gets
             // its 413 instead of a reset connection.
@@ -55,7 +59,7 @@ function limitedBody(req: IncomingMessage, limit: number, overflowed: () => void
   );
 }
 
-function webRequest(req: ExpressRequest, res: ExpressResponse, overflowed: () => void) {
+function webRequest(req: ExpressRequest, res: ExpressResponse, refuse: (refusal: Refusal) => void) {
   const url = new URL(req.originalUrl, `${req.protocol}://${req.get("host") ?? "localhost"}`);
   const headers = new Headers();
   for (const [key, value] of Object.entries(req.headers)) {
@@ -69,7 +73,7 @@ function webRequest(req: ExpressRequest, res: ExpressResponse, overflowed: () =>
   });
   const init: RequestInit & { duplex?: "half" } = { method: req.method, headers, signal: controller.signal };
   if (req.method !== "GET" && req.method !== "HEAD") {
-    init.body = limitedBody(req, bodyLimit(url.pathname), overflowed);
+    init.body = limitedBody(req, bodyLimit(url.pathname), refuse);
     init.duplex = "half";
   }
   return new Request(url, init);
@@ -87,7 +91,7 @@ async function send(res: ExpressResponse, response: Response) {
 /**
  * Hands a request to React Router with its body limited, and turns the route's answer into the
  * right status when the route could not know it: 413 when the body ran over its limit while being
- * read (also for chunked bodies), 400 when a body claiming to be a form was not one, 503 while the
+ * read (also for chunked bodies), 400 for JSON nested too deep or when a body claiming to be a form was not one, 503 while the
  * database is down.
  */
 export function reactRouterHandler(
@@ -97,8 +101,7 @@ export function reactRouterHandler(
   const handle = createRequestHandler(build, process.env.NODE_ENV);
   return async (req: ExpressRequest, res: ExpressResponse) => {
     let overflow: Refusal | null = null;
-    const limit = bodyLimit(req.path);
-    const request = webRequest(req, res, () => (overflow = tooLarge(limit)));
+    const request = webRequest(req, res, (refusal) => (overflow = refusal));
     // Whatever of the body the route left unread is read and dropped once the answer is out, so a
     // client still sending gets its answer instead of a stalled or reset connection.
     res.once("finish", () => {

@@ -1,5 +1,6 @@
 import { MAX_SYNC_BODY_BYTES } from "~/lib/sync/protocol";
 import { env } from "../env.server.ts";
+import { MAX_JSON_DEPTH } from "./json-depth.server.ts";
 
 /** The largest body of a page's form (templates, the biggest forms, are ~20 kB). */
 export const FORM_MAX_BYTES = 1024 * 1024;
@@ -16,7 +17,7 @@ export function bodyLimit(pathname: string): number {
 }
 
 export interface Refusal {
-  status: 400 | 403 | 413 | 415;
+  status: 400 | 403 | 413 | 415 | 429;
   message: string;
 }
 
@@ -29,13 +30,18 @@ interface Incoming {
 }
 
 const mediaType = (header: string | undefined) => header?.split(";")[0]!.trim().toLowerCase() ?? "";
-const FORM_TYPES = new Set(["application/x-www-form-urlencoded", "multipart/form-data"]);
+// Pages take forms, and JSON from code (fetcher.submit with encType "application/json").
+const PAGE_BODY_TYPES = new Set([
+  "application/x-www-form-urlencoded",
+  "multipart/form-data",
+  "application/json",
+]);
 
 /**
  * Checks made before a state-changing request reaches a route: it comes from this site (the
  * Origin header, or Sec-Fetch-Site where a browser sends no Origin), it is no larger than its
- * route accepts as declared, and its body is of the kind the route reads — a form for pages,
- * JSON for the sync API. null when the request may go on.
+ * route accepts as declared, and its body is of a kind the route can read — a form (or JSON from
+ * code) for pages, JSON for the sync API. null when the request may go on.
  */
 export function refusal(req: Incoming): Refusal | null {
   if (READS_NO_BODY.has(req.method)) return null;
@@ -52,7 +58,7 @@ export function refusal(req: Incoming): Refusal | null {
   if (req.pathname === "/api/sync" && type !== "application/json") {
     return { status: 415, message: "Send the sync request as application/json." };
   }
-  if (!isApi(req.pathname) && hasBody && !FORM_TYPES.has(type)) {
+  if (!isApi(req.pathname) && hasBody && !PAGE_BODY_TYPES.has(type)) {
     return { status: 415, message: "This page takes a form; the request's body was something else." };
   }
   return null;
@@ -63,7 +69,12 @@ export const tooLarge = (limit: number): Refusal => ({
   message: `This request is larger than the ${Math.round(limit / 1024)} kB this address accepts.`,
 });
 
-/** Raised inside a route's body stream when the body runs past its limit (answered 413). */
+export const tooDeep = (): Refusal => ({
+  status: 400,
+  message: `The JSON in this request is nested more than ${MAX_JSON_DEPTH} levels deep.`,
+});
+
+/** Raised inside a route's body stream when the body runs past its limit or its depth (413, 400). */
 export class BodyOverLimit extends Error {
   constructor() {
     super("request body over its limit");

@@ -1,0 +1,29 @@
+// The little of autocannon's API bench/load.ts uses (the package ships no types).
+declare module "autocannon" {
+  interface Request {
+    method?: string;
+    path?: string;
+    headers?: Record<string, string>;
+    body?: string;
+  }
+  interface Options {
+    url: string;
+    connections?: number;
+    duration?: number;
+    requests?: (Request & { setupRequest?: (request: Request) => Request })[];
+  }
+  interface Histogram {
+    average: number;
+    p50: number;
+    p97_5: number;
+    p99: number;
+  }
+  interface Result {
+    requests: Histogram;
+    latency: Histogram;
+    errors: number;
+    timeouts: number;
+    non2xx: number;
+  }
+  export default function autocannon(options: Options): Promise<Result>;
+}
