@@ -110,7 +110,7 @@ describe("the manager's day", () => {
     await page.getByLabel("Gear ratio (: 1)").fill("1.5");
     await page.getByLabel("Propeller diameter (in)").fill("15");
     await page.getByLabel("Propeller pitch (in)").fill("17");
-    await page.getByLabel("Shaft diameter, inch shaft (in)").fill("1");
+    await page.getByLabel("Shaft diameter (in)").fill("1");
     await page.getByLabel("Shaft material").fill("316 stainless");
     await page.getByLabel("Coupling type").fill("Split clamp, keyed");
     await page.getByLabel("Lead", { exact: true }).selectOption({ label: "Idris Penhale" });

@@ -209,9 +209,9 @@ describe("merge by item kind on the server (issue 13 §4)", () => {
       value: stored,
     });
 
-    await push(tech, [op(id!, "flow-against-maker", { option: "at-or-above" }, 0)]);
+    await push(tech, [op(id!, "coolant-temperature-verdict", { option: "within" }, 0)]);
     const stale = await push(lead, [
-      op(id!, "flow-against-maker", { option: "no-figure", note: "None published" }, 0),
+      op(id!, "coolant-temperature-verdict", { option: "above", note: "Runs hot at cruise" }, 0),
     ]);
     expect(stale.results[0]).toMatchObject({ status: "conflict" });
   });
