@@ -215,16 +215,14 @@ export async function applySyncAnswer(
         // Refused (say, an item left): the checklist is open again here, and the reason is shown.
         const checklist = await tx.objectStore("checklists").get(op.checklistId);
         if (checklist) await tx.objectStore("checklists").put({ ...checklist, state: "in-progress" });
-        await tx
-          .objectStore("rejections")
-          .put({
-            opId: op.opId,
-            checklistId: op.checklistId,
-            itemKey: op.itemKey,
-            value: op.value,
-            reason: result.reason ?? "Refused.",
-            at: op.at,
-          });
+        await tx.objectStore("rejections").put({
+          opId: op.opId,
+          checklistId: op.checklistId,
+          itemKey: op.itemKey,
+          value: op.value,
+          reason: result.reason ?? "Refused.",
+          at: op.at,
+        });
       }
       continue;
     }
@@ -266,16 +264,14 @@ export async function applySyncAnswer(
           deviceId: op.deviceId,
         });
       } else if (result.status === "rejected") {
-        await tx
-          .objectStore("rejections")
-          .put({
-            opId: op.opId,
-            checklistId: op.checklistId,
-            itemKey: op.itemKey,
-            value: op.value,
-            reason: result.reason ?? "Refused.",
-            at: op.at,
-          });
+        await tx.objectStore("rejections").put({
+          opId: op.opId,
+          checklistId: op.checklistId,
+          itemKey: op.itemKey,
+          value: op.value,
+          reason: result.reason ?? "Refused.",
+          at: op.at,
+        });
       }
     }
   }
