@@ -1,4 +1,5 @@
-import type { ReactNode } from "react";
+import { getInputProps, type FieldMetadata } from "@conform-to/react";
+import type { InputHTMLAttributes, ReactNode } from "react";
 
 /** A labelled form control with its hint and its error, the error tied to the input for screen readers. */
 export function Field({
@@ -46,4 +47,25 @@ export function FormErrors({ errors }: { errors?: string[] | null }) {
 
 export interface FormErrorsData {
   errors?: string[] | null;
+}
+
+/** A Conform field's text-like input inside its labelled Field, with its hint and errors. */
+export function InputField<Schema>({
+  meta,
+  type = "text",
+  label,
+  hint,
+  className = "field-input",
+  ...input
+}: {
+  meta: FieldMetadata<Schema, Record<string, unknown>, string[]>;
+  type?: "text" | "date" | "email" | "password" | "file" | "search" | "tel";
+  label: ReactNode;
+  hint?: ReactNode;
+} & Omit<InputHTMLAttributes<HTMLInputElement>, "type" | "name" | "id">) {
+  return (
+    <Field id={meta.id} label={label} hint={hint} errors={meta.errors}>
+      <input {...getInputProps(meta, { type })} className={className} {...input} />
+    </Field>
+  );
 }

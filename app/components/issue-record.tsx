@@ -3,6 +3,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { Form, Link } from "react-router";
 import { issueRecordSchema } from "~/lib/validation/records";
 import { Field, FormErrors } from "./field.tsx";
+import { LocalTime } from "./local-time.tsx";
 
 /** Issuing the job's record to surveyors, once every checklist is countersigned. */
 export function IssueRecord({
@@ -34,8 +35,7 @@ export function IssueRecord({
           {records.map((r) => (
             <li key={r.id}>
               <Link to={`/records/${r.id}`} className="font-bold text-harbour underline">
-                Issued{" "}
-                {new Date(r.issued_at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" })}
+                Issued <LocalTime at={r.issued_at} style="medium" />
               </Link>{" "}
               <span className="font-mono text-sm">{r.digest.slice(0, 16)}…</span>
             </li>

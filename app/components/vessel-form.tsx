@@ -8,7 +8,7 @@ import {
 } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form } from "react-router";
-import { Field, FormErrors } from "./field.tsx";
+import { Field, FormErrors, InputField } from "./field.tsx";
 import { hullTypeLabels, hullTypes, vesselSchema, type VesselInput } from "~/lib/validation/vessels";
 
 export function VesselForm({
@@ -37,9 +37,7 @@ export function VesselForm({
       <div className="md:col-span-2">
         <FormErrors errors={form.errors} />
       </div>
-      <Field id={fields.name.id} label="Vessel name" errors={fields.name.errors}>
-        <input {...getInputProps(fields.name, { type: "text" })} className="field-input" />
-      </Field>
+      <InputField meta={fields.name} label="Vessel name" />
       <Field
         id={fields.hin.id}
         label="Hull identification number (HIN)"
@@ -77,15 +75,9 @@ export function VesselForm({
           ))}
         </select>
       </Field>
-      <Field id={fields.ownerName.id} label="Owner" errors={fields.ownerName.errors}>
-        <input {...getInputProps(fields.ownerName, { type: "text" })} className="field-input" />
-      </Field>
-      <Field id={fields.ownerEmail.id} label="Owner's e-mail" errors={fields.ownerEmail.errors}>
-        <input {...getInputProps(fields.ownerEmail, { type: "email" })} className="field-input" />
-      </Field>
-      <Field id={fields.ownerPhone.id} label="Owner's phone" errors={fields.ownerPhone.errors}>
-        <input {...getInputProps(fields.ownerPhone, { type: "tel" })} className="field-input" />
-      </Field>
+      <InputField meta={fields.ownerName} label="Owner" />
+      <InputField meta={fields.ownerEmail} type="email" label="Owner's e-mail" />
+      <InputField meta={fields.ownerPhone} type="tel" label="Owner's phone" />
       <div className="md:col-span-2">
         <Field
           id={fields.waterlineNotes.id}

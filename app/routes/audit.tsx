@@ -1,17 +1,11 @@
-import {
-  getFormProps,
-  getInputProps,
-  getSelectProps,
-  useForm,
-  type SubmissionResult,
-} from "@conform-to/react";
+import { getFormProps, getSelectProps, useForm, type SubmissionResult } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { createColumnHelper, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
-import { useEffect, useMemo, useState } from "react";
+import { useMemo } from "react";
 import { Form, Link, useSearchParams } from "react-router";
 import type { Route } from "./+types/audit";
 import { PageHeader } from "~/components/app-shell";
-import { Field } from "~/components/field";
+import { Field, InputField } from "~/components/field";
 import { roleLabels } from "~/lib/roles";
 import {
   actionInWords,
@@ -25,6 +19,7 @@ import { listAuditEntries, type AuditLogEntry } from "~/server/audit-log.server"
 import { requireCapability } from "~/server/permissions.server";
 import { listUsers } from "~/server/users.server";
 import { TableBody } from "~/components/table-body";
+import { useReaderTimeZone } from "~/components/local-time";
 
 export const meta: Route.MetaFunction = () => [{ title: "Audit log · Sternpost" }];
 
@@ -47,13 +42,6 @@ export async function loader({ request }: Route.LoaderArgs) {
       zone: null,
     };
   return { people, reply: null, zone: submission.value.tz, ...(await listAuditEntries(submission.value)) };
-}
-
-/** UTC while rendering on the server, the reader's own zone once the page runs in the browser. */
-function useReaderTimeZone() {
-  const [zone, setZone] = useState("UTC");
-  useEffect(() => setZone(Intl.DateTimeFormat().resolvedOptions().timeZone), []);
-  return zone;
 }
 
 /** The current filters with one changed and paging restarted. */
@@ -234,36 +222,21 @@ function AuditFilters({
           ))}
         </select>
       </Field>
-      <Field
-        id={fields.entityId.id}
+      <InputField
+        meta={fields.entityId}
         label="Its id"
         hint="The number or code after the kind, e.g. 12."
-        errors={fields.entityId.errors}
-      >
-        <input
-          {...getInputProps(fields.entityId, { type: "text" })}
-          className="field-input"
-          autoComplete="off"
-        />
-      </Field>
-      <Field id={fields.from.id} label="First day" errors={fields.from.errors}>
-        <input {...getInputProps(fields.from, { type: "date" })} className="field-input" />
-      </Field>
-      <Field id={fields.to.id} label="Last day" errors={fields.to.errors}>
-        <input {...getInputProps(fields.to, { type: "date" })} className="field-input" />
-      </Field>
-      <Field
-        id={fields.device.id}
+        autoComplete="off"
+      />
+      <InputField meta={fields.from} type="date" label="First day" />
+      <InputField meta={fields.to} type="date" label="Last day" />
+      <InputField
+        meta={fields.device}
         label="Device"
         hint="A tablet's id, as shown in the Device column."
-        errors={fields.device.errors}
-      >
-        <input
-          {...getInputProps(fields.device, { type: "text" })}
-          className="field-input font-mono"
-          autoComplete="off"
-        />
-      </Field>
+        className="field-input font-mono"
+        autoComplete="off"
+      />
       <div className="flex flex-wrap items-end gap-2 self-end">
         <button type="submit" className="btn btn-primary">
           Show entries

@@ -1,6 +1,7 @@
 import { data } from "react-router";
 import type { Route } from "./+types/dev-mail";
 import { listSunkMail } from "~/server/mail-sink.server";
+import { LocalTime } from "~/components/local-time";
 import { requireCapability } from "~/server/permissions.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Mail caught locally · Sternpost" }];
@@ -37,7 +38,7 @@ export default function DevMail({ loaderData }: Route.ComponentProps) {
         {loaderData.messages.map((m) => (
           <li key={m.id} className="card" data-testid="mail">
             <p className="text-sm text-ink-soft">
-              {new Date(m.receivedAt).toLocaleString("en-GB")} · from {m.from} · to {m.to.join(", ")}
+              <LocalTime at={m.receivedAt} style="full" /> · from {m.from} · to {m.to.join(", ")}
             </p>
             <h2 className="mt-1 text-xl font-bold">{m.subject}</h2>
             <pre className="mt-2 font-sans whitespace-pre-wrap">{linkify(m.text)}</pre>

@@ -10,6 +10,7 @@ import { listChecklistsOfJobs } from "~/server/checklists.server";
 import { listVisibleJobs } from "~/server/jobs.server";
 import { recordsIssuedTo } from "~/server/records.server";
 import type { Role } from "~/lib/roles";
+import { LocalTime } from "~/components/local-time";
 
 export const meta: Route.MetaFunction = () => [{ title: "Today · Sternpost" }];
 
@@ -120,9 +121,13 @@ function OfflineReadiness() {
       </button>
       <p role="status" data-testid="offline-readiness">
         {state.message ??
-          (state.readyAt
-            ? `Available offline since ${new Date(state.readyAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}.`
-            : "Do this once with a connection before going aboard.")}
+          (state.readyAt ? (
+            <>
+              Available offline since <LocalTime at={state.readyAt} />.
+            </>
+          ) : (
+            "Do this once with a connection before going aboard."
+          ))}
       </p>
     </div>
   );
@@ -146,8 +151,7 @@ export default function Today({ loaderData }: Route.ComponentProps) {
                 <Link to={`/records/${r.id}`} className="card flex flex-col no-underline">
                   <span className="text-xl font-bold text-ink">{r.vesselName}</span>
                   <span className="text-ink-soft">
-                    {r.engineModel} · issued{" "}
-                    {new Date(r.issuedAt).toLocaleDateString("en-GB", { dateStyle: "medium" })}
+                    {r.engineModel} · issued <LocalTime at={r.issuedAt} style="date" />
                   </span>
                 </Link>
               </li>

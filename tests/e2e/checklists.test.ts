@@ -1,12 +1,23 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { connect } from "../../db/connect.ts";
 import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
+import { makeCrewedJob, TEST_PASSWORD } from "../support/fixtures.ts";
 
 let browser: Browser;
+const knex = connect(process.env.E2E_DATABASE_URL!);
+/** This file's own realignment, with no checklists started yet. */
+const HULL = "Shag of Inishbofin";
+let crew: Awaited<ReturnType<typeof makeCrewedJob>>;
 beforeAll(async () => {
   browser = await launch();
+  crew = await makeCrewedJob(knex, HULL, []);
+  await knex("jobs").where({ id: crew.job.id }).update({ scope: "realignment" });
 });
-afterAll(() => browser?.close());
+afterAll(async () => {
+  await browser?.close();
+  await knex.destroy();
+});
 
 describe("starting and reading a job's checklists", () => {
   it("a manager starts the default set; the technician opens one and reads it on a tablet", async () => {
@@ -14,7 +25,7 @@ describe("starting and reading a job's checklists", () => {
     const page = await context.newPage();
     await signIn(page, "manager@kittiwake-slip.example");
     await open(page, "/jobs");
-    await page.getByRole("link", { name: "Merrow" }).click();
+    await page.getByRole("link", { name: HULL }).click();
     await page.getByRole("heading", { name: "Checklists" }).waitFor();
     // A realignment's defaults: engine alignment and the sea trial, ticked already.
     expect(await page.getByLabel(/Engine alignment/).isChecked()).toBe(true);
@@ -30,9 +41,9 @@ describe("starting and reading a job's checklists", () => {
 
     const tech = await tabletContext(browser);
     const techPage = await tech.context.newPage();
-    await signIn(techPage, "tech2@kittiwake-slip.example");
+    await signIn(techPage, crew.technician.email, TEST_PASSWORD);
     await open(techPage, "/jobs");
-    await techPage.getByRole("link", { name: "Merrow" }).click();
+    await techPage.getByRole("link", { name: HULL }).click();
     await techPage.getByRole("link", { name: "Engine alignment" }).click();
     await techPage.getByRole("heading", { level: 1, name: "Engine alignment" }).waitFor();
     await techPage

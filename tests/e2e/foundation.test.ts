@@ -1,7 +1,7 @@
 import type { Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { demoPeople } from "../../db/seeds/demo-people.ts";
-import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
+import { baseUrl, expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
 import { waitForMail } from "../support/mail.ts";
 
 let browser: Browser;
@@ -63,7 +63,8 @@ describe("the manager's day", () => {
     const mail = await waitForMail(email);
     expect(mail.subject).toMatch(/invited to Sternpost/);
     const link = mail.text.match(/https?:\/\/\S+\/invitation\/\S+/)?.[0];
-    expect(link).toBeTruthy();
+    // The link is the app's own address and a 43-character base64url token (32 random bytes).
+    expect(link).toMatch(new RegExp(`^${baseUrl()}/invitation/[A-Za-z0-9_-]{43}$`));
 
     // The development page shows the same message with its link.
     await open(page, "/dev/mail");

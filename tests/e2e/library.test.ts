@@ -3,13 +3,17 @@ import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
 import { expectNoConsoleErrors, hydrated, launch, open, signIn, tabletContext } from "../support/browser.ts";
-import { makeJob } from "../support/fixtures.ts";
+import { makeCrewedJob, makeJob, TEST_PASSWORD } from "../support/fixtures.ts";
 
 let browser: Browser;
 let knex: Knex;
+/** This file's own job on version 1 of engine alignment, which must keep it when version 2 is published. */
+const HULL = "Razorbill of Keem";
+let crew: Awaited<ReturnType<typeof makeCrewedJob>>;
 beforeAll(async () => {
   browser = await launch();
   knex = connect(process.env.E2E_DATABASE_URL!);
+  crew = await makeCrewedJob(knex, HULL, ["engine-alignment"]);
 });
 afterAll(async () => {
   // Other files expect the starter library (versions 1 and 2): whatever this test published is retired again.
@@ -134,9 +138,8 @@ describe("keeping the template library current", () => {
         .update({ title: "Edited" }),
     ).rejects.toThrow(/cannot be changed/);
 
-    // A new job gets version 3; Tern of Helvick keeps version 1.
-    const lead = (await knex("users").where({ email: "lead@kittiwake-slip.example" }).first())!;
-    const job = await makeJob(knex, lead.id);
+    // A new job gets version 3; this file's job started on version 1 keeps it.
+    const job = await makeJob(knex, crew.lead.id);
     await open(page, `/jobs/${job.id}`);
     await page.getByRole("button", { name: "Start the ticked checklists" }).click();
     await expect
@@ -148,11 +151,7 @@ describe("keeping the template library current", () => {
       .first("t.version");
     expect(checklist.version).toBe(3);
 
-    const tern = await knex("jobs")
-      .join("vessels", "vessels.id", "jobs.vessel_id")
-      .where("vessels.name", "Tern of Helvick")
-      .first("jobs.id");
-    expect(await jobChecklists(page, tern.id)).toMatch(
+    expect(await jobChecklists(page, crew.job.id)).toMatch(
       /Engine alignment\s*Version 1\s*Version 3 published since/,
     );
 
@@ -161,7 +160,7 @@ describe("keeping the template library current", () => {
       "New jobs start from version 3.",
     );
     expect(await alignment.locator('tr[data-version="1"]').innerText()).toMatch(
-      /Published · superseded[\s\S]*\d+ jobs?[\s\S]*Tern of Helvick/,
+      new RegExp(`Published · superseded[\\s\\S]*\\d+ jobs?[\\s\\S]*${HULL}`),
     );
 
     // Retiring version 3 sends new jobs back to version 2 (and leaves the demo library as it was).
@@ -184,7 +183,7 @@ describe("keeping the template library current", () => {
   it("a technician reads published versions but no drafts and no editing", async () => {
     const { context, errors } = await tabletContext(browser);
     const page = await context.newPage();
-    await signIn(page, "tech@kittiwake-slip.example");
+    await signIn(page, crew.technician.email, TEST_PASSWORD);
     await open(page, "/library");
     expect(await page.getByRole("button", { name: /New draft/ }).count()).toBe(0);
     expect(await page.getByRole("link", { name: "Import a template file" }).count()).toBe(0);

@@ -1,12 +1,28 @@
 import type { Browser, BrowserContext, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
-import { expectNoConsoleErrors, hydrated, launch, signIn, tabletContext } from "../support/browser.ts";
+import {
+  expectNoConsoleErrors,
+  goOfflineReady,
+  hydrated,
+  launch,
+  signIn,
+  tabletContext,
+} from "../support/browser.ts";
+import { makeCrewedJob, TEST_PASSWORD } from "../support/fixtures.ts";
 
 let browser: Browser;
 const knex = connect(process.env.E2E_DATABASE_URL!);
+/** This file's own hull, crew and checklists: nothing here depends on the demo's entries. */
+let crew: Awaited<ReturnType<typeof makeCrewedJob>>;
+const checklistKeys: Record<string, string> = {
+  "Engine alignment": "engine-alignment",
+  Cooling: "cooling",
+  "Sea trial": "sea-trial",
+};
 beforeAll(async () => {
   browser = await launch();
+  crew = await makeCrewedJob(knex, "Skua of Garron", Object.values(checklistKeys));
 });
 afterAll(async () => {
   await browser?.close();
@@ -14,15 +30,6 @@ afterAll(async () => {
 });
 
 const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
-
-async function goOfflineReady(page: Page) {
-  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
-  await page.getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ }).click();
-  await page
-    .getByTestId("offline-readiness")
-    .getByText(/Ready offline/)
-    .waitFor();
-}
 
 async function openChecklist(page: Page, title: string) {
   await page.getByRole("link", { name: "Today" }).click();
@@ -35,14 +42,12 @@ async function openChecklist(page: Page, title: string) {
 
 const item = (page: Page, key: string) => page.locator(`[data-item="${key}"]`);
 
+const checklistId = (title: string) => crew.checklists[checklistKeys[title]!]!;
+
 async function response(checklistTitle: string, itemKey: string) {
-  const row = await knex("checklist_responses as r")
-    .join("job_checklists as c", "c.id", "r.checklist_id")
-    .join("template_versions as t", "t.id", "c.template_version_id")
-    .join("jobs as j", "j.id", "c.job_id")
-    .join("vessels as v", "v.id", "j.vessel_id")
-    .where({ "v.name": "Tern of Helvick", "t.title": checklistTitle, "r.item_key": itemKey })
-    .first("r.value", "r.rev");
+  const row = await knex("checklist_responses")
+    .where({ checklist_id: checklistId(checklistTitle), item_key: itemKey })
+    .first("value", "rev");
   return row ? { value: parse(row.value) as any, rev: row.rev as number } : undefined;
 }
 
@@ -52,7 +57,7 @@ describe("working with no connection", () => {
     const tablet = await tabletContext(browser);
     context = tablet.context;
     const page = await context.newPage();
-    await signIn(page, "tech@kittiwake-slip.example");
+    await signIn(page, crew.technician.email, TEST_PASSWORD);
     await goOfflineReady(page);
 
     await context.setOffline(true);
@@ -157,10 +162,13 @@ describe("working with no connection", () => {
       [0.012, 0.01, 0.011, 0.011],
     ]);
     expect((await response("Engine alignment", "usual-trim"))?.value).toEqual({ result: "pass" });
-    expect((await response("Cooling", "flow-against-maker"))?.value.option).toBeTruthy();
+    expect((await response("Cooling", "flow-against-maker"))?.value.option).toBe("at-or-above");
     expect((await response("Cooling", "cooling-done"))?.value.initials).toBe("TA");
     expect((await response("Sea trial", "trial-conditions"))?.value.text).toMatch(/Wind SW/);
-    const history = await knex("response_history").where({ item_key: "time-afloat" });
+    const history = await knex("response_history").where({
+      checklist_id: checklistId("Engine alignment"),
+      item_key: "time-afloat",
+    });
     expect(history).toHaveLength(2);
     expectNoConsoleErrors(tablet.errors.filter((e) => !/ERR_INTERNET_DISCONNECTED/.test(e)));
     await context.close();
@@ -171,8 +179,8 @@ describe("working with no connection", () => {
     const leadTablet = await tabletContext(browser);
     const tech = await techTablet.context.newPage();
     const lead = await leadTablet.context.newPage();
-    await signIn(tech, "tech@kittiwake-slip.example");
-    await signIn(lead, "lead@kittiwake-slip.example");
+    await signIn(tech, crew.technician.email, TEST_PASSWORD);
+    await signIn(lead, crew.lead.email, TEST_PASSWORD);
     await goOfflineReady(tech);
     await goOfflineReady(lead);
     await techTablet.context.setOffline(true);
@@ -208,7 +216,9 @@ describe("working with no connection", () => {
     await expect
       .poll(async () => (await response("Cooling", "seacock"))?.value, { timeout: 20_000 })
       .toEqual({ result: "fail" });
-    const row = (await knex("sync_conflicts").where({ item_key: "seacock" }).first())!;
+    const row = (await knex("sync_conflicts")
+      .where({ checklist_id: checklistId("Cooling"), item_key: "seacock" })
+      .first())!;
     expect(row.resolved_at).not.toBeNull();
     await techTablet.context.close();
     await leadTablet.context.close();

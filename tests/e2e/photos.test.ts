@@ -2,13 +2,25 @@ import { createHash } from "node:crypto";
 import type { Browser, Locator, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
-import { expectNoConsoleErrors, hydrated, launch, signIn, tabletContext } from "../support/browser.ts";
+import {
+  expectNoConsoleErrors,
+  goOfflineReady,
+  hydrated,
+  launch,
+  signIn,
+  tabletContext,
+} from "../support/browser.ts";
+import { makeCrewedJob, TEST_PASSWORD } from "../support/fixtures.ts";
 import { gradientPng } from "../unit/photos/images.ts";
 
 let browser: Browser;
 const knex = connect(process.env.E2E_DATABASE_URL!);
+const HULL = "Guillemot of Ard";
+/** This file's own hull, crew and alignment checklist. */
+let crew: Awaited<ReturnType<typeof makeCrewedJob>>;
 beforeAll(async () => {
   browser = await launch();
+  crew = await makeCrewedJob(knex, HULL, ["engine-alignment"]);
 });
 afterAll(async () => {
   await browser?.close();
@@ -18,18 +30,9 @@ afterAll(async () => {
 const parse = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 const sha256 = (bytes: Uint8Array) => createHash("sha256").update(bytes).digest("hex");
 
-async function goOfflineReady(page: Page) {
-  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
-  await page.getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ }).click();
-  await page
-    .getByTestId("offline-readiness")
-    .getByText(/Ready offline/)
-    .waitFor();
-}
-
 async function openAlignmentPhotos(page: Page): Promise<Locator> {
   await page.getByRole("link", { name: "Today" }).click();
-  const job = page.locator('[data-testid^="job-"]').filter({ hasText: "Tern of Helvick" });
+  const job = page.locator('[data-testid^="job-"]').filter({ hasText: HULL });
   await job.getByRole("link", { name: /^Engine alignment/ }).click();
   await page.getByRole("heading", { level: 1, name: "Engine alignment" }).waitFor();
   await page.getByRole("button", { name: /^4\. Fasteners locked/ }).click();
@@ -46,16 +49,9 @@ async function picturesShown(item: Locator): Promise<number> {
 }
 
 async function alignmentPhotoValue() {
-  const row = await knex("checklist_responses as r")
-    .join("job_checklists as c", "c.id", "r.checklist_id")
-    .join("jobs as j", "j.id", "c.job_id")
-    .join("vessels as v", "v.id", "j.vessel_id")
-    .where({
-      "v.name": "Tern of Helvick",
-      "c.template_key": "engine-alignment",
-      "r.item_key": "alignment-photo",
-    })
-    .first("r.value");
+  const row = await knex("checklist_responses")
+    .where({ checklist_id: crew.checklists["engine-alignment"]!, item_key: "alignment-photo" })
+    .first("value");
   return row ? (parse(row.value) as { photos: { id: string; sha256: string }[] }) : undefined;
 }
 
@@ -63,7 +59,7 @@ describe("photos taken with no connection", () => {
   it("are kept on the tablet through a reload, reach the store when the connection returns, and the lead sees them", async () => {
     const tablet = await tabletContext(browser);
     const page = await tablet.context.newPage();
-    await signIn(page, "tech@kittiwake-slip.example");
+    await signIn(page, crew.technician.email, TEST_PASSWORD);
     await goOfflineReady(page);
     // Two real pictures: a PNG built from its bytes, and a JPEG drawn and encoded by Chromium itself.
     const png = gradientPng(120, 90, 3);
@@ -132,16 +128,9 @@ describe("photos taken with no connection", () => {
       expect((await knex("photos").where({ id: photo.id }).first("sha256"))?.sha256).toBe(photo.sha256);
     }
     // The removed photo reaches the store too: the item's history lists it.
-    const history = await knex("response_history as h")
-      .join("job_checklists as c", "c.id", "h.checklist_id")
-      .join("jobs as j", "j.id", "c.job_id")
-      .join("vessels as v", "v.id", "j.vessel_id")
-      .where({
-        "v.name": "Tern of Helvick",
-        "c.template_key": "engine-alignment",
-        "h.item_key": "alignment-photo",
-      })
-      .pluck("h.value");
+    const history = await knex("response_history")
+      .where({ checklist_id: crew.checklists["engine-alignment"]!, item_key: "alignment-photo" })
+      .pluck("value");
     const everListed = new Set(
       history.flatMap((v) => (parse(v) as { photos: { id: string }[] }).photos.map((p) => p.id)),
     );
@@ -167,7 +156,7 @@ describe("photos taken with no connection", () => {
     // The lead, on another tablet, sees them from the server.
     const leadTablet = await tabletContext(browser);
     const lead = await leadTablet.context.newPage();
-    await signIn(lead, "lead@kittiwake-slip.example");
+    await signIn(lead, crew.lead.email, TEST_PASSWORD);
     const seen = await openAlignmentPhotos(lead);
     await seen.getByTestId("photo-count").getByText("2 photos · at least 1 needed").waitFor();
     await expect.poll(() => picturesShown(seen)).toBe(2);

@@ -2,7 +2,11 @@ import { afterAll, describe, expect, it } from "vitest";
 import { connect, createDatabase, dropDatabase } from "../../db/connect.ts";
 
 describe("migrations", () => {
-  const url = process.env.DATABASE_URL!.replace(/\/[^/]+$/, "/sternpost_migrations");
+  // Suffixed like every test database, so two checkouts testing on one server do not share it.
+  const url = process.env.DATABASE_URL!.replace(
+    /\/[^/]+$/,
+    `/sternpost_migrations${process.env.TEST_DB_SUFFIX ?? ""}`,
+  );
   afterAll(() => dropDatabase(url));
 
   it("run up, all the way down, and up again on MariaDB", async () => {

@@ -2,6 +2,9 @@ import { chromium, type Browser, type BrowserContext, type Page } from "playwrig
 import { expect } from "vitest";
 import { DEMO_PASSWORD } from "../../db/seeds/demo-people.ts";
 
+/** The tablets' zone in every browser test (the server and the database keep UTC). */
+export const TABLET_TIME_ZONE = "America/St_Johns";
+
 export const baseUrl = () => process.env.E2E_BASE_URL ?? "http://localhost:3100";
 
 /**
@@ -36,6 +39,8 @@ export async function tabletContext(
     viewport: { width: 820, height: 1180 },
     baseURL: baseUrl(),
     hasTouch: true,
+    // Not UTC, and half an hour off the hour: a date or time read in the wrong zone shows.
+    timezoneId: TABLET_TIME_ZONE,
   });
   const errors: string[] = [];
   context.on("page", (page) => watch(page, errors));
@@ -72,4 +77,14 @@ export async function signIn(page: Page, email: string, password = DEMO_PASSWORD
   await page.getByRole("button", { name: "Sign in" }).click();
   await page.waitForURL((url) => !url.pathname.startsWith("/login"));
   await hydrated(page);
+}
+
+/** Takes the signed-in person's jobs offline (or refreshes the copy) and waits until it is ready. */
+export async function goOfflineReady(page: Page) {
+  await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
+  await page.getByRole("button", { name: /Make my jobs available offline|Refresh the offline copy/ }).click();
+  await page
+    .getByTestId("offline-readiness")
+    .getByText(/Ready offline/)
+    .waitFor();
 }

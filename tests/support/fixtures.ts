@@ -1,4 +1,5 @@
 import bcrypt from "bcryptjs";
+import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import type { Role } from "../../app/lib/roles.ts";
 
@@ -56,4 +57,32 @@ export async function makeJob(knex: Knex, leadId: number, technicianIds: number[
   if (technicianIds.length)
     await knex("job_technicians").insert(technicianIds.map((user_id) => ({ job_id: id, user_id })));
   return { id: id as number, vesselId: vessel };
+}
+
+/**
+ * A job of a test file's own: a lead and a technician (password TEST_PASSWORD), a hull with a
+ * unique name, and checklists pinned to version 1 of each template key (as the library seeds it,
+ * whatever other files publish or retire meanwhile).
+ * End-to-end files use it so that none depends on the demo's boats, people or entries.
+ */
+export async function makeCrewedJob(knex: Knex, hullName: string, templateKeys: string[]) {
+  const lead = await makeUser(knex, "lead", { name: `${hullName} lead` });
+  const technician = await makeUser(knex, "technician", { name: `${hullName} technician` });
+  const vesselId = await makeVessel(knex, lead.id);
+  await knex("vessels").where({ id: vesselId }).update({ name: hullName });
+  const job = await makeJob(knex, lead.id, [technician.id], vesselId);
+  const checklists: Record<string, string> = {};
+  for (const key of templateKeys) {
+    const version = await knex("template_versions").where({ template_key: key, version: 1 }).first("id");
+    if (!version) throw new Error(`No version 1 of ${key} to start.`);
+    checklists[key] = randomUUID();
+    await knex("job_checklists").insert({
+      id: checklists[key],
+      job_id: job.id,
+      template_version_id: version.id,
+      template_key: key,
+      started_by: lead.id,
+    });
+  }
+  return { lead, technician, job, checklists };
 }

@@ -16,6 +16,7 @@ import {
   type ReadingsValue,
   type Verdict,
 } from "~/lib/templates";
+import { LocalTime } from "~/components/local-time";
 
 export interface EditorProps<I extends Item = Item> {
   item: I;
@@ -211,7 +212,7 @@ function Attempts({ attempts }: { attempts: { text: string; by: string; at: stri
             <td className="num py-1 pr-2">{a.text}</td>
             <td className="py-1 pr-2">{a.by}</td>
             <td className="py-1">
-              {new Date(a.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}
+              <LocalTime at={a.at} />
             </td>
           </tr>
         ))}
@@ -417,8 +418,7 @@ export function InitialsEditor({ item, value, by, disabled, onSave }: EditorProp
   if (value)
     return (
       <p className="font-bold">
-        Confirmed by {value.initials} ({value.by}),{" "}
-        {new Date(value.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}.
+        Confirmed by {value.initials} ({value.by}), <LocalTime at={value.at} />.
       </p>
     );
   return (

@@ -1,7 +1,7 @@
 import { Form, Link } from "react-router";
-import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
 import type { LibraryTemplate, LibraryVersion } from "~/server/library.server";
 import { shortDate, VersionStatusBadge } from "./version-status.tsx";
+import { VersionUses } from "./version-uses.tsx";
 
 function UsedBy({ version }: { version: LibraryVersion }) {
   if (version.jobCount === 0) return <span className="text-ink-soft">No jobs</span>;
@@ -11,20 +11,7 @@ function UsedBy({ version }: { version: LibraryVersion }) {
       <span className="font-bold">
         {version.jobCount} job{version.jobCount === 1 ? "" : "s"}
       </span>
-      {version.jobs.length > 0 && (
-        <ul className="flex flex-col">
-          {version.jobs.map((j) => (
-            <li key={j.checklistId}>
-              <Link to={`/jobs/${j.jobId}`} className="text-harbour underline">
-                {j.vesselName}
-              </Link>{" "}
-              <span className="text-sm text-ink-soft">
-                {checklistStateLabels[j.state as ChecklistState] ?? j.state}
-              </span>
-            </li>
-          ))}
-        </ul>
-      )}
+      {version.jobs.length > 0 && <VersionUses uses={version.jobs} linkTo="job" className="flex flex-col" />}
       {hidden > 0 && <span className="text-sm text-ink-soft">and {hidden} not on your jobs</span>}
     </div>
   );

@@ -8,7 +8,7 @@ import {
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form } from "react-router";
 import { z } from "zod";
-import { Field, FormErrors } from "~/components/field";
+import { Field, FormErrors, InputField } from "~/components/field";
 import { templateSchema } from "~/lib/templates";
 
 /** A new template's key, title and purpose, checked by the template schema's own rules. */
@@ -32,9 +32,7 @@ export function NewTemplateForm({ lastResult }: { lastResult?: SubmissionResult<
       <div className="md:col-span-2">
         <FormErrors errors={form.errors} />
       </div>
-      <Field id={fields.title.id} label="Title" errors={fields.title.errors}>
-        <input {...getInputProps(fields.title, { type: "text" })} className="field-input" />
-      </Field>
+      <InputField meta={fields.title} label="Title" />
       <Field
         id={fields.key.id}
         label="Key"

@@ -14,6 +14,7 @@ import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
 import { commentsOn } from "~/server/offline.server";
 import { addComment, countersign, returnChecklist } from "~/server/review.server";
+import { LocalTime } from "~/components/local-time";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `Review: ${data?.checklist.title ?? "Checklist"} · Sternpost` },
@@ -205,11 +206,7 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
               >
                 {responses[item.key] && (
                   <p className="text-sm text-ink-soft">
-                    Last entry by {responses[item.key]!.by},{" "}
-                    {new Date(responses[item.key]!.at).toLocaleString("en-GB", {
-                      dateStyle: "short",
-                      timeStyle: "short",
-                    })}{" "}
+                    Last entry by {responses[item.key]!.by}, <LocalTime at={responses[item.key]!.at} />{" "}
                     (revision {responses[item.key]!.rev})
                   </p>
                 )}

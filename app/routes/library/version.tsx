@@ -7,8 +7,8 @@ import { ChecklistOutline } from "~/components/checklist/checklist-outline";
 import { FormErrors } from "~/components/field";
 import { TemplateDiffView } from "~/components/library/template-diff";
 import { TwoStepButton } from "~/components/library/two-step-button";
+import { VersionUses } from "~/components/library/version-uses";
 import { shortDate, VersionStatusBadge } from "~/components/library/version-status";
-import { checklistStateLabels, type ChecklistState } from "~/lib/checklist-sets";
 import { can } from "~/lib/permissions";
 import { diffTemplates } from "~/lib/templates";
 import { versionActionSchema } from "~/lib/validation/library";
@@ -156,18 +156,7 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
               {jobsWord(entry.jobCount)} started from this version {keep(entry.jobCount)} it, whatever is
               published later.
             </p>
-            <ul className="mt-2 flex flex-col gap-1">
-              {entry.jobs.map((j) => (
-                <li key={j.checklistId}>
-                  <Link to={`/checklists/${j.checklistId}`} className="text-harbour underline">
-                    {j.vesselName}
-                  </Link>{" "}
-                  <span className="text-sm text-ink-soft">
-                    {checklistStateLabels[j.state as ChecklistState] ?? j.state}
-                  </span>
-                </li>
-              ))}
-            </ul>
+            <VersionUses uses={entry.jobs} linkTo="checklist" className="mt-2 flex flex-col gap-1" />
             {entry.jobCount > entry.jobs.length && (
               <p className="text-sm text-ink-soft">
                 and {entry.jobCount - entry.jobs.length} not on your jobs

@@ -6,6 +6,7 @@ import { describeRule, describeValue, progress } from "~/lib/templates";
 import { jobScopeLabels } from "~/lib/validation/jobs";
 import { audit } from "~/server/audit.server";
 import { requireRecord } from "~/server/record-access.server";
+import { LocalTime } from "~/components/local-time";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `Record: ${data?.record.content.vessel.name ?? ""} · Sternpost` },
@@ -18,8 +19,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return { record };
 }
 
-const when = (at?: string) =>
-  at ? new Date(at).toLocaleString("en-GB", { dateStyle: "medium", timeStyle: "short" }) : "—";
+const when = (at?: string) => (at ? <LocalTime at={at} style="medium" /> : "—");
 
 export default function RecordView({ loaderData }: Route.ComponentProps) {
   const { record } = loaderData;
