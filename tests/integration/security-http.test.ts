@@ -196,7 +196,6 @@ describe("what one account can make the server store (finding 10)", () => {
         headers: { "Content-Type": "application/json", Origin: server.url, Cookie: cookie },
         body: JSON.stringify({ deviceId: "spam-device", cursor: null, ops: [] }),
       });
-    expect((await sync()).status).toBe(200);
     // 5,000 refused operations' bookkeeping rows in the last hour, as 5 full requests would leave.
     const rows = Array.from({ length: 5000 }, (_, i) => ({
       op_id: crypto.randomUUID(),
