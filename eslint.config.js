@@ -25,19 +25,7 @@ export default tseslint.config(
       "no-empty": ["error", { allowEmptyCatch: true }],
     },
   },
-  // Files still reading untyped rows; each leaves this list when its rows are typed.
-  {
-    files: [
-      "app/components/checklist/editors.tsx",
-      "app/lib/sync/protocol.ts",
-      "app/lib/templates/describe-value.ts",
-      "app/routes/api/sync.ts",
-      "app/server/offline.server.ts",
-      "app/server/sync.server.ts",
-      "app/server/users.server.ts",
-    ],
-    rules: { "@typescript-eslint/no-explicit-any": "off" },
-  },
+
   // Tests poke at raw JSON and rows on purpose.
   {
     files: ["tests/**", "bench/**", "db/**", "scripts/**"],

@@ -2,10 +2,11 @@ import { canFillJob, type Actor } from "~/lib/permissions";
 import type { ConflictRecord, OfflineBundle } from "~/lib/sync/bundle";
 import { changesPage } from "./sync.server.ts";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
+import type { Template } from "~/lib/templates";
 import { listVisibleJobs } from "./jobs.server.ts";
+import type { ChecklistStateColumn, SyncConflictRow } from "./tables.server.ts";
 import type { User } from "./users.server.ts";
-
-const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 
 /** The review comments on the given checklists, oldest first. */
 export async function commentsOn(checklistIds: string[], knex = db()) {
@@ -14,13 +15,15 @@ export async function commentsOn(checklistIds: string[], knex = db()) {
     .whereIn("m.checklist_id", checklistIds)
     .orderBy("m.id")
     .select("m.checklist_id", "m.item_key", "m.text", "m.at", "u.name");
-  return rows.map((r: any) => ({
-    checklistId: r.checklist_id as string,
-    itemKey: r.item_key as string,
-    by: r.name as string,
-    at: new Date(r.at).toISOString(),
-    text: r.text as string,
-  }));
+  return (rows as { checklist_id: string; item_key: string; text: string; at: Date; name: string }[]).map(
+    (r) => ({
+      checklistId: r.checklist_id,
+      itemKey: r.item_key,
+      by: r.name,
+      at: new Date(r.at).toISOString(),
+      text: r.text,
+    }),
+  );
 }
 
 /** Open conflicts on the given checklists, for the person who decides them. */
@@ -36,14 +39,15 @@ export async function openConflicts(checklistIds: string[]): Promise<ConflictRec
     .whereNull("k.resolved_at")
     .orderBy("k.id")
     .select("k.*", "u.name", "su.name as server_by", "h.at as server_at");
-  return rows.map((r: any) => ({
+  type Row = SyncConflictRow & { name: string; server_by: string | null; server_at: Date | null };
+  return (rows as Row[]).map((r) => ({
     id: r.id,
     checklistId: r.checklist_id,
     itemKey: r.item_key,
-    serverValue: json(r.server_value),
+    serverValue: parseJsonColumn(r.server_value),
     serverRev: r.server_rev,
-    clientValue: json(r.client_value),
-    ...(r.server_by ? { serverBy: r.server_by, serverAt: new Date(r.server_at).toISOString() } : {}),
+    clientValue: parseJsonColumn(r.client_value),
+    ...(r.server_by ? { serverBy: r.server_by, serverAt: new Date(r.server_at!).toISOString() } : {}),
     by: r.name,
     at: new Date(r.received_at).toISOString(),
     deviceId: r.device_id,
@@ -59,13 +63,21 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
   const jobIds = jobs.map((j) => j.id);
   return db().transaction(async (trx) => {
     const cursor = String((await trx("sync_clock").where({ id: 1 }).first())!.seq);
-    const checklistRows = jobIds.length
+    const checklistRows: {
+      id: string;
+      job_id: number;
+      state: ChecklistStateColumn;
+      template_key: string;
+      title: string;
+      version: number;
+      body: string;
+    }[] = jobIds.length
       ? await trx("job_checklists as c")
           .join("template_versions as t", "t.id", "c.template_version_id")
           .whereIn("c.job_id", jobIds)
           .select("c.id", "c.job_id", "c.state", "t.template_key", "t.title", "t.version", "t.body")
       : [];
-    const ids = checklistRows.map((c: any) => c.id);
+    const ids = checklistRows.map((c) => c.id);
     // Bounded like a pull: the first page of responses, and the cursor to pull the rest from.
     const page = ids.length
       ? await changesPage(trx, ids, 0, Number(cursor))
@@ -76,7 +88,7 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
       templates.set(`${c.template_key}@${c.version}`, {
         key: c.template_key,
         version: c.version,
-        template: JSON.parse(c.body),
+        template: parseJsonColumn<Template>(c.body),
       });
     return {
       user: { id: user.id, name: user.name, email: user.email, role: user.role },
@@ -89,7 +101,7 @@ export async function offlineBundle(user: User): Promise<OfflineBundle> {
         dueDate: j.dueDate,
         leadName: j.leadName,
       })),
-      checklists: checklistRows.map((c: any) => {
+      checklists: checklistRows.map((c) => {
         const job = jobs.find((j) => j.id === c.job_id)!;
         return {
           id: c.id,

@@ -16,6 +16,15 @@ import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
+import type {
+  ChecklistResponseRow,
+  ChecklistStateColumn,
+  JobChecklistRow,
+  JobTechnicianRow,
+  ResponseHistoryRow,
+  SyncConflictRow,
+} from "./tables.server.ts";
 import { withRetry } from "./retry.server.ts";
 import { submitChecklist, undecidedConflicts } from "./review.server.ts";
 import { lastChangeNumber, nextChangeNumber } from "./sync-clock.server.ts";
@@ -27,7 +36,6 @@ interface ChecklistAccess {
   canFill: boolean;
 }
 
-const json = (v: unknown) => (typeof v === "string" ? JSON.parse(v) : v);
 const reject = (op: { opId: string }, code: RefusalCode, reason: string): OpResult => ({
   opId: op.opId,
   status: "rejected",
@@ -66,21 +74,24 @@ async function loadAccess(
   actor: Actor,
   checklistIds: string[],
 ): Promise<Map<string, ChecklistAccess>> {
-  const rows = await trx("job_checklists as c")
+  const rows: (Pick<JobChecklistRow, "id" | "state" | "template_version_id"> & {
+    job_id: number;
+    lead_id: number;
+  })[] = await trx("job_checklists as c")
     .join("jobs as j", "j.id", "c.job_id")
     .whereIn("c.id", checklistIds)
     .select("c.id", "c.state", "c.template_version_id", "j.id as job_id", "j.lead_id");
   const [crew, templates] = await Promise.all([
     trx("job_technicians")
-      .whereIn("job_id", [...new Set(rows.map((r: any) => r.job_id))])
-      .select("job_id", "user_id"),
-    templatesById(trx, [...new Set(rows.map((r: any) => r.template_version_id as number))]),
+      .whereIn("job_id", [...new Set(rows.map((r) => r.job_id))])
+      .select("job_id", "user_id") as Promise<JobTechnicianRow[]>,
+    templatesById(trx, [...new Set(rows.map((r) => r.template_version_id))]),
   ]);
   return new Map(
-    rows.map((r: any) => {
+    rows.map((r) => {
       const job = {
         leadId: r.lead_id,
-        technicianIds: crew.filter((c: any) => c.job_id === r.job_id).map((c: any) => c.user_id),
+        technicianIds: crew.filter((c) => c.job_id === r.job_id).map((c) => c.user_id),
       };
       return [
         r.id,
@@ -119,13 +130,14 @@ async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
         opId: r.op_id,
         status: "conflict",
         rev: r.server_rev,
-        serverValue: r.server_value === null ? null : json(r.server_value),
+        serverValue: r.server_value === null ? null : parseJsonColumn(r.server_value),
         ...(r.name ? { serverBy: r.name, serverAt: new Date(r.at).toISOString() } : {}),
         conflictId: r.id,
       },
     });
   }
-  for (const r of others) answers.set(r.op_id, { userId: r.user_id, result: json(r.result) });
+  for (const r of others)
+    answers.set(r.op_id, { userId: r.user_id, result: parseJsonColumn<OpResult>(r.result) });
   return answers;
 }
 
@@ -169,6 +181,12 @@ function readOperation(raw: SyncRequest["ops"][number]): Operation | OpResult {
   return reject(raw, "invalid-operation", `The entry could not be read: ${problems}.`);
 }
 
+/** A row of the change feed: the item's current value, its change number and who set it. */
+type FeedRow = Pick<
+  ChecklistResponseRow,
+  "checklist_id" | "item_key" | "value" | "rev" | "updated_at" | "change_seq"
+> & { name: string };
+
 /**
  * One page of the change feed after `since` (up to `upTo`), at most about `limit` changes: a page
  * ends only between change numbers, so a batch's changes are never split and the cursor (the
@@ -188,22 +206,22 @@ export async function changesPage(
       .where("r.change_seq", ">", since)
       .where("r.change_seq", "<=", upTo)
       .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name");
-  const toChange = (r: any): Change => ({
+  const toChange = (r: FeedRow): Change => ({
     checklistId: r.checklist_id,
     itemKey: r.item_key,
-    value: json(r.value),
+    value: parseJsonColumn(r.value),
     rev: r.rev,
     by: r.name,
     at: new Date(r.updated_at).toISOString(),
   });
-  const rows = await feed()
+  const rows: FeedRow[] = await feed()
     .orderBy("r.change_seq")
     .limit(limit + 1);
   if (rows.length <= limit) return { changes: rows.map(toChange), cursor: upTo, more: false };
-  const last = Number(rows[limit - 1].change_seq);
-  const whole = await feed().where("r.change_seq", last); // the last number's changes, all of them
+  const last = Number(rows[limit - 1]!.change_seq);
+  const whole: FeedRow[] = await feed().where("r.change_seq", last); // the last number's changes, all of them
   return {
-    changes: [...rows.filter((r: any) => Number(r.change_seq) < last), ...whole].map(toChange),
+    changes: [...rows.filter((r) => Number(r.change_seq) < last), ...whole].map(toChange),
     cursor: last,
     more: last < upTo,
   };
@@ -259,16 +277,21 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           waiting.set(key, [...(waiting.get(key) ?? []), c.id]);
         }
         const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
-          currentRows.map((r: any) => [
+          currentRows.map((r) => [
             itemId(r.checklist_id, r.item_key),
-            { rev: r.rev, value: json(r.value), by: r.name, at: new Date(r.updated_at) },
+            { rev: r.rev, value: parseJsonColumn(r.value), by: r.name, at: new Date(r.updated_at) },
           ]),
         );
 
-        const responses = new Map<string, any>();
-        const history: any[] = [];
+        const responses = new Map<string, ChecklistResponseRow>();
+        const history: Omit<ResponseHistoryRow, "id">[] = [];
         const writtenOps = new Set<string>();
-        const conflicts: { op: Operation; row: any; resultIndex: number }[] = [];
+        const conflicts: {
+          op: Operation;
+          row: Omit<SyncConflictRow, "id" | "resolved_at" | "resolved_by" | "resolution_op_id"> &
+            Partial<Pick<SyncConflictRow, "resolved_at">>;
+          resultIndex: number;
+        }[] = [];
         const resolutions: { op: Operation; ids: number[] }[] = [];
         const recorded: { op: Operation; resultIndex: number }[] = [];
         const submissions: { op: Operation; resultIndex: number }[] = [];
@@ -502,7 +525,10 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
       return {
         results,
         changes,
-        checklists: states.map((c: any) => ({ id: c.id, state: c.state })),
+        checklists: states.map((c: { id: string; state: ChecklistStateColumn }) => ({
+          id: c.id,
+          state: c.state,
+        })),
         cursor: String(cursor),
         ...(page.more ? { more: true as const } : {}),
       };

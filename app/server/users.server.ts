@@ -2,6 +2,7 @@ import bcrypt from "bcryptjs";
 import { createHash, randomBytes } from "node:crypto";
 import type { Role } from "~/lib/roles";
 import { db } from "./db.server.ts";
+import type { UserRow } from "./tables.server.ts";
 
 export interface User {
   id: number;
@@ -14,7 +15,7 @@ export interface User {
 
 const INVITATION_DAYS = 7;
 
-function toUser(row: any): User {
+function toUser(row: UserRow): User {
   return {
     id: row.id,
     email: row.email,

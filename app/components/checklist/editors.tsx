@@ -6,21 +6,24 @@ import {
   acceptedUnits,
   formatQuantity,
   unitSymbol,
+  type CalcValue,
   type CheckValue,
   type ChoiceItem,
   type ChoiceValue,
+  type InitialsValue,
   type Item,
   type MeasureItem,
   type MeasureValue,
   type ReadingsItem,
   type ReadingsValue,
+  type TextValue,
   type Verdict,
 } from "~/lib/templates";
 import { LocalTime } from "~/components/local-time";
 
 export interface EditorProps<I extends Item = Item> {
   item: I;
-  value: any;
+  value: unknown;
   verdict: Verdict;
   by: string;
   disabled: boolean;
@@ -382,7 +385,8 @@ export function ChoiceEditor({ item, value, verdict, disabled, onSave }: EditorP
   );
 }
 
-export function TextEditor({ item, value, disabled, onSave }: EditorProps) {
+export function TextEditor({ item, value: stored, disabled, onSave }: EditorProps) {
+  const value = stored as TextValue | undefined;
   const [text, setText] = useState<string>(value?.text ?? "");
   useDirtyMark(`${item.key}-text`, text !== (value?.text ?? ""));
   return (
@@ -412,7 +416,8 @@ export function TextEditor({ item, value, disabled, onSave }: EditorProps) {
   );
 }
 
-export function InitialsEditor({ item, value, by, disabled, onSave }: EditorProps) {
+export function InitialsEditor({ item, value: stored, by, disabled, onSave }: EditorProps) {
+  const value = stored as InitialsValue | undefined;
   const [initials, setInitials] = useState("");
   const [error, setError] = useState<string | null>(null);
   if (value)
@@ -458,12 +463,13 @@ export function InitialsEditor({ item, value, by, disabled, onSave }: EditorProp
 
 export function CalcPanel({
   item,
-  value,
+  value: stored,
   verdict,
   disabled,
   onSave,
   diagram,
 }: EditorProps & { diagram?: React.ReactNode }) {
+  const value = stored as CalcValue | undefined;
   const outcome = verdict.outcome;
   return (
     <div className="flex flex-col gap-3">

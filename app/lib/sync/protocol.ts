@@ -200,7 +200,9 @@ export function sameJson(a: unknown, b: unknown): boolean {
     const bb = b as unknown[];
     return a.length === bb.length && a.every((v, i) => sameJson(v, bb[i]));
   }
-  const ka = Object.keys(a as object).filter((k) => (a as any)[k] !== undefined);
-  const kb = Object.keys(b as object).filter((k) => (b as any)[k] !== undefined);
-  return ka.length === kb.length && ka.every((k) => sameJson((a as any)[k], (b as any)[k]));
+  const ra = a as Record<string, unknown>;
+  const rb = b as Record<string, unknown>;
+  const ka = Object.keys(ra).filter((k) => ra[k] !== undefined);
+  const kb = Object.keys(rb).filter((k) => rb[k] !== undefined);
+  return ka.length === kb.length && ka.every((k) => sameJson(ra[k], rb[k]));
 }

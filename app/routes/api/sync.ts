@@ -30,8 +30,9 @@ export async function action({ request }: Route.ActionArgs) {
   if (
     body &&
     typeof body === "object" &&
-    Array.isArray((body as any).ops) &&
-    (body as any).ops.length > MAX_OPS_PER_REQUEST
+    "ops" in body &&
+    Array.isArray(body.ops) &&
+    body.ops.length > MAX_OPS_PER_REQUEST
   ) {
     return problem(
       413,
