@@ -1,3 +1,4 @@
+import { readDecimal } from "~/lib/read-number";
 import { convert, dimensionOf, isUnit, type CalcInput, type CalcInputSpec, type Unit } from "~/lib/calc";
 import { formatNumber, unitSymbol } from "~/lib/templates/format";
 
@@ -212,14 +213,6 @@ export function hasInchLengths(specs: Record<string, CalcInputSpec>): boolean {
 }
 
 // ---- reading what was typed ----------------------------------------------------------------
-
-/** null when blank, "invalid" when not a number; a decimal comma is read as a point. */
-export function readDecimal(text: string): number | null | "invalid" {
-  const t = text.trim().replace(",", ".");
-  if (t === "") return null;
-  const value = Number(t);
-  return /^[-+]?(\d+\.?\d*|\.\d+)(e[-+]?\d+)?$/i.test(t) && Number.isFinite(value) ? value : "invalid";
-}
 
 export interface ReadEntries {
   inputs: Record<string, CalcInput | undefined>;

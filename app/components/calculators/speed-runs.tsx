@@ -1,5 +1,5 @@
 import type { SeaTrialPoint } from "~/components/diagrams";
-import { readDecimal } from "./calc-entries";
+import { readDecimal } from "~/lib/read-number";
 
 export interface SpeedRun {
   rpm: string;

@@ -2,6 +2,7 @@ import { useState } from "react";
 import { OutcomeValues } from "~/components/calculators/outcome-values";
 import type { Unit } from "~/lib/calc/units";
 import { useDirtyMark } from "~/lib/pwa/dirty";
+import { readNumber } from "~/lib/read-number";
 import {
   acceptedUnits,
   formatQuantity,
@@ -28,13 +29,6 @@ export interface EditorProps<I extends Item = Item> {
   by: string;
   disabled: boolean;
   onSave: (value: unknown) => void;
-}
-
-/** Reads what was typed as a number: a comma is a decimal point; anything else is refused. */
-export function readNumber(text: string): number | null {
-  const cleaned = text.trim().replace(",", ".");
-  if (!/^[-+]?(\d+\.?\d*|\.\d+)$/.test(cleaned)) return null;
-  return Number(cleaned);
 }
 
 const now = () => new Date().toISOString();

@@ -1,4 +1,5 @@
 import { dimensionOf, isUnit, units, type Unit } from "~/lib/calc/units";
+import { readDecimal } from "~/lib/read-number";
 import { sameJson } from "~/lib/sync/protocol";
 import { calcBindingProblems, calcDefinition } from "./calc-inputs";
 import { formatPath, parseTemplate, type TemplateParse, type TemplateProblem } from "./load";
@@ -285,10 +286,8 @@ export function fromTemplate(template: Template): EditorState {
 
 /** A number as typed: "" is unset, "0,5" is 0.5; anything else stays text for the schema to refuse. */
 export function numberFrom(typed: string): number | string | undefined {
-  const trimmed = typed.trim();
-  if (!trimmed) return undefined;
-  const normal = trimmed.replace(/^([+-]?\d*),(\d+)$/, "$1.$2");
-  return /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i.test(normal) ? Number(normal) : trimmed;
+  const value = readDecimal(typed);
+  return value === null ? undefined : value === "invalid" ? typed.trim() : value;
 }
 
 const optionalText = (value: string) => (value.trim() ? value : undefined);
