@@ -14,6 +14,7 @@ import { sync } from "~/server/sync.server";
 import { dropDatabase } from "../../db/connect.ts";
 import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { startS3Fake } from "../../scripts/s3-fake.ts";
+import { freshDatabase } from "../support/database.ts";
 import { testDb } from "../support/db.ts";
 import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
 import { op } from "../support/sync.ts";
@@ -23,7 +24,8 @@ import { gradientPng } from "../unit/photos/images.ts";
 // an issued record with a photo is backed up, restored into an empty database and an empty
 // bucket, and must still verify as genuine with its photo intact.
 const run = promisify(execFile);
-const knex = testDb();
+// Its own source database: other files leave records behind that they tampered with on purpose.
+let knex: ReturnType<typeof testDb>;
 const template = {
   key: "backup-test",
   version: 1,
@@ -51,6 +53,8 @@ const restoredUrl = (() => {
 let target: Awaited<ReturnType<typeof startS3Fake>>;
 
 beforeAll(async () => {
+  process.env.DATABASE_URL = await freshDatabase("sternpost_backup_source");
+  knex = testDb();
   await seedLibrary(knex);
   const body = JSON.stringify(template);
   if (!(await knex("template_versions").where({ template_key: template.key }).first()))
@@ -86,7 +90,7 @@ beforeAll(async () => {
   });
 });
 afterAll(async () => {
-  await knex.destroy();
+  await knex?.destroy();
   await target?.close();
   await dropDatabase(restoredUrl);
   for (const f of folders) rmSync(f, { recursive: true, force: true });
