@@ -1,4 +1,5 @@
 import { data, Link, redirect } from "react-router";
+import { z } from "zod";
 import type { Route } from "./+types/edit";
 import { Refusal } from "~/lib/refusal";
 import { TemplateEditor } from "~/components/library/editor/template-editor";
@@ -18,18 +19,18 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   return { template: found.template };
 }
 
+const draftPostSchema = z.object({ intent: z.enum(["save", "save-review"]), body: z.unknown() });
+
 export async function action({ request, params }: Route.ActionArgs) {
   const user = await requireCapability(request, "library:edit");
-  const form = await request.formData();
-  let body: unknown;
-  try {
-    body = JSON.parse(String(form.get("body") ?? ""));
-  } catch {
+  // The editor posts its draft as JSON: { intent, body } (the template itself is checked by saveDraft).
+  const posted = draftPostSchema.safeParse(await request.json().catch(() => undefined));
+  if (!posted.success)
     return data(
       { ok: false as const, problems: [{ path: "", message: "The draft did not arrive as JSON." }] },
       { status: 400 },
     );
-  }
+  const { intent, body } = posted.data;
   try {
     const result = await saveDraft(params.key, Number(params.version), body, user.id);
     if (!result.ok) return data(result, { status: 400 });
@@ -38,7 +39,7 @@ export async function action({ request, params }: Route.ActionArgs) {
       return data({ ok: false as const, errors: [error.message] }, { status: error.status });
     throw error;
   }
-  if (form.get("intent") === "save-review") return redirect(`/library/${params.key}/${params.version}`);
+  if (intent === "save-review") return redirect(`/library/${params.key}/${params.version}`);
   return { ok: true as const };
 }
 

@@ -147,7 +147,10 @@ export function TemplateEditor({ saved }: { saved: Template }) {
       summary.current?.scrollIntoView({ block: "start" });
       return;
     }
-    fetcher.submit({ intent, body: JSON.stringify(toTemplateInput(state)) }, { method: "post" });
+    fetcher.submit({ intent, body: toTemplateInput(state) } as never, {
+      method: "post",
+      encType: "application/json",
+    });
   }
 
   const status =
