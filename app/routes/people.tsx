@@ -59,15 +59,16 @@ export async function action({ request }: Route.ActionArgs) {
       throw error;
     }
   }
-  const change = userChangeSchema.safeParse(Object.fromEntries(formData));
-  if (!change.success)
+  // The buttons on each person's row: the same Conform parsing as the invitation form.
+  const change = parseWithZod(formData, { schema: userChangeSchema });
+  if (change.status !== "success")
     return data(
       { invite: null, notice: "That change was not understood; reload the page and try again." },
       { status: 400 },
     );
-  const target = await findUserById(change.data.userId);
+  const target = await findUserById(change.value.userId);
   if (!target) return data({ invite: null, notice: "That person no longer exists." }, { status: 404 });
-  if (target.id === me.id && change.data.intent !== "reinvite")
+  if (target.id === me.id && change.value.intent !== "reinvite")
     return data(
       {
         invite: null,
@@ -75,9 +76,9 @@ export async function action({ request }: Route.ActionArgs) {
       },
       { status: 400 },
     );
-  switch (change.data.intent) {
+  switch (change.value.intent) {
     case "role":
-      await updateUser(target.id, { role: change.data.role });
+      await updateUser(target.id, { role: change.value.role });
       await endSessionsOf(target.id);
       break;
     case "deactivate":
@@ -101,14 +102,14 @@ export async function action({ request }: Route.ActionArgs) {
   }
   await audit({
     userId: me.id,
-    action: `user.${change.data.intent}`,
+    action: `user.${change.value.intent}`,
     entity: "user",
     entityId: target.id,
-    detail: change.data,
+    detail: change.value,
   });
   return {
     invite: null,
-    notice: `${target.name}: ${change.data.intent === "role" ? "role changed" : change.data.intent + "d"}.`,
+    notice: `${target.name}: ${change.value.intent === "role" ? "role changed" : change.value.intent + "d"}.`,
   };
 }
 

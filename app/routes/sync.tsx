@@ -1,4 +1,6 @@
+import { parseWithZod } from "@conform-to/zod/v4";
 import { Link, useFetcher } from "react-router";
+import { z } from "zod";
 import type { Route } from "./+types/sync";
 import { describeValue, findItem } from "~/lib/templates";
 
@@ -50,17 +52,25 @@ export async function clientLoader() {
   };
 }
 
+/** The two things this page posts: keep one side of a conflict, or dismiss a refusal once read. */
+const decisionSchema = z.union([
+  z.object({ intent: z.literal("dismiss"), opId: z.string().min(1) }),
+  z.object({ conflictId: z.coerce.number().int().positive(), keep: z.enum(["server", "sent"]) }),
+]);
+
 export async function clientAction({ request }: Route.ClientActionArgs) {
-  const form = await request.formData();
+  const submission = parseWithZod(await request.formData(), { schema: decisionSchema });
+  if (submission.status !== "success") return { error: "That choice was not understood; reload the page." };
+  const decision = submission.value;
   const store = await import("~/lib/offline/store.client");
-  if (form.get("intent") === "dismiss") {
-    await store.dismissRejection(String(form.get("opId")));
+  if ("opId" in decision) {
+    await store.dismissRejection(decision.opId);
   } else {
     const { conflicts } = await store.allConflicts();
-    const conflict = conflicts.find((c) => c.id === Number(form.get("conflictId")));
+    const conflict = conflicts.find((c) => c.id === decision.conflictId);
     if (!conflict) return { error: "That conflict was already decided." };
     const me = (await store.getMeta<{ name: string }>("user"))?.name ?? "";
-    const value = form.get("keep") === "sent" ? conflict.clientValue : conflict.serverValue;
+    const value = decision.keep === "sent" ? conflict.clientValue : conflict.serverValue;
     await store.recordEntry(conflict.checklistId, conflict.itemKey, value, me, [conflict.id]);
   }
   const { requestSync, refreshStatus } = await import("~/lib/offline/status.client");
