@@ -10,56 +10,14 @@ import {
 } from "~/lib/offline/store.client";
 import { syncOnce } from "~/lib/offline/sync.client";
 import type { OfflineBundle } from "~/lib/sync/bundle";
-import type { Template } from "~/lib/templates";
+import { demoBundle, demoTemplate } from "../../support/offline-bundle.ts";
 
 const CHECKLIST = "7d0e7c1e-0000-4000-8000-000000000001";
-const template: Template = {
-  key: "demo",
-  version: 1,
-  title: "Demo",
-  purpose: "Unit tests.",
-  sections: [
-    {
-      key: "s",
-      title: "S",
-      items: [
-        { kind: "text", key: "note", label: "Note", required: true },
-        { kind: "check", key: "seal", label: "Seal", required: true },
-      ],
-    },
-  ],
-};
-const bundle = (over: Partial<OfflineBundle> = {}): OfflineBundle => ({
-  user: { id: 1, name: "Tess Tech", email: "t@test.example", role: "technician" },
-  jobs: [
-    {
-      id: 1,
-      vesselName: "Test hull",
-      hin: null,
-      engineModel: "E",
-      status: "underway",
-      dueDate: null,
-      leadName: "L",
-    },
-  ],
-  checklists: [
-    {
-      id: CHECKLIST,
-      jobId: 1,
-      key: "demo",
-      title: "Demo",
-      version: 1,
-      state: "in-progress",
-      canFill: true,
-      comments: [],
-    },
-  ],
-  templates: [{ key: "demo", version: 1, template }],
-  responses: [],
-  conflicts: [],
-  cursor: "0",
-  ...over,
-});
+const template = demoTemplate([
+  { kind: "text", key: "note", label: "Note", required: true },
+  { kind: "check", key: "seal", label: "Seal", required: true },
+]);
+const bundle = (over: Partial<OfflineBundle> = {}) => demoBundle(template, [{ id: CHECKLIST }], over);
 
 let n = 0;
 beforeEach(async () => {

@@ -13,57 +13,17 @@ import {
 } from "~/lib/offline/store.client";
 import { syncOnce, UNREACHABLE, type SyncProgress } from "~/lib/offline/sync.client";
 import type { OfflineBundle } from "~/lib/sync/bundle";
-import type { Template } from "~/lib/templates";
+import { demoBundle, demoTemplate } from "../../support/offline-bundle.ts";
 
 /** Issue 13 §1 and §2 on the tablet: a refused batch never wedges the outbox; revisions never go back. */
 const CHECKLIST = "7d0e7c1e-0000-4000-8000-0000000000c1";
-const template: Template = {
-  key: "demo",
-  version: 1,
-  title: "Demo",
-  purpose: "Unit tests.",
-  sections: [
-    {
-      key: "s",
-      title: "S",
-      items: [
-        { kind: "text", key: "a", label: "A", required: true },
-        { kind: "text", key: "b", label: "B", required: true },
-        { kind: "text", key: "c", label: "C", required: true },
-      ],
-    },
-  ],
-};
-const bundle = (responses: OfflineBundle["responses"] = []): OfflineBundle => ({
-  user: { id: 1, name: "Tess Tech", email: "t@test.example", role: "technician" },
-  jobs: [
-    {
-      id: 1,
-      vesselName: "Hull",
-      hin: null,
-      engineModel: "E",
-      status: "underway",
-      dueDate: null,
-      leadName: "L",
-    },
-  ],
-  checklists: [
-    {
-      id: CHECKLIST,
-      jobId: 1,
-      key: "demo",
-      title: "Demo",
-      version: 1,
-      state: "in-progress",
-      canFill: true,
-      comments: [],
-    },
-  ],
-  templates: [{ key: "demo", version: 1, template }],
-  responses,
-  conflicts: [],
-  cursor: "0",
-});
+const template = demoTemplate([
+  { kind: "text", key: "a", label: "A", required: true },
+  { kind: "text", key: "b", label: "B", required: true },
+  { kind: "text", key: "c", label: "C", required: true },
+]);
+const bundle = (responses: OfflineBundle["responses"] = []) =>
+  demoBundle(template, [{ id: CHECKLIST }], { responses });
 
 let n = 0;
 beforeEach(async () => {

@@ -12,67 +12,15 @@ import {
 } from "~/lib/offline/photos.client";
 import { applySyncAnswer, outboxInOrder, readChecklist, saveBundle } from "~/lib/offline/store.client";
 import type { OpResult } from "~/lib/sync/protocol";
-import type { OfflineBundle } from "~/lib/sync/bundle";
-import type { Template } from "~/lib/templates";
+import { demoBundle, demoTemplate } from "../../support/offline-bundle.ts";
 
 const CHECKLIST = "7d0e7c1e-0000-4000-8000-000000000002";
 const LOCKED = "7d0e7c1e-0000-4000-8000-000000000003";
-const template: Template = {
-  key: "demo",
-  version: 1,
-  title: "Demo",
-  purpose: "Unit tests.",
-  sections: [
-    {
-      key: "s",
-      title: "S",
-      items: [
-        { kind: "photo", key: "coupling-photo", label: "Coupling", required: true, minPhotos: 2 },
-        { kind: "photo", key: "mount-photo", label: "Mount", required: false, minPhotos: 1 },
-      ],
-    },
-  ],
-};
-const bundle: OfflineBundle = {
-  user: { id: 1, name: "Tess Tech", email: "t@test.example", role: "technician" },
-  jobs: [
-    {
-      id: 1,
-      vesselName: "Test hull",
-      hin: null,
-      engineModel: "E",
-      status: "underway",
-      dueDate: null,
-      leadName: "L",
-    },
-  ],
-  checklists: [
-    {
-      id: CHECKLIST,
-      jobId: 1,
-      key: "demo",
-      title: "Demo",
-      version: 1,
-      state: "in-progress",
-      canFill: true,
-      comments: [],
-    },
-    {
-      id: LOCKED,
-      jobId: 1,
-      key: "demo",
-      title: "Demo",
-      version: 1,
-      state: "submitted",
-      canFill: true,
-      comments: [],
-    },
-  ],
-  templates: [{ key: "demo", version: 1, template }],
-  responses: [],
-  conflicts: [],
-  cursor: "0",
-};
+const template = demoTemplate([
+  { kind: "photo", key: "coupling-photo", label: "Coupling", required: true, minPhotos: 2 },
+  { kind: "photo", key: "mount-photo", label: "Mount", required: false, minPhotos: 1 },
+]);
+const bundle = demoBundle(template, [{ id: CHECKLIST }, { id: LOCKED, state: "submitted" }]);
 
 const encode = (text: string) => new TextEncoder().encode(text).buffer as ArrayBuffer;
 /** Stands in for the compression (which needs a canvas): the "photo" is the file's text. */
