@@ -151,22 +151,40 @@ export async function recordEntry(
     at,
     ...(resolves?.length ? { resolves } : {}),
   };
-  await responses.put({
-    checklistId,
-    itemKey,
-    value,
-    serverValue: current?.serverValue ?? null,
-    rev: current?.rev ?? 0,
-    by,
-    at,
-    pending: true,
-  });
-  await tx.objectStore("outbox").add(entry);
-  await tx.objectStore("meta").put(seq, "seq");
-  for (const conflictId of resolves ?? []) await tx.objectStore("conflicts").delete(conflictId);
-  await tx.done;
+  try {
+    await responses.put({
+      checklistId,
+      itemKey,
+      value,
+      serverValue: current?.serverValue ?? null,
+      rev: current?.rev ?? 0,
+      by,
+      at,
+      pending: true,
+    });
+    await tx.objectStore("outbox").add(entry);
+    await tx.objectStore("meta").put(seq, "seq");
+    for (const conflictId of resolves ?? []) await tx.objectStore("conflicts").delete(conflictId);
+    await tx.done;
+  } catch (error) {
+    // All or nothing: a full tablet keeps nothing half-written, and says so.
+    tx.done.catch(() => undefined); // the abort below settles it; nothing waits on it here
+    try {
+      tx.abort();
+    } catch {
+      // already ended by the failure itself
+    }
+    if (isStorageFull(error)) throw new LocalStoreError(STORAGE_FULL);
+    throw error;
+  }
   return entry;
 }
+
+export const STORAGE_FULL =
+  "This tablet's storage is full, so this entry was NOT saved. Connect so waiting photos and entries can be sent, or free space on the tablet, then save it again.";
+
+const isStorageFull = (error: unknown) =>
+  error instanceof DOMException && (error.name === "QuotaExceededError" || error.code === 22);
 
 /** Queues the checklist's submission behind its entries and stops further entries on this tablet. */
 export async function queueSubmission(checklistId: string): Promise<OutboxEntry> {

@@ -1,5 +1,5 @@
 import "fake-indexeddb/auto";
-import { beforeEach, describe, expect, it } from "vitest";
+import { beforeEach, describe, expect, it, vi } from "vitest";
 import { forgetLocalDb, localDb } from "~/lib/offline/db.client";
 import {
   applySyncAnswer,
@@ -7,6 +7,7 @@ import {
   readChecklist,
   recordEntry,
   saveBundle,
+  STORAGE_FULL,
 } from "~/lib/offline/store.client";
 import { syncOnce } from "~/lib/offline/sync.client";
 import type { OfflineBundle } from "~/lib/sync/bundle";
@@ -201,5 +202,23 @@ describe("syncOnce", () => {
       Response.json({ error: "Sign in first." }, { status: 401 })) as typeof fetch;
     expect(await syncOnce(signedOut)).toMatchObject({ ok: false, reason: "signed-out" });
     expect(await outboxInOrder()).toHaveLength(1);
+  });
+});
+
+describe("a tablet whose storage is full", () => {
+  it("says the entry was not saved, and keeps nothing half-written", async () => {
+    await recordEntry(CHECKLIST, "note", { text: "kept" }, "Tess Tech");
+    const full = vi.spyOn(IDBObjectStore.prototype, "add").mockImplementation(() => {
+      throw new DOMException("The quota has been exceeded.", "QuotaExceededError");
+    });
+    try {
+      await expect(recordEntry(CHECKLIST, "note", { text: "lost?" }, "Tess Tech")).rejects.toThrow(
+        STORAGE_FULL,
+      );
+    } finally {
+      full.mockRestore();
+    }
+    expect((await readChecklist(CHECKLIST))!.responses.note!.value).toEqual({ text: "kept" });
+    expect((await outboxInOrder()).map((o) => o.value)).toEqual([{ text: "kept" }]);
   });
 });
