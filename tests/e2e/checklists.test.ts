@@ -31,6 +31,20 @@ describe("starting and reading a job's checklists", () => {
     expect(await page.getByLabel(/Engine alignment/).isChecked()).toBe(true);
     expect(await page.getByLabel(/Sea trial/).isChecked()).toBe(true);
     expect(await page.getByLabel(/Exhaust/).isChecked()).toBe(false);
+    // Offered in the order the work is done: the shaft line first, the sea trial last.
+    const offered = await page
+      .locator('input[name="templates"]')
+      .evaluateAll((all) => all.map((i) => (i as HTMLInputElement).value));
+    expect(offered).toEqual([
+      "propeller-shaft-and-coupling",
+      "engine-alignment",
+      "exhaust",
+      "cooling",
+      "fuel-system",
+      "instruments-and-electrical",
+      "ventilation",
+      "sea-trial",
+    ]);
     await page.getByRole("button", { name: "Start the ticked checklists" }).click();
     await expect
       .poll(() => page.getByTestId("job-checklists").innerText())

@@ -4,6 +4,7 @@ import type { Route } from "./+types/detail";
 import { IssueRecord } from "~/components/issue-record";
 import { JobChecklists } from "~/components/job-checklists";
 import { defaultTemplatesFor } from "~/lib/checklist-sets";
+import { byWorkOrder } from "~/lib/templates";
 import { canOnJob } from "~/lib/permissions";
 import { Refusal } from "~/lib/refusal";
 import { jobPageActionSchema } from "~/lib/validation/job-page";
@@ -34,7 +35,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     readiness,
     records: canOnJob(user, "oversee", job) ? records : [],
     checklists,
-    available: library.map(({ key, title, version }) => ({ key, title, version })),
+    // Offered in the order the work is done, not alphabetically.
+    available: library.map(({ key, title, version }) => ({ key, title, version })).sort(byWorkOrder),
     defaults: defaultTemplatesFor[job.scope],
   };
 }
