@@ -32,6 +32,42 @@ export interface EditorProps<I extends Item = Item> {
 }
 
 const now = () => new Date().toISOString();
+
+/** The unit a reading is entered in, among those the item accepts (fixed when there is one). */
+function UnitField({
+  id,
+  units,
+  unit,
+  disabled,
+  onChange,
+}: {
+  id: string;
+  units: readonly Unit[];
+  unit: Unit;
+  disabled: boolean;
+  onChange: (unit: Unit) => void;
+}) {
+  return (
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="font-bold">
+        Unit
+      </label>
+      <select
+        id={id}
+        className="field-input w-28"
+        value={unit}
+        disabled={disabled || units.length === 1}
+        onChange={(e) => onChange(e.target.value as Unit)}
+      >
+        {units.map((u) => (
+          <option key={u} value={u}>
+            {unitSymbol(u)}
+          </option>
+        ))}
+      </select>
+    </div>
+  );
+}
 const choiceButton = (active: boolean) => `btn ${active ? "btn-primary" : ""}`;
 
 function NoteField({
@@ -150,24 +186,7 @@ export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: Ed
             onKeyDown={(e) => e.key === "Enter" && record()}
           />
         </div>
-        <div className="flex flex-col gap-1">
-          <label htmlFor={`${item.key}-unit`} className="font-bold">
-            Unit
-          </label>
-          <select
-            id={`${item.key}-unit`}
-            className="field-input w-28"
-            value={unit}
-            disabled={disabled || units.length === 1}
-            onChange={(e) => setUnit(e.target.value as Unit)}
-          >
-            {units.map((u) => (
-              <option key={u} value={u}>
-                {unitSymbol(u)}
-              </option>
-            ))}
-          </select>
-        </div>
+        <UnitField id={`${item.key}-unit`} units={units} unit={unit} disabled={disabled} onChange={setUnit} />
         <button type="button" className="btn btn-primary" disabled={disabled || !text} onClick={record}>
           {v?.attempts.length ? "Record a new attempt" : "Record reading"}
         </button>
@@ -297,24 +316,7 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
         </table>
       </div>
       <div className="flex flex-wrap items-end gap-2">
-        <div className="flex flex-col gap-1">
-          <label htmlFor={`${item.key}-unit`} className="font-bold">
-            Unit
-          </label>
-          <select
-            id={`${item.key}-unit`}
-            className="field-input w-28"
-            value={unit}
-            disabled={disabled || units.length === 1}
-            onChange={(e) => setUnit(e.target.value as Unit)}
-          >
-            {units.map((u) => (
-              <option key={u} value={u}>
-                {unitSymbol(u)}
-              </option>
-            ))}
-          </select>
-        </div>
+        <UnitField id={`${item.key}-unit`} units={units} unit={unit} disabled={disabled} onChange={setUnit} />
         <button type="button" className="btn btn-primary" disabled={disabled} onClick={record}>
           {v?.attempts.length ? "Record a new set of readings" : "Record readings"}
         </button>

@@ -1,6 +1,7 @@
 import type { RunoutResult } from "~/lib/calc";
 import { atMost } from "~/lib/calc/numbers";
 import {
+  LimitLine,
   colours,
   DiagramFrame,
   fixed,
@@ -174,24 +175,12 @@ export function RunoutDiagram({
         );
       })}
 
-      <line
-        x1={LEFT}
-        y1={r(limitY)}
-        x2={RIGHT}
-        y2={r(limitY)}
-        stroke={colours.copper}
-        strokeWidth={2.5}
-        strokeDasharray="9 5"
-      />
-      <Label
-        x={limitLabelLeft ? LEFT + 8 : RIGHT - 4}
-        y={r(limitY) - 6}
-        halo
+      <LimitLine
+        left={LEFT}
+        right={RIGHT}
+        y={limitY}
         text={`limit ${len(limitTirIn)}`}
-        size={13}
-        anchor={limitLabelLeft ? "start" : "end"}
-        bold
-        fill={colours.copper}
+        labelLeft={limitLabelLeft}
       />
 
       <rect

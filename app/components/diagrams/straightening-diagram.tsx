@@ -1,5 +1,6 @@
 import type { StraighteningResult } from "~/lib/calc";
 import {
+  LimitLine,
   colours,
   DiagramFrame,
   formatLength,
@@ -80,24 +81,12 @@ export function StraighteningDiagram({
       ))}
       <line x1={LEFT} y1={TOP} x2={LEFT} y2={BOTTOM} stroke={colours.ink} strokeWidth={1.5} />
       <line x1={LEFT} y1={BOTTOM} x2={RIGHT} y2={BOTTOM} stroke={colours.ink} strokeWidth={1.5} />
-      <line
-        x1={LEFT}
-        y1={r(limitY)}
-        x2={RIGHT}
-        y2={r(limitY)}
-        stroke={colours.copper}
-        strokeWidth={2.5}
-        strokeDasharray="9 5"
-      />
-      <Label
-        x={limitLabelLeft ? LEFT + 8 : RIGHT - 4}
-        y={r(limitY) - 6}
-        halo
+      <LimitLine
+        left={LEFT}
+        right={RIGHT}
+        y={limitY}
         text={`limit ${len(limitTirIn)}`}
-        size={13}
-        anchor={limitLabelLeft ? "start" : "end"}
-        bold
-        fill={colours.copper}
+        labelLeft={limitLabelLeft}
       />
 
       <polyline

@@ -217,6 +217,45 @@ export function VerdictMark({
 }
 
 /** A verdict line: the mark, then the words. */
+/** The acceptance limit as a dashed copper line across the plot, named at one end. */
+export function LimitLine({
+  left,
+  right,
+  y,
+  text,
+  labelLeft,
+}: {
+  left: number;
+  right: number;
+  y: number;
+  text: string;
+  labelLeft: boolean;
+}) {
+  return (
+    <>
+      <line
+        x1={left}
+        y1={r(y)}
+        x2={right}
+        y2={r(y)}
+        stroke={colours.copper}
+        strokeWidth={2.5}
+        strokeDasharray="9 5"
+      />
+      <Label
+        x={labelLeft ? left + 8 : right - 4}
+        y={r(y) - 6}
+        halo
+        text={text}
+        size={13}
+        anchor={labelLeft ? "start" : "end"}
+        bold
+        fill={colours.copper}
+      />
+    </>
+  );
+}
+
 export function VerdictLine({
   x,
   y,
