@@ -4,6 +4,7 @@ import { requireCapability } from "~/server/permissions.server";
 import { PageHeader } from "~/components/app-shell";
 import { Calculator } from "~/components/calculators/calculator";
 import { calculations } from "~/lib/calc";
+import { checkWhenOnline } from "~/lib/offline/calculator-check";
 
 const definitionOf = (name: string) => (Object.hasOwn(calculations, name) ? calculations[name] : undefined);
 
@@ -13,15 +14,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   return null;
 }
 
-/** With no connection the check was made when the page was first loaded; the arithmetic runs here. */
-export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
-  try {
-    return await serverLoader();
-  } catch (error) {
-    if (error instanceof Response) throw error;
-    return null;
-  }
-}
+/** Offline, the page still opens: see checkWhenOnline. */
+export const clientLoader = ({ serverLoader }: Route.ClientLoaderArgs) => checkWhenOnline(serverLoader);
 
 export const meta: Route.MetaFunction = ({ params }) => [
   { title: `${definitionOf(params.name)?.title ?? "No such calculator"} · Sternpost` },

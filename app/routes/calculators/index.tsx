@@ -3,6 +3,7 @@ import { requireCapability } from "~/server/permissions.server";
 import { PageHeader } from "~/components/app-shell";
 import { CalculatorList } from "~/components/calculators/calculator-list";
 import { calculations } from "~/lib/calc";
+import { checkWhenOnline } from "~/lib/offline/calculator-check";
 
 export const meta: Route.MetaFunction = () => [{ title: "Calculators · Sternpost" }];
 
@@ -12,15 +13,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   return null;
 }
 
-/** With no connection the check was made when the page was first loaded; the arithmetic runs here. */
-export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
-  try {
-    return await serverLoader();
-  } catch (error) {
-    if (error instanceof Response) throw error;
-    return null;
-  }
-}
+/** Offline, the page still opens: see checkWhenOnline. */
+export const clientLoader = ({ serverLoader }: Route.ClientLoaderArgs) => checkWhenOnline(serverLoader);
 
 export default function Calculators() {
   return (
