@@ -11,6 +11,8 @@ import { diagramFor } from "~/components/diagrams/for-calc";
 import { presentValue } from "~/lib/calc/present";
 import type { CalcInput } from "~/lib/calc/registry";
 import { convert, type Unit } from "~/lib/calc/units";
+import { earlierRevisions } from "~/lib/record/earlier";
+import { inWorkOrder } from "~/lib/record/order";
 import type { CommissioningRecord, RecordChecklist, RecordRevision } from "~/lib/record/types";
 import {
   calcDefinition,
@@ -589,6 +591,8 @@ function boxTitle(w: Writer, x: number, width: number, title: string): void {
   w.y = y + 6;
 }
 
+const NEEDS_ATTENTION = new Set<Verdict["status"]>(["out-of-range", "needs-note", "invalid"]);
+
 interface Tally {
   items: number;
   findings: number;
@@ -605,7 +609,9 @@ function tally(checklist: RecordChecklist): Tally {
       t.items += 1;
       if (verdict.status === "action-noted") t.findings += 1;
       else if (verdict.status === "unanswered") t.unanswered += 1;
-      else if (!verdict.done) t.open += 1;
+      // An optional item left part-done (one photo of two) is not a loose end; a reading outside
+      // its limit or a finding without its note is, whether the item is required or not.
+      else if (!verdict.done && (item.required || NEEDS_ATTENTION.has(verdict.status))) t.open += 1;
     }
   }
   return t;
@@ -1036,9 +1042,7 @@ function earlierEntries(
   currentRev: number,
   indent: number,
 ): void {
-  if (item.kind === "measure" || item.kind === "readings" || item.kind === "calc") return;
-  const earlier = history.filter((r) => r.rev < currentRev).sort((a, b) => a.rev - b.rev);
-  for (const revision of earlier) {
+  for (const revision of earlierRevisions(item, history, currentRev)) {
     const note = noteOf(revision.value);
     const words = [valueWords(item, revision.value), note ? `note: ${note}` : undefined]
       .filter(Boolean)
@@ -1338,6 +1342,9 @@ function placeSvg(w: Writer, svg: string, indent: number, width: number): void {
   w.doc.x = w.left;
 }
 
+/** The share of a page that must be free for a checklist to start on it rather than on a new page. */
+const CHECKLIST_START_ROOM = 0.4;
+
 function checklistPages(
   w: Writer,
   checklist: RecordChecklist,
@@ -1346,7 +1353,17 @@ function checklistPages(
   photoFiles: PhotoFiles,
 ): void {
   w.currentTitle = `${index + 1}. ${checklist.template.title}`;
-  w.newPage();
+  // A checklist opens a page only when the page it would share is the cover or is mostly used:
+  // a forced break after a short spill-over (the cover's last lines, a checklist's end) left
+  // pages four-fifths blank.
+  const onCover = w.doc.bufferedPageRange().count === 1;
+  if (onCover || w.bottom - w.y < (w.bottom - MARGIN.top) * CHECKLIST_START_ROOM) w.newPage();
+  else {
+    w.pageTitles[w.pageTitles.length - 1] += ` · ${w.currentTitle}`;
+    w.y += 18;
+    w.rule(ink, 1.5);
+    w.y += 14;
+  }
   checklistHeader(w, checklist, index, count);
   const numbers = new Map<string, string>();
   checklist.template.sections.forEach((section, s) =>
@@ -1455,9 +1472,10 @@ export async function renderRecordPdf(
 
   const photoFiles = await readPhotoFiles(record, options.photoBytes);
   const w = new Writer(doc);
-  await cover(w, record, options);
-  record.checklists.forEach((checklist, i) =>
-    checklistPages(w, checklist, i, record.checklists.length, photoFiles),
+  const inOrder = { ...record, checklists: inWorkOrder(record.checklists) };
+  await cover(w, inOrder, options);
+  inOrder.checklists.forEach((checklist, i) =>
+    checklistPages(w, checklist, i, inOrder.checklists.length, photoFiles),
   );
   pageFurniture(w, record);
   doc.end();
