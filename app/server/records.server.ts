@@ -45,6 +45,31 @@ const verifyUrl = (id: string) => `${env().APP_URL}/verify/${id}`;
  * countersigned, its digest, and access for each surveyor (an invitation when they are new).
  */
 export async function issueRecord(actor: Actor, jobId: number, recipients: Recipient[]): Promise<string> {
+  const issued = await createRecord(actor, jobId, recipients);
+  await mailRecord(issued);
+  return issued.id;
+}
+
+interface IssuedRecord {
+  id: string;
+  digest: string;
+  vessel: { name: string };
+  job: { engineModel: string; engineSerial: string };
+  recipients: Recipient[];
+  /** The surveyor's name for those who had an account, the invitation token for those new. */
+  names: Map<string, string>;
+  invitations: Map<string, string>;
+}
+
+/**
+ * The record stored, with access for each surveyor, and no mail sent yet: issueRecord's first
+ * half, and all of it for the demo seed (whose surveyor already has an account and no inbox).
+ */
+export async function createRecord(
+  actor: Actor,
+  jobId: number,
+  recipients: Recipient[],
+): Promise<IssuedRecord> {
   const emails = recipients.map((r) => r.email);
   const job = await findJob(jobId);
   if (!job) throw new Refusal("not-found", "There is no such job.");
@@ -153,6 +178,10 @@ export async function issueRecord(actor: Actor, jobId: number, recipients: Recip
     );
   });
   const names = new Map(people.map((p) => [p.email as string, p.name as string]));
+  return { id, digest, vessel, job, recipients, names, invitations };
+}
+
+async function mailRecord({ id, digest, vessel, job, recipients, names, invitations }: IssuedRecord) {
   for (const { email, name } of recipients) {
     const invitation = invitations.get(email);
     await sendMail({
@@ -173,7 +202,6 @@ export async function issueRecord(actor: Actor, jobId: number, recipients: Recip
       ].join("\n"),
     });
   }
-  return id;
 }
 
 export async function findRecord(id: string) {
