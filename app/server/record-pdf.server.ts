@@ -145,18 +145,14 @@ interface Reading {
   detail?: string;
 }
 
-/** The evaluator's message without the request it makes of the technician at the item. */
-function account(verdict: Verdict): string {
-  return verdict.message.replace(/\s*Noted\.$/, "").replace(/\s*Write the corrective action.*$/, "");
-}
-
 function hasRule(item: Item): boolean {
   return (item.kind === "measure" || item.kind === "readings") && item.rule !== undefined;
 }
 
 /** How a verdict reads on paper. The verdict itself always comes from the one evaluator (rules.ts). */
 function readVerdict(item: Item, verdict: Verdict): Reading {
-  const detail = account(verdict);
+  // A finding's own account (rules.ts keeps it apart from what it asks of the technician).
+  const detail = verdict.account ?? verdict.message;
   switch (verdict.status) {
     case "ok": {
       if (item.kind === "check") return { shape: "tick", colour: sound, words: "Passed", noteLabel: "Note" };
@@ -1240,7 +1236,7 @@ function readingsAttempts(w: Writer, item: ReadingsItem, value: ReadingsValue, i
     });
     w.table(columns, rows, { indent });
     if (item.rule && own.status !== "incomplete") {
-      const words = own.status === "ok" ? "Within the rule." : account(own);
+      const words = own.status === "ok" ? "Within the rule." : (own.account ?? own.message);
       w.style("regular", size.small, own.status === "ok" ? sound : brass);
       w.paragraph(words, { indent, tnum: true });
     }
