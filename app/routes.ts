@@ -8,6 +8,7 @@ export default [
   route("healthz", "routes/healthz.ts"),
   route("verify/:recordId", "routes/verify.tsx"),
   route("records/:recordId/pdf", "routes/records/pdf.ts"),
+  route("records/:recordId/json", "routes/records/json.ts"),
   route("records/:recordId/photos/:photoId", "routes/records/photo.ts"),
   ...prefix("api", [
     route("me", "routes/api/me.ts"),

@@ -1,6 +1,7 @@
 // Database chores for the start script and for people: tsx scripts/db.ts create migrate seed | rollback
 import { connect, createDatabase } from "../db/connect.ts";
 import { seedDemo } from "../db/seeds/demo.ts";
+import { seedDemoStory } from "../db/seeds/demo-story.ts";
 import { seedLibrary } from "../db/seeds/library.ts";
 
 const url = process.env.DATABASE_URL ?? "mysql://root@127.0.0.1:3307/sternpost";
@@ -23,6 +24,7 @@ try {
     console.log(`[sternpost] ${await seedLibrary(knex)}`);
     const summary = await seedDemo(knex);
     console.log(`[sternpost] demo data: ${summary}`);
+    console.log(`[sternpost] demo story: ${await seedDemoStory(knex)}`);
   }
 } finally {
   await knex.destroy();

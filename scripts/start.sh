@@ -41,6 +41,14 @@ cat <<MSG
   Demo sign-ins (password for all: $demo_password):
 $demo_people
 
+  A five-minute tour of the demo yard, Kittiwake Slip:
+    surveyor    the record of "Little Auk" is on the first page; "Check it is genuine" verifies it
+    lead        "Tern of Helvick": the exhaust waits for your review, and To decide has a conflict
+                (the strainer, passed on one tablet and failed on another)
+    technician  "Tern of Helvick": the shaft straightened twice (three runout sets), the alignment
+                afloat with its mount moves worked out
+    manager     every job, the template library, the audit log and the caught mail below
+
   Mail sent by the app (the local SMTP sink): $APP_URL/dev/mail — signed-in managers only
   (DEV_MAIL_PAGE=off hides it).
   Services started: MariaDB on 127.0.0.1:$MARIADB_PORT, the SMTP sink on 127.0.0.1:$SMTP_PORT,

@@ -60,7 +60,7 @@ export function IssueRecord({
           <Field
             id={fields.emails.id}
             label="Surveyors' e-mail addresses"
-            hint="One per line. Each gets a link to the record and its PDF; someone new gets an account limited to the records issued to them."
+            hint="One per line, with the name for someone new: Nessa Quick <nessa.quick@survey.example>. Each gets a link to the record and its PDF; someone new gets an account limited to the records issued to them."
             errors={[...new Set(Object.values(fields.emails.allErrors).flat())]}
           >
             <textarea {...getTextareaProps(fields.emails)} rows={2} className="field-input" />

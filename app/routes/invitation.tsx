@@ -4,7 +4,11 @@ import { data, Form, redirect } from "react-router";
 import type { Route } from "./+types/invitation";
 import { Field, FormErrors } from "~/components/field";
 import { newPasswordSchema } from "~/lib/validation/people";
+import { roleLabels } from "~/lib/roles";
+import { startSession } from "~/server/auth.server";
+import { env } from "~/server/env.server";
 import { strongPasswordSchema } from "~/server/password-strength.server";
+import { recordsIssuedTo } from "~/server/records.server";
 import { acceptInvitation, lookUpInvitation, type InvitationState } from "~/server/users.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Set your password · Sternpost" }];
@@ -18,8 +22,17 @@ const refusals: Record<Exclude<InvitationState["state"], "valid">, string> = {
 
 export async function loader({ params }: Route.LoaderArgs) {
   const invitation = await lookUpInvitation(params.token);
-  if (invitation.state !== "valid") return { refusal: refusals[invitation.state], name: null };
-  return { refusal: null, name: invitation.user.name, email: invitation.user.email };
+  if (invitation.state !== "valid") return { refusal: refusals[invitation.state] } as const;
+  const { user } = invitation;
+  const [record] = user.role === "surveyor" ? await recordsIssuedTo(user.id) : [];
+  return {
+    refusal: null,
+    name: user.name,
+    email: user.email,
+    yardName: env().YARD_NAME,
+    role: roleLabels[user.role].toLowerCase(),
+    record: record && { vesselName: record.vessel_name, engineModel: record.engine_model },
+  };
 }
 
 // A refused form never carries the typed password back to the page.
@@ -33,7 +46,11 @@ export async function action({ request, params }: Route.ActionArgs) {
   const outcome = await acceptInvitation(params.token, submission.value.password);
   if (outcome.state !== "valid")
     return data(submission.reply({ formErrors: [refusals[outcome.state]], hideFields }), { status: 400 });
-  return redirect("/login?welcome=1");
+  // Signed in at once (a new session), and straight to what they were invited for.
+  const [record] = outcome.user.role === "surveyor" ? await recordsIssuedTo(outcome.user.id) : [];
+  return redirect(record ? `/records/${record.id}` : "/", {
+    headers: { "Set-Cookie": await startSession(request, outcome.user.id) },
+  });
 }
 
 export default function Invitation({ loaderData, actionData }: Route.ComponentProps) {
@@ -45,7 +62,9 @@ export default function Invitation({ loaderData, actionData }: Route.ComponentPr
   });
   return (
     <main className="mx-auto flex min-h-dvh max-w-md flex-col justify-center gap-6 p-6">
-      <h1 className="text-3xl font-bold">Welcome to Sternpost</h1>
+      <h1 className="text-3xl font-bold">
+        {loaderData.refusal ? "Welcome to Sternpost" : `Welcome, ${loaderData.name}`}
+      </h1>
       {loaderData.refusal ? (
         <div className="card">
           <FormErrors errors={[loaderData.refusal]} />
@@ -55,8 +74,22 @@ export default function Invitation({ loaderData, actionData }: Route.ComponentPr
         </div>
       ) : (
         <Form method="post" {...getFormProps(form)} className="card flex flex-col gap-4">
+          <p data-testid="invitation-why">
+            {loaderData.record ? (
+              <>
+                {loaderData.yardName} has issued you the commissioning record of{" "}
+                <strong>{loaderData.record.vesselName}</strong> ({loaderData.record.engineModel}). Your
+                Sternpost account shows you the records issued to you, and nothing else.
+              </>
+            ) : (
+              <>
+                {loaderData.yardName} has invited you to Sternpost as a {loaderData.role}.
+              </>
+            )}
+          </p>
           <p>
-            {loaderData.name}, choose a password for <strong>{loaderData.email}</strong>.
+            Choose a password for <strong>{loaderData.email}</strong>
+            {loaderData.record ? "; the record opens next." : "."}
           </p>
           <FormErrors errors={form.errors} />
           <Field

@@ -4,7 +4,11 @@ import { verifyRecord } from "~/server/records.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Verify a commissioning record · Sternpost" }];
 
-/** Public: what the QR code opens. It says whether the record is genuine, and nothing else about the job. */
+/**
+ * Public: what the QR code opens. It says whether the record is genuine and names what a reader
+ * needs to match it to the paper in their hand (yard, vessel, HIN, engine and serial, the
+ * checklists and who signed them) — no measurements, no addresses.
+ */
 export async function loader({ params }: Route.LoaderArgs) {
   const result = /^[0-9a-f-]{36}$/.test(params.recordId) ? await verifyRecord(params.recordId) : undefined;
   if (!result)
@@ -48,15 +52,44 @@ export default function Verify({ loaderData }: Route.ComponentProps) {
           </ul>
         </div>
       )}
-      <section>
-        <h2 className="text-xl font-bold">Countersigned</h2>
-        <ul className="mt-2 flex flex-col gap-1">
-          {v.signers.map((s) => (
-            <li key={s.checklist}>
-              {s.checklist}: {s.countersignedBy} on {when(s.countersignedAt)}
+      {v.identity && (
+        <section aria-labelledby="what-title">
+          <h2 id="what-title" className="text-xl font-bold">
+            The record
+          </h2>
+          <dl className="mt-2 grid grid-cols-[auto_1fr] gap-x-4 gap-y-1" data-testid="verify-identity">
+            <dt className="text-ink-soft">Issued by</dt>
+            <dd className="font-bold">{v.identity.yardName}</dd>
+            <dt className="text-ink-soft">Vessel</dt>
+            <dd className="font-bold">{v.identity.vesselName}</dd>
+            <dt className="text-ink-soft">HIN</dt>
+            <dd className="font-mono font-bold">{v.identity.hin ?? "none recorded"}</dd>
+            <dt className="text-ink-soft">Engine</dt>
+            <dd className="font-bold">{v.identity.engineModel}</dd>
+            <dt className="text-ink-soft">Engine serial</dt>
+            <dd className="font-mono font-bold">{v.identity.engineSerial}</dd>
+          </dl>
+        </section>
+      )}
+      <section aria-labelledby="signed-title">
+        <h2 id="signed-title" className="text-xl font-bold">
+          Checklists and their signers
+        </h2>
+        <ol className="mt-2 flex flex-col gap-2" data-testid="verify-checklists">
+          {v.checklists.map((c) => (
+            <li key={c.title} className="card">
+              <p className="font-bold">
+                {c.title} <span className="font-normal">version {c.version}</span>
+              </p>
+              <p>
+                Filled in and submitted by {c.submittedBy ?? "—"} on {when(c.submittedAt)}
+              </p>
+              <p>
+                Countersigned by {c.countersignedBy ?? "—"}, the job's lead, on {when(c.countersignedAt)}
+              </p>
             </li>
           ))}
-        </ul>
+        </ol>
       </section>
       <p className="text-sm break-all">
         Record digest (SHA-256): <span className="font-mono">{v.digest}</span> — it must match the one printed

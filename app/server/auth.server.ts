@@ -87,10 +87,18 @@ export async function signIn(request: Request, clientAddress: string) {
     if (error instanceof TypeError) throw new LoginError({ status: "error", error: { "": [BAD_FORM] } }, 415);
     throw error;
   }
+  return startSession(request, user.id);
+}
+
+/**
+ * The Set-Cookie header of a brand-new session for this person; the one the request carried, if
+ * any, is destroyed (no session fixation). For the sign-in form and an accepted invitation.
+ */
+export async function startSession(request: Request, userId: number) {
   const previous = await getSession(request);
   if (previous.id) await sessionStorage().destroySession(previous);
   const session = await sessionStorage().getSession();
-  session.set("userId", user.id);
+  session.set("userId", userId);
   return sessionStorage().commitSession(session);
 }
 

@@ -1,9 +1,11 @@
 import { randomUUID } from "node:crypto";
 import { recordCanonical } from "~/lib/record/canonical";
+import { inWorkOrder } from "~/lib/record/order";
 import { checklistDigest, recordDigest, sha256Hex } from "~/lib/record/digest.server";
 import type { CommissioningRecord } from "~/lib/record/types";
 import { canOnJob, canReadRecord as mayReadRecord, type Actor } from "~/lib/permissions";
 import { Refusal } from "~/lib/refusal";
+import type { Recipient } from "~/lib/validation/records";
 import { audit } from "./audit.server.ts";
 import { db } from "./db.server.ts";
 import { env } from "./env.server.ts";
@@ -42,7 +44,33 @@ const verifyUrl = (id: string) => `${env().APP_URL}/verify/${id}`;
  * Issues the job's commissioning record to surveyors: a snapshot of every current checklist as
  * countersigned, its digest, and access for each surveyor (an invitation when they are new).
  */
-export async function issueRecord(actor: Actor, jobId: number, emails: string[]): Promise<string> {
+export async function issueRecord(actor: Actor, jobId: number, recipients: Recipient[]): Promise<string> {
+  const issued = await createRecord(actor, jobId, recipients);
+  await mailRecord(issued);
+  return issued.id;
+}
+
+interface IssuedRecord {
+  id: string;
+  digest: string;
+  vessel: { name: string };
+  job: { engineModel: string; engineSerial: string };
+  recipients: Recipient[];
+  /** The surveyor's name for those who had an account, the invitation token for those new. */
+  names: Map<string, string>;
+  invitations: Map<string, string>;
+}
+
+/**
+ * The record stored, with access for each surveyor, and no mail sent yet: issueRecord's first
+ * half, and all of it for the demo seed (whose surveyor already has an account and no inbox).
+ */
+export async function createRecord(
+  actor: Actor,
+  jobId: number,
+  recipients: Recipient[],
+): Promise<IssuedRecord> {
+  const emails = recipients.map((r) => r.email);
   const job = await findJob(jobId);
   if (!job) throw new Refusal("not-found", "There is no such job.");
   if (!canOnJob(actor, "issue-record", job))
@@ -66,6 +94,14 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
   const inactive = people.filter((p) => !p.active);
   if (inactive.length)
     throw new Refusal("invalid", `${inactive.map((p) => p.email).join(", ")} is deactivated.`);
+
+  // A newcomer is greeted by name in the invitation and the mail, never by the front of the address.
+  const unnamed = recipients.filter((r) => !r.name && !people.some((p) => p.email === r.email));
+  if (unnamed.length)
+    throw new Refusal(
+      "invalid",
+      `Give the name of each new surveyor before the address, like "Nessa Quick <${unnamed[0]!.email}>": ${unnamed.map((r) => r.email).join(", ")}.`,
+    );
 
   const vessel = (await findVessel(job.vesselId))!;
   const id = randomUUID();
@@ -101,17 +137,19 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
       leadName: job.leadName,
       technicianNames: job.technicianNames,
     },
-    checklists: await Promise.all(
-      (await currentChecklists(jobId)).map(async (c) => (await loadRecordChecklist(c.id))!),
+    checklists: inWorkOrder(
+      await Promise.all(
+        (await currentChecklists(jobId)).map(async (c) => (await loadRecordChecklist(c.id))!),
+      ),
     ),
     verifyUrl: verifyUrl(id),
   };
   const digest = recordDigest(record);
 
   const invitations = new Map<string, string>();
-  for (const email of emails) {
+  for (const { email, name } of recipients) {
     if (!people.some((p) => p.email === email)) {
-      const { token } = await inviteUser({ email, name: email.split("@")[0]!, role: "surveyor" }, actor.id);
+      const { token } = await inviteUser({ email, name: name!, role: "surveyor" }, actor.id);
       invitations.set(email, token);
     }
   }
@@ -139,24 +177,31 @@ export async function issueRecord(actor: Actor, jobId: number, emails: string[])
       trx,
     );
   });
-  for (const email of emails) {
+  const names = new Map(people.map((p) => [p.email as string, p.name as string]));
+  return { id, digest, vessel, job, recipients, names, invitations };
+}
+
+async function mailRecord({ id, digest, vessel, job, recipients, names, invitations }: IssuedRecord) {
+  for (const { email, name } of recipients) {
     const invitation = invitations.get(email);
     await sendMail({
       to: email,
       subject: `Commissioning record: ${vessel.name}`,
       text: [
+        `Hello ${names.get(email) ?? name},`,
+        "",
         `${env().YARD_NAME} has issued the commissioning record of ${vessel.name} (${job.engineModel}, serial ${job.engineSerial}) to you.`,
         "",
         invitation
           ? `You have a new Sternpost account for the records issued to you. Choose your password first:\n${env().APP_URL}/invitation/${invitation}\n`
           : "",
         `Read and download the record: ${env().APP_URL}/records/${id}`,
+        `The same record as data (JSON, for a warranty desk or an insurer): ${env().APP_URL}/records/${id}/json`,
         `Check it is genuine: ${verifyUrl(id)}`,
         `Record digest (SHA-256): ${digest}`,
       ].join("\n"),
     });
   }
-  return id;
 }
 
 export async function findRecord(id: string) {
@@ -200,11 +245,27 @@ export async function recordsOfJob(jobId: number) {
     .select("id", "issued_at", "digest");
 }
 
+/** What /verify shows: enough to match the paper in the reader's hand, and nothing more. */
 export interface Verification {
   genuine: boolean;
   issuedAt: string;
   digest: string;
-  signers: { checklist: string; countersignedBy?: string; countersignedAt?: string }[];
+  /** Absent when the stored record can no longer be read. */
+  identity?: {
+    yardName: string;
+    vesselName: string;
+    hin?: string;
+    engineModel: string;
+    engineSerial: string;
+  };
+  checklists: {
+    title: string;
+    version: number;
+    submittedBy?: string;
+    submittedAt?: string;
+    countersignedBy?: string;
+    countersignedAt?: string;
+  }[];
   problems: string[];
 }
 
@@ -224,7 +285,8 @@ export async function verifyRecord(id: string): Promise<Verification | undefined
   }
   if (content && sha256Hex(recordCanonical(content)) !== row.digest)
     problems.push("The stored record does not match the digest it was issued with.");
-  for (const checklist of content?.checklists ?? []) {
+  const checklists = inWorkOrder(content?.checklists ?? []);
+  for (const checklist of checklists) {
     const live = await loadRecordChecklist(checklist.id);
     if (!live) problems.push(`The checklist "${checklist.template.title}" is missing.`);
     else if (checklistDigest(live) !== checklist.digest || live.digest !== checklist.digest)
@@ -234,8 +296,18 @@ export async function verifyRecord(id: string): Promise<Verification | undefined
     genuine: problems.length === 0,
     issuedAt: new Date(row.issued_at).toISOString(),
     digest: row.digest,
-    signers: (content?.checklists ?? []).map((c) => ({
-      checklist: c.template.title,
+    identity: content && {
+      yardName: content.yardName,
+      vesselName: content.vessel.name,
+      hin: content.vessel.hin,
+      engineModel: content.job.engineModel,
+      engineSerial: content.job.engineSerial,
+    },
+    checklists: checklists.map((c) => ({
+      title: c.template.title,
+      version: c.templateVersion,
+      submittedBy: c.submittedBy,
+      submittedAt: c.submittedAt,
       countersignedBy: c.countersignedBy,
       countersignedAt: c.countersignedAt,
     })),

@@ -72,11 +72,15 @@ describe("the manager's day", () => {
 
     const newcomer = await (await tabletContext(browser)).context.newPage();
     await open(newcomer, link!);
+    await newcomer.getByRole("heading", { name: "Welcome, Ossian Trewin" }).waitFor();
+    expect(await newcomer.getByTestId("invitation-why").innerText()).toContain(
+      "Kittiwake Slip has invited you to Sternpost as a technician.",
+    );
     await newcomer.getByLabel("New password").fill("first-day-at-the-yard");
     await newcomer.getByLabel("Type it again").fill("first-day-at-the-yard");
     await newcomer.getByRole("button", { name: "Set password" }).click();
-    await newcomer.waitForURL(/\/login/);
-    await signIn(newcomer, email, "first-day-at-the-yard");
+    // Signed in straight away (a new session), on Today.
+    await newcomer.waitForURL(`${baseUrl()}/`);
     expect(await newcomer.getByTestId("role").innerText()).toBe("Technician");
     expectNoConsoleErrors(errors);
     await context.close();

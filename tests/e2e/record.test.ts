@@ -6,6 +6,8 @@ import path from "node:path";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
+import { createHash } from "node:crypto";
+import canonicalize from "canonicalize";
 import { sha256 } from "../../db/seeds/library.ts";
 import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
 import { waitForMail } from "../support/mail.ts";
@@ -58,7 +60,7 @@ beforeAll(async () => {
   // A hull of its own, so other tests' "Merrow" and "Tern of Helvick" links stay unique.
   const [vesselId] = await knex("vessels").insert({
     name: "Fulmar Rock",
-    hin: null,
+    hin: "KSB30419L526",
     length_value: 28,
     length_unit: "ft",
     length_m: 8.534,
@@ -180,34 +182,46 @@ describe("from submission to the surveyor's verified PDF", () => {
     const managerPage = await manager.context.newPage();
     await signIn(managerPage, "manager@kittiwake-slip.example");
     await open(managerPage, `/jobs/${jobId}`);
-    const surveyorEmail = `surveyor.${Date.now()}@harbourmark-survey.example`;
+    const surveyorEmail = `nessa.quick.${Date.now()}@harbourmark-survey.example`;
     await managerPage.getByLabel("Surveyors' e-mail addresses").fill("not an address");
     await managerPage.getByRole("button", { name: "Issue the record" }).click();
     await managerPage
       .getByRole("alert")
       .getByText(/not an e-mail address/)
       .waitFor();
+    // A new surveyor needs a name to be greeted by.
     await managerPage.getByLabel("Surveyors' e-mail addresses").fill(surveyorEmail);
+    await managerPage.getByRole("button", { name: "Issue the record" }).click();
+    await managerPage
+      .getByRole("alert")
+      .getByText(/Give the name of each new surveyor/)
+      .waitFor();
+    await managerPage.getByLabel("Surveyors' e-mail addresses").fill(`Nessa Quick <${surveyorEmail}>`);
     await managerPage.getByRole("button", { name: "Issue the record" }).click();
     await managerPage
       .getByRole("status")
       .getByText(/Record issued/)
       .waitFor();
 
-    // The e-mail arrives with the links; the surveyor sets a password and reads the record.
+    // The e-mail arrives with the links; the surveyor is greeted by name, told who invited them and
+    // why, sets a password and lands, signed in, on the record they were sent.
     const mail = await waitForMail(surveyorEmail);
+    expect(mail.text).toMatch(/^Hello Nessa Quick,/);
     const invitation = mail.text.match(/https?:\/\/\S+\/invitation\/\S+/)![0];
     const recordUrl = mail.text.match(/https?:\/\/\S+\/records\/[0-9a-f-]{36}/)![0];
+    const jsonUrl = mail.text.match(/https?:\/\/\S+\/records\/[0-9a-f-]{36}\/json/)![0];
     const verifyUrl = mail.text.match(/https?:\/\/\S+\/verify\/[0-9a-f-]{36}/)![0];
     const surveyor = await tabletContext(browser);
     const surveyorPage = await surveyor.context.newPage();
     await open(surveyorPage, invitation);
+    await surveyorPage.getByRole("heading", { name: "Welcome, Nessa Quick" }).waitFor();
+    expect(await surveyorPage.getByTestId("invitation-why").innerText()).toMatch(
+      /Kittiwake Slip has issued you the commissioning record of Fulmar Rock \(R4-110 diesel\)/,
+    );
     await surveyorPage.getByLabel("New password").fill("surveyor-password-1");
     await surveyorPage.getByLabel("Type it again").fill("surveyor-password-1");
     await surveyorPage.getByRole("button", { name: "Set password" }).click();
-    await surveyorPage.waitForURL(/\/login/);
-    await signIn(surveyorPage, surveyorEmail, "surveyor-password-1");
-    await open(surveyorPage, new URL(recordUrl).pathname);
+    await surveyorPage.waitForURL(new URL(recordUrl).href);
     await surveyorPage
       .getByTestId("record-checklist")
       .getByText(/countersigned by/)
@@ -226,11 +240,41 @@ describe("from submission to the surveyor's verified PDF", () => {
     expect(text).toMatch(/0\.0015/);
     expect(text.replace(/\s+/g, "")).toContain(digest);
 
+    // The same record as JSON, beside the PDF: its digest is the SHA-256 of the RFC 8785 form of
+    // its signedContent (docs/record-json.md), and it matches the issued record's.
+    const asJson = await surveyorPage.request.get(new URL(jsonUrl).pathname);
+    expect(asJson.status()).toBe(200);
+    const json = await asJson.json();
+    expect(json.digest.value).toBe(digest);
+    expect(createHash("sha256").update(canonicalize(json.signedContent)!, "utf8").digest("hex")).toBe(digest);
+    expect(
+      json.checklists[0].items.find((i: { key: string }) => i.key === "face-runout").verdict.status,
+    ).toBe("ok");
+    await surveyorPage.getByRole("link", { name: "Download as data (JSON)" }).waitFor();
+    // Same access as the PDF: no one signed in, no JSON.
+    expect(
+      (
+        await (
+          await tabletContext(browser)
+        ).context.request.get(new URL(jsonUrl).pathname, { maxRedirects: 0 })
+      ).status(),
+    ).toBe(302);
+
     // The public verification page: genuine, then changed after a direct edit of the stored record.
     const visitor = await (await tabletContext(browser)).context.newPage();
     await open(visitor, new URL(verifyUrl).pathname);
     expect(await visitor.getByTestId("verdict").innerText()).toMatch(/Genuine and unchanged/);
-    expect(await visitor.locator("main").innerText()).not.toContain("R4N-E2E");
+    // It names what a reader matches to the paper in their hand, and nothing more.
+    const identity = await visitor.getByTestId("verify-identity").innerText();
+    for (const words of ["Kittiwake Slip", "Fulmar Rock", "KSB30419L526", "R4-110 diesel", "R4N-E2E"])
+      expect(identity).toContain(words);
+    const signers = await visitor.getByTestId("verify-checklists").innerText();
+    expect(signers).toMatch(/Handover check version 1/);
+    expect(signers).toMatch(/submitted by Wren Malloch on/);
+    expect(signers).toMatch(/Countersigned by Sunniva Craddock, the job's lead, on/);
+    const everything = await visitor.locator("main").innerText();
+    expect(everything).not.toContain("0.0015");
+    expect(everything).not.toContain("@");
     const stored = (await knex("records").where({ job_id: jobId }).first())!;
     await knex("records")
       .where({ id: stored.id })

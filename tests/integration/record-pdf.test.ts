@@ -21,7 +21,8 @@ let info: string;
 /** 5 mm in points (72 pt to the inch, 25.4 mm to the inch). */
 const MM5 = (5 / 25.4) * 72;
 
-const poppler = (tool: string, ...args: string[]) => execFileSync(tool, args, { encoding: "utf8" });
+const poppler = (tool: string, ...args: string[]) =>
+  execFileSync(tool, args, { encoding: "utf8", maxBuffer: 64 * 1024 * 1024 });
 
 beforeAll(async () => {
   dir = mkdtempSync(join(tmpdir(), "sternpost-record-"));
@@ -29,6 +30,28 @@ beforeAll(async () => {
   // A character the font has no glyph for, in a note: it must come out in a form it has.
   const bearing = record.checklists[0].responses["stern-bearing"].value as { note: string };
   bearing.note += " Bilge checked for CO₂ extinguisher discharge: none.";
+  // The seal type first entered as a lip seal, then corrected: an earlier value worth printing.
+  const [shaft, alignment] = record.checklists;
+  const seal = shaft.responses["seal-type"];
+  shaft.history["seal-type"] = [
+    { rev: 1, value: { option: "lip-seal" }, by: seal.by, at: seal.at },
+    { ...shaft.history["seal-type"][0], rev: 2 },
+  ];
+  seal.rev = 2;
+  // An optional photo item left part-done (one photo of the two it asks for).
+  const photoItem = alignment.template.sections
+    .flatMap((section) => section.items)
+    .find((item) => item.key === "alignment-photo");
+  if (photoItem?.kind !== "photo") throw new Error("the alignment template has no alignment-photo item");
+  photoItem.minPhotos = 2;
+  alignment.responses["alignment-photo"] = {
+    value: { photos: [{ id: "9d0e1f2a-3b4c-4d5e-8f60-718293a4b5c6", sha256: "0".repeat(64) }] },
+    rev: 1,
+    by: alignment.submittedBy!,
+    at: alignment.submittedAt!,
+  };
+  // Stored out of the order of work: the record shows them in it.
+  record.checklists = [alignment, shaft];
   digest = recordDigest(record);
   const pdf = await renderRecordPdf(record, { digest, verifyUrl: record.verifyUrl });
   const file = join(dir, "record.pdf");
@@ -96,7 +119,9 @@ describe("the commissioning record PDF", () => {
     expect(text).toMatch(/Rule: between 0 in and 0\.002 in/);
     expect(text).toContain("Corrective action: Spigot runout is in the supplied coupling itself");
     expect(text).toContain("Failed, action recorded");
-    expect(text).toContain("Earlier, revision 1: Failed (Niamh Forde");
+    // "Failed" before its note was written says nothing the current entry does not.
+    expect(text).not.toContain("Earlier, revision 1: Failed");
+    expect(text).toContain("Earlier, revision 1: Lip seal (Niamh Forde");
     expect(text).toContain("Within limit");
   });
 
@@ -106,6 +131,39 @@ describe("the commissioning record PDF", () => {
     expect(text).toContain("Review comment, Róisín Keohane");
     for (const photo of record.checklists.flatMap((c) => c.photos)) expect(text).toContain(photo.sha256);
   });
+
+  test("puts the checklists in the order the work is done", () => {
+    const shaftAt = text.indexOf("CHECKLIST 1 OF 2");
+    expect(text.slice(shaftAt, shaftAt + 200)).toContain("Propeller shaft");
+    expect(text.indexOf("CHECKLIST 2 OF 2")).toBeGreaterThan(shaftAt);
+  });
+
+  test("does not count an optional item left part-done as unresolved", () => {
+    expect(text).not.toMatch(/unresolved/);
+  });
+
+  test("leaves no page but the last half blank, even when the cover spills over (measured with pdftotext -bbox)", async () => {
+    // Eight checklists: the cover's table of them no longer fits on page 1.
+    const eight = {
+      ...record,
+      checklists: [...record.checklists, ...record.checklists, ...record.checklists, ...record.checklists],
+    };
+    const file = join(dir, "eight.pdf");
+    writeFileSync(file, await renderRecordPdf(eight, { digest, verifyUrl: record.verifyUrl }));
+    const pages = poppler("pdftotext", "-bbox", file, "-").split("<page ").slice(1);
+    // The body of an A4 page between the 66 pt margins (the running header and footer are outside it).
+    const top = 66;
+    const bottom = 841.89 - 66;
+    const used = pages.slice(0, -1).map((page) => {
+      const lowest = Math.max(
+        ...[...page.matchAll(/yMax="([\d.]+)"/g)]
+          .map((m) => Number(m[1]))
+          .filter((y) => y > top && y < bottom),
+      );
+      return Math.round(((lowest - top) / (bottom - top)) * 100);
+    });
+    expect(used.filter((percent) => percent < 50)).toEqual([]);
+  }, 30_000);
 
   test("writes a character the font lacks in a form it has", () => {
     expect(text).toContain("CO2 extinguisher");

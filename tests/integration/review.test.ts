@@ -198,21 +198,23 @@ describe("the lock", () => {
 describe("issuing and verifying a record", () => {
   it("needs every checklist countersigned, then verifies until a stored row is changed", async () => {
     const id = await freshJobChecklist();
-    await expect(issueRecord(manager, jobId, ["s@survey.example"])).rejects.toThrow(
-      /still open: Review test/,
-    );
+    await expect(
+      issueRecord(manager, jobId, [{ email: "s@survey.example", name: "Sela Sounding" }]),
+    ).rejects.toThrow(/still open: Review test/);
     await push(tech, [
       op(id, "a", { result: "pass" }, 0),
       op(id, "b", { text: "ok" }, 0),
       op(id, SUBMIT_KEY, submitValue, 0),
     ]);
     await countersign(lead, id, TEST_PASSWORD);
-    await expect(issueRecord(manager, jobId, [tech.email])).rejects.toThrow(/yard account/);
-    await expect(issueRecord(otherLead, jobId, ["s@survey.example"])).rejects.toThrow(
-      /manager or the job's lead/,
-    );
+    await expect(issueRecord(manager, jobId, [{ email: tech.email }])).rejects.toThrow(/yard account/);
+    await expect(
+      issueRecord(otherLead, jobId, [{ email: "s@survey.example", name: "Sela Sounding" }]),
+    ).rejects.toThrow(/manager or the job's lead/);
     // (Mail goes to the SMTP stand-in the integration setup starts.)
-    const recordId = await issueRecord(manager, jobId, [`surveyor-${Date.now()}@survey.example`]);
+    const recordId = await issueRecord(manager, jobId, [
+      { email: `surveyor-${Date.now()}@survey.example`, name: "Sela Sounding" },
+    ]);
     expect((await verifyRecord(recordId))!.genuine).toBe(true);
     expect(await knex("audit_log").where({ action: "record.issued", entity_id: recordId })).toHaveLength(1);
     const row = (await knex("records").where({ id: recordId }).first())!;

@@ -137,6 +137,10 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
     { anonymous: 302, technician: 404, lead: 404, manager: 404, surveyor: 404 },
   ],
   [
+    "/records/00000000-0000-4000-8000-000000000000/json",
+    { anonymous: 302, technician: 404, lead: 404, manager: 404, surveyor: 404 },
+  ],
+  [
     "/api/photos/00000000-0000-4000-8000-000000000001",
     { anonymous: 401, technician: 404, lead: 404, manager: 404, surveyor: 404 },
   ],

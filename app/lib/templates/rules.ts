@@ -63,6 +63,11 @@ export interface Verdict {
   done: boolean;
   /** Plain words for the person at the item. */
   message: string;
+  /**
+   * A finding's account on its own, without what the message asks of the person at the item
+   * ("0.0016 in is above the upper limit of 0.001 in."): what the record prints.
+   */
+  account?: string;
   /** Why a note was (or is) needed; kept once the note is written so a reviewer sees it. */
   finding?: Finding;
   /** Readings outside the rule: a cell, or a whole row when the rule is on the row's spread. */
@@ -102,10 +107,12 @@ function finding(
   if (hasNote(note))
     return verdict(kind === "not-applicable" ? "noted" : "action-noted", `${what} Noted.`, {
       finding: kind,
+      account: what,
       ...extra,
     });
   return verdict(kind === "out-of-range" ? "out-of-range" : "needs-note", `${what} ${ask}`, {
     finding: kind,
+    account: what,
     ...extra,
   });
 }

@@ -57,7 +57,7 @@ export async function action({ request, params }: Route.ActionArgs) {
         return {
           intent: form.intent,
           result: submission.reply({ resetForm: true }),
-          issued: `Record issued to ${form.emails.join(", ")}.`,
+          issued: `Record issued to ${form.emails.map((r) => r.email).join(", ")}.`,
         };
       case "amend":
         await startAmendment(user, form.checklistId);

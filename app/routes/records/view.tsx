@@ -2,6 +2,8 @@ import { Link } from "react-router";
 import type { Route } from "./+types/view";
 import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { VerdictBadge } from "~/components/checklist/verdict-badge";
+import { earlierRevisions } from "~/lib/record/earlier";
+import { inWorkOrder } from "~/lib/record/order";
 import { describeRule, describeValue, progress } from "~/lib/templates";
 import { jobScopeLabels } from "~/lib/validation/jobs";
 import { audit } from "~/server/audit.server";
@@ -23,7 +25,8 @@ const when = (at?: string) => (at ? <LocalTime at={at} style="medium" /> : "—"
 
 export default function RecordView({ loaderData }: Route.ComponentProps) {
   const { record } = loaderData;
-  const { vessel, job, checklists } = record.content;
+  const { vessel, job } = record.content;
+  const checklists = inWorkOrder(record.content.checklists);
   return (
     <>
       <p className="font-bold text-copper">{record.content.yardName} · Commissioning record</p>
@@ -32,6 +35,9 @@ export default function RecordView({ loaderData }: Route.ComponentProps) {
         <div className="flex flex-wrap gap-2">
           <a className="btn btn-primary" href={`/records/${record.id}/pdf`} download>
             Download the PDF
+          </a>
+          <a className="btn" href={`/records/${record.id}/json`} download>
+            Download as data (JSON)
           </a>
           <Link className="btn" to={`/verify/${record.id}`}>
             Check it is genuine
@@ -107,6 +113,7 @@ export default function RecordView({ loaderData }: Route.ComponentProps) {
                 <ul className="flex flex-col gap-2">
                   {section.items.map((item) => {
                     const response = c.responses[item.key];
+                    const earlier = response ? earlierRevisions(item, c.history[item.key], response.rev) : [];
                     return (
                       <li key={item.key} className="card flex flex-col gap-1">
                         <p className="font-bold">{item.label}</p>
@@ -116,12 +123,10 @@ export default function RecordView({ loaderData }: Route.ComponentProps) {
                         <p className="num">
                           {item.kind === "calc" ? "" : describeValue(item, response?.value)}
                         </p>
-                        {(c.history[item.key]?.length ?? 0) > 1 && (
-                          <p className="text-sm text-ink-soft">
+                        {earlier.length > 0 && (
+                          <p className="text-sm text-ink-soft" data-testid="earlier">
                             Earlier:{" "}
-                            {c.history[item.key]!.slice(0, -1)
-                              .map((h) => `${describeValue(item, h.value)} (${h.by})`)
-                              .join("; ")}
+                            {earlier.map((h) => `${describeValue(item, h.value)} (${h.by})`).join("; ")}
                           </p>
                         )}
                         {c.photos.some((p) => p.itemKey === item.key) && (
