@@ -6,10 +6,10 @@ import type { Knex } from "knex";
  * after N" can never miss a change committed late with a smaller number.
  */
 export async function nextChangeNumber(trx: Knex.Transaction): Promise<number> {
-  const { seq } = (await trx("sync_clock").where({ id: 1 }).forUpdate().first())!;
-  const next = Number(seq) + 1;
-  await trx("sync_clock").where({ id: 1 }).update({ seq: next });
-  return next;
+  // One round trip: the UPDATE takes the row lock and LAST_INSERT_ID(expr) hands the new value
+  // back in the statement's own answer (the OK packet's insert id).
+  const [answer] = await trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1");
+  return Number((answer as { insertId: number | string }).insertId);
 }
 
 /** The last number handed out (what a pull may read up to without taking the lock). */

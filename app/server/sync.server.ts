@@ -43,6 +43,10 @@ const reject = (op: { opId: string }, code: RefusalCode, reason: string): OpResu
   reason,
 });
 const itemId = (checklistId: string, itemKey: string) => `${checklistId}|${itemKey}`;
+const partition = <T>(xs: T[], test: (x: T) => boolean): [T[], T[]] => [
+  xs.filter(test),
+  xs.filter((x) => !test(x)),
+];
 
 /** The checklists of the jobs this person may see (the scope of what they pull). */
 function visibleChecklists(knex: Knex, actor: Actor) {
@@ -106,20 +110,42 @@ async function loadAccess(
   );
 }
 
-/** The answers already given to these operation ids, from wherever each kind of answer is kept. */
+/**
+ * The answers already given to these operation ids, from wherever each kind of answer is kept.
+ * One round trip finds which ids are known at all (in a fresh batch, none); their answers are then
+ * read only from the table that holds them.
+ */
 async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
   const answers = new Map<string, { userId: number; result: OpResult }>();
+  if (!opIds.length) return answers;
+  const marks = opIds.map(() => "?").join(",");
+  const [found]: [{ op_id: string; kept: "history" | "conflict" | "other" }[]] = await trx.raw(
+    `SELECT op_id, 'history' AS kept FROM response_history WHERE op_id IN (${marks})
+     UNION ALL SELECT op_id, 'conflict' FROM sync_conflicts WHERE op_id IN (${marks})
+     UNION ALL SELECT op_id, 'other' FROM sync_ops WHERE op_id IN (${marks})`,
+    [...opIds, ...opIds, ...opIds],
+  );
+  const keptIn = (kept: string) => found.filter((f) => f.kept === kept).map((f) => f.op_id);
   const [applied, conflicted, others] = await Promise.all([
-    trx("response_history").whereIn("op_id", opIds).select("op_id", "user_id", "rev"),
-    trx("sync_conflicts as k")
-      // Who set the server's value, and when: its history row.
-      .leftJoin("response_history as h", (j) =>
-        j.on("h.checklist_id", "k.checklist_id").on("h.item_key", "k.item_key").on("h.rev", "k.server_rev"),
-      )
-      .leftJoin("users as u", "u.id", "h.user_id")
-      .whereIn("k.op_id", opIds)
-      .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at"),
-    trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
+    keptIn("history").length
+      ? trx("response_history").whereIn("op_id", keptIn("history")).select("op_id", "user_id", "rev")
+      : [],
+    keptIn("conflict").length
+      ? trx("sync_conflicts as k")
+          // Who set the server's value, and when: its history row.
+          .leftJoin("response_history as h", (j) =>
+            j
+              .on("h.checklist_id", "k.checklist_id")
+              .on("h.item_key", "k.item_key")
+              .on("h.rev", "k.server_rev"),
+          )
+          .leftJoin("users as u", "u.id", "h.user_id")
+          .whereIn("k.op_id", keptIn("conflict"))
+          .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at")
+      : [],
+    keptIn("other").length
+      ? trx("sync_ops").whereIn("op_id", keptIn("other")).select("op_id", "user_id", "result")
+      : [],
   ]);
   for (const r of applied)
     answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id!, status: "applied", rev: r.rev } });
@@ -257,14 +283,15 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
         const valid = ops.filter((o): o is Operation => !("status" in o));
         const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
         const access = await loadAccess(trx, actor, checklistIds);
-        const currentRows = await trx("checklist_responses as r")
-          .join("users as u", "u.id", "r.updated_by")
-          .select("r.checklist_id", "r.item_key", "r.rev", "r.value", "r.updated_at", "u.name")
-          // No row locks needed: every applier holds the clock lock, so none runs beside this one.
-          .whereIn(
-            ["r.checklist_id", "r.item_key"],
-            [...new Set(valid.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
-          );
+        // Every current value of the batch's checklists in one query (a row-constructor IN over
+        // a thousand pairs costs more than reading the few checklists whole). No row locks needed:
+        // every applier holds the clock lock, so none runs beside this one.
+        const currentRows = checklistIds.length
+          ? await trx("checklist_responses as r")
+              .join("users as u", "u.id", "r.updated_by")
+              .select("r.checklist_id", "r.item_key", "r.rev", "r.value", "r.updated_at", "u.name")
+              .whereIn("r.checklist_id", checklistIds)
+          : [];
         // Conflicts still waiting on the batch's checklists: an entry applied on the item decides them.
         const waiting = new Map<string, number[]>();
         for (const c of checklistIds.length
@@ -276,6 +303,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
           const key = itemId(c.checklist_id, c.item_key);
           waiting.set(key, [...(waiting.get(key) ?? []), c.id]);
         }
+        const existed = new Set(currentRows.map((r) => itemId(r.checklist_id, r.item_key)));
         const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
           currentRows.map((r) => [
             itemId(r.checklist_id, r.item_key),
@@ -450,9 +478,14 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
             at: now.toISOString(),
           });
         }
-        if (responses.size) {
+        // New items take a plain insert; only items that had a value go through the upsert.
+        const [changed, added] = partition([...responses.values()], (r) =>
+          existed.has(itemId(r.checklist_id, r.item_key)),
+        );
+        if (added.length) await trx("checklist_responses").insert(added);
+        if (changed.length) {
           await trx("checklist_responses")
-            .insert([...responses.values()])
+            .insert(changed)
             .onConflict(["checklist_id", "item_key"])
             .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
         }
