@@ -41,7 +41,7 @@ const { startChecklists } = await import("../app/server/checklists.server.ts");
 
 // One technician with a job of 6 checklists per client, so pushes go to their own items.
 const lead = await makeUser(knex, "lead");
-const clients: { cookie: string; checklistId: string; email: string }[] = [];
+const clients: { cookie: string; checklistId: string; email: string; cursor: string | null }[] = [];
 const technicians = await Promise.all(
   Array.from({ length: CONNECTIONS }, () => makeUser(knex, "technician")),
 );
@@ -52,7 +52,7 @@ for (const technician of technicians) {
     ["cooling", "exhaust", "engine-alignment", "sea-trial", "instruments-and-electrical"],
     lead.id,
   );
-  clients.push({ cookie: "", checklistId: ids[0]!, email: technician.email });
+  clients.push({ cookie: "", checklistId: ids[0]!, email: technician.email, cursor: null });
 }
 
 const server = await startServer({
@@ -70,7 +70,10 @@ for (const client of clients) {
   client.cookie = response.headers.get("Set-Cookie")!.split(";")[0]!;
 }
 
-/** Every push carries 10 fresh operations; each client writes its own checklist, round after round. */
+/**
+ * Every push carries 10 fresh operations and, as a tablet's does, the cursor its last answer gave
+ * (so it pulls only what changed since); each client writes its own checklist, round after round.
+ */
 const revs = new Map<string, number>();
 function pushBody(client: (typeof clients)[number]) {
   const ops = ITEMS.map((itemKey, i) => {
@@ -87,7 +90,7 @@ function pushBody(client: (typeof clients)[number]) {
       at: new Date().toISOString(),
     };
   });
-  return JSON.stringify({ deviceId: `bench-${client.email}`, cursor: null, ops });
+  return JSON.stringify({ deviceId: `bench-${client.email}`, cursor: client.cursor, ops });
 }
 
 interface Scenario {
@@ -124,12 +127,16 @@ for (const scenario of scenarios) {
       {
         method: scenario.method,
         path: scenario.path,
-        setupRequest: (request) => {
-          // Each connection is one client; autocannon hands requests out round-robin.
-          const client = clients[next++ % clients.length]!;
+        setupRequest: (request, context) => {
+          // Each connection is one client, so a client's requests follow one another.
+          const client = (context.client ??= clients[next++ % clients.length]!);
           const headers: Record<string, string> = { Cookie: client.cookie, Origin: server.url };
           if (scenario.body) headers["Content-Type"] = "application/json";
           return { ...request, headers, body: scenario.body?.(client) };
+        },
+        onResponse: (status, body, context) => {
+          if (status === 200 && scenario.name === "sync push")
+            context.client!.cursor = (JSON.parse(body) as { cursor: string }).cursor;
         },
       },
     ],
