@@ -29,7 +29,7 @@ const ITEMS = [
 ];
 
 const base = new URL(process.env.DATABASE_URL ?? "mysql://root@127.0.0.1:3307/sternpost");
-base.pathname = "/sternpost_bench_load";
+base.pathname = `/sternpost_bench_load${process.env.TEST_DB_SUFFIX ?? ""}`;
 const url = base.toString();
 await dropDatabase(url);
 await createDatabase(url);
@@ -152,6 +152,15 @@ for (const scenario of scenarios) {
 }
 clearInterval(sampler);
 const peak = Math.max(peakSampled, server.memoryMb().peak);
+// What the failed requests were answered, from the server's own request log.
+const failed = new Map<string, number>();
+for (const line of server.logLines()) {
+  const { req, res, msg } = line as { req?: { route: string }; res?: { status: number }; msg?: string };
+  if (req && res && res.status >= 400) {
+    const key = `${res.status} ${req.route}`;
+    failed.set(key, (failed.get(key) ?? 0) + 1);
+  } else if (msg && msg !== "request" && !/listening/.test(msg)) failed.set(msg, (failed.get(msg) ?? 0) + 1);
+}
 await server.stop();
 await knex.destroy();
 
@@ -174,3 +183,4 @@ const push = results.find((r) => r.name === "sync push")!;
 console.log(
   `sync push p99 / health p99: ${(push.p99 / Math.max(health.p99, 1)).toFixed(2)} (target ≤ 3); errors: ${results.reduce((n, r) => n + r.errors, 0)} (target 0)`,
 );
+if (failed.size) console.log("server answers other than 2xx and log messages:", Object.fromEntries(failed));
