@@ -14,7 +14,7 @@ export async function nextChangeNumber(trx: Knex.Transaction): Promise<number> {
 }
 
 /** The last number handed out (what a pull may read up to without taking the lock). */
-export async function lastChangeNumber(trx: Knex.Transaction): Promise<number> {
+export async function lastChangeNumber(trx: Knex): Promise<number> {
   return Number((await trx("sync_clock").where({ id: 1 }).first())!.seq);
 }
 

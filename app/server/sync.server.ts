@@ -220,7 +220,7 @@ type FeedRow = Pick<
  * last number included) is exact. `more` says the device should pull again from that cursor.
  */
 export async function changesPage(
-  trx: Knex.Transaction,
+  trx: Knex,
   scope: string[],
   since: number,
   upTo: number,
@@ -272,22 +272,18 @@ export async function changesPage(
  */
 export async function sync(actor: Actor & { name: string }, request: SyncRequest): Promise<SyncResponse> {
   const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
+  // A pull needs no transaction of its own: every change numbered up to the clock it reads (or to
+  // the batch's own number) is committed, so plain reads see each of them or a later change.
   if (!request.ops.length)
-    return db().transaction(async (trx) => ({
-      results: [],
-      ...(await pullPage(trx, actor, since, await lastChangeNumber(trx), [])),
-    }));
+    return { results: [], ...(await pullPage(db(), actor, since, await lastChangeNumber(db()), [])) };
   // A deadlock, a lost certification on a Galera cluster, or a concurrent copy of one of the
   // batch's opIds (a duplicate key) runs the whole batch again; a copy is then answered as a repeat.
   const { results, clock, wrote } = await withRetry(
     () => db().transaction((trx) => applyBatch(trx, actor, request)),
     { alsoRetry: [ER_DUP_ENTRY] },
   );
-  // A fresh read after the commit sees every change numbered up to the batch's own.
-  return {
-    results,
-    ...(await db().transaction((trx) => pullPage(trx, actor, since, clock, wrote))),
-  };
+  // Read after the commit, the pull sees every change numbered up to the batch's own.
+  return { results, ...(await pullPage(db(), actor, since, clock, wrote)) };
 }
 
 const ER_DUP_ENTRY = 1062;
@@ -580,7 +576,7 @@ async function applyBatch(
  * batch wrote changes numbered `clock`, up to the number before, plus those changes as written).
  */
 async function pullPage(
-  trx: Knex.Transaction,
+  trx: Knex,
   actor: Actor,
   since: number,
   clock: number,

@@ -248,7 +248,7 @@ describe("a photo whose upload the tablet never heard back from", () => {
     const value = await knex("checklist_responses")
       .where({ checklist_id: checklistId, item_key: "alignment-photo" })
       .first("value");
-    expect((parse(value.value) as { photos: { id: string }[] }).photos.map((p) => p.id)).toEqual([
+    expect((parse(value?.value) as { photos: { id: string }[] }).photos.map((p) => p.id)).toEqual([
       rows[0].id,
     ]);
     expectNoConsoleErrors(tablet.errors.filter((e) => !/ERR_INTERNET_DISCONNECTED/.test(e)));
