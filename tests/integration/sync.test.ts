@@ -128,16 +128,26 @@ describe("the sync rules on MariaDB", () => {
     const [a] = await startChecklists(jobA.id, ["cooling"], lead.id);
     const [b] = await startChecklists(jobB.id, ["cooling"], lead.id);
     const items = ["seacock", "intake-hose", "strainer", "impeller", "heat-exchanger", "thermostat"];
-    // The lead's watching device pulls with its cursor, again and again, while two devices push
-    // to the two checklists at the same time; it must end up with every value they wrote.
+    // The lead's watching device syncs with its cursor, again and again, while two devices push to
+    // the two checklists at the same time; it must end up with every value they wrote. It pushes an
+    // entry of its own each time (to a third checklist), so its pulls are the ones read after a batch.
+    const [c] = await startChecklists((await makeJob(knex, lead.id, [])).id, ["cooling"], lead.id);
     const seen = new Map<string, number>();
     let cursor = (await sync(lead, { deviceId: "watcher", cursor: null, ops: [] })).cursor;
     let pushing = true;
     const watching = (async () => {
+      let rev = 0;
       for (let last = false; !last;) {
-        last = !pushing; // one more pull after the pushes have all answered
-        const answer = await sync(lead, { deviceId: "watcher", cursor, ops: [] });
-        for (const c of answer.changes) seen.set(`${c.checklistId}|${c.itemKey}`, c.rev);
+        last = !pushing; // one more sync after the pushes have all answered
+        const entry = op(
+          c!,
+          "strainer",
+          check(rev % 2 ? "pass" : "fail", rev % 2 ? undefined : "Clogged"),
+          rev,
+        );
+        const answer = await sync(lead, { deviceId: "watcher", cursor, ops: [entry] });
+        rev = answer.results[0]!.rev!;
+        for (const change of answer.changes) seen.set(`${change.checklistId}|${change.itemKey}`, change.rev);
         cursor = answer.cursor;
       }
     })();
