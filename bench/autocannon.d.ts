@@ -6,11 +6,18 @@ declare module "autocannon" {
     headers?: Record<string, string>;
     body?: string;
   }
+  interface Context {
+    client?: { cursor: string | null; cookie: string; checklistId: string; email: string };
+  }
   interface Options {
     url: string;
     connections?: number;
     duration?: number;
-    requests?: (Request & { setupRequest?: (request: Request) => Request })[];
+    requests?: (Request & {
+      /** `context` is per connection and kept across its requests. */
+      setupRequest?: (request: Request, context: Context) => Request;
+      onResponse?: (status: number, body: string, context: Context) => void;
+    })[];
   }
   interface Histogram {
     average: number;

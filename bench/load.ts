@@ -29,7 +29,7 @@ const ITEMS = [
 ];
 
 const base = new URL(process.env.DATABASE_URL ?? "mysql://root@127.0.0.1:3307/sternpost");
-base.pathname = "/sternpost_bench_load";
+base.pathname = `/sternpost_bench_load${process.env.TEST_DB_SUFFIX ?? ""}`;
 const url = base.toString();
 await dropDatabase(url);
 await createDatabase(url);
@@ -41,7 +41,7 @@ const { startChecklists } = await import("../app/server/checklists.server.ts");
 
 // One technician with a job of 6 checklists per client, so pushes go to their own items.
 const lead = await makeUser(knex, "lead");
-const clients: { cookie: string; checklistId: string; email: string }[] = [];
+const clients: { cookie: string; checklistId: string; email: string; cursor: string | null }[] = [];
 const technicians = await Promise.all(
   Array.from({ length: CONNECTIONS }, () => makeUser(knex, "technician")),
 );
@@ -52,7 +52,7 @@ for (const technician of technicians) {
     ["cooling", "exhaust", "engine-alignment", "sea-trial", "instruments-and-electrical"],
     lead.id,
   );
-  clients.push({ cookie: "", checklistId: ids[0]!, email: technician.email });
+  clients.push({ cookie: "", checklistId: ids[0]!, email: technician.email, cursor: null });
 }
 
 const server = await startServer({
@@ -70,7 +70,10 @@ for (const client of clients) {
   client.cookie = response.headers.get("Set-Cookie")!.split(";")[0]!;
 }
 
-/** Every push carries 10 fresh operations; each client writes its own checklist, round after round. */
+/**
+ * Every push carries 10 fresh operations and, as a tablet's does, the cursor its last answer gave
+ * (so it pulls only what changed since); each client writes its own checklist, round after round.
+ */
 const revs = new Map<string, number>();
 function pushBody(client: (typeof clients)[number]) {
   const ops = ITEMS.map((itemKey, i) => {
@@ -87,7 +90,7 @@ function pushBody(client: (typeof clients)[number]) {
       at: new Date().toISOString(),
     };
   });
-  return JSON.stringify({ deviceId: `bench-${client.email}`, cursor: null, ops });
+  return JSON.stringify({ deviceId: `bench-${client.email}`, cursor: client.cursor, ops });
 }
 
 interface Scenario {
@@ -124,12 +127,16 @@ for (const scenario of scenarios) {
       {
         method: scenario.method,
         path: scenario.path,
-        setupRequest: (request) => {
-          // Each connection is one client; autocannon hands requests out round-robin.
-          const client = clients[next++ % clients.length]!;
+        setupRequest: (request, context) => {
+          // Each connection is one client, so a client's requests follow one another.
+          const client = (context.client ??= clients[next++ % clients.length]!);
           const headers: Record<string, string> = { Cookie: client.cookie, Origin: server.url };
           if (scenario.body) headers["Content-Type"] = "application/json";
           return { ...request, headers, body: scenario.body?.(client) };
+        },
+        onResponse: (status, body, context) => {
+          if (status === 200 && scenario.name === "sync push")
+            context.client!.cursor = (JSON.parse(body) as { cursor: string }).cursor;
         },
       },
     ],
@@ -145,6 +152,15 @@ for (const scenario of scenarios) {
 }
 clearInterval(sampler);
 const peak = Math.max(peakSampled, server.memoryMb().peak);
+// What the failed requests were answered, from the server's own request log.
+const failed = new Map<string, number>();
+for (const line of server.logLines()) {
+  const { req, res, msg } = line as { req?: { route: string }; res?: { status: number }; msg?: string };
+  if (req && res && res.status >= 400) {
+    const key = `${res.status} ${req.route}`;
+    failed.set(key, (failed.get(key) ?? 0) + 1);
+  } else if (msg && msg !== "request" && !/listening/.test(msg)) failed.set(msg, (failed.get(msg) ?? 0) + 1);
+}
 await server.stop();
 await knex.destroy();
 
@@ -167,3 +183,4 @@ const push = results.find((r) => r.name === "sync push")!;
 console.log(
   `sync push p99 / health p99: ${(push.p99 / Math.max(health.p99, 1)).toFixed(2)} (target ≤ 3); errors: ${results.reduce((n, r) => n + r.errors, 0)} (target 0)`,
 );
+if (failed.size) console.log("server answers other than 2xx and log messages:", Object.fromEntries(failed));

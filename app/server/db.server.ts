@@ -13,10 +13,22 @@ declare global {
   var __sternpostDb: Knex | undefined;
 }
 
+let answeredAt = 0;
+
 export function db(): Knex {
-  globalThis.__sternpostDb ??= knexFactory({
-    ...knexConfig(env().DATABASE_URL),
-    acquireConnectionTimeout: ACQUIRE_TIMEOUT_MS,
-  });
+  if (!globalThis.__sternpostDb) {
+    globalThis.__sternpostDb = knexFactory({
+      ...knexConfig(env().DATABASE_URL),
+      acquireConnectionTimeout: ACQUIRE_TIMEOUT_MS,
+    });
+    globalThis.__sternpostDb.on("query-response", () => (answeredAt = Date.now()));
+  }
   return globalThis.__sternpostDb;
 }
+
+/**
+ * When MariaDB last answered a query of this process (ms since the epoch, 0 if never). Under load
+ * every pooled connection is busy and a health probe would queue behind them: a recent answer
+ * says the database is up without asking again.
+ */
+export const lastDatabaseAnswerAt = () => answeredAt;

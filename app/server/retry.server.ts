@@ -14,12 +14,18 @@ export function isRetryable(error: unknown): boolean {
   return typeof errno === "number" && RETRYABLE.has(errno);
 }
 
-export async function withRetry<T>(run: () => Promise<T>, attempts = 6): Promise<T> {
+/** `alsoRetry`: more error numbers the caller knows a fresh run answers (e.g. a duplicate key). */
+export async function withRetry<T>(
+  run: () => Promise<T>,
+  { attempts = 6, alsoRetry = [] as number[] } = {},
+): Promise<T> {
   for (let attempt = 1; ; attempt++) {
     try {
       return await run();
     } catch (error) {
-      if (!isRetryable(error) || attempt >= attempts) throw error;
+      const errno = (error as { errno?: number } | null)?.errno;
+      const again = isRetryable(error) || (typeof errno === "number" && alsoRetry.includes(errno));
+      if (!again || attempt >= attempts) throw error;
       // A short, growing, jittered pause so two nodes' retries do not collide again in step.
       await new Promise((r) => setTimeout(r, Math.random() * 10 * 2 ** attempt));
     }

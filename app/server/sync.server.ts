@@ -43,6 +43,10 @@ const reject = (op: { opId: string }, code: RefusalCode, reason: string): OpResu
   reason,
 });
 const itemId = (checklistId: string, itemKey: string) => `${checklistId}|${itemKey}`;
+const partition = <T>(xs: T[], test: (x: T) => boolean): [T[], T[]] => [
+  xs.filter(test),
+  xs.filter((x) => !test(x)),
+];
 
 /** The checklists of the jobs this person may see (the scope of what they pull). */
 function visibleChecklists(knex: Knex, actor: Actor) {
@@ -106,20 +110,43 @@ async function loadAccess(
   );
 }
 
-/** The answers already given to these operation ids, from wherever each kind of answer is kept. */
+/**
+ * The answers already given to these operation ids, from wherever each kind of answer is kept.
+ * One round trip finds which ids are known at all (in a fresh batch, none); their answers are then
+ * read only from the table that holds them.
+ */
 async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
   const answers = new Map<string, { userId: number; result: OpResult }>();
+  if (!opIds.length) return answers;
+  const marks = opIds.map(() => "?").join(",");
+  type Found = { op_id: string; kept: "history" | "conflict" | "other" };
+  const [found] = (await trx.raw(
+    `SELECT op_id, 'history' AS kept FROM response_history WHERE op_id IN (${marks})
+     UNION ALL SELECT op_id, 'conflict' FROM sync_conflicts WHERE op_id IN (${marks})
+     UNION ALL SELECT op_id, 'other' FROM sync_ops WHERE op_id IN (${marks})`,
+    [...opIds, ...opIds, ...opIds],
+  )) as [Found[]];
+  const keptIn = (kept: string) => found.filter((f) => f.kept === kept).map((f) => f.op_id);
   const [applied, conflicted, others] = await Promise.all([
-    trx("response_history").whereIn("op_id", opIds).select("op_id", "user_id", "rev"),
-    trx("sync_conflicts as k")
-      // Who set the server's value, and when: its history row.
-      .leftJoin("response_history as h", (j) =>
-        j.on("h.checklist_id", "k.checklist_id").on("h.item_key", "k.item_key").on("h.rev", "k.server_rev"),
-      )
-      .leftJoin("users as u", "u.id", "h.user_id")
-      .whereIn("k.op_id", opIds)
-      .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at"),
-    trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result"),
+    keptIn("history").length
+      ? trx("response_history").whereIn("op_id", keptIn("history")).select("op_id", "user_id", "rev")
+      : [],
+    keptIn("conflict").length
+      ? trx("sync_conflicts as k")
+          // Who set the server's value, and when: its history row.
+          .leftJoin("response_history as h", (j) =>
+            j
+              .on("h.checklist_id", "k.checklist_id")
+              .on("h.item_key", "k.item_key")
+              .on("h.rev", "k.server_rev"),
+          )
+          .leftJoin("users as u", "u.id", "h.user_id")
+          .whereIn("k.op_id", keptIn("conflict"))
+          .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at")
+      : [],
+    keptIn("other").length
+      ? trx("sync_ops").whereIn("op_id", keptIn("other")).select("op_id", "user_id", "result")
+      : [],
   ]);
   for (const r of applied)
     answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id!, status: "applied", rev: r.rev } });
@@ -193,7 +220,7 @@ type FeedRow = Pick<
  * last number included) is exact. `more` says the device should pull again from that cursor.
  */
 export async function changesPage(
-  trx: Knex.Transaction,
+  trx: Knex,
   scope: string[],
   since: number,
   upTo: number,
@@ -228,310 +255,357 @@ export async function changesPage(
 }
 
 /**
- * Applies a batch and answers what changed since the cursor, in one transaction: either the
- * whole batch is recorded (with each op's result) or nothing is. The rules per operation:
- * a known opId gets its first answer again; baseRev equal to the current revision is applied
- * (revision + 1); the same value as the server's is accepted without a conflict; anything else
- * is a conflict, kept with both values. Applying batches take the sync clock's row lock first, so
- * change numbers are handed out in commit order and a pull can never skip a late commit.
+ * Applies a batch and answers what changed since the cursor. The batch is one transaction: either
+ * all of it is recorded (with each op's result) or nothing is. The rules per operation: a known
+ * opId gets its first answer again; baseRev equal to the current revision is applied
+ * (revision + 1); the same value as the server's is accepted without a conflict; anything else is
+ * a conflict, kept with both values.
  *
- * The batch is decided in memory over rows read with a few locking queries, then written with a
- * few multi-row statements, so a thousand operations cost a handful of round trips.
+ * Concurrency (decision 043): the batch first locks the rows of the checklists it touches, so
+ * batches on other checklists run beside it, and takes the change-feed clock only once its
+ * decisions are made, just before writing; the clock's row lock is held for the writes and the
+ * commit alone. Change numbers therefore still follow commit order, and the pull — read after the
+ * commit, when every smaller number is committed — never misses a late commit (decision 004).
+ *
+ * The batch is decided in memory over rows read with a few queries, then written with a few
+ * multi-row statements, so a thousand operations cost a handful of round trips.
  */
 export async function sync(actor: Actor & { name: string }, request: SyncRequest): Promise<SyncResponse> {
-  // A deadlock, or a lost certification on a Galera cluster, runs the whole batch again.
-  return withRetry(() =>
-    db().transaction(async (trx) => {
-      let clock: number;
-      const results: OpResult[] = [];
-      const wrote: Change[] = [];
-      if (request.ops.length) {
-        clock = await nextChangeNumber(trx);
-        const now = new Date();
+  const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
+  // A pull needs no transaction of its own: every change numbered up to the clock it reads (or to
+  // the batch's own number) is committed, so plain reads see each of them or a later change.
+  if (!request.ops.length)
+    return { results: [], ...(await pullPage(db(), actor, since, await lastChangeNumber(db()), [])) };
+  // A deadlock, a lost certification on a Galera cluster, or a concurrent copy of one of the
+  // batch's opIds (a duplicate key) runs the whole batch again; a copy is then answered as a repeat.
+  const { results, clock, wrote } = await withRetry(
+    () => db().transaction((trx) => applyBatch(trx, actor, request)),
+    { alsoRetry: [ER_DUP_ENTRY] },
+  );
+  // Read after the commit, the pull sees every change numbered up to the batch's own.
+  return { results, ...(await pullPage(db(), actor, since, clock, wrote)) };
+}
 
-        const known = await answersGiven(
-          trx,
-          request.ops.map((o) => o.opId),
-        );
-        const ops = request.ops.map(readOperation);
-        const valid = ops.filter((o): o is Operation => !("status" in o));
-        const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
-        const access = await loadAccess(trx, actor, checklistIds);
-        const currentRows = await trx("checklist_responses as r")
-          .join("users as u", "u.id", "r.updated_by")
-          .select("r.checklist_id", "r.item_key", "r.rev", "r.value", "r.updated_at", "u.name")
-          // No row locks needed: every applier holds the clock lock, so none runs beside this one.
-          .whereIn(
-            ["r.checklist_id", "r.item_key"],
-            [...new Set(valid.map((o) => itemId(o.checklistId, o.itemKey)))].map((k) => k.split("|")),
-          );
-        // Conflicts still waiting on the batch's checklists: an entry applied on the item decides them.
-        const waiting = new Map<string, number[]>();
-        for (const c of checklistIds.length
-          ? await trx("sync_conflicts")
-              .whereIn("checklist_id", checklistIds)
-              .whereNull("resolved_at")
-              .select("id", "checklist_id", "item_key")
-          : []) {
-          const key = itemId(c.checklist_id, c.item_key);
-          waiting.set(key, [...(waiting.get(key) ?? []), c.id]);
-        }
-        const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
-          currentRows.map((r) => [
-            itemId(r.checklist_id, r.item_key),
-            { rev: r.rev, value: parseJsonColumn(r.value), by: r.name, at: new Date(r.updated_at) },
-          ]),
-        );
+const ER_DUP_ENTRY = 1062;
 
-        const responses = new Map<string, ChecklistResponseRow>();
-        const history: Omit<ResponseHistoryRow, "id">[] = [];
-        const writtenOps = new Set<string>();
-        const conflicts: {
-          op: Operation;
-          row: Omit<SyncConflictRow, "id" | "resolved_at" | "resolved_by" | "resolution_op_id"> &
-            Partial<Pick<SyncConflictRow, "resolved_at">>;
-          resultIndex: number;
-        }[] = [];
-        const resolutions: { op: Operation; ids: number[] }[] = [];
-        const recorded: { op: Operation; resultIndex: number }[] = [];
-        const submissions: { op: Operation; resultIndex: number }[] = [];
+/** The checklists' rows, locked in key order (the same order in every batch, so no deadlock). */
+async function lockChecklists(trx: Knex.Transaction, ids: string[]) {
+  if (ids.length) await trx("job_checklists").whereIn("id", ids).orderBy("id").forUpdate().select("id");
+}
 
-        const submittedHere = new Set<string>();
-        for (const read of ops) {
-          const seen = known.get(read.opId);
-          if (seen) {
-            // A retry: the first answer, marked as a repeat (another person's opId is simply refused).
-            results.push(
-              seen.userId === actor.id
-                ? { ...seen.result, opId: read.opId, repeat: true }
-                : reject(read, "op-id-taken", "This operation id was used by someone else."),
-            );
-            continue;
-          }
-          if ("status" in read) {
-            results.push(read); // malformed: refused on its own, nothing stored
-            continue;
-          }
-          const op = read;
-          if (op.itemKey === SUBMIT_KEY) {
-            // Decided after this batch's entries are written: they count towards "complete".
-            const denied = accessRefusal(op, access.get(op.checklistId));
-            if (denied) {
-              results.push(denied);
-              recorded.push({ op, resultIndex: results.length - 1 });
-            } else {
-              submissions.push({ op, resultIndex: results.length });
-              results.push({ opId: op.opId, status: "applied", rev: 0 }); // replaced once decided
-            }
-            continue;
-          }
-          const key = itemId(op.checklistId, op.itemKey);
-          let result = refusal(op, access.get(op.checklistId));
-          if (!result) {
-            const now_ = current.get(key);
-            const rev = now_?.rev ?? 0;
-            const onCurrent = op.baseRev === rev;
-            const kind = findItem(access.get(op.checklistId)!.template, op.itemKey)!.kind;
-            // What the entry does to the item, by its kind's merge rule (app/lib/sync/merge.ts).
-            let next: { write: unknown } | { same: true } | { conflict: true };
-            if (mergeRuleFor(kind) === "log" && now_) {
-              const merged = mergeLog(now_.value, op.value, onCurrent);
-              next =
-                "conflict" in merged
-                  ? merged
-                  : sameJson(merged.value, now_.value)
-                    ? { same: true }
-                    : { write: merged.value };
-            } else if (onCurrent) next = { write: op.value };
-            else if (now_ && sameJson(now_.value, op.value)) next = { same: true };
-            else next = { conflict: true };
-            if ("write" in next) {
-              const value = JSON.stringify(next.write);
-              current.set(key, { rev: rev + 1, value: next.write, by: actor.name, at: now });
-              responses.set(key, {
-                checklist_id: op.checklistId,
-                item_key: op.itemKey,
-                value,
-                rev: rev + 1,
-                updated_by: actor.id,
-                device_id: request.deviceId,
-                updated_at: now,
-                change_seq: clock,
-              });
-              writtenOps.add(op.opId);
-              history.push({
-                checklist_id: op.checklistId,
-                item_key: op.itemKey,
-                rev: rev + 1,
-                value,
-                user_id: actor.id,
-                device_id: request.deviceId,
-                op_id: op.opId,
-                at: now,
-                client_at: op.at,
-              });
-              result = { opId: op.opId, status: "applied", rev: rev + 1 };
-              // Made on the server's current value, this entry decides every conflict waiting on the
-              // item: those already stored, and those this batch raised before it.
-              const ids = onCurrent
-                ? [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])]
-                : [];
-              if (ids.length) resolutions.push({ op, ids });
-              if (onCurrent) {
-                waiting.delete(key);
-                for (const c of conflicts)
-                  if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
-                    Object.assign(c.row, {
-                      resolved_at: now,
-                      resolved_by: actor.id,
-                      resolution_op_id: op.opId,
-                    });
-              }
-            } else if ("same" in next) {
-              result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
-              if (op.resolves?.length) resolutions.push({ op, ids: op.resolves });
-            } else {
-              result = {
-                opId: op.opId,
-                status: "conflict",
-                rev,
-                serverValue: now_?.value ?? null,
-                ...(now_ ? { serverBy: now_.by, serverAt: now_.at.toISOString() } : {}),
-              };
-              conflicts.push({
-                op,
-                resultIndex: results.length,
-                row: {
-                  checklist_id: op.checklistId,
-                  item_key: op.itemKey,
-                  op_id: op.opId,
-                  base_rev: op.baseRev,
-                  server_rev: rev,
-                  server_value: now_ ? JSON.stringify(now_.value) : null,
-                  client_value: JSON.stringify(op.value),
-                  user_id: actor.id,
-                  device_id: request.deviceId,
-                  client_at: op.at,
-                  received_at: now,
-                },
-              });
-            }
-          }
-          results.push(result);
-          // Applied values and conflicts are their own record; only the rest needs a row of its own.
-          if (result.status === "rejected" || (result.status === "applied" && !writtenOps.has(op.opId))) {
-            recorded.push({ op, resultIndex: results.length - 1 });
-          }
-        }
-        // One multi-row insert, then the ids read back by opId: a Galera cluster hands out
-        // auto-increment ids in steps of the node count, so they are not consecutive there.
-        if (conflicts.length) {
-          await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
-          const ids = new Map(
-            (
-              await trx("sync_conflicts")
-                .whereIn(
-                  "op_id",
-                  conflicts.map((c) => c.op.opId),
-                )
-                .select("id", "op_id")
-            ).map((r) => [r.op_id, Number(r.id)]),
-          );
-          for (const c of conflicts)
-            results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: ids.get(c.op.opId)! };
-        }
-        for (const r of responses.values()) {
-          wrote.push({
-            checklistId: r.checklist_id,
-            itemKey: r.item_key,
-            value: JSON.parse(r.value),
-            rev: r.rev,
-            by: actor.name,
-            at: now.toISOString(),
-          });
-        }
-        if (responses.size) {
-          await trx("checklist_responses")
-            .insert([...responses.values()])
-            .onConflict(["checklist_id", "item_key"])
-            .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
-        }
-        // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
-        if (history.length) await trx("response_history").insert(history);
-        for (const { op, ids } of resolutions) {
-          await trx("sync_conflicts")
-            .whereIn("id", ids)
-            .where({ checklist_id: op.checklistId, item_key: op.itemKey })
-            .whereNull("resolved_at")
-            .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
-        }
-        for (const { op, resultIndex } of submissions) {
-          recorded.push({ op, resultIndex });
-          if (submittedHere.has(op.checklistId)) {
-            results[resultIndex] = reject(op, "locked", "The checklist is already waiting for review.");
-            continue;
-          }
-          const undecided = await undecidedConflicts(trx, op.checklistId);
-          if (undecided) {
-            results[resultIndex] = reject(
-              op,
-              "conflict-undecided",
-              `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided on the To-decide page.`,
-            );
-            continue;
-          }
-          const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
-          if (refused) {
-            results[resultIndex] = reject(op, "incomplete", refused);
-            continue;
-          }
-          submittedHere.add(op.checklistId);
-          await trx("job_checklists").where({ id: op.checklistId }).update({ change_seq: clock });
-          results[resultIndex] = { opId: op.opId, status: "applied", rev: 0 };
-        }
-        const opRows = recorded.map(({ op, resultIndex }) => ({
-          op_id: op.opId,
-          device_id: request.deviceId,
-          seq: op.seq,
-          user_id: actor.id,
+/**
+ * Decides and writes a batch; answers each operation, the change number of its writes (or, with
+ * nothing for the feed, the last number handed out) and the changes it wrote.
+ */
+async function applyBatch(
+  trx: Knex.Transaction,
+  actor: Actor & { name: string },
+  request: SyncRequest,
+): Promise<{ results: OpResult[]; clock: number; wrote: Change[] }> {
+  const results: OpResult[] = [];
+  const wrote: Change[] = [];
+  const now = new Date();
+  const ops = request.ops.map(readOperation);
+  const valid = ops.filter((o): o is Operation => !("status" in o));
+  const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
+  // Locked first, so every read below sees what batches before this one committed on them.
+  await lockChecklists(trx, checklistIds);
+  const known = await answersGiven(
+    trx,
+    request.ops.map((o) => o.opId),
+  );
+  const access = await loadAccess(trx, actor, checklistIds);
+  // Every current value of the batch's checklists in one query (a row-constructor IN over
+  // a thousand pairs costs more than reading the few checklists whole). Their checklists are
+  // locked, so no other batch changes them before this one commits.
+  const currentRows = checklistIds.length
+    ? await trx("checklist_responses as r")
+        .join("users as u", "u.id", "r.updated_by")
+        .select("r.checklist_id", "r.item_key", "r.rev", "r.value", "r.updated_at", "u.name")
+        .whereIn("r.checklist_id", checklistIds)
+    : [];
+  // Conflicts still waiting on the batch's checklists: an entry applied on the item decides them.
+  const waiting = new Map<string, number[]>();
+  for (const c of checklistIds.length
+    ? await trx("sync_conflicts")
+        .whereIn("checklist_id", checklistIds)
+        .whereNull("resolved_at")
+        .select("id", "checklist_id", "item_key")
+    : []) {
+    const key = itemId(c.checklist_id, c.item_key);
+    waiting.set(key, [...(waiting.get(key) ?? []), c.id]);
+  }
+  const existed = new Set(currentRows.map((r) => itemId(r.checklist_id, r.item_key)));
+  const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
+    currentRows.map((r) => [
+      itemId(r.checklist_id, r.item_key),
+      { rev: r.rev, value: parseJsonColumn(r.value), by: r.name, at: new Date(r.updated_at) },
+    ]),
+  );
+
+  const responses = new Map<string, Omit<ChecklistResponseRow, "change_seq">>();
+  const history: Omit<ResponseHistoryRow, "id">[] = [];
+  const writtenOps = new Set<string>();
+  const conflicts: {
+    op: Operation;
+    row: Omit<SyncConflictRow, "id" | "resolved_at" | "resolved_by" | "resolution_op_id"> &
+      Partial<Pick<SyncConflictRow, "resolved_at">>;
+    resultIndex: number;
+  }[] = [];
+  const resolutions: { op: Operation; ids: number[] }[] = [];
+  const recorded: { op: Operation; resultIndex: number }[] = [];
+  const submissions: { op: Operation; resultIndex: number }[] = [];
+
+  const submittedHere = new Set<string>();
+  for (const read of ops) {
+    const seen = known.get(read.opId);
+    if (seen) {
+      // A retry: the first answer, marked as a repeat (another person's opId is simply refused).
+      results.push(
+        seen.userId === actor.id
+          ? { ...seen.result, opId: read.opId, repeat: true }
+          : reject(read, "op-id-taken", "This operation id was used by someone else."),
+      );
+      continue;
+    }
+    if ("status" in read) {
+      results.push(read); // malformed: refused on its own, nothing stored
+      continue;
+    }
+    const op = read;
+    if (op.itemKey === SUBMIT_KEY) {
+      // Decided after this batch's entries are written: they count towards "complete".
+      const denied = accessRefusal(op, access.get(op.checklistId));
+      if (denied) {
+        results.push(denied);
+        recorded.push({ op, resultIndex: results.length - 1 });
+      } else {
+        submissions.push({ op, resultIndex: results.length });
+        results.push({ opId: op.opId, status: "applied", rev: 0 }); // replaced once decided
+      }
+      continue;
+    }
+    const key = itemId(op.checklistId, op.itemKey);
+    let result = refusal(op, access.get(op.checklistId));
+    if (!result) {
+      const now_ = current.get(key);
+      const rev = now_?.rev ?? 0;
+      const onCurrent = op.baseRev === rev;
+      const kind = findItem(access.get(op.checklistId)!.template, op.itemKey)!.kind;
+      // What the entry does to the item, by its kind's merge rule (app/lib/sync/merge.ts).
+      let next: { write: unknown } | { same: true } | { conflict: true };
+      if (mergeRuleFor(kind) === "log" && now_) {
+        const merged = mergeLog(now_.value, op.value, onCurrent);
+        next =
+          "conflict" in merged
+            ? merged
+            : sameJson(merged.value, now_.value)
+              ? { same: true }
+              : { write: merged.value };
+      } else if (onCurrent) next = { write: op.value };
+      else if (now_ && sameJson(now_.value, op.value)) next = { same: true };
+      else next = { conflict: true };
+      if ("write" in next) {
+        const value = JSON.stringify(next.write);
+        current.set(key, { rev: rev + 1, value: next.write, by: actor.name, at: now });
+        responses.set(key, {
           checklist_id: op.checklistId,
           item_key: op.itemKey,
-          status: results[resultIndex]!.status,
-          result: JSON.stringify(results[resultIndex]),
-          received_at: now,
-        }));
-        if (opRows.length) await trx("sync_ops").insert(opRows);
+          value,
+          rev: rev + 1,
+          updated_by: actor.id,
+          device_id: request.deviceId,
+          updated_at: now,
+        });
+        writtenOps.add(op.opId);
+        history.push({
+          checklist_id: op.checklistId,
+          item_key: op.itemKey,
+          rev: rev + 1,
+          value,
+          user_id: actor.id,
+          device_id: request.deviceId,
+          op_id: op.opId,
+          at: now,
+          client_at: op.at,
+        });
+        result = { opId: op.opId, status: "applied", rev: rev + 1 };
+        // Made on the server's current value, this entry decides every conflict waiting on the
+        // item: those already stored, and those this batch raised before it.
+        const ids = onCurrent ? [...new Set([...(waiting.get(key) ?? []), ...(op.resolves ?? [])])] : [];
+        if (ids.length) resolutions.push({ op, ids });
+        if (onCurrent) {
+          waiting.delete(key);
+          for (const c of conflicts)
+            if (itemId(c.op.checklistId, c.op.itemKey) === key && !c.row.resolved_at)
+              Object.assign(c.row, {
+                resolved_at: now,
+                resolved_by: actor.id,
+                resolution_op_id: op.opId,
+              });
+        }
+      } else if ("same" in next) {
+        result = { opId: op.opId, status: "applied", rev }; // the same value: nothing to write
+        if (op.resolves?.length) resolutions.push({ op, ids: op.resolves });
       } else {
-        clock = await lastChangeNumber(trx);
+        result = {
+          opId: op.opId,
+          status: "conflict",
+          rev,
+          serverValue: now_?.value ?? null,
+          ...(now_ ? { serverBy: now_.by, serverAt: now_.at.toISOString() } : {}),
+        };
+        conflicts.push({
+          op,
+          resultIndex: results.length,
+          row: {
+            checklist_id: op.checklistId,
+            item_key: op.itemKey,
+            op_id: op.opId,
+            base_rev: op.baseRev,
+            server_rev: rev,
+            server_value: now_ ? JSON.stringify(now_.value) : null,
+            client_value: JSON.stringify(op.value),
+            user_id: actor.id,
+            device_id: request.deviceId,
+            client_at: op.at,
+            received_at: now,
+          },
+        });
       }
+    }
+    results.push(result);
+    // Applied values and conflicts are their own record; only the rest needs a row of its own.
+    if (result.status === "rejected" || (result.status === "applied" && !writtenOps.has(op.opId))) {
+      recorded.push({ op, resultIndex: results.length - 1 });
+    }
+  }
+  // One multi-row insert, then the ids read back by opId: a Galera cluster hands out
+  // auto-increment ids in steps of the node count, so they are not consecutive there.
+  // The clock, last: its lock (every applier's) is held only for the writes and the commit.
+  // A batch with nothing for the feed (repeats, refusals, conflicts) does not take it.
+  const clock =
+    responses.size || submissions.length ? await nextChangeNumber(trx) : await lastChangeNumber(trx);
+  if (conflicts.length) {
+    await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
+    const ids = new Map(
+      (
+        await trx("sync_conflicts")
+          .whereIn(
+            "op_id",
+            conflicts.map((c) => c.op.opId),
+          )
+          .select("id", "op_id")
+      ).map((r) => [r.op_id, Number(r.id)]),
+    );
+    for (const c of conflicts)
+      results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: ids.get(c.op.opId)! };
+  }
+  for (const r of responses.values()) {
+    wrote.push({
+      checklistId: r.checklist_id,
+      itemKey: r.item_key,
+      value: JSON.parse(r.value),
+      rev: r.rev,
+      by: actor.name,
+      at: now.toISOString(),
+    });
+  }
+  // New items take a plain insert; only items that had a value go through the upsert.
+  const [changed, added] = partition(
+    [...responses.values()].map((r) => ({ ...r, change_seq: clock })),
+    (r) => existed.has(itemId(r.checklist_id, r.item_key)),
+  );
+  if (added.length) await trx("checklist_responses").insert(added);
+  if (changed.length) {
+    await trx("checklist_responses")
+      .insert(changed)
+      .onConflict(["checklist_id", "item_key"])
+      .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
+  }
+  // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
+  if (history.length) await trx("response_history").insert(history);
+  for (const { op, ids } of resolutions) {
+    await trx("sync_conflicts")
+      .whereIn("id", ids)
+      .where({ checklist_id: op.checklistId, item_key: op.itemKey })
+      .whereNull("resolved_at")
+      .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
+  }
+  for (const { op, resultIndex } of submissions) {
+    recorded.push({ op, resultIndex });
+    if (submittedHere.has(op.checklistId)) {
+      results[resultIndex] = reject(op, "locked", "The checklist is already waiting for review.");
+      continue;
+    }
+    const undecided = await undecidedConflicts(trx, op.checklistId);
+    if (undecided) {
+      results[resultIndex] = reject(
+        op,
+        "conflict-undecided",
+        `Not submitted: ${undecided} conflict(s) on this checklist wait to be decided on the To-decide page.`,
+      );
+      continue;
+    }
+    const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
+    if (refused) {
+      results[resultIndex] = reject(op, "incomplete", refused);
+      continue;
+    }
+    submittedHere.add(op.checklistId);
+    await trx("job_checklists").where({ id: op.checklistId }).update({ change_seq: clock });
+    results[resultIndex] = { opId: op.opId, status: "applied", rev: 0 };
+  }
+  const opRows = recorded.map(({ op, resultIndex }) => ({
+    op_id: op.opId,
+    device_id: request.deviceId,
+    seq: op.seq,
+    user_id: actor.id,
+    checklist_id: op.checklistId,
+    item_key: op.itemKey,
+    status: results[resultIndex]!.status,
+    result: JSON.stringify(results[resultIndex]),
+    received_at: now,
+  }));
+  if (opRows.length) await trx("sync_ops").insert(opRows);
+  return { results, clock, wrote };
+}
 
-      const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
-      // This batch's own changes carry the new clock value and are known here; read only the rest.
-      // The visible checklists first, as a list: the feed query then reads only the change numbers
-      // after the cursor, instead of every response of every visible checklist.
-      const scope: string[] = await visibleChecklists(trx, actor).pluck("c.id");
-      const page = scope.length
-        ? await changesPage(trx, scope, since, wrote.length ? clock - 1 : clock)
-        : { changes: [], cursor: clock, more: false };
-      const changes = page.changes;
-      const cursor = page.more ? page.cursor : clock;
-      if (!page.more && since < clock) changes.push(...wrote);
-      // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
-      const states = await trx("job_checklists as c")
+/**
+ * One page of what changed after `since` for this person: the feed up to `clock` (or, when the
+ * batch wrote changes numbered `clock`, up to the number before, plus those changes as written).
+ */
+async function pullPage(
+  trx: Knex,
+  actor: Actor,
+  since: number,
+  clock: number,
+  wrote: Change[],
+): Promise<Omit<SyncResponse, "results">> {
+  // The visible checklists first, as a list: the feed query then reads only the change numbers
+  // after the cursor, instead of every response of every visible checklist.
+  const scope: string[] = await visibleChecklists(trx, actor).pluck("c.id");
+  const page = scope.length
+    ? await changesPage(trx, scope, since, wrote.length ? clock - 1 : clock)
+    : { changes: [], cursor: clock, more: false };
+  const changes = page.changes;
+  const cursor = page.more ? page.cursor : clock;
+  if (!page.more && since < clock) changes.push(...wrote);
+  // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
+  const states = scope.length
+    ? await trx("job_checklists as c")
         .whereIn("c.id", scope)
         .where("c.change_seq", ">", since)
         .where("c.change_seq", "<=", cursor)
-        .select("c.id", "c.state");
-      return {
-        results,
-        changes,
-        checklists: states.map((c: { id: string; state: ChecklistStateColumn }) => ({
-          id: c.id,
-          state: c.state,
-        })),
-        cursor: String(cursor),
-        ...(page.more ? { more: true as const } : {}),
-      };
-    }),
-  );
+        .select("c.id", "c.state")
+    : [];
+  return {
+    changes,
+    checklists: states.map((c: { id: string; state: ChecklistStateColumn }) => ({
+      id: c.id,
+      state: c.state,
+    })),
+    cursor: String(cursor),
+    ...(page.more ? { more: true as const } : {}),
+  };
 }

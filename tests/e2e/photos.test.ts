@@ -1,4 +1,5 @@
 import { createHash } from "node:crypto";
+import { ListObjectsV2Command, S3Client } from "@aws-sdk/client-s3";
 import type { Browser, Locator, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
@@ -7,6 +8,7 @@ import {
   goOfflineReady,
   hydrated,
   launch,
+  open,
   signIn,
   tabletContext,
 } from "../support/browser.ts";
@@ -167,5 +169,89 @@ describe("photos taken with no connection", () => {
     expect(sources).toEqual(value!.photos.map((p) => `/api/photos/${p.id}`));
     expectNoConsoleErrors(leadTablet.errors);
     await leadTablet.context.close();
+  });
+});
+
+describe("a photo whose upload the tablet never heard back from", () => {
+  it("arrives once: the page closed mid-upload and reopened leaves one row and one stored object", async () => {
+    const other = await makeCrewedJob(knex, "Shearwater of Tarn", ["engine-alignment"]);
+    const checklistId = other.checklists["engine-alignment"]!;
+    const tablet = await tabletContext(browser);
+    const page = await tablet.context.newPage();
+    await signIn(page, other.technician.email, TEST_PASSWORD);
+    await goOfflineReady(page);
+
+    await tablet.context.setOffline(true);
+    await page.getByRole("link", { name: "Today" }).click();
+    await page
+      .locator('[data-testid^="job-"]')
+      .filter({ hasText: "Shearwater of Tarn" })
+      .getByRole("link", { name: /^Engine alignment/ })
+      .click();
+    await page.getByRole("heading", { level: 1, name: "Engine alignment" }).waitFor();
+    await page.getByRole("button", { name: /^4\. Fasteners locked/ }).click();
+    const photos = page.locator('[data-item="alignment-photo"]');
+    await photos
+      .getByLabel("Take or add a photo")
+      .setInputFiles({ name: "coupling.png", mimeType: "image/png", buffer: gradientPng(90, 60, 5) });
+    await photos.getByTestId("photo-count").getByText("1 photo · at least 1 needed").waitFor();
+
+    // Online again: the upload goes out and reaches the server, but the page is closed before the
+    // answer arrives (the tablet was switched off mid-upload), so the tablet still holds it as waiting.
+    let reachedServer!: () => void;
+    const uploaded = new Promise<void>((resolve) => (reachedServer = resolve));
+    await page.route("**/api/photos/**", async (route) => {
+      if (route.request().method() !== "PUT") return route.continue();
+      const answer = await route.fetch();
+      expect(answer.status()).toBe(201);
+      reachedServer();
+      // No answer reaches the page: it is closed below while this request is still open.
+    });
+    await tablet.context.setOffline(false);
+    await uploaded;
+    await page.close();
+    const stored = await knex("photos").where({ checklist_id: checklistId });
+    expect(stored).toHaveLength(1);
+
+    // Opened again: the tablet sends the photo again and the server answers "already stored".
+    const again = await tablet.context.newPage();
+    await open(again, "/");
+    await again.getByRole("link", { name: "Today" }).click();
+    await again
+      .locator('[data-testid^="job-"]')
+      .filter({ hasText: "Shearwater of Tarn" })
+      .getByRole("link", { name: /^Engine alignment/ })
+      .click();
+    await again.getByRole("button", { name: /^4\. Fasteners locked/ }).click();
+    const reopened = again.locator('[data-item="alignment-photo"]');
+    await expect
+      .poll(() => reopened.getByTestId("photo-state").allInnerTexts(), { timeout: 20_000 })
+      .toEqual(["Sent"]);
+
+    // Exactly one copy: one row, one object in the store under the photo's SHA-256.
+    const rows = await knex("photos").where({ checklist_id: checklistId });
+    expect(rows).toHaveLength(1);
+    expect(rows[0].id).toBe(stored[0].id);
+    const s3 = new S3Client({
+      endpoint: `http://127.0.0.1:${process.env.E2E_S3_PORT ?? 4669}`,
+      region: "us-east-1",
+      forcePathStyle: true,
+      credentials: { accessKeyId: "S3RVER", secretAccessKey: "S3RVER" },
+    });
+    const listed = await s3.send(
+      new ListObjectsV2Command({
+        Bucket: "sternpost-photos",
+        Prefix: `photos/sha256/${rows[0].sha256.slice(0, 2)}/`,
+      }),
+    );
+    expect((listed.Contents ?? []).filter((o) => o.Key!.endsWith(rows[0].sha256))).toHaveLength(1);
+    const value = await knex("checklist_responses")
+      .where({ checklist_id: checklistId, item_key: "alignment-photo" })
+      .first("value");
+    expect((parse(value?.value) as { photos: { id: string }[] }).photos.map((p) => p.id)).toEqual([
+      rows[0].id,
+    ]);
+    expectNoConsoleErrors(tablet.errors.filter((e) => !/ERR_INTERNET_DISCONNECTED/.test(e)));
+    await tablet.context.close();
   });
 });

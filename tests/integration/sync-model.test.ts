@@ -71,36 +71,51 @@ const stepArb = fc.oneof(
 );
 
 let app: Awaited<ReturnType<typeof appHandler>>;
+let people: Awaited<ReturnType<typeof makeUser>>[];
+let cookies: string[];
 beforeAll(async () => {
   await seedLibrary(knex);
   app = await appHandler();
+  // The same crew and sessions serve every history: signing in is the dearest part of a set-up.
+  const lead = await makeUser(knex, "lead");
+  people = [await makeUser(knex, "technician"), await makeUser(knex, "technician"), lead];
+  cookies = await Promise.all(people.map((p) => signInCookie(app, p.email)));
 });
 
 let run = 0;
 let histories = 0;
+let lastJob: number | null = null;
 
+/** Each history starts on a fresh job and checklist; the last history's are removed first. */
 async function setUpRun() {
   run++;
-  const lead = await makeUser(knex, "lead");
-  const techs = [await makeUser(knex, "technician"), await makeUser(knex, "technician")];
+  if (lastJob !== null) {
+    const ids = knex("job_checklists").where({ job_id: lastJob }).select("id");
+    for (const table of ["response_history", "checklist_responses", "sync_conflicts", "sync_ops"])
+      await knex(table).whereIn("checklist_id", ids).delete();
+    await knex("job_checklists").where({ job_id: lastJob }).delete();
+    await knex("job_technicians").where({ job_id: lastJob }).delete();
+    await knex("jobs").where({ id: lastJob }).delete();
+  }
+  const [lead, ...techs] = [people[2]!, people[0]!, people[1]!];
   const job = await makeJob(
     knex,
     lead.id,
     techs.map((t) => t.id),
   );
+  lastJob = job.id;
   const [checklist] = await startChecklists(job.id, ["cooling"], lead.id);
-  const people = [techs[0]!, techs[1]!, lead];
-  const devices = await Promise.all(
-    people.map(async (p, i) => ({
-      name: `model-${run}-${i}`,
-      cookie: await signInCookie(app, p.email),
-      lastBody: null as string | null,
-    })),
+  const devices = people.map((_, i) => ({
+    name: `model-${run}-${i}`,
+    cookie: cookies[i]!,
+    lastBody: null as string | null,
+  }));
+  const bundles = await Promise.all(
+    devices.map(async (d) => (await app("/api/offline", { cookie: d.cookie })).json()),
   );
-  for (const d of devices) {
-    forgetLocalDb(d.name);
-    const bundle = await (await app("/api/offline", { cookie: d.cookie })).json();
-    await saveBundle(bundle);
+  for (const [i, d] of devices.entries()) {
+    forgetLocalDb(d.name); // one device's database at a time: the store module holds one
+    await saveBundle(bundles[i]);
   }
   return { checklist: checklist!, devices };
 }

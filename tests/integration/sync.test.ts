@@ -122,6 +122,53 @@ describe("the sync rules on MariaDB", () => {
     expect(Number(after.cursor)).toBeGreaterThan(Number(cursor));
   });
 
+  it("never lets a pull miss a change committed late, while batches on other checklists run at once (decisions 004, 043)", async () => {
+    const jobA = await makeJob(knex, lead.id, [tech.id]);
+    const jobB = await makeJob(knex, lead.id, [otherTech.id]);
+    const [a] = await startChecklists(jobA.id, ["cooling"], lead.id);
+    const [b] = await startChecklists(jobB.id, ["cooling"], lead.id);
+    const items = ["seacock", "intake-hose", "strainer", "impeller", "heat-exchanger", "thermostat"];
+    // The lead's watching device syncs with its cursor, again and again, while two devices push to
+    // the two checklists at the same time; it must end up with every value they wrote. It pushes an
+    // entry of its own each time (to a third checklist), so its pulls are the ones read after a batch.
+    const [c] = await startChecklists((await makeJob(knex, lead.id, [])).id, ["cooling"], lead.id);
+    const seen = new Map<string, number>();
+    let cursor = (await sync(lead, { deviceId: "watcher", cursor: null, ops: [] })).cursor;
+    let pushing = true;
+    const watching = (async () => {
+      let rev = 0;
+      for (let last = false; !last;) {
+        last = !pushing; // one more sync after the pushes have all answered
+        const entry = op(
+          c!,
+          "strainer",
+          check(rev % 2 ? "pass" : "fail", rev % 2 ? undefined : "Clogged"),
+          rev,
+        );
+        const answer = await sync(lead, { deviceId: "watcher", cursor, ops: [entry] });
+        rev = answer.results[0]!.rev!;
+        for (const change of answer.changes) seen.set(`${change.checklistId}|${change.itemKey}`, change.rev);
+        cursor = answer.cursor;
+      }
+    })();
+    const pushes = (actor: typeof tech, id: string) =>
+      (async () => {
+        for (const item of items)
+          for (const rev of [0, 1])
+            await sync(actor, {
+              deviceId: `pusher-${id}`,
+              cursor: null,
+              ops: [op(id, item, check(rev ? "fail" : "pass", rev ? "Replaced" : undefined), rev)],
+            });
+      })();
+    await Promise.all([pushes(tech, a!), pushes(otherTech, b!)]);
+    pushing = false;
+    await watching;
+    const rows = await knex("checklist_responses").whereIn("checklist_id", [a!, b!]);
+    expect(rows).toHaveLength(2 * items.length);
+    for (const r of rows) expect(seen.get(`${r.checklist_id}|${r.item_key}`), r.item_key).toBe(2);
+  });
+
   it("orders concurrent pushes to one item from two connections: one applies, the other conflicts", async () => {
     const a = op(checklist, "cooling-hoses", check("pass"), 0);
     const b = op(checklist, "cooling-hoses", check("fail", "Soft hose at the pump"), 0);

@@ -21,7 +21,23 @@ describe("withRetry", () => {
     await expect(withRetry(async () => (runs++, Promise.reject(duplicate)))).rejects.toBe(duplicate);
     expect(runs).toBe(1);
     runs = 0;
-    await expect(withRetry(async () => (runs++, Promise.reject(deadlock)), 4)).rejects.toBe(deadlock);
+    await expect(withRetry(async () => (runs++, Promise.reject(deadlock)), { attempts: 4 })).rejects.toBe(
+      deadlock,
+    );
     expect(runs).toBe(4);
+  });
+
+  it("retries a duplicate key only when the caller says a fresh run answers it", async () => {
+    let runs = 0;
+    const duplicate = Object.assign(new Error("Duplicate entry"), { errno: 1062 });
+    const result = await withRetry(
+      async () => {
+        if (++runs < 2) throw duplicate;
+        return "answered as a repeat";
+      },
+      { alsoRetry: [1062] },
+    );
+    expect(result).toBe("answered as a repeat");
+    expect(runs).toBe(2);
   });
 });
