@@ -160,7 +160,7 @@ console.log(`ratio route / plain put: ${(r / p).toFixed(2)}× of the plain throu
 
 plain.destroy();
 const { s3Client } = await import("../app/server/storage.server.ts");
-s3Client().destroy();
+(await s3Client()).destroy();
 const { db } = await import("../app/server/db.server.ts");
 await db().destroy();
 await knex.destroy();

@@ -41,7 +41,9 @@ const hideFields = ["password", "confirm"];
 export async function action({ request, params }: Route.ActionArgs) {
   const invitation = await lookUpInvitation(params.token);
   const knownAbout = invitation.state === "valid" ? [invitation.user.email, invitation.user.name] : [];
-  const submission = parseWithZod(await request.formData(), { schema: strongPasswordSchema(knownAbout) });
+  const submission = parseWithZod(await request.formData(), {
+    schema: await strongPasswordSchema(knownAbout),
+  });
   if (submission.status !== "success") return data(submission.reply({ hideFields }), { status: 400 });
   const outcome = await acceptInvitation(params.token, submission.value.password);
   if (outcome.state !== "valid")

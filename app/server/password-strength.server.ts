@@ -1,17 +1,23 @@
-import { ZxcvbnFactory } from "@zxcvbn-ts/core";
-import * as common from "@zxcvbn-ts/language-common";
-import * as english from "@zxcvbn-ts/language-en";
+import type { ZxcvbnFactory } from "@zxcvbn-ts/core";
 import { newPasswordSchema } from "~/lib/validation/people";
 
 // The estimator and its dictionaries stay on the server: they are large, and the browser only
-// needs the length rules to give quick feedback.
-let estimator: ZxcvbnFactory | undefined;
+// needs the length rules to give quick feedback. They are loaded when a password is first set
+// (about 30 MB of memory a server does not need until then).
+let estimator: Promise<ZxcvbnFactory> | undefined;
 function strength() {
-  estimator ??= new ZxcvbnFactory({
-    dictionary: { ...common.dictionary, ...english.dictionary },
-    graphs: common.adjacencyGraphs,
-    translations: english.translations,
-  });
+  estimator ??= Promise.all([
+    import("@zxcvbn-ts/core"),
+    import("@zxcvbn-ts/language-common"),
+    import("@zxcvbn-ts/language-en"),
+  ]).then(
+    ([{ ZxcvbnFactory }, common, english]) =>
+      new ZxcvbnFactory({
+        dictionary: { ...common.dictionary, ...english.dictionary },
+        graphs: common.adjacencyGraphs,
+        translations: english.translations,
+      }),
+  );
   return estimator;
 }
 
@@ -21,9 +27,10 @@ const MIN_SCORE = 3;
 const YARD_WORDS = ["sternpost", "kittiwake", "slip", "boatyard", "engine", "marine"];
 
 /** The invitation's password rules, with the strength check that only the server runs. */
-export function strongPasswordSchema(knownAbout: string[]) {
+export async function strongPasswordSchema(knownAbout: string[]) {
+  const estimator = await strength();
   return newPasswordSchema.superRefine((value, ctx) => {
-    const result = strength().check(value.password, [...YARD_WORDS, ...knownAbout]);
+    const result = estimator.check(value.password, [...YARD_WORDS, ...knownAbout]);
     if (result.score >= MIN_SCORE) return;
     const hint = result.feedback.warning ? ` ${result.feedback.warning}.` : "";
     ctx.addIssue({

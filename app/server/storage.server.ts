@@ -1,24 +1,22 @@
-import {
-  GetObjectCommand,
-  HeadObjectCommand,
-  PutObjectCommand,
-  S3Client,
-  S3ServiceException,
-} from "@aws-sdk/client-s3";
+import type { S3Client } from "@aws-sdk/client-s3";
 import { env } from "./env.server.ts";
 
 /**
  * The object store behind photos, through the AWS S3 SDK: the local stand-in (s3rver) in
  * development and tests, any S3-compatible service in production (README, "Photos and storage").
  * The bucket stays private; the app serves its objects through a route that checks the role.
+ * The SDK (about 20 MB in memory) is loaded on the first photo, not when the server starts.
  */
+
+const sdk = () => import("@aws-sdk/client-s3");
 
 declare global {
   // One client per process; it keeps its connections alive between requests.
   var __sternpostS3: S3Client | undefined;
 }
 
-export function s3Client(): S3Client {
+export async function s3Client(): Promise<S3Client> {
+  const { S3Client } = await sdk();
   const e = env();
   globalThis.__sternpostS3 ??= new S3Client({
     endpoint: e.S3_ENDPOINT,
@@ -35,12 +33,15 @@ export function s3Client(): S3Client {
 
 const bucket = () => env().S3_BUCKET;
 
-const isMissing = (error: unknown) =>
-  error instanceof S3ServiceException &&
+const isMissing = async (error: unknown) =>
+  error instanceof (await sdk()).S3ServiceException &&
   (error.name === "NoSuchKey" || error.name === "NotFound" || error.$metadata.httpStatusCode === 404);
 
 export async function putObject(key: string, body: Uint8Array, contentType: string): Promise<void> {
-  await s3Client().send(
+  const { PutObjectCommand } = await sdk();
+  await (
+    await s3Client()
+  ).send(
     new PutObjectCommand({
       Bucket: bucket(),
       Key: key,
@@ -54,10 +55,11 @@ export async function putObject(key: string, body: Uint8Array, contentType: stri
 /** The object's bytes, or undefined when the store has no such key. */
 export async function getObject(key: string): Promise<Uint8Array | undefined> {
   try {
-    const answer = await s3Client().send(new GetObjectCommand({ Bucket: bucket(), Key: key }));
+    const { GetObjectCommand } = await sdk();
+    const answer = await (await s3Client()).send(new GetObjectCommand({ Bucket: bucket(), Key: key }));
     return answer.Body ? await answer.Body.transformToByteArray() : new Uint8Array();
   } catch (error) {
-    if (isMissing(error)) return undefined;
+    if (await isMissing(error)) return undefined;
     throw error;
   }
 }
@@ -65,10 +67,11 @@ export async function getObject(key: string): Promise<Uint8Array | undefined> {
 /** The object's size, or undefined when the store has no such key. */
 export async function headObject(key: string): Promise<{ bytes: number } | undefined> {
   try {
-    const answer = await s3Client().send(new HeadObjectCommand({ Bucket: bucket(), Key: key }));
+    const { HeadObjectCommand } = await sdk();
+    const answer = await (await s3Client()).send(new HeadObjectCommand({ Bucket: bucket(), Key: key }));
     return { bytes: answer.ContentLength ?? 0 };
   } catch (error) {
-    if (isMissing(error)) return undefined;
+    if (await isMissing(error)) return undefined;
     throw error;
   }
 }

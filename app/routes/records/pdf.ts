@@ -1,11 +1,12 @@
 import type { Route } from "./+types/pdf";
 import { photoBytes } from "~/server/photos.server";
 import { requireRecord } from "~/server/record-access.server";
-import { renderRecordPdf } from "~/server/record-pdf.server";
 
 /** The record as a PDF, rendered from the stored snapshot (so it is the same every time). */
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { record } = await requireRecord(request, params.recordId);
+  // The PDF library is loaded on the first PDF asked for, not with every server (memory).
+  const { renderRecordPdf } = await import("~/server/record-pdf.server");
   const pdf = await renderRecordPdf(record.content, {
     digest: record.digest,
     verifyUrl: record.content.verifyUrl,
