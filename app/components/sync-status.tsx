@@ -36,10 +36,31 @@ export function SyncStatusBar() {
       data-testid="sync-status"
       aria-live="polite"
     >
-      <span className="flex items-center gap-1 font-bold" data-testid="connection">
-        <span aria-hidden="true">{status.online ? "●" : "○"}</span>
-        {status.online ? "Online" : "Offline"}
-      </span>
+      {/* Read at arm's length: a large word, and offline a distinct colour AND shape (a struck-out
+          cloud in a square) so it never rests on colour alone. */}
+      {status.online ? (
+        <span
+          className="flex min-h-10 items-center gap-2 rounded-full border-2 border-sound-light px-3 text-lg font-bold"
+          data-testid="connection"
+          data-online="true"
+        >
+          <span aria-hidden="true" className="text-xl leading-none">
+            ●
+          </span>
+          Online
+        </span>
+      ) : (
+        <span
+          className="flex min-h-10 items-center gap-2 rounded-sm border-2 border-paper bg-brass-light px-3 text-lg font-bold text-ink"
+          data-testid="connection"
+          data-online="false"
+        >
+          <span aria-hidden="true" className="text-xl leading-none">
+            ⊘
+          </span>
+          Offline · entries kept on this tablet
+        </span>
+      )}
       <span data-testid="waiting">
         {status.waiting === 0 ? "All entries sent" : `${status.waiting} waiting to send`}
       </span>
@@ -60,8 +81,8 @@ export function SyncStatusBar() {
         </span>
       )}
       {status.problem && (
-        <span className="text-brass" data-testid="sync-problem">
-          {status.problem}
+        <span className="font-bold text-brass-light" data-testid="sync-problem">
+          ▲ {status.problem}
         </span>
       )}
     </div>

@@ -37,7 +37,7 @@ export type {
   TemplateInput,
   TextItem,
 } from "./schema";
-export { liveAttempts, strikeOf, valueSchemaFor, valueSchemas } from "./values";
+export { liveAttempts, strikeOf, takesNegative, valueSchemaFor, valueSchemas } from "./values";
 export type {
   CalcValue,
   CheckValue,

@@ -1,5 +1,13 @@
 import { z } from "zod";
-import { acceptedUnits, unitSchema, type Item, type ItemKind } from "./schema";
+import { dimensionOf } from "~/lib/calc/units";
+import {
+  acceptedUnits,
+  unitSchema,
+  type Item,
+  type ItemKind,
+  type MeasureItem,
+  type ReadingsItem,
+} from "./schema";
 
 /**
  * What a response to an item holds, per kind. A response is stored as entered; its verdict is
@@ -146,6 +154,18 @@ export function strikeOf(value: { strikes?: Strike[] }, attempt: { id?: string }
 /** The attempts that count (every one not struck through), in their order; the last is reported. */
 export function liveAttempts<A extends { id?: string }>(value: Logged<A>): A[] {
   return value.strikes?.length ? value.attempts.filter((a) => !strikeOf(value, a)) : value.attempts;
+}
+
+/**
+ * Whether an entry of this item may be negative, so its field gets a ± toggle (many tablets'
+ * decimal keypads have no minus key): dial readings (a length grid, not a spread of diameters),
+ * temperatures and angles, unless the item's rule sets a lower limit of zero or more.
+ */
+export function takesNegative(item: MeasureItem | ReadingsItem): boolean {
+  if (item.rule?.min !== undefined && item.rule.min >= 0) return false;
+  const dimension = dimensionOf(item.unit);
+  if (dimension === "temperature" || dimension === "angle") return true;
+  return item.kind === "readings" && dimension === "length" && item.rule?.appliesTo !== "row-spread";
 }
 
 const schemaCache = new WeakMap<Item, z.ZodType>();
