@@ -1,7 +1,14 @@
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
-import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
+import {
+  expectNoConsoleErrors,
+  goOfflineReady,
+  launch,
+  open,
+  signIn,
+  tabletContext,
+} from "../support/browser.ts";
 import { makeCrewedJob, TEST_PASSWORD } from "../support/fixtures.ts";
 
 /**
@@ -192,6 +199,29 @@ describe("fast entry at the shaft", () => {
       .getByRole("button", { name: /Shaft runout/ })
       .tap();
     await item(page, "runout-readings").locator('tr[data-struck="true"]').waitFor();
+
+    // Offline too: with the jobs on the tablet and no connection, it reopens where it was left.
+    const checklistUrl = page.url();
+    await open(page, "/");
+    await goOfflineReady(page);
+    await open(page, checklistUrl);
+    await item(page, "runout-readings").waitFor();
+    await context.setOffline(true);
+    await page.reload();
+    await item(page, "runout-readings").waitFor();
+    expect(await sections(page).locator('[aria-current="step"]').innerText()).toMatch(/Shaft runout/);
+    expect(await page.getByTestId("connection").getAttribute("data-online")).toBe("false");
+    await context.setOffline(false);
+
+    // The calculators' signed fields have the toggle too: an offset made negative with a tap.
+    await open(page, "/calculators/mountMoves");
+    const offset = page.getByLabel("Engine centre above shaft centre (optional)", { exact: true });
+    await offset.fill("0.004");
+    await page.getByRole("button", { name: "Change the sign of Engine centre above shaft centre" }).tap();
+    expect(await offset.inputValue()).toBe("-0.004");
+    expect(
+      await page.getByRole("button", { name: /Change the sign of Coupling face to front mounts/ }).count(),
+    ).toBe(0);
     expectNoConsoleErrors(errors);
     await context.close();
   });
