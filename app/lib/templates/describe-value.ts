@@ -11,12 +11,17 @@ import type {
   TextValue,
 } from "./values";
 
-/** "; attempt 1 struck through by T. Tern (2026-05-01T09:00:00Z): misread the dial" per strike. */
+/** A moment in UTC, the same on the server and in the browser: "1 May 2026, 09:00 UTC". */
+const utc = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" });
+
+/** "; attempt 1 struck through by T. Tern (1 May 2026, 09:00 UTC): misread the dial" per strike. */
 function struckText(v: { attempts: { id?: string }[]; strikes?: Strike[] }, noun: string): string {
   return v.attempts
     .flatMap((a, i) => {
       const s = strikeOf(v, a);
-      return s ? [`; ${noun} ${i + 1} struck through by ${s.by} (${s.at}): ${s.reason}`] : [];
+      return s
+        ? [`; ${noun} ${i + 1} struck through by ${s.by} (${utc.format(new Date(s.at))} UTC): ${s.reason}`]
+        : [];
     })
     .join("");
 }

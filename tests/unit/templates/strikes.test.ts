@@ -118,7 +118,7 @@ describe("struck attempts", () => {
       strikes: [strike(B, 11, "typed 0.009 for 0.0009", "Ada Tern")],
     };
     expect(describeValue(faceRunout, value)).toBe(
-      "0.0009 in (attempt 1, T); attempt 2 struck through by Ada Tern (2026-05-01T11:00:00Z): typed 0.009 for 0.0009",
+      "0.0009 in (attempt 1, T); attempt 2 struck through by Ada Tern (1 May 2026, 11:00 UTC): typed 0.009 for 0.0009",
     );
   });
 });
