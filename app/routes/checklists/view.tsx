@@ -120,7 +120,8 @@ function SubmitPanel({
     if (!keys.length) return [];
     const unanswered = keys.filter((k) => !attention.has(k)).length;
     const flagged = keys.length - unanswered;
-    return [{ section, index, first: keys[0]!, unanswered, flagged }];
+    const first = section.items.find((i) => i.key === keys[0])!;
+    return [{ section, index, first, unanswered, flagged }];
   });
   return (
     <div className="card mt-6 flex flex-col gap-3" data-testid="submit-panel">
@@ -146,10 +147,13 @@ function SubmitPanel({
                 <button
                   type="button"
                   className="btn w-full justify-between text-left"
-                  onClick={() => onJump(index, first)}
+                  onClick={() => onJump(index, first.key)}
                 >
-                  <span>
-                    Section {index + 1} · {section.title}
+                  <span className="flex flex-col">
+                    <span>
+                      Section {index + 1} · {section.title}
+                    </span>
+                    <span className="line-clamp-1 text-sm font-normal">First: {first.label}</span>
                   </span>
                   <span className="num shrink-0 text-sm">
                     {unanswered > 0 && <span>○ {unanswered} to answer</span>}
