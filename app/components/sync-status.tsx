@@ -36,26 +36,27 @@ export function SyncStatusBar() {
       data-testid="sync-status"
       aria-live="polite"
     >
-      {/* Read at arm's length: a large word, and offline a distinct colour AND shape (a struck-out
-          cloud in a square) so it never rests on colour alone. */}
+      {/* Read at arm's length: a large word, and offline a distinct colour AND shape (a barred
+          circle on a square plate) so it never rests on colour alone. The ring and the tight line
+          height keep the sticky header as tall as it was. */}
       {status.online ? (
         <span
-          className="flex min-h-10 items-center gap-2 rounded-full border-2 border-sound-light px-3 text-lg font-bold"
+          className="flex items-center gap-2 rounded-full px-3 text-lg leading-5 font-bold ring-2 ring-sound-light"
           data-testid="connection"
           data-online="true"
         >
-          <span aria-hidden="true" className="text-xl leading-none">
+          <span aria-hidden="true" className="text-xl leading-5">
             ●
           </span>
           Online
         </span>
       ) : (
         <span
-          className="flex min-h-10 items-center gap-2 rounded-sm border-2 border-paper bg-brass-light px-3 text-lg font-bold text-ink"
+          className="flex items-center gap-2 rounded-sm bg-brass-light px-3 text-lg leading-5 font-bold text-ink ring-2 ring-paper"
           data-testid="connection"
           data-online="false"
         >
-          <span aria-hidden="true" className="text-xl leading-none">
+          <span aria-hidden="true" className="text-xl leading-5">
             ⊘
           </span>
           Offline · entries kept on this tablet
