@@ -5,8 +5,6 @@ import { useDirtyMark } from "~/lib/pwa/dirty";
 import { readNumber } from "~/lib/read-number";
 import {
   acceptedUnits,
-  evaluate,
-  formatQuantity,
   liveAttempts,
   takesNegative,
   unitSymbol,
@@ -16,7 +14,6 @@ import {
   type ChoiceValue,
   type InitialsValue,
   type Item,
-  type MeasureAttempt,
   type MeasureItem,
   type MeasureValue,
   type ReadingsAttempt,
@@ -40,7 +37,7 @@ export interface EditorProps<I extends Item = Item> {
   disabled: boolean;
   onSave: (value: unknown) => void;
   /** The checklist around the item: a set of readings is summed up by the calculation that reads it. */
-  template?: Template;
+  template: Template;
   responses?: Responses;
 }
 
@@ -264,7 +261,7 @@ export function MeasureEditor({
           noun="Attempt"
           attempts={v.attempts.map((a) => ({
             ...a,
-            ...(template ? attemptFigure(item, a, template, responses ?? {}) : figureOnly(item, a)),
+            ...attemptFigure(item, a, template, responses ?? {}),
           }))}
           strikes={v.strikes}
           by={by}
@@ -282,11 +279,6 @@ export function MeasureEditor({
     </div>
   );
 }
-
-const figureOnly = (item: MeasureItem, a: MeasureAttempt) => ({
-  figure: formatQuantity(a.value, a.unit),
-  verdict: evaluate(item, { attempts: [a] }),
-});
 
 /** A set of readings as its grid, for the "The readings" details of a logged set. */
 function RawGrid({ item, attempt }: { item: ReadingsItem; attempt: ReadingsAttempt }) {
@@ -492,9 +484,7 @@ export function ReadingsEditor({
         <AttemptLog
           noun="Set"
           attempts={v.attempts.map((a) => {
-            const shown = template
-              ? attemptFigure(item, a, template, responses ?? {})
-              : { figure: "", verdict: evaluate(item, { attempts: [a] }) };
+            const shown = attemptFigure(item, a, template, responses ?? {});
             return { ...a, ...shown, raw: <RawGrid item={item} attempt={a} /> };
           })}
           strikes={v.strikes}
