@@ -36,10 +36,32 @@ export function SyncStatusBar() {
       data-testid="sync-status"
       aria-live="polite"
     >
-      <span className="flex items-center gap-1 font-bold" data-testid="connection">
-        <span aria-hidden="true">{status.online ? "●" : "○"}</span>
-        {status.online ? "Online" : "Offline"}
-      </span>
+      {/* Read at arm's length: a large word, and offline a distinct colour AND shape (a barred
+          circle on a square plate) so it never rests on colour alone. The ring and the tight line
+          height keep the sticky header as tall as it was. */}
+      {status.online ? (
+        <span
+          className="flex items-center gap-2 rounded-full px-3 text-lg leading-5 font-bold ring-2 ring-sound-light"
+          data-testid="connection"
+          data-online="true"
+        >
+          <span aria-hidden="true" className="text-xl leading-5">
+            ●
+          </span>
+          Online
+        </span>
+      ) : (
+        <span
+          className="flex items-center gap-2 rounded-sm bg-brass-light px-3 text-lg leading-5 font-bold text-ink ring-2 ring-paper"
+          data-testid="connection"
+          data-online="false"
+        >
+          <span aria-hidden="true" className="text-xl leading-5">
+            ⊘
+          </span>
+          Offline · entries kept on this tablet
+        </span>
+      )}
       <span data-testid="waiting">
         {status.waiting === 0 ? "All entries sent" : `${status.waiting} waiting to send`}
       </span>
@@ -60,8 +82,8 @@ export function SyncStatusBar() {
         </span>
       )}
       {status.problem && (
-        <span className="text-brass" data-testid="sync-problem">
-          {status.problem}
+        <span className="font-bold text-brass-light" data-testid="sync-problem">
+          ▲ {status.problem}
         </span>
       )}
     </div>

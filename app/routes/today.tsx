@@ -11,6 +11,7 @@ import { listVisibleJobs } from "~/server/jobs.server";
 import { recordsIssuedTo } from "~/server/records.server";
 import type { Role } from "~/lib/roles";
 import { LocalTime } from "~/components/local-time";
+import { plainError } from "~/lib/offline/plain-error";
 
 export const meta: Route.MetaFunction = () => [{ title: "Today · Sternpost" }];
 
@@ -100,7 +101,7 @@ function OfflineReadiness() {
       });
       revalidator.revalidate();
     } catch (error) {
-      setState((s) => ({ ...s, busy: false, message: `Not ready offline: ${(error as Error).message}` }));
+      setState((s) => ({ ...s, busy: false, message: `Not ready offline: ${plainError(error)}` }));
     }
   }
   const refreshQuietly = useEffectEvent(() => void prepare(true));

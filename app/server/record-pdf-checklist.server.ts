@@ -9,7 +9,9 @@ import {
   evaluate,
   findItem,
   gatherCalcInputs,
+  liveAttempts,
   phaseLabels,
+  strikeOf,
   unitSymbol,
   type CalcItem,
   type CheckValue,
@@ -356,6 +358,12 @@ export function attemptMark(item: MeasureItem | ReadingsItem, verdict: Verdict):
   return undefined;
 }
 
+/** A struck attempt stays in the record, marked with who struck it, when and why (docs/sync-merge-rules.md). */
+function struck(value: MeasureValue | ReadingsValue, attempt: { id?: string }): string {
+  const strike = strikeOf(value, attempt);
+  return strike ? ` · STRUCK THROUGH by ${strike.by}, ${when(strike.at)}: ${strike.reason}` : "";
+}
+
 export function measureAttempts(w: Writer, item: MeasureItem, value: MeasureValue, indent: number): void {
   const attempts = value.attempts ?? [];
   const ruleUnit = item.rule?.unit;
@@ -371,10 +379,10 @@ export function measureAttempts(w: Writer, item: MeasureItem, value: MeasureValu
     { label: "When", width: widths[converted ? 4 : 3] },
   ];
   const rows = attempts.map((attempt, i): Cell[] => {
-    const last = i === attempts.length - 1;
+    const last = attempt === liveAttempts(value).at(-1);
     const own = evaluate(item, { attempts: [attempt] });
     return [
-      { text: last ? `${i + 1} (reported)` : String(i + 1), bold: last },
+      { text: (last ? `${i + 1} (reported)` : String(i + 1)) + struck(value, attempt), bold: last },
       { text: entered(attempt.value, attempt.unit), bold: last, mark: attemptMark(item, own) },
       ...(converted ? [{ text: quantity(convert(attempt.value, attempt.unit, ruleUnit!), ruleUnit!) }] : []),
       { text: attempt.by },
@@ -391,10 +399,10 @@ export function readingsAttempts(w: Writer, item: ReadingsItem, value: ReadingsV
   const labelWidth = Math.min(170, width * 0.34);
   const cellWidth = (width - labelWidth) / item.columns.length;
   attempts.forEach((attempt, i) => {
-    const last = i === attempts.length - 1;
+    const last = attempt === liveAttempts(value).at(-1);
     const own = evaluate(item, { attempts: [attempt] });
     const offending = own.offending ?? [];
-    const caption = `Attempt ${i + 1} of ${attempts.length}${last ? " (reported)" : ""} · values in ${unitSymbol(attempt.unit)} · ${attempt.by}, ${when(attempt.at)}`;
+    const caption = `Attempt ${i + 1} of ${attempts.length}${last ? " (reported)" : ""} · values in ${unitSymbol(attempt.unit)} · ${attempt.by}, ${when(attempt.at)}${struck(value, attempt)}`;
     w.style(last ? "bold" : "regular", size.small + 0.5, last ? ink : inkSoft);
     w.ensure(w.height(caption, width) + 40);
     w.paragraph(caption, { indent, tnum: true, gap: 2 });

@@ -1,5 +1,6 @@
-import type { CalcInputSpec, Unit } from "~/lib/calc";
+import { dimensionOf, type CalcInputSpec, type Unit } from "~/lib/calc";
 import { Field } from "~/components/field";
+import { SignToggle } from "~/components/signed-input";
 import {
   choicesFor,
   resizeGrid,
@@ -33,6 +34,19 @@ interface EntryFieldProps {
   entry: Entry;
   error?: string;
   onChange(entry: Entry): void;
+}
+
+/**
+ * An input that may be negative gets a ± toggle beside each field (many decimal keypads have no
+ * minus key): dial readings (runout, rim), offsets, temperatures and angles. Gaps, diameters,
+ * bores and distances are never negative.
+ */
+export function takesSign(spec: CalcInputSpec): boolean {
+  const words = `${spec.label} ${[spec.field ?? []].flat().join(" ")}`;
+  if (/gap|diameter|bore|distance|length|position|rating|largest|maximum|limit/i.test(words)) return false;
+  const dimension = spec.unit ? dimensionOf(spec.unit) : undefined;
+  if (dimension === "temperature" || dimension === "angle") return true;
+  return /offset|reading|dial|rim/i.test(words);
 }
 
 const labelOf = (spec: CalcInputSpec) => (spec.optional ? `${spec.label} (optional)` : spec.label);
@@ -112,6 +126,13 @@ function NumberField({
           onChange={(e) => onChange({ ...entry, text: e.target.value })}
           {...errorProps(name, error)}
         />
+        {takesSign(spec) && (
+          <SignToggle
+            field={spec.label}
+            value={entry.text}
+            onChange={(text) => onChange({ ...entry, text })}
+          />
+        )}
         <UnitPicker
           name={name}
           label={spec.label}
@@ -135,15 +156,24 @@ function ClockField({
   const cell = (position: ClockPosition, area: string) => (
     <label className={`flex flex-col gap-1 ${area}`}>
       <span className="text-sm font-bold">{clockWords[position]}</span>
-      <input
-        inputMode="decimal"
-        autoComplete="off"
-        className="field-input num"
-        aria-label={`${spec.label}: ${clockWords[position]}`}
-        value={entry.texts[position]}
-        onChange={(e) => onChange({ ...entry, texts: { ...entry.texts, [position]: e.target.value } })}
-        {...errorProps(name, error)}
-      />
+      <span className="flex gap-1">
+        <input
+          inputMode="decimal"
+          autoComplete="off"
+          className="field-input num min-w-0"
+          aria-label={`${spec.label}: ${clockWords[position]}`}
+          value={entry.texts[position]}
+          onChange={(e) => onChange({ ...entry, texts: { ...entry.texts, [position]: e.target.value } })}
+          {...errorProps(name, error)}
+        />
+        {takesSign(spec) && (
+          <SignToggle
+            field={`${spec.label}: ${clockWords[position]}`}
+            value={entry.texts[position]}
+            onChange={(text) => onChange({ ...entry, texts: { ...entry.texts, [position]: text } })}
+          />
+        )}
+      </span>
     </label>
   );
   return (
@@ -183,6 +213,7 @@ function GridField({
       ...entry,
       texts: entry.texts.map((row, i) => (i === r ? row.map((t, j) => (j === c ? text : t)) : row)),
     });
+  const signed = takesSign(spec);
   const setPosition = (r: number, text: string) =>
     entry.positions &&
     onChange({
@@ -251,15 +282,24 @@ function GridField({
                 )}
                 {entry.columns.map((c, j) => (
                   <td key={c} className="p-1">
-                    <input
-                      inputMode="decimal"
-                      autoComplete="off"
-                      className="field-input num w-24"
-                      aria-label={`${row}, ${c} (${unitText(entry.unit)})`}
-                      value={entry.texts[r][j]}
-                      onChange={(e) => setCell(r, j, e.target.value)}
-                      {...errorProps(name, error)}
-                    />
+                    <div className="flex gap-1">
+                      <input
+                        inputMode="decimal"
+                        autoComplete="off"
+                        className={`field-input num ${signed ? "w-20" : "w-24"}`}
+                        aria-label={`${row}, ${c} (${unitText(entry.unit)})`}
+                        value={entry.texts[r][j]}
+                        onChange={(e) => setCell(r, j, e.target.value)}
+                        {...errorProps(name, error)}
+                      />
+                      {signed && (
+                        <SignToggle
+                          field={`${row}, ${c}`}
+                          value={entry.texts[r][j]}
+                          onChange={(text) => setCell(r, j, text)}
+                        />
+                      )}
+                    </div>
                   </td>
                 ))}
               </tr>

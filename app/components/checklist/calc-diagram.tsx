@@ -10,20 +10,22 @@ import {
   calcDefinition,
   findItem,
   gatherCalcInputs,
+  liveAttempts,
   valueSchemaFor,
   type Item,
+  type ReadingsValue,
   type Responses,
   type Template,
   type Verdict,
 } from "~/lib/templates";
 
-/** Every set of readings a readings item keeps, oldest first (its straightening attempts). */
+/** Every set of readings a readings item keeps and counts, oldest first (its straightening attempts). */
 function readingsAttempts(template: Template, responses: Responses, key: string): RunoutAttempt[] {
   const source = findItem(template, key);
   if (!source || source.kind !== "readings") return [];
   const parsed = valueSchemaFor(source).safeParse(responses[key]);
   if (!parsed.success || !parsed.data || !("attempts" in parsed.data)) return [];
-  return (parsed.data.attempts as { cells: (number | null)[][]; unit: RunoutAttempt["unit"] }[]).map((a) => ({
+  return liveAttempts(parsed.data as ReadingsValue).map((a) => ({
     cells: a.cells,
     unit: a.unit,
   }));

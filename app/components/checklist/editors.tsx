@@ -1,11 +1,12 @@
-import { useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import { OutcomeValues } from "~/components/calculators/outcome-values";
 import type { Unit } from "~/lib/calc/units";
 import { useDirtyMark } from "~/lib/pwa/dirty";
 import { readNumber } from "~/lib/read-number";
 import {
   acceptedUnits,
-  formatQuantity,
+  liveAttempts,
+  takesNegative,
   unitSymbol,
   type CalcValue,
   type CheckValue,
@@ -15,12 +16,18 @@ import {
   type Item,
   type MeasureItem,
   type MeasureValue,
+  type ReadingsAttempt,
   type ReadingsItem,
   type ReadingsValue,
+  type Responses,
+  type Template,
   type TextValue,
   type Verdict,
 } from "~/lib/templates";
 import { LocalTime } from "~/components/local-time";
+import { SignToggle } from "~/components/signed-input";
+import { AttemptLog } from "./attempt-log.tsx";
+import { attemptFigure } from "./attempt-figure.ts";
 
 export interface EditorProps<I extends Item = Item> {
   item: I;
@@ -29,6 +36,9 @@ export interface EditorProps<I extends Item = Item> {
   by: string;
   disabled: boolean;
   onSave: (value: unknown) => void;
+  /** The checklist around the item: a set of readings is summed up by the calculation that reads it. */
+  template: Template;
+  responses?: Responses;
 }
 
 const now = () => new Date().toISOString();
@@ -149,7 +159,46 @@ export function CheckEditor({ item, value, verdict, disabled, onSave }: EditorPr
   );
 }
 
-export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: EditorProps<MeasureItem>) {
+/** The note every measurement can carry whatever its verdict; required (a corrective action) when out of range. */
+function MeasurementNote({
+  item,
+  value,
+  verdict,
+  disabled,
+  onSave,
+}: {
+  item: Item;
+  value: { note?: string } | undefined;
+  verdict: Verdict;
+  disabled: boolean;
+  onSave: (note: string) => void;
+}) {
+  if (!value) return null;
+  return (
+    <NoteField
+      id={`${item.key}-note`}
+      label={
+        verdict.finding === "out-of-range"
+          ? "Corrective action (required: what was done about it)"
+          : "Note (optional: what explains this reading)"
+      }
+      note={value.note}
+      disabled={disabled}
+      onSave={onSave}
+    />
+  );
+}
+
+export function MeasureEditor({
+  item,
+  value,
+  verdict,
+  by,
+  disabled,
+  onSave,
+  template,
+  responses,
+}: EditorProps<MeasureItem>) {
   const v = value as MeasureValue | undefined;
   const units = acceptedUnits(item);
   const [text, setText] = useState("");
@@ -162,8 +211,8 @@ export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: Ed
     setError(null);
     setText("");
     onSave({
+      ...v,
       attempts: [...(v?.attempts ?? []), { id: crypto.randomUUID(), value: reading, unit, at: now(), by }],
-      ...(v?.note ? { note: v.note } : {}),
     });
   }
   return (
@@ -173,18 +222,29 @@ export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: Ed
           <label htmlFor={`${item.key}-value`} className="font-bold">
             Reading
           </label>
-          <input
-            id={`${item.key}-value`}
-            inputMode="decimal"
-            autoComplete="off"
-            className="field-input num w-40"
-            value={text}
-            disabled={disabled}
-            aria-invalid={error ? true : undefined}
-            aria-describedby={error ? `${item.key}-value-error` : undefined}
-            onChange={(e) => setText(e.target.value)}
-            onKeyDown={(e) => e.key === "Enter" && record()}
-          />
+          <div className="flex gap-1">
+            <input
+              id={`${item.key}-value`}
+              inputMode="decimal"
+              enterKeyHint="done"
+              autoComplete="off"
+              className="field-input num w-40"
+              value={text}
+              disabled={disabled}
+              aria-invalid={error ? true : undefined}
+              aria-describedby={error ? `${item.key}-value-error` : undefined}
+              onChange={(e) => setText(e.target.value)}
+              onKeyDown={(e) => e.key === "Enter" && record()}
+            />
+            {takesNegative(item) && (
+              <SignToggle
+                field={`${item.label}: reading`}
+                value={text}
+                disabled={disabled}
+                onChange={setText}
+              />
+            )}
+          </div>
         </div>
         <UnitField id={`${item.key}-unit`} units={units} unit={unit} disabled={disabled} onChange={setUnit} />
         <button type="button" className="btn btn-primary" disabled={disabled || !text} onClick={record}>
@@ -197,79 +257,158 @@ export function MeasureEditor({ item, value, verdict, by, disabled, onSave }: Ed
         </p>
       )}
       {v && v.attempts.length > 0 && (
-        <Attempts
-          attempts={v.attempts.map((a) => ({ text: formatQuantity(a.value, a.unit), by: a.by, at: a.at }))}
-        />
-      )}
-      {v && (verdict.finding === "out-of-range" || v.note) && (
-        <NoteField
-          id={`${item.key}-note`}
-          label="Corrective action"
-          note={v.note}
+        <AttemptLog
+          noun="Attempt"
+          attempts={v.attempts.map((a) => ({
+            ...a,
+            ...attemptFigure(item, a, template, responses ?? {}),
+          }))}
+          strikes={v.strikes}
+          by={by}
           disabled={disabled}
-          onSave={(note) => onSave({ ...v, note })}
+          onStrike={(strike) => onSave({ ...v, strikes: [...(v.strikes ?? []), strike] })}
         />
       )}
+      <MeasurementNote
+        item={item}
+        value={v}
+        verdict={verdict}
+        disabled={disabled}
+        onSave={(note) => onSave({ ...v, note })}
+      />
     </div>
   );
 }
 
-function Attempts({ attempts }: { attempts: { text: string; by: string; at: string }[] }) {
+/** A set of readings as its grid, for the "The readings" details of a logged set. */
+function RawGrid({ item, attempt }: { item: ReadingsItem; attempt: ReadingsAttempt }) {
   return (
-    <table className="w-full max-w-xl border-collapse text-sm" data-testid="attempts">
-      <caption className="text-left font-bold">Attempts (the last is reported)</caption>
+    <table className="my-1 border-collapse text-sm">
+      <thead>
+        <tr>
+          <th></th>
+          {item.columns.map((c) => (
+            <th key={c.key} scope="col" className="px-2 text-right">
+              {c.label}
+            </th>
+          ))}
+        </tr>
+      </thead>
       <tbody>
-        {attempts.map((a, i) => (
-          <tr
-            key={i}
-            className={`border-b border-rule ${i === attempts.length - 1 ? "font-bold" : "text-ink-soft"}`}
-          >
-            <td className="py-1 pr-2">#{i + 1}</td>
-            <td className="num py-1 pr-2">{a.text}</td>
-            <td className="py-1 pr-2">{a.by}</td>
-            <td className="py-1">
-              <LocalTime at={a.at} />
-            </td>
+        {item.rows.map((row, r) => (
+          <tr key={row.key}>
+            <th scope="row" className="pr-2 text-left">
+              {row.label}
+            </th>
+            {item.columns.map((c, ci) => (
+              <td key={c.key} className="num px-2 text-right">
+                {attempt.cells[r]?.[ci] ?? "–"}
+              </td>
+            ))}
           </tr>
         ))}
       </tbody>
+      <caption className="caption-bottom text-left">in {unitSymbol(attempt.unit)}</caption>
     </table>
   );
 }
 
-export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: EditorProps<ReadingsItem>) {
+/**
+ * A grid of readings, entered fast: Enter (or the keypad's Next) goes to the next cell in reading
+ * order, row by row, and on the last cell records the set — so a gauge that types its reading
+ * and Enter fills the grid with no touch. A new set starts empty with the focus in its first
+ * cell, or from the last set, to change only the cells that moved.
+ */
+export function ReadingsEditor({
+  item,
+  value,
+  verdict,
+  by,
+  disabled,
+  onSave,
+  template,
+  responses,
+}: EditorProps<ReadingsItem>) {
   const v = value as ReadingsValue | undefined;
-  const last = v?.attempts.at(-1);
+  const lastLive = v ? liveAttempts(v).at(-1) : undefined;
   const units = acceptedUnits(item);
-  const [unit, setUnit] = useState<Unit>(last?.unit ?? item.unit);
-  const blank = () =>
-    item.rows.map((_, r) =>
-      item.columns.map((__, c) => ((last?.cells[r]?.[c] ?? "") === "" ? "" : String(last!.cells[r]![c]))),
-    );
-  const [cells, setCells] = useState<string[][]>(blank);
+  const columns = item.columns.length;
+  const total = item.rows.length * columns;
+  const signed = takesNegative(item);
+  const [unit, setUnit] = useState<Unit>(v?.attempts.at(-1)?.unit ?? item.unit);
+  const empty = () => item.rows.map(() => item.columns.map(() => ""));
+  const [cells, setCells] = useState<string[][]>(empty);
   const [error, setError] = useState<string | null>(null);
+  const grid = useRef<HTMLTableElement>(null);
+  // Set when this screen records a set; once the set is saved the grid empties for the next one.
+  const recorded = useRef(false);
+  const count = v?.attempts.length ?? 0;
+  useDirtyMark(
+    `${item.key}-grid`,
+    cells.some((row) => row.some((cell) => cell !== "")),
+  );
   const offending = new Set((verdict.offending ?? []).map((o) => `${o.row}:${o.column ?? "*"}`));
+
+  const cell = (index: number) => grid.current?.querySelector<HTMLInputElement>(`[data-cell="${index}"]`);
+  const focusCell = (index: number) => cell(Math.min(Math.max(index, 0), total - 1))?.focus();
+
+  useEffect(() => {
+    if (!recorded.current) return;
+    recorded.current = false;
+    setCells(empty());
+    // A new set starts here: focus its first cell, ready for the next reading.
+    requestAnimationFrame(() => focusCell(0));
+    // eslint-disable-next-line react-hooks/exhaustive-deps -- runs when a set is saved, not when the grid's shape is re-read
+  }, [count]);
+
+  function put(r: number, c: number, text: string) {
+    setCells((all) => all.map((line, i) => (i === r ? line.map((old, j) => (j === c ? text : old)) : line)));
+  }
+
+  function startFromLast() {
+    if (!lastLive) return;
+    setUnit(lastLive.unit);
+    setCells(item.rows.map((_, r) => item.columns.map((__, c) => String(lastLive.cells[r]?.[c] ?? ""))));
+    requestAnimationFrame(() => focusCell(0));
+  }
+
   function record() {
     const numbers = cells.map((row) => row.map(readNumber));
-    const missing = numbers
-      .flatMap((row, r) =>
-        row.map((n, c) => (n === null ? `${item.rows[r]!.label} / ${item.columns[c]!.label}` : null)),
-      )
-      .filter(Boolean);
-    if (missing.length)
-      return setError(
-        `Fill every cell with a number; missing or not a number: ${missing.slice(0, 4).join(", ")}${missing.length > 4 ? "…" : ""}.`,
+    const missing = numbers.flatMap((row, r) =>
+      row.flatMap((n, c) =>
+        n === null
+          ? [{ index: r * columns + c, name: `${item.rows[r]!.label} / ${item.columns[c]!.label}` }]
+          : [],
+      ),
+    );
+    if (missing.length) {
+      setError(
+        `Fill every cell with a number; missing or not a number: ${missing
+          .slice(0, 4)
+          .map((m) => m.name)
+          .join(", ")}${missing.length > 4 ? "…" : ""}.`,
       );
+      return focusCell(missing[0]!.index);
+    }
     setError(null);
+    recorded.current = true;
     onSave({
+      ...v,
       attempts: [...(v?.attempts ?? []), { id: crypto.randomUUID(), cells: numbers, unit, at: now(), by }],
-      ...(v?.note ? { note: v.note } : {}),
     });
   }
+
+  function onKeyDown(e: React.KeyboardEvent<HTMLInputElement>, index: number) {
+    if (e.key !== "Enter") return;
+    e.preventDefault();
+    if (index < total - 1) focusCell(index + 1);
+    else record();
+  }
+
   return (
     <div className="flex flex-col gap-3">
       <div className="overflow-x-auto">
-        <table className="border-collapse">
+        <table className="border-collapse" ref={grid}>
           <thead>
             <tr>
               <th className="p-1"></th>
@@ -288,24 +427,34 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
                 </th>
                 {item.columns.map((col, c) => {
                   const bad = offending.has(`${r}:${c}`) || offending.has(`${r}:*`);
+                  const index = r * columns + c;
+                  const name = `${row.label}, ${col.label} (${unitSymbol(unit)})`;
                   return (
                     <td key={col.key} className="p-1">
-                      <input
-                        aria-label={`${row.label}, ${col.label} (${unitSymbol(unit)})`}
-                        inputMode="decimal"
-                        autoComplete="off"
-                        className="field-input num w-24"
-                        aria-invalid={bad || undefined}
-                        disabled={disabled}
-                        value={cells[r]![c]!}
-                        onChange={(e) =>
-                          setCells((all) =>
-                            all.map((line, i) =>
-                              i === r ? line.map((cell, j) => (j === c ? e.target.value : cell)) : line,
-                            ),
-                          )
-                        }
-                      />
+                      <div className="flex gap-1">
+                        <input
+                          aria-label={name}
+                          data-cell={index}
+                          inputMode="decimal"
+                          enterKeyHint={index === total - 1 ? "done" : "next"}
+                          autoComplete="off"
+                          className={`field-input num ${signed ? "w-20" : "w-24"}`}
+                          aria-invalid={bad || undefined}
+                          disabled={disabled}
+                          value={cells[r]![c]!}
+                          onFocus={(e) => e.currentTarget.select()}
+                          onKeyDown={(e) => onKeyDown(e, index)}
+                          onChange={(e) => put(r, c, e.target.value)}
+                        />
+                        {signed && (
+                          <SignToggle
+                            field={name}
+                            value={cells[r]![c]!}
+                            disabled={disabled}
+                            onChange={(text) => put(r, c, text)}
+                          />
+                        )}
+                      </div>
                       {bad && <span className="sr-only">outside limit</span>}
                     </td>
                   );
@@ -317,6 +466,11 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
       </div>
       <div className="flex flex-wrap items-end gap-2">
         <UnitField id={`${item.key}-unit`} units={units} unit={unit} disabled={disabled} onChange={setUnit} />
+        {lastLive && (
+          <button type="button" className="btn" disabled={disabled} onClick={startFromLast}>
+            Start from the last set
+          </button>
+        )}
         <button type="button" className="btn btn-primary" disabled={disabled} onClick={record}>
           {v?.attempts.length ? "Record a new set of readings" : "Record readings"}
         </button>
@@ -326,26 +480,26 @@ export function ReadingsEditor({ item, value, verdict, by, disabled, onSave }: E
           ▲ {error}
         </p>
       )}
-      {v && v.attempts.length > 1 && (
-        <Attempts
-          attempts={v.attempts.map((a) => ({
-            text:
-              a.cells.map((row) => row.map((n) => (n === null ? "–" : String(n))).join(" ")).join(" | ") +
-              ` ${unitSymbol(a.unit)}`,
-            by: a.by,
-            at: a.at,
-          }))}
-        />
-      )}
-      {v && (verdict.finding === "out-of-range" || v.note) && (
-        <NoteField
-          id={`${item.key}-note`}
-          label="Corrective action"
-          note={v.note}
+      {v && v.attempts.length > 0 && (
+        <AttemptLog
+          noun="Set"
+          attempts={v.attempts.map((a) => {
+            const shown = attemptFigure(item, a, template, responses ?? {});
+            return { ...a, ...shown, raw: <RawGrid item={item} attempt={a} /> };
+          })}
+          strikes={v.strikes}
+          by={by}
           disabled={disabled}
-          onSave={(note) => onSave({ ...v, note })}
+          onStrike={(strike) => onSave({ ...v, strikes: [...(v.strikes ?? []), strike] })}
         />
       )}
+      <MeasurementNote
+        item={item}
+        value={v}
+        verdict={verdict}
+        disabled={disabled}
+        onSave={(note) => onSave({ ...v, note })}
+      />
     </div>
   );
 }
@@ -481,10 +635,10 @@ export function CalcPanel({
       ) : (
         <p className="text-ink-soft">Computed once its inputs are entered.</p>
       )}
-      {(verdict.finding || value?.note) && (
+      {(verdict.finding || value?.note || outcome) && (
         <NoteField
           id={`${item.key}-note`}
-          label="Corrective action"
+          label={verdict.finding ? "Corrective action" : "Note (optional)"}
           note={value?.note}
           disabled={disabled}
           onSave={(note) => onSave({ note })}

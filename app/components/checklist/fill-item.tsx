@@ -1,4 +1,4 @@
-import type { Item, Template, Verdict } from "~/lib/templates";
+import type { Item, Responses, Template, Verdict } from "~/lib/templates";
 import {
   CalcPanel,
   CheckEditor,
@@ -16,6 +16,8 @@ import { VerdictBadge } from "./verdict-badge.tsx";
 export interface FillItemProps {
   item: Item;
   template: Template;
+  /** Every response of the checklist by item key (a calculation reads other items). */
+  responses?: Responses;
   value: unknown;
   verdict: Verdict;
   pending: boolean;
@@ -55,6 +57,8 @@ function Editor(props: EditorProps & { diagram?: React.ReactNode; checklistId?: 
 /** One item as the technician fills it: what to do, the entry, and its verdict in words and a shape. */
 export function FillItem({
   item,
+  template,
+  responses,
   value,
   verdict,
   pending,
@@ -88,8 +92,11 @@ export function FillItem({
         onSave={onSave}
         diagram={diagram}
         checklistId={checklistId}
+        template={template}
+        responses={responses}
       />
       <VerdictBadge verdict={verdict} />
+      {/* What is said about the item (the lead's comments, the technician's replies, a refusal). */}
       {children}
     </li>
   );

@@ -9,6 +9,7 @@ import {
   type PhotoState,
 } from "~/lib/offline/photos.client";
 import { LocalStoreError } from "~/lib/offline/store.client";
+import { plainError } from "~/lib/offline/plain-error";
 import type { PhotoItem, PhotoValue } from "~/lib/templates";
 import type { EditorProps } from "./editors.tsx";
 
@@ -86,9 +87,7 @@ export function PhotoEditor({
       for (const file of Array.from(files)) await addPhoto({ checklistId, itemKey: item.key, by }, file);
     } catch (e) {
       setError(
-        e instanceof LocalStoreError
-          ? e.message
-          : `This file could not be kept as a photo (${e instanceof Error ? e.message : String(e)}).`,
+        e instanceof LocalStoreError ? e.message : plainError(e, "This file could not be kept as a photo."),
       );
     } finally {
       setBusy(false);

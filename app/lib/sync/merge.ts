@@ -12,6 +12,10 @@ import type { ItemKind } from "../templates/index.ts";
  *   A photo list sent on the current revision stands as sent (a photo taken by mistake may be
  *   removed by someone who saw the server's list; the item's history keeps it).
  *   The note beside them is a scalar: a different note on both sides is still a conflict.
+ * - strikes (an attempt struck through with a reason): an append-only set of their own, keyed by
+ *   the struck attempt's id, ordered by the time struck then that id. Two tablets striking the
+ *   same attempt keep the strike the server saw first; a strike is never removed, so an attempt
+ *   once struck stays struck. A value with no strike carries no `strikes` field.
  * - scalar kinds — check, choice, text, initials, calc (its note): the value is one answer. An
  *   entry on the current revision replaces it; the same value is accepted; a different value on
  *   an older revision is a conflict kept with both values for a person to decide.
@@ -22,11 +26,15 @@ const LOG_KINDS: ReadonlySet<ItemKind> = new Set(["measure", "readings", "photo"
 export const mergeRuleFor = (kind: ItemKind): MergeRule => (LOG_KINDS.has(kind) ? "log" : "scalar");
 
 type Entry = { id?: string; at?: string; [key: string]: unknown };
-type LogValue = { attempts?: Entry[]; photos?: Entry[]; note?: string };
+type LogValue = { attempts?: Entry[]; photos?: Entry[]; strikes?: Entry[]; note?: string };
 
-/** An entry's identity: its id, or (recorded before ids) its content, the same on every device. */
+/**
+ * An entry's identity: its id, or (recorded before ids) its content, the same on every device.
+ * A strike is known by the attempt it strikes.
+ */
 function entryKey(entry: Entry): string {
   if (typeof entry.id === "string") return entry.id;
+  if (typeof entry.attempt === "string") return `strike:${entry.attempt}`;
   const keys = Object.keys(entry).sort();
   return `content:${JSON.stringify(keys.map((k) => [k, entry[k]]))}`;
 }
@@ -69,5 +77,12 @@ export function mergeLog(server: unknown, incoming: unknown, onCurrent: boolean)
   if (!onCurrent && i.note !== undefined && s.note !== undefined && i.note !== s.note)
     return { conflict: true };
   const note = onCurrent ? i.note : (s.note ?? i.note);
-  return { value: { [list]: entries, ...(note !== undefined ? { note } : {}) } };
+  const strikes = list === "attempts" ? union(s.strikes ?? [], i.strikes ?? [], byTimeThenId) : [];
+  return {
+    value: {
+      [list]: entries,
+      ...(strikes.length ? { strikes } : {}),
+      ...(note !== undefined ? { note } : {}),
+    },
+  };
 }

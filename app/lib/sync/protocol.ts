@@ -11,6 +11,11 @@ import type { ChecklistState } from "../checklist-sets.ts";
  * then checked on its own, so one operation the database could not store (a lone UTF-16
  * surrogate, a number too big for its column, a value nested too deep) is that operation's
  * rejection with a code, and the rest of the batch goes on.
+ *
+ * An operation carries an item's whole value; how the server combines it with what it holds is
+ * the item kind's merge rule (app/lib/sync/merge.ts, docs/sync-merge-rules.md): attempts, sets
+ * of readings, photos and strikes (an attempt struck through with a reason, keyed by the
+ * attempt's id) are append-only sets that merge; every other answer is a scalar that conflicts.
  */
 
 /** The most operations one request may carry; a bigger batch is answered 413. */

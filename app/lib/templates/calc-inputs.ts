@@ -1,7 +1,7 @@
 import { calculations, type CalcDefinition, type CalcInput, type CalcInputSpec } from "~/lib/calc/registry";
 import { dimensionOf, type Unit } from "~/lib/calc/units";
 import { findItem, type CalcBinding, type CalcItem, type Item, type Template } from "./schema";
-import { valueSchemaFor, type Responses } from "./values";
+import { liveAttempts, valueSchemaFor, type Responses } from "./values";
 
 /**
  * The link between a template's calc item and the calculation registry: which item feeds which
@@ -146,12 +146,12 @@ function responseInput(source: Item, raw: unknown): CalcInput | undefined {
   switch (source.kind) {
     case "measure": {
       const parsed = valueSchemaFor(source).safeParse(raw);
-      const last = parsed.success ? parsed.data.attempts.at(-1) : undefined;
+      const last = parsed.success ? liveAttempts(parsed.data).at(-1) : undefined;
       return last && { kind: "number", value: last.value, unit: last.unit };
     }
     case "readings": {
       const parsed = valueSchemaFor(source).safeParse(raw);
-      const last = parsed.success ? parsed.data.attempts.at(-1) : undefined;
+      const last = parsed.success ? liveAttempts(parsed.data).at(-1) : undefined;
       if (!last || last.cells.some((row) => row.some((cell) => cell === null))) return undefined;
       // Row and column keys, not labels: the calculations find "top", "port"... by them.
       return {

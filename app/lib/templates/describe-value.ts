@@ -1,5 +1,6 @@
 import { formatQuantity, unitSymbol } from "./format";
 import type { Item } from "./schema";
+import { liveAttempts, strikeOf, type Strike } from "./values";
 import type {
   CheckValue,
   ChoiceValue,
@@ -9,6 +10,21 @@ import type {
   ReadingsValue,
   TextValue,
 } from "./values";
+
+/** A moment in UTC, the same on the server and in the browser: "1 May 2026, 09:00 UTC". */
+const utc = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" });
+
+/** "; attempt 1 struck through by T. Tern (1 May 2026, 09:00 UTC): misread the dial" per strike. */
+function struckText(v: { attempts: { id?: string }[]; strikes?: Strike[] }, noun: string): string {
+  return v.attempts
+    .flatMap((a, i) => {
+      const s = strikeOf(v, a);
+      return s
+        ? [`; ${noun} ${i + 1} struck through by ${s.by} (${utc.format(new Date(s.at))} UTC): ${s.reason}`]
+        : [];
+    })
+    .join("");
+}
 
 /** A response in words, for places that show a value without its editor (conflicts, review). */
 export function describeValue(item: Item | undefined, value: unknown): string {
@@ -22,17 +38,21 @@ export function describeValue(item: Item | undefined, value: unknown): string {
     }
     case "measure": {
       const v = value as MeasureValue;
-      const last = v.attempts?.at(-1);
+      if (!v.attempts) return "no attempt";
+      const last = liveAttempts(v).at(-1);
+      const struck = struckText(v, "attempt");
       return last
-        ? `${formatQuantity(last.value, last.unit)} (attempt ${v.attempts.length}, ${last.by})${note}`
-        : "no attempt";
+        ? `${formatQuantity(last.value, last.unit)} (attempt ${v.attempts.indexOf(last) + 1}, ${last.by})${struck}${note}`
+        : `every attempt struck through${struck}${note}`;
     }
     case "readings": {
       const v = value as ReadingsValue;
-      const last = v.attempts?.at(-1);
+      if (!v.attempts) return "no readings";
+      const last = liveAttempts(v).at(-1);
+      const struck = struckText(v, "set");
       return last
-        ? `${last.cells.map((row) => row.map((n) => (n === null ? "–" : n)).join(" ")).join(" | ")} ${unitSymbol(last.unit)} (set ${v.attempts.length})${note}`
-        : "no readings";
+        ? `${last.cells.map((row) => row.map((n) => (n === null ? "–" : n)).join(" ")).join(" | ")} ${unitSymbol(last.unit)} (set ${v.attempts.indexOf(last) + 1})${struck}${note}`
+        : `every set struck through${struck}${note}`;
     }
     case "choice": {
       const v = value as ChoiceValue;

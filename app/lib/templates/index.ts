@@ -37,7 +37,7 @@ export type {
   TemplateInput,
   TextItem,
 } from "./schema";
-export { valueSchemaFor, valueSchemas } from "./values";
+export { liveAttempts, strikeOf, takesNegative, valueSchemaFor, valueSchemas } from "./values";
 export type {
   CalcValue,
   CheckValue,
@@ -50,6 +50,7 @@ export type {
   ReadingsAttempt,
   ReadingsValue,
   Responses,
+  Strike,
   TextValue,
   ValueFor,
 } from "./values";

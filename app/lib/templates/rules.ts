@@ -19,6 +19,7 @@ import {
   type Template,
 } from "./schema";
 import {
+  liveAttempts,
   valueSchemaFor,
   type CheckValue,
   type ChoiceValue,
@@ -141,9 +142,19 @@ export function evaluate(item: Item, value: unknown, context?: EvaluationContext
     case "check":
       return evaluateCheck(parsed.data as CheckValue);
     case "measure":
-      return evaluateMeasure(item, parsed.data as MeasureValue);
-    case "readings":
-      return evaluateReadings(item, parsed.data as ReadingsValue);
+    case "readings": {
+      // Struck attempts stay in the record but never count.
+      const logged = parsed.data as MeasureValue | ReadingsValue;
+      const live = liveAttempts<MeasureValue["attempts"][number] | ReadingsValue["attempts"][number]>(logged);
+      if (live.length === 0)
+        return verdict("unanswered", "Every attempt is struck through: enter a new one.");
+      return item.kind === "measure"
+        ? evaluateMeasure(item, { ...(logged as MeasureValue), attempts: live as MeasureValue["attempts"] })
+        : evaluateReadings(item, {
+            ...(logged as ReadingsValue),
+            attempts: live as ReadingsValue["attempts"],
+          });
+    }
     case "choice":
       return evaluateChoice(item, parsed.data as ChoiceValue);
     case "text":
@@ -175,7 +186,8 @@ function appliesNow(
     if (when.options?.includes(option)) return { applies: true };
     answer = source.options.find((o) => o.key === option)?.label;
   } else if (source.kind === "measure") {
-    const last = (parsed.data as MeasureValue).attempts.at(-1)!;
+    const last = liveAttempts(parsed.data as MeasureValue).at(-1);
+    if (!last) return { applies: false, verdict: verdict("unanswered", `Waits for: ${source.label}.`) };
     const inUnit = convert(last.value, last.unit, source.unit);
     if (when.values?.some((v) => atLeast(inUnit, v) && atMost(inUnit, v))) return { applies: true };
     answer = formatEntered(last.value, last.unit);

@@ -1,5 +1,13 @@
 import { z } from "zod";
-import { acceptedUnits, unitSchema, type Item, type ItemKind } from "./schema";
+import { dimensionOf } from "~/lib/calc/units";
+import {
+  acceptedUnits,
+  unitSchema,
+  type Item,
+  type ItemKind,
+  type MeasureItem,
+  type ReadingsItem,
+} from "./schema";
 
 /**
  * What a response to an item holds, per kind. A response is stored as entered; its verdict is
@@ -31,6 +39,25 @@ export const checkValueSchema = z.strictObject({
  */
 const attemptId = z.uuid({ error: "expected a UUID" }).optional();
 
+/**
+ * A mistaken attempt struck through with a reason: the attempt stays in the record, shown struck,
+ * and no verdict or calculation counts it. Strikes are their own append-only set keyed by the
+ * attempt's id (app/lib/sync/merge.ts), so two tablets never conflict over one; an attempt
+ * recorded before ids existed cannot be struck. A response with no strike has no `strikes` field,
+ * so older responses and countersigned digests are unchanged.
+ */
+export const strikeSchema = z.strictObject({
+  attempt: z.uuid({ error: "expected the struck attempt's id" }),
+  reason: z
+    .string({ error: "expected a string" })
+    .trim()
+    .min(1, { error: "needs a reason" })
+    .max(500, { error: "is longer than 500 characters" }),
+  at,
+  by,
+});
+const strikes = z.array(strikeSchema).optional();
+
 export const measureAttemptSchema = z.strictObject({
   id: attemptId,
   value: reading,
@@ -42,6 +69,7 @@ export const measureAttemptSchema = z.strictObject({
 /** Every attempt is kept (a shaft straightened three times has three); the last one is reported. */
 export const measureValueSchema = z.strictObject({
   attempts: z.array(measureAttemptSchema).min(1, { error: "needs at least one attempt" }),
+  strikes,
   note,
 });
 
@@ -56,6 +84,7 @@ export const readingsAttemptSchema = z.strictObject({
 
 export const readingsValueSchema = z.strictObject({
   attempts: z.array(readingsAttemptSchema).min(1, { error: "needs at least one attempt" }),
+  strikes,
   note,
 });
 
@@ -100,6 +129,7 @@ export const valueSchemas = {
 } as const satisfies Record<ItemKind, z.ZodType>;
 
 export type CheckValue = z.output<typeof checkValueSchema>;
+export type Strike = z.output<typeof strikeSchema>;
 export type MeasureAttempt = z.output<typeof measureAttemptSchema>;
 export type MeasureValue = z.output<typeof measureValueSchema>;
 export type ReadingsAttempt = z.output<typeof readingsAttemptSchema>;
@@ -113,6 +143,30 @@ export type ValueFor<K extends ItemKind> = z.output<(typeof valueSchemas)[K]>;
 export type ItemValue = ValueFor<ItemKind>;
 /** A checklist's responses by item key; an item with no entry yet is absent. */
 export type Responses = Readonly<Record<string, unknown>>;
+
+type Logged<A> = { attempts: A[]; strikes?: Strike[] };
+
+/** The strike on an attempt, if it was struck through. */
+export function strikeOf(value: { strikes?: Strike[] }, attempt: { id?: string }): Strike | undefined {
+  return attempt.id === undefined ? undefined : value.strikes?.find((s) => s.attempt === attempt.id);
+}
+
+/** The attempts that count (every one not struck through), in their order; the last is reported. */
+export function liveAttempts<A extends { id?: string }>(value: Logged<A>): A[] {
+  return value.strikes?.length ? value.attempts.filter((a) => !strikeOf(value, a)) : value.attempts;
+}
+
+/**
+ * Whether an entry of this item may be negative, so its field gets a ± toggle (many tablets'
+ * decimal keypads have no minus key): dial readings (a length grid, not a spread of diameters),
+ * temperatures and angles, unless the item's rule sets a lower limit of zero or more.
+ */
+export function takesNegative(item: MeasureItem | ReadingsItem): boolean {
+  if (item.rule?.min !== undefined && item.rule.min >= 0) return false;
+  const dimension = dimensionOf(item.unit);
+  if (dimension === "temperature" || dimension === "angle") return true;
+  return item.kind === "readings" && dimension === "length" && item.rule?.appliesTo !== "row-spread";
+}
 
 const schemaCache = new WeakMap<Item, z.ZodType>();
 
@@ -134,47 +188,63 @@ interface FitProblem {
   message: string;
 }
 
+/** A strike names an attempt the item holds, once. */
+function strikeProblems(value: Logged<{ id?: string }>): FitProblem[] {
+  const ids = new Set(value.attempts.map((a) => a.id));
+  return (value.strikes ?? []).flatMap((strike, i, all) =>
+    !ids.has(strike.attempt)
+      ? [{ path: ["strikes", i, "attempt"], message: "strikes an attempt this item does not hold" }]
+      : all.findIndex((s) => s.attempt === strike.attempt) !== i
+        ? [{ path: ["strikes", i, "attempt"], message: "the same attempt struck twice" }]
+        : [],
+  );
+}
+
 function fitProblems(item: Item, value: ItemValue): FitProblem[] {
   switch (item.kind) {
     case "measure": {
       const units = acceptedUnits(item);
-      return (value as MeasureValue).attempts.flatMap((attempt, i) =>
-        units.includes(attempt.unit)
-          ? []
-          : [
-              {
-                path: ["attempts", i, "unit"],
-                message: `this item takes ${units.join(" or ")}, not ${attempt.unit}`,
-              },
-            ],
-      );
+      return (value as MeasureValue).attempts
+        .flatMap((attempt, i) =>
+          units.includes(attempt.unit)
+            ? []
+            : [
+                {
+                  path: ["attempts", i, "unit"],
+                  message: `this item takes ${units.join(" or ")}, not ${attempt.unit}`,
+                },
+              ],
+        )
+        .concat(strikeProblems(value as MeasureValue));
     }
     case "readings": {
       const units = acceptedUnits(item);
-      return (value as ReadingsValue).attempts.flatMap((attempt, i) => {
-        const problems: FitProblem[] = [];
-        if (!units.includes(attempt.unit)) {
-          problems.push({
-            path: ["attempts", i, "unit"],
-            message: `this item takes ${units.join(" or ")}, not ${attempt.unit}`,
-          });
-        }
-        if (attempt.cells.length !== item.rows.length) {
-          problems.push({
-            path: ["attempts", i, "cells"],
-            message: `expected ${item.rows.length} rows, got ${attempt.cells.length}`,
-          });
-        }
-        attempt.cells.forEach((row, r) => {
-          if (r < item.rows.length && row.length !== item.columns.length) {
+      return (value as ReadingsValue).attempts
+        .flatMap((attempt, i) => {
+          const problems: FitProblem[] = [];
+          if (!units.includes(attempt.unit)) {
             problems.push({
-              path: ["attempts", i, "cells", r],
-              message: `expected ${item.columns.length} readings in row "${item.rows[r].label}", got ${row.length}`,
+              path: ["attempts", i, "unit"],
+              message: `this item takes ${units.join(" or ")}, not ${attempt.unit}`,
             });
           }
-        });
-        return problems;
-      });
+          if (attempt.cells.length !== item.rows.length) {
+            problems.push({
+              path: ["attempts", i, "cells"],
+              message: `expected ${item.rows.length} rows, got ${attempt.cells.length}`,
+            });
+          }
+          attempt.cells.forEach((row, r) => {
+            if (r < item.rows.length && row.length !== item.columns.length) {
+              problems.push({
+                path: ["attempts", i, "cells", r],
+                message: `expected ${item.columns.length} readings in row "${item.rows[r].label}", got ${row.length}`,
+              });
+            }
+          });
+          return problems;
+        })
+        .concat(strikeProblems(value as ReadingsValue));
     }
     case "choice": {
       const { option } = value as ChoiceValue;

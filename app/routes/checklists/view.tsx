@@ -109,10 +109,20 @@ function SubmitPanel({
 }: {
   state: ReturnType<typeof progress>;
   template: Template;
-  onJump: (section: number) => void;
+  onJump: (section: number, itemKey: string) => void;
   onSubmit: () => void;
 }) {
-  const missing = [...state.overall.left, ...state.overall.attention];
+  const left = new Set(state.overall.left);
+  const attention = new Set(state.overall.attention);
+  // One tappable line per section with something missing, with its counts: not a long list of links.
+  const sections = template.sections.flatMap((section, index) => {
+    const keys = section.items.map((i) => i.key).filter((k) => left.has(k) || attention.has(k));
+    if (!keys.length) return [];
+    const unanswered = keys.filter((k) => !attention.has(k)).length;
+    const flagged = keys.length - unanswered;
+    const first = section.items.find((i) => i.key === keys[0])!;
+    return [{ section, index, first, unanswered, flagged }];
+  });
   return (
     <div className="card mt-6 flex flex-col gap-3" data-testid="submit-panel">
       <h2 className="text-xl font-bold">Submit for review</h2>
@@ -130,29 +140,57 @@ function SubmitPanel({
         </>
       ) : (
         <>
-          <p>Before it can be submitted:</p>
-          <ul className="flex flex-col gap-1">
-            {missing.map((key) => {
-              const sectionIndex = template.sections.findIndex((s) => s.items.some((i) => i.key === key));
-              const item = template.sections[sectionIndex]?.items.find((i) => i.key === key);
-              return (
-                <li key={key}>
-                  <button
-                    type="button"
-                    className="text-left text-harbour underline"
-                    onClick={() => onJump(sectionIndex)}
-                  >
-                    {state.overall.attention.includes(key) ? "▲ needs attention" : "○ not answered"}:{" "}
-                    {item?.label} (section {sectionIndex + 1})
-                  </button>
-                </li>
-              );
-            })}
+          <p>Before it can be submitted, go to:</p>
+          <ul className="grid gap-2 sm:grid-cols-2" data-testid="missing-summary">
+            {sections.map(({ section, index, first, unanswered, flagged }) => (
+              <li key={section.key}>
+                <button
+                  type="button"
+                  className="btn w-full justify-between text-left"
+                  onClick={() => onJump(index, first.key)}
+                >
+                  <span className="flex flex-col">
+                    <span>
+                      Section {index + 1} · {section.title}
+                    </span>
+                    <span className="line-clamp-1 text-sm font-normal">First: {first.label}</span>
+                  </span>
+                  <span className="num shrink-0 text-sm">
+                    {unanswered > 0 && <span>○ {unanswered} to answer</span>}
+                    {unanswered > 0 && flagged > 0 && " · "}
+                    {flagged > 0 && <span className="text-fault">▲ {flagged} to fix</span>}
+                  </span>
+                </button>
+              </li>
+            ))}
           </ul>
         </>
       )}
     </div>
   );
+}
+
+/** Where the technician was on a checklist (section and item), kept on this tablet: it reopens there, offline too. */
+interface Place {
+  section: string;
+  item?: string;
+}
+const placeKey = (checklistId: string) => `sternpost:place:${checklistId}`;
+function readPlace(checklistId: string): Place | null {
+  try {
+    const raw = typeof localStorage === "undefined" ? null : localStorage.getItem(placeKey(checklistId));
+    const place = raw ? (JSON.parse(raw) as Partial<Place>) : null;
+    return place && typeof place.section === "string" ? { section: place.section, item: place.item } : null;
+  } catch {
+    return null;
+  }
+}
+function keepPlace(checklistId: string, place: Place) {
+  try {
+    localStorage.setItem(placeKey(checklistId), JSON.stringify(place));
+  } catch {
+    // A full or refused storage only loses the convenience, never an entry.
+  }
 }
 
 export function HydrateFallback() {
@@ -163,18 +201,41 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
   const { checklist, template, responses, job, me } = loaderData;
   const fetcher = useFetcher<typeof clientAction>();
   const revalidator = useRevalidator();
-  // "#item-<key>" (as "Enter a new value" links) opens the checklist at that item's section.
+  // "#item-<key>" (as "Enter a new value" links) opens the checklist at that item; otherwise it
+  // opens where the technician left it on this tablet.
   const { hash } = useLocation();
   const target = hash.startsWith("#item-") ? decodeURIComponent(hash.slice("#item-".length)) : null;
-  const [sectionIndex, setSectionIndex] = useState(() =>
-    Math.max(
-      0,
-      template.sections.findIndex((s) => s.items.some((i) => i.key === target)),
-    ),
-  );
+  const [opening] = useState(() => {
+    const left = readPlace(checklist.id);
+    const item = target ?? left?.item ?? null;
+    const byItem = template.sections.findIndex((s) => s.items.some((i) => i.key === item));
+    const bySection = template.sections.findIndex((s) => s.key === left?.section);
+    return { item, section: Math.max(0, byItem >= 0 ? byItem : bySection) };
+  });
+  const [sectionIndex, setSectionIndex] = useState(opening.section);
+  const [scrollTo, setScrollTo] = useState<string | null>(opening.item);
   useEffect(() => {
-    if (target) document.getElementById(`item-${target}`)?.scrollIntoView({ block: "center" });
+    if (!scrollTo) return;
+    document.getElementById(`item-${scrollTo}`)?.scrollIntoView({ block: "center" });
+    setScrollTo(null);
+  }, [scrollTo, sectionIndex]);
+  useEffect(() => {
+    if (target) setScrollTo(target);
   }, [target]);
+  const sectionKey = template.sections[sectionIndex]?.key ?? "";
+  const [itemHere, setItemHere] = useState<string | undefined>(opening.item ?? undefined);
+  useEffect(() => {
+    keepPlace(checklist.id, { section: sectionKey, item: itemHere });
+  }, [checklist.id, sectionKey, itemHere]);
+  const goToSection = (index: number) => {
+    setSectionIndex(index);
+    setItemHere(undefined);
+  };
+  /** The item the technician is at: the last one touched or typed in. */
+  const noteItem = (e: React.SyntheticEvent) => {
+    const key = (e.target as HTMLElement).closest<HTMLElement>("[data-item]")?.dataset.item;
+    if (key && key !== itemHere) setItemHere(key);
+  };
   const values = Object.fromEntries(Object.entries(responses).map(([k, r]) => [k, r.value]));
   const state = progress(template, values);
   const locked = checklist.state === "submitted" || checklist.state === "countersigned";
@@ -255,7 +316,7 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
               type="button"
               className={`btn ${i === sectionIndex ? "btn-primary" : ""}`}
               aria-current={i === sectionIndex ? "step" : undefined}
-              onClick={() => setSectionIndex(i)}
+              onClick={() => goToSection(i)}
             >
               {i + 1}. {s.title}{" "}
               <span className="num text-sm">
@@ -270,12 +331,13 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
         <h2 id="section-title" className="mb-3 border-b-2 border-ink pb-1 text-2xl font-bold">
           {sectionIndex + 1}. {section.title}
         </h2>
-        <ol className="flex flex-col gap-4">
+        <ol className="flex flex-col gap-4" onFocusCapture={noteItem} onPointerDownCapture={noteItem}>
           {section.items.map((item) => (
             <FillItem
               key={item.key}
               item={item}
               template={template}
+              responses={values}
               value={responses[item.key]?.value}
               verdict={state.verdicts[item.key]!}
               pending={!!responses[item.key]?.pending}
@@ -316,7 +378,11 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
           <SubmitPanel
             state={state}
             template={template}
-            onJump={setSectionIndex}
+            onJump={(index, itemKey) => {
+              goToSection(index);
+              setItemHere(itemKey);
+              setScrollTo(itemKey);
+            }}
             onSubmit={() =>
               fetcher.submit({ intent: "submit" }, { method: "post", encType: "application/json" })
             }
@@ -327,7 +393,7 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
             type="button"
             className="btn"
             disabled={sectionIndex === 0}
-            onClick={() => setSectionIndex(sectionIndex - 1)}
+            onClick={() => goToSection(sectionIndex - 1)}
           >
             ← Previous section
           </button>
@@ -335,7 +401,7 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
             type="button"
             className="btn"
             disabled={sectionIndex >= template.sections.length - 1}
-            onClick={() => setSectionIndex(sectionIndex + 1)}
+            onClick={() => goToSection(sectionIndex + 1)}
           >
             Next section →
           </button>
