@@ -52,6 +52,7 @@ export default [
     ]),
     // end library
     route("people", "routes/people.tsx"),
+    route("account", "routes/account.tsx"),
     route("audit", "routes/audit.tsx"),
   ]),
   route("*", "routes/not-found.tsx"),

@@ -10,6 +10,7 @@ import { db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import { photosNotYetStored } from "./photos.server.ts";
 import { checklistStateChanged } from "./sync-clock.server.ts";
+import { notifyReturned, quietly } from "./notifications.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import { checkPassword } from "./users.server.ts";
 
@@ -98,6 +99,7 @@ export async function returnChecklist(actor: Actor, checklistId: string) {
       trx,
     );
   });
+  await quietly(notifyReturned(checklistId));
 }
 
 /**

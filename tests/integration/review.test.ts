@@ -5,11 +5,15 @@ import { SUBMIT_KEY, submitValue } from "~/lib/sync/submission";
 import { startChecklists } from "~/server/checklists.server";
 import { loadRecordChecklist } from "~/server/record-data.server";
 import { issueRecord, verifyRecord } from "~/server/records.server";
+import { notificationKinds } from "~/lib/notifications";
+import { recordOpened, setNotifications } from "~/server/notifications.server";
 import { addComment, countersign, returnChecklist, startAmendment } from "~/server/review.server";
 import { sync } from "~/server/sync.server";
 import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
+import { appHandler, signInCookie } from "../support/app.ts";
 import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
+import { mailTo, waitForMail } from "../support/mail.ts";
 import { op } from "../support/sync.ts";
 
 const knex = testDb();
@@ -222,5 +226,60 @@ describe("issuing and verifying a record", () => {
     const changed = (await verifyRecord(recordId))!;
     expect(changed.genuine).toBe(false);
     expect(changed.problems.join(" ")).toMatch(/does not match/);
+  });
+});
+
+describe("e-mail when something waits for a person", () => {
+  const complete = (id: string) => [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "ok" }, 0)];
+
+  it("tells the lead of a submission that arrives through /api/sync, once, after it is stored", async () => {
+    const app = await appHandler();
+    const id = await freshJobChecklist();
+    const cookie = await signInCookie(app, tech.email);
+    const submit = op(id, SUBMIT_KEY, submitValue, 0);
+    const body = JSON.stringify({ deviceId: device, cursor: null, ops: [...complete(id), submit] });
+    const send = () =>
+      app("/api/sync", { method: "POST", cookie, body, headers: { "Content-Type": "application/json" } });
+    expect((await send()).status).toBe(200);
+    const mail = await waitForMail(lead.email, 10_000, /Waiting for your review/);
+    expect(mail.text).toContain(`/checklists/${id}/review`);
+    // The tablet's retry of the same batch is answered again, but the lead is not told twice.
+    expect((await send()).status).toBe(200);
+    await new Promise((r) => setTimeout(r, 300)); // a background send, if one were made, lands by now
+    expect(mailTo(lead.email).filter((m) => m.text.includes(id))).toHaveLength(1);
+  });
+
+  it("sends the technician the returned checklist with the lead's comments, unless they turned it off", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [...complete(id), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await addComment(lead, id, "b", "Note the torque you used");
+    await returnChecklist(lead, id);
+    const returned = mailTo(tech.email).filter((m) => m.text.includes(`/checklists/${id}`));
+    expect(returned).toHaveLength(1);
+    expect(returned[0]!.subject).toMatch(/Returned to you: Review test/);
+    expect(returned[0]!.text).toContain("Note the torque you used");
+
+    await setNotifications(tech.id, [], notificationKinds); // every kind off
+    await push(tech, [op(id, SUBMIT_KEY, submitValue, 0)]);
+    await returnChecklist(lead, id);
+    expect(await stateOf(id)).toBe("returned");
+    expect(mailTo(tech.email).filter((m) => m.text.includes(`/checklists/${id}`))).toHaveLength(1);
+    await setNotifications(tech.id, [...notificationKinds], notificationKinds);
+  });
+
+  it("tells the job's lead the first time a surveyor opens the record, and only then", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [...complete(id), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await countersign(lead, id, TEST_PASSWORD);
+    const surveyorEmail = `first-look-${Date.now()}@survey.example`;
+    const recordId = await issueRecord(manager, jobId, [surveyorEmail]);
+    const surveyor = (await knex("users").where({ email: surveyorEmail }).first())!;
+    const actor = { id: surveyor.id, name: surveyor.name, role: "surveyor" };
+    await Promise.all([recordOpened(actor, recordId), recordOpened(actor, recordId)]);
+    await recordOpened(actor, recordId);
+    await recordOpened({ id: manager.id, name: manager.name, role: "manager" }, recordId);
+    const told = mailTo(lead.email).filter((m) => m.text.includes(`/records/${recordId}`));
+    expect(told).toHaveLength(1);
+    expect(told[0]!.subject).toMatch(/opened the record/);
   });
 });
