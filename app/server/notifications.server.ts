@@ -1,7 +1,9 @@
 import type { NotificationKind } from "~/lib/notifications";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import type { OpResult } from "~/lib/sync/protocol";
+import { findItem, type Template } from "~/lib/templates";
 import { db } from "./db.server.ts";
+import { parseJsonColumn } from "./json-column.server.ts";
 import { env } from "./env.server.ts";
 import { logger } from "./logger.server.ts";
 import { sendMail } from "./mail.server.ts";
@@ -95,8 +97,14 @@ export async function notifyReturned(checklistId: string) {
     .whereNull("reply_to")
     .orderBy("id")
     .select("item_key", "text");
+  const template = parseJsonColumn<Template>(
+    (await db()("job_checklists as c")
+      .join("template_versions as t", "t.id", "c.template_version_id")
+      .where("c.id", checklistId)
+      .first("t.body"))!.body,
+  );
   const lines = comments.length
-    ? comments.map((m) => `- ${m.item_key}: ${m.text}`)
+    ? comments.map((m) => `- ${findItem(template, m.item_key)?.label ?? m.item_key}: ${m.text}`)
     : ["(The lead left no comment on an item.)"];
   await notify(
     "checklist-returned",

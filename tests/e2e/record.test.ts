@@ -136,7 +136,11 @@ describe("from submission to the surveyor's verified PDF", () => {
       .fill("Say which bolts and the torque used");
     await item(leadPage, "remarks").getByRole("button", { name: "Add comment" }).click();
     await item(leadPage, "remarks").getByTestId("review-comment").waitFor();
-    await leadPage.getByRole("button", { name: /Return to the technician/ }).click();
+    // Returning asks once more, saying what the technician will get.
+    await leadPage.getByText(/Return to the technician/).click();
+    await leadPage.getByText(/gets it back with your 1 comment/).waitFor();
+    expect(await state()).toBe("submitted");
+    await leadPage.getByRole("button", { name: "Yes, return it" }).click();
     await leadPage.waitForURL(new RegExp(`/jobs/${jobId}$`));
     expect(await state()).toBe("returned");
 

@@ -1,3 +1,4 @@
+import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { checklistDigest, sha256Hex } from "~/lib/record/digest.server";
 import { checklistCanonical } from "~/lib/record/canonical";
@@ -7,7 +8,16 @@ import { loadRecordChecklist } from "~/server/record-data.server";
 import { issueRecord, verifyRecord } from "~/server/records.server";
 import { notificationKinds } from "~/lib/notifications";
 import { recordOpened, setNotifications } from "~/server/notifications.server";
-import { addComment, countersign, returnChecklist, startAmendment } from "~/server/review.server";
+import { issuedRecently, returnedTo, waitingFor } from "~/server/queue.server";
+import {
+  addComment,
+  countersign,
+  countersignSeveral,
+  discardAmendment,
+  replyToComment,
+  returnChecklist,
+  startAmendment,
+} from "~/server/review.server";
 import { sync } from "~/server/sync.server";
 import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
@@ -281,5 +291,139 @@ describe("e-mail when something waits for a person", () => {
     const told = mailTo(lead.email).filter((m) => m.text.includes(`/records/${recordId}`));
     expect(told).toHaveLength(1);
     expect(told[0]!.subject).toMatch(/opened the record/);
+  });
+});
+
+/** A job of its own with two checklists of the test template, both submitted complete. */
+async function twoSubmitted() {
+  const job = (await makeJob(knex, lead.id, [tech.id])).id;
+  const [first] = await startChecklists(job, [template.key], lead.id);
+  // A second checklist of the same template on the job, as an amendment chain would allow.
+  const second = (
+    await startChecklists((await makeJob(knex, lead.id, [tech.id])).id, [template.key], lead.id)
+  )[0]!;
+  await knex("job_checklists").where({ id: second }).update({ job_id: job });
+  for (const id of [first!, second])
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
+  return { job, ids: [first!, second] };
+}
+
+describe("countersigning several checklists with one password", () => {
+  it("signs each with its own digest and lock, and names the one refused while the others are signed", async () => {
+    const { job, ids } = await twoSubmitted();
+    const third = await freshJobChecklist(); // on another job: never signed from this one
+    // A wrong password signs nothing.
+    await expect(countersignSeveral(lead, job, ids, "wrong password")).rejects.toMatchObject({
+      field: "password",
+      message: expect.stringMatching(/password is not right; none was countersigned/),
+    });
+    expect(await Promise.all(ids.map(stateOf))).toEqual(["submitted", "submitted"]);
+    // One of them has a conflict waiting: it is refused with the reason, the other is signed.
+    await knex("sync_conflicts").insert({
+      checklist_id: ids[1]!,
+      item_key: "b",
+      op_id: randomUUID(),
+      base_rev: 0,
+      server_rev: 1,
+      server_value: JSON.stringify({ text: "ok" }),
+      client_value: JSON.stringify({ text: "other" }),
+      user_id: tech.id,
+      device_id: "other-device",
+      client_at: new Date().toISOString(),
+      received_at: new Date(),
+    });
+    const outcomes = await countersignSeveral(lead, job, [...ids, third], TEST_PASSWORD);
+    expect(outcomes[0]).toMatchObject({
+      checklistId: ids[0],
+      digest: expect.stringMatching(/^[0-9a-f]{64}$/),
+    });
+    expect(outcomes[1]).toMatchObject({ checklistId: ids[1], refused: expect.stringMatching(/conflict/) });
+    expect(outcomes[2]).toMatchObject({
+      checklistId: third,
+      refused: expect.stringMatching(/not one of this job/),
+    });
+    expect(await Promise.all([...ids, third].map(stateOf))).toEqual([
+      "countersigned",
+      "submitted",
+      "in-progress",
+    ]);
+    // Its digest is the one a single countersignature stores: over its own canonical content.
+    const content = (await loadRecordChecklist(ids[0]!, knex))!;
+    expect((await knex("job_checklists").where({ id: ids[0] }).first())!.digest).toBe(
+      sha256Hex(checklistCanonical(content)),
+    );
+    // The other lead signs none of them.
+    await knex("sync_conflicts").where({ checklist_id: ids[1] }).update({ resolved_at: new Date() });
+    const stranger = await countersignSeveral(otherLead, job, [ids[1]!], TEST_PASSWORD);
+    expect(stranger[0]).toMatchObject({ refused: expect.stringMatching(/Only the job's lead/) });
+    expect(await stateOf(ids[1]!)).toBe("submitted");
+  });
+});
+
+describe("discarding an amendment opened by mistake", () => {
+  it("removes it while nothing is entered, and refuses once something is", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
+    await countersign(lead, id, TEST_PASSWORD);
+    const mistaken = await startAmendment(lead, id);
+    await expect(discardAmendment(tech, mistaken)).rejects.toMatchObject({ status: 403 });
+    await expect(discardAmendment(lead, id)).rejects.toMatchObject({ status: 409 }); // the original
+    await discardAmendment(lead, mistaken);
+    expect(await knex("job_checklists").where({ id: mistaken }).first()).toBeUndefined();
+    expect(await stateOf(id)).toBe("countersigned");
+    expect(await actions(id)).toContain("checklist.amendment-discarded");
+    // A new amendment, then an entry in it: it is kept.
+    const meant = await startAmendment(lead, id);
+    await push(tech, [op(meant, "b", { text: "corrected" }, 1)]);
+    await expect(discardAmendment(lead, meant)).rejects.toThrow(/Entries have been made/);
+    expect(await knex("job_checklists").where({ id: meant }).first()).toBeDefined();
+  });
+});
+
+describe("answers to the lead's comments, and each person's queue", () => {
+  it("lets the technician answer while the checklist is back with them, and shows each role what waits", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
+    expect((await waitingFor(lead)).map((e) => e.to)).toContain(`/checklists/${id}/review`);
+    expect((await waitingFor(otherLead)).map((e) => e.to)).not.toContain(`/checklists/${id}/review`);
+    await addComment(lead, id, "b", "Which bolts?");
+    const [comment] = await knex("checklist_comments").where({ checklist_id: id }).pluck("id");
+    // Not while it waits for review.
+    await expect(replyToComment(tech, id, comment, "M12")).rejects.toMatchObject({ status: 409 });
+    await returnChecklist(lead, id);
+    expect(await returnedTo(tech)).toContainEqual(
+      expect.objectContaining({ id, comments: ["Which bolts?"] }),
+    );
+    await expect(replyToComment(otherLead, id, comment, "M12")).rejects.toMatchObject({ status: 403 });
+    const reply = await replyToComment(tech, id, comment, "Four M12, 85 N·m");
+    expect(reply).toMatchObject({ replyTo: comment, itemKey: "b", text: "Four M12, 85 N·m" });
+    await expect(replyToComment(tech, id, reply.id, "an answer to an answer")).rejects.toMatchObject({
+      status: 404,
+    });
+    await push(tech, [op(id, SUBMIT_KEY, submitValue, 0)]);
+    const queue = await waitingFor(lead);
+    const mine = queue.find((e) => e.to === `/checklists/${id}/review`)!;
+    expect(mine.kind).toBe("submitted");
+    // Oldest first.
+    expect(queue.map((e) => e.since)).toEqual([...queue.map((e) => e.since)].sort());
+    await countersign(lead, id, TEST_PASSWORD);
+    expect((await waitingFor(lead)).find((e) => e.to === `/jobs/${jobId}#record-title`)?.kind).toBe(
+      "record-ready",
+    );
+    const recordId = await issueRecord(manager, jobId, [`queue-${Date.now()}@survey.example`]);
+    expect((await waitingFor(lead)).map((e) => e.to)).not.toContain(`/jobs/${jobId}#record-title`);
+    expect((await issuedRecently()).map((r) => r.id)).toContain(recordId);
   });
 });
