@@ -6,6 +6,7 @@ import { FormErrors } from "~/components/field";
 import { notificationKinds, notificationLabels } from "~/lib/notifications";
 import { notificationSettingsSchema } from "~/lib/validation/account";
 import { requireUser } from "~/server/auth.server";
+import { invariantForbidden } from "~/server/permissions.server";
 import { optOutsOf, setNotifications } from "~/server/notifications.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Account settings · Sternpost" }];
@@ -24,6 +25,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 
 export async function action({ request }: Route.ActionArgs) {
   const user = await requireUser(request);
+  invariantForbidden(user.role !== "surveyor", "Records issued to you are always e-mailed to you.");
   const submission = parseWithZod(await request.formData(), { schema: notificationSettingsSchema });
   if (submission.status !== "success")
     return data(

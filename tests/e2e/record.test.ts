@@ -131,6 +131,8 @@ describe("from submission to the surveyor's verified PDF", () => {
     await open(leadPage, `/jobs/${jobId}`);
     await leadPage.getByRole("link", { name: "Review" }).click();
     await leadPage.getByRole("heading", { name: /Review: Handover check/ }).waitFor();
+    // Every entry is within its limits, so the items are folded away until opened.
+    await leadPage.getByTestId("within-limits").getByText("3 items within limits").click();
     await item(leadPage, "remarks")
       .getByLabel("Comment on this item")
       .fill("Say which bolts and the torque used");
@@ -151,12 +153,19 @@ describe("from submission to the surveyor's verified PDF", () => {
       .getByTestId("offline-readiness")
       .getByText(/Ready offline/)
       .waitFor();
-    await techPage.getByRole("link", { name: /^Handover check/ }).click();
+    // Today shows what came back, with the comment; it opens the checklist.
+    const returned = techPage.getByTestId("returned-queue");
+    await returned.getByText("Say which bolts and the torque used").waitFor();
+    await returned.getByRole("link", { name: /Handover check/ }).click();
     await item(techPage, "remarks")
       .getByTestId("review-comment")
       .getByText(/torque used/)
       .waitFor();
-    await item(techPage, "remarks").getByRole("textbox").fill("Couplings faced; four M12 bolts at 85 N·m");
+    // The entry's box comes first; the box below the comment answers the lead.
+    await item(techPage, "remarks")
+      .getByRole("textbox")
+      .first()
+      .fill("Couplings faced; four M12 bolts at 85 N·m");
     await item(techPage, "remarks").getByRole("button", { name: "Save" }).click();
     await techPage.getByRole("button", { name: "Submit for review" }).click();
     await expect.poll(state, { timeout: 20_000 }).toBe("submitted");

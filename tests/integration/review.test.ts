@@ -23,7 +23,7 @@ import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
 import { appHandler, signInCookie } from "../support/app.ts";
 import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
-import { mailTo, waitForMail } from "../support/mail.ts";
+import { mailTo as mailIn, waitForMail } from "../support/mail.ts";
 import { op } from "../support/sync.ts";
 
 const knex = testDb();
@@ -240,6 +240,8 @@ describe("issuing and verifying a record", () => {
 });
 
 describe("e-mail when something waits for a person", () => {
+  const sink = () => process.env.MAIL_SINK_DIR!; // this setup's sink, not the end-to-end server's
+  const mailTo = (to: string) => mailIn(to, sink());
   const complete = (id: string) => [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "ok" }, 0)];
 
   it("tells the lead of a submission that arrives through /api/sync, once, after it is stored", async () => {
@@ -251,7 +253,7 @@ describe("e-mail when something waits for a person", () => {
     const send = () =>
       app("/api/sync", { method: "POST", cookie, body, headers: { "Content-Type": "application/json" } });
     expect((await send()).status).toBe(200);
-    const mail = await waitForMail(lead.email, 10_000, /Waiting for your review/);
+    const mail = await waitForMail(lead.email, 10_000, /Waiting for your review/, sink());
     expect(mail.text).toContain(`/checklists/${id}/review`);
     // The tablet's retry of the same batch is answered again, but the lead is not told twice.
     expect((await send()).status).toBe(200);
@@ -275,6 +277,32 @@ describe("e-mail when something waits for a person", () => {
     expect(await stateOf(id)).toBe("returned");
     expect(mailTo(tech.email).filter((m) => m.text.includes(`/checklists/${id}`))).toHaveLength(1);
     await setNotifications(tech.id, [...notificationKinds], notificationKinds);
+  });
+
+  it("keeps the return when the mail cannot be sent", async () => {
+    // An address the mail library refuses outright: sendMail rejects, the return stands.
+    const unreachable = await makeUser(knex, "technician");
+    await knex("users").where({ id: unreachable.id }).update({ email: "" });
+    jobId = (await makeJob(knex, lead.id, [unreachable.id])).id;
+    const [id] = await startChecklists(jobId, [template.key], lead.id);
+    await push({ ...unreachable, email: "" }, [...complete(id!), op(id!, SUBMIT_KEY, submitValue, 0)]);
+    await expect(returnChecklist(lead, id!)).resolves.toBeUndefined();
+    expect(await stateOf(id!)).toBe("returned");
+  });
+
+  it("lets each person choose on the account settings page, and refuses a kind that does not exist", async () => {
+    const app = await appHandler();
+    const person = await makeUser(knex, "lead");
+    const cookie = await signInCookie(app, person.email);
+    const page = await (await app("/account", { cookie })).text();
+    for (const kind of notificationKinds) expect(page).toContain(`value="${kind}"`);
+    const save = (body: URLSearchParams) => app("/account", { method: "POST", cookie, body });
+    expect((await save(new URLSearchParams([["notify", "checklist-submitted"]]))).status).toBe(200);
+    expect(
+      (await knex("notification_optouts").where({ user_id: person.id }).orderBy("kind").pluck("kind")).sort(),
+    ).toEqual(["checklist-returned", "record-viewed"]);
+    expect((await save(new URLSearchParams([["notify", "everything"]]))).status).toBe(400);
+    expect(await knex("notification_optouts").where({ user_id: person.id })).toHaveLength(2);
   });
 
   it("tells the job's lead the first time a surveyor opens the record, and only then", async () => {
