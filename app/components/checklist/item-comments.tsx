@@ -51,7 +51,11 @@ function Thread({
         </span>
       </p>
       {all.map((r) => (
-        <p key={r.id} className="mt-2 ml-4 border-l-4 border-rule pl-2" data-testid="comment-reply">
+        <p
+          key={r.id ?? `${r.at}-${r.text}`}
+          className="mt-2 ml-4 border-l-4 border-rule pl-2"
+          data-testid="comment-reply"
+        >
           <strong>Answer: </strong>
           {r.text}{" "}
           <span className="text-sm text-ink-soft">
@@ -96,7 +100,7 @@ export function ItemComments({ comments, checklistId }: { comments: ReviewCommen
     <div className="flex flex-col gap-2">
       {leads.map((c) => (
         <Thread
-          key={c.id}
+          key={c.id ?? `${c.at}-${c.text}`} // a copy taken before answers existed has no ids
           comment={c}
           replies={comments.filter((r) => r.replyTo === c.id)}
           replyTo={checklistId ? `/api/checklists/${checklistId}/replies` : undefined}
@@ -139,7 +143,7 @@ export function CommentSummary({
         {leads.map((c) => {
           const { index, label } = where(c.itemKey);
           return (
-            <li key={c.id}>
+            <li key={c.id ?? `${c.at}-${c.text}`}>
               <a
                 href={`#item-${c.itemKey}`}
                 className="flex min-h-12 flex-wrap items-center gap-x-2 rounded-md px-2 hover:bg-paper"
