@@ -206,6 +206,26 @@ describe("the lead's day on a tablet", () => {
       .getByTestId("review-queue")
       .getByRole("link", { name: new RegExp(`To issue[\\s\\S]*${HULL}`) })
       .waitFor();
+    // It opens the job's record card; a second issue asks first.
+    await leadPage
+      .getByTestId("review-queue")
+      .getByRole("link", { name: new RegExp(`To issue[\\s\\S]*${HULL}`) })
+      .click();
+    await leadPage.getByLabel("Surveyors' e-mail addresses").fill(`petrel.${Date.now()}@survey.example`);
+    await leadPage.getByRole("button", { name: "Issue the record" }).click();
+    await leadPage
+      .getByRole("status")
+      .getByText(/Record issued/)
+      .waitFor();
+    const records = async () => (await knex("records").where({ job_id: crew.job.id })).length;
+    await leadPage
+      .getByLabel("Surveyors' e-mail addresses")
+      .fill(`petrel.again.${Date.now()}@survey.example`);
+    await leadPage.getByTestId("issue-again").getByText("Issue the record again…").click();
+    await leadPage.getByText(/earlier record stays valid/).waitFor();
+    expect(await records()).toBe(1);
+    await leadPage.getByRole("button", { name: "Yes, issue a new record" }).click();
+    await expect.poll(records).toBe(2);
 
     expectNoConsoleErrors(tech.errors);
     expectNoConsoleErrors(lead.errors);
