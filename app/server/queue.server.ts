@@ -11,8 +11,9 @@ const jobsOf = (actor: Actor) =>
     : db()("jobs").where({ lead_id: actor.id }).select("id");
 
 /**
- * What waits for a lead (on the jobs they lead) or the manager (on every job): submitted
- * checklists, undecided conflicts and records ready to issue, oldest first.
+ * What waits for a lead on the jobs they lead: submitted checklists, undecided conflicts and
+ * records ready to issue, oldest first. The manager, who issues records but neither reviews nor
+ * decides a technician's conflict, sees the records ready to issue on every job.
  */
 export async function waitingFor(actor: Actor): Promise<QueueEntry[]> {
   const submitted = await db()("job_checklists as c")
@@ -91,7 +92,9 @@ export async function waitingFor(actor: Actor): Promise<QueueEntry[]> {
       to: `/checklists/${c.id}`,
     })),
     ...ready,
-  ].sort((a, b) => a.since.localeCompare(b.since));
+  ]
+    .filter((e) => actor.role === "lead" || e.kind === "record-ready")
+    .sort((a, b) => a.since.localeCompare(b.since));
 }
 
 /** What came back to a technician on the jobs they work on, with the lead's comments. */

@@ -426,6 +426,7 @@ describe("answers to the lead's comments, and each person's queue", () => {
     ]);
     expect((await waitingFor(lead)).map((e) => e.to)).toContain(`/checklists/${id}/review`);
     expect((await waitingFor(otherLead)).map((e) => e.to)).not.toContain(`/checklists/${id}/review`);
+    expect((await waitingFor(manager)).map((e) => e.kind)).not.toContain("submitted"); // the lead's to review
     await addComment(lead, id, "b", "Which bolts?");
     const [comment] = await knex("checklist_comments").where({ checklist_id: id }).pluck("id");
     // Not while it waits for review.
@@ -450,6 +451,7 @@ describe("answers to the lead's comments, and each person's queue", () => {
     expect((await waitingFor(lead)).find((e) => e.to === `/jobs/${jobId}#record-title`)?.kind).toBe(
       "record-ready",
     );
+    expect((await waitingFor(manager)).map((e) => e.to)).toContain(`/jobs/${jobId}#record-title`);
     const recordId = await issueRecord(manager, jobId, [`queue-${Date.now()}@survey.example`]);
     expect((await waitingFor(lead)).map((e) => e.to)).not.toContain(`/jobs/${jobId}#record-title`);
     expect((await issuedRecently()).map((r) => r.id)).toContain(recordId);
