@@ -16,6 +16,7 @@ export default [
     route("jobs/:jobId", "routes/api/job.ts"),
     route("templates/:key/:version", "routes/api/template.ts"),
     route("checklists/:checklistId", "routes/api/checklist.ts"),
+    route("checklists/:checklistId/replies", "routes/api/comment-reply.ts"),
     route("templates/:key/:version/export", "routes/api/template-export.ts"),
     route("sync", "routes/api/sync.ts"),
     route("offline", "routes/api/offline.ts"),
@@ -53,6 +54,7 @@ export default [
     ]),
     // end library
     route("people", "routes/people.tsx"),
+    route("account", "routes/account.tsx"),
     route("audit", "routes/audit.tsx"),
   ]),
   route("*", "routes/not-found.tsx"),

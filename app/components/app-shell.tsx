@@ -123,6 +123,9 @@ export function AppShell({
             <p className="px-3 py-2 text-sm">
               Signed in as <strong>{user.name}</strong>
             </p>
+            <NavLink to="/account" className={({ isActive }) => linkClass(isActive, true)}>
+              Account settings
+            </NavLink>
             <Form method="post" action="/logout">
               <button type="submit" className="btn w-full">
                 Sign out

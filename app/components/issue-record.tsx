@@ -2,6 +2,7 @@ import { getFormProps, getTextareaProps, useForm, type SubmissionResult } from "
 import { parseWithZod } from "@conform-to/zod/v4";
 import { Form, Link } from "react-router";
 import { issueRecordSchema } from "~/lib/validation/records";
+import { ConfirmAction } from "./confirm-action.tsx";
 import { Field, FormErrors } from "./field.tsx";
 import { LocalTime } from "./local-time.tsx";
 
@@ -49,13 +50,14 @@ export function IssueRecord({
       )}
       {!readiness.ready ? (
         <p>
+          {records.length > 0 && "The records above stay as issued. "}
           {readiness.count
-            ? `It can be issued once every checklist is countersigned. Still open: ${readiness.open.join(", ")}.`
+            ? `A${records.length ? " new" : ""} record can be issued once every checklist is countersigned. Still open: ${readiness.open.join(", ")}.`
             : "Start the job's checklists first."}
         </p>
       ) : canIssue ? (
         <Form method="post" {...getFormProps(form)} className="flex flex-col gap-2">
-          <input type="hidden" name="intent" value="issue-record" />
+          {records.length === 0 && <input type="hidden" name="intent" value="issue-record" />}
           <FormErrors errors={form.errors} />
           <Field
             id={fields.emails.id}
@@ -66,9 +68,19 @@ export function IssueRecord({
             <textarea {...getTextareaProps(fields.emails)} rows={2} className="field-input" />
           </Field>
           <div>
-            <button className="btn btn-primary" type="submit">
-              Issue the record
-            </button>
+            {records.length === 0 ? (
+              <button className="btn btn-primary" type="submit">
+                Issue the record
+              </button>
+            ) : (
+              <ConfirmAction
+                label="Issue the record again"
+                yes="issue a new record"
+                value="issue-record"
+                testId="issue-again"
+                consequence="This job's record has been issued before. Issuing again makes a new record with its own digest and e-mails it; the earlier record stays valid and its surveyors keep it."
+              />
+            )}
           </div>
         </Form>
       ) : (

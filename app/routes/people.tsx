@@ -1,8 +1,16 @@
-import { getFormProps, getInputProps, getSelectProps, useForm } from "@conform-to/react";
+import {
+  getFormProps,
+  getInputProps,
+  getSelectProps,
+  useForm,
+  type SubmissionResult,
+} from "@conform-to/react";
+import { useState } from "react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, useNavigation } from "react-router";
 import type { Route } from "./+types/people";
 import { PageHeader } from "~/components/app-shell";
+import { ConfirmAction } from "~/components/confirm-action";
 import { Field, FormErrors } from "~/components/field";
 import { roleLabels, roles } from "~/lib/roles";
 import { inviteSchema, userChangeSchema } from "~/lib/validation/people";
@@ -47,8 +55,9 @@ export async function action({ request }: Route.ActionArgs) {
         detail: { role: submission.value.role },
       });
       return {
-        invite: submission.reply({ resetForm: true }),
+        invite: null,
         notice: `Invitation sent to ${submission.value.email}.`,
+        sent: `${userId}-${Date.now()}`,
       };
     } catch (error) {
       if (error instanceof InviteError)
@@ -113,46 +122,79 @@ export async function action({ request }: Route.ActionArgs) {
   };
 }
 
-export default function People({ loaderData, actionData }: Route.ComponentProps) {
-  const busy = useNavigation().state !== "idle";
+/**
+ * The invitation form, remounted after each invitation sent (keyed on it): a fresh form with its
+ * defaults, the role included, rather than Conform's reset, which left the role list blank.
+ */
+function InviteForm({
+  lastResult,
+  busy,
+  onEdit,
+}: {
+  lastResult: SubmissionResult<string[]> | null | undefined;
+  busy: boolean;
+  onEdit: () => void;
+}) {
   const [form, fields] = useForm({
-    lastResult: busy ? null : actionData?.invite,
+    lastResult,
+    defaultValue: { role: "technician" },
     onValidate: ({ formData }) => parseWithZod(formData, { schema: inviteSchema }),
     shouldValidate: "onBlur",
     shouldRevalidate: "onInput",
   });
   return (
+    <Form
+      method="post"
+      {...getFormProps(form)}
+      onInput={onEdit}
+      className="grid gap-4 md:grid-cols-4 md:items-end"
+    >
+      <input type="hidden" name="intent" value="invite" />
+      <FormErrors errors={form.errors} />
+      <Field id={fields.name.id} label="Name" errors={fields.name.errors}>
+        <input {...getInputProps(fields.name, { type: "text" })} className="field-input" />
+      </Field>
+      <Field id={fields.email.id} label="E-mail address" errors={fields.email.errors}>
+        <input {...getInputProps(fields.email, { type: "email" })} className="field-input" />
+      </Field>
+      <Field id={fields.role.id} label="Role" errors={fields.role.errors}>
+        <select {...getSelectProps(fields.role)} className="field-input">
+          {roles.map((r) => (
+            <option key={r} value={r}>
+              {roleLabels[r]}
+            </option>
+          ))}
+        </select>
+      </Field>
+      <button type="submit" className="btn btn-primary" disabled={busy}>
+        Send invitation
+      </button>
+    </Form>
+  );
+}
+
+export default function People({ loaderData, actionData }: Route.ComponentProps) {
+  const busy = useNavigation().state !== "idle";
+  // The banner answers the last action; it goes once the next invitation is being written.
+  const [editedSince, setEditedSince] = useState<unknown>(null);
+  const notice = actionData?.notice && editedSince !== actionData ? actionData.notice : null;
+  const sent = actionData && "sent" in actionData ? actionData.sent : undefined;
+  return (
     <>
       <PageHeader title="People" />
-      {actionData?.notice && (
+      {notice && (
         <p role="status" className="mb-4 rounded-md border-2 border-sound bg-sound-light p-3 font-bold">
-          {actionData.notice}
+          {notice}
         </p>
       )}
       <section className="card mb-8">
         <h2 className="mb-4 text-xl font-bold">Invite someone</h2>
-        <Form method="post" {...getFormProps(form)} className="grid gap-4 md:grid-cols-4 md:items-end">
-          <input type="hidden" name="intent" value="invite" />
-          <FormErrors errors={form.errors} />
-          <Field id={fields.name.id} label="Name" errors={fields.name.errors}>
-            <input {...getInputProps(fields.name, { type: "text" })} className="field-input" />
-          </Field>
-          <Field id={fields.email.id} label="E-mail address" errors={fields.email.errors}>
-            <input {...getInputProps(fields.email, { type: "email" })} className="field-input" />
-          </Field>
-          <Field id={fields.role.id} label="Role" errors={fields.role.errors}>
-            <select {...getSelectProps(fields.role)} className="field-input" defaultValue="technician">
-              {roles.map((r) => (
-                <option key={r} value={r}>
-                  {roleLabels[r]}
-                </option>
-              ))}
-            </select>
-          </Field>
-          <button type="submit" className="btn btn-primary" disabled={busy}>
-            Send invitation
-          </button>
-        </Form>
+        <InviteForm
+          key={sent ?? "invite"}
+          lastResult={sent ? null : actionData?.invite}
+          busy={busy}
+          onEdit={() => setEditedSince(actionData)}
+        />
       </section>
       <table className="w-full border-collapse">
         <thead>
@@ -199,12 +241,16 @@ export default function People({ loaderData, actionData }: Route.ComponentProps)
               <td className="p-2">{!p.active ? "Deactivated" : p.hasPassword ? "Active" : "Invited"}</td>
               <td className="p-2">
                 {p.id !== loaderData.me && (
-                  <Form method="post" className="flex gap-2">
+                  <Form method="post" className="flex flex-wrap items-start gap-2">
                     <input type="hidden" name="userId" value={p.id} />
                     {p.active ? (
-                      <button className="btn btn-danger" name="intent" value="deactivate">
-                        Deactivate
-                      </button>
+                      <ConfirmAction
+                        label="Deactivate"
+                        yes={`deactivate ${p.name}`}
+                        consequence={`${p.name} is signed out at once and cannot sign in until reactivated. Their entries and signatures stay.`}
+                        value="deactivate"
+                        danger
+                      />
                     ) : (
                       <button className="btn" name="intent" value="reactivate">
                         Reactivate

@@ -12,6 +12,8 @@ import { recordsIssuedTo } from "~/server/records.server";
 import type { Role } from "~/lib/roles";
 import { LocalTime } from "~/components/local-time";
 import { plainError } from "~/lib/offline/plain-error";
+import { queueKindLabels, type QueueEntry } from "~/lib/queue";
+import { issuedRecently, returnedTo, waitingFor } from "~/server/queue.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Today · Sternpost" }];
 
@@ -45,9 +47,23 @@ export async function loader({ request }: Route.LoaderArgs) {
           issuedAt: new Date(r.issued_at).toISOString(),
         }))
       : [];
+  // Each role's own list of what waits for it, decided here from the role.
+  const queue = user.role === "lead" || user.role === "manager" ? await waitingFor(user) : [];
+  const returned = user.role === "technician" ? await returnedTo(user) : [];
+  const issued = user.role === "manager" ? await issuedRecently() : [];
   // Where tablets can keep checklists offline, if this server is reached over https.
   const secureUrl = env().APP_URL.startsWith("https:") ? new URL(env().APP_URL).origin : null;
-  return { name: user.name, role: user.role, jobs: withChecklists, records, offline: false, secureUrl };
+  return {
+    name: user.name,
+    role: user.role,
+    jobs: withChecklists,
+    records,
+    queue,
+    returned,
+    issued,
+    offline: false,
+    secureUrl,
+  };
 }
 
 /** With no connection, the jobs this tablet holds. */
@@ -70,6 +86,9 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
       role: user?.role ?? "technician",
       jobs,
       records: [],
+      queue: [],
+      returned: [],
+      issued: [],
       offline: true,
       secureUrl: null,
     };
@@ -134,8 +153,121 @@ function OfflineReadiness() {
   );
 }
 
+/** What waits for the lead or the manager, oldest first, each a link to where it is done. */
+function ReviewQueue({ entries }: { entries: QueueEntry[] }) {
+  return (
+    <section className="mb-6" aria-labelledby="queue-title">
+      <h2 id="queue-title" className="mb-2 text-2xl font-bold">
+        Waiting for you {entries.length > 0 && <span className="num">({entries.length})</span>}
+      </h2>
+      {entries.length === 0 ? (
+        <p>Nothing waits for you: no checklist to review, no conflict to decide, no record to issue.</p>
+      ) : (
+        <ol className="flex flex-col gap-2" data-testid="review-queue">
+          {entries.map((e) => (
+            <li key={`${e.kind}-${e.to}`}>
+              <Link
+                to={e.to}
+                className="card flex min-h-12 flex-wrap items-center justify-between gap-2 no-underline"
+              >
+                <span className="flex flex-col">
+                  <span className="text-sm font-bold text-copper">{queueKindLabels[e.kind]}</span>
+                  <span className="text-lg font-bold text-harbour underline">
+                    {e.title} · {e.vessel}
+                  </span>
+                  <span className="text-ink-soft">{e.detail}</span>
+                </span>
+                <span className="text-sm text-ink-soft">
+                  waiting since <LocalTime at={e.since} />
+                </span>
+              </Link>
+            </li>
+          ))}
+        </ol>
+      )}
+    </section>
+  );
+}
+
+/** What the lead sent back to the technician, with the comments saying why. */
+function ReturnedList({
+  entries,
+}: {
+  entries: { id: string; since: string; title: string; vessel: string; comments: string[] }[];
+}) {
+  if (!entries.length) return null;
+  return (
+    <section className="mb-6" aria-labelledby="returned-title">
+      <h2 id="returned-title" className="mb-2 text-2xl font-bold">
+        Returned to you <span className="num">({entries.length})</span>
+      </h2>
+      <ol className="flex flex-col gap-2" data-testid="returned-queue">
+        {entries.map((e) => (
+          <li key={e.id} className="card flex flex-col gap-1">
+            <Link to={`/checklists/${e.id}`} className="text-lg font-bold text-harbour underline">
+              {e.title} · {e.vessel}
+            </Link>
+            <span className="text-sm text-ink-soft">
+              returned <LocalTime at={e.since} />
+            </span>
+            {e.comments.length ? (
+              <ul className="ml-5 list-disc">
+                {e.comments.map((c, i) => (
+                  <li key={i}>{c}</li>
+                ))}
+              </ul>
+            ) : (
+              <p>The lead left no comment on an item.</p>
+            )}
+          </li>
+        ))}
+      </ol>
+    </section>
+  );
+}
+
+/** The records the yard issued lately, and whether each surveyor has opened them. */
+function IssuedList({
+  entries,
+}: {
+  entries: {
+    id: string;
+    issuedAt: string;
+    vessel: string;
+    engineModel: string;
+    to: { email: string; opened: boolean }[];
+  }[];
+}) {
+  return (
+    <section className="mb-6" aria-labelledby="issued-title">
+      <h2 id="issued-title" className="mb-2 text-2xl font-bold">
+        Issued in the last 30 days
+      </h2>
+      {entries.length === 0 ? (
+        <p>No record issued in the last 30 days.</p>
+      ) : (
+        <ul className="flex flex-col gap-2" data-testid="issued-recently">
+          {entries.map((r) => (
+            <li key={r.id}>
+              <Link to={`/records/${r.id}`} className="card flex flex-col no-underline">
+                <span className="text-lg font-bold text-harbour underline">
+                  {r.vessel} · {r.engineModel}
+                </span>
+                <span className="text-ink-soft">
+                  issued <LocalTime at={r.issuedAt} style="date" /> to{" "}
+                  {r.to.map((x) => `${x.email} (${x.opened ? "opened" : "not opened yet"})`).join(", ")}
+                </span>
+              </Link>
+            </li>
+          ))}
+        </ul>
+      )}
+    </section>
+  );
+}
+
 export default function Today({ loaderData }: Route.ComponentProps) {
-  const { name, role, jobs, records, offline, secureUrl } = loaderData;
+  const { name, role, jobs, records, queue, returned, issued, offline, secureUrl } = loaderData;
   return (
     <>
       <h1 className="mb-2 text-3xl font-bold">Good to see you, {name.split(" ")[0]}</h1>
@@ -161,6 +293,9 @@ export default function Today({ loaderData }: Route.ComponentProps) {
         </>
       ) : (
         <>
+          {!offline && (role === "lead" || role === "manager") && <ReviewQueue entries={queue} />}
+          {!offline && role === "technician" && <ReturnedList entries={returned} />}
+          {!offline && role === "manager" && <IssuedList entries={issued} />}
           <OfflineCapability secureUrl={secureUrl}>
             <OfflineReadiness />
           </OfflineCapability>

@@ -8,22 +8,32 @@ import { listVisibleJobs } from "./jobs.server.ts";
 import type { ChecklistStateColumn, SyncConflictRow } from "./tables.server.ts";
 import type { User } from "./users.server.ts";
 
-/** The review comments on the given checklists, oldest first. */
+/** The review comments on the given checklists and the answers to them, oldest first. */
 export async function commentsOn(checklistIds: string[], knex = db()) {
   const rows = await knex("checklist_comments as m")
     .join("users as u", "u.id", "m.user_id")
     .whereIn("m.checklist_id", checklistIds)
     .orderBy("m.id")
-    .select("m.checklist_id", "m.item_key", "m.text", "m.at", "u.name");
-  return (rows as { checklist_id: string; item_key: string; text: string; at: Date; name: string }[]).map(
-    (r) => ({
-      checklistId: r.checklist_id,
-      itemKey: r.item_key,
-      by: r.name,
-      at: new Date(r.at).toISOString(),
-      text: r.text,
-    }),
-  );
+    .select("m.id", "m.reply_to", "m.checklist_id", "m.item_key", "m.text", "m.at", "u.name");
+  return (
+    rows as {
+      id: number;
+      reply_to: number | null;
+      checklist_id: string;
+      item_key: string;
+      text: string;
+      at: Date;
+      name: string;
+    }[]
+  ).map((r) => ({
+    id: r.id,
+    replyTo: r.reply_to,
+    checklistId: r.checklist_id,
+    itemKey: r.item_key,
+    by: r.name,
+    at: new Date(r.at).toISOString(),
+    text: r.text,
+  }));
 }
 
 /** Open conflicts on the given checklists, for the person who decides them. */

@@ -2,6 +2,8 @@ import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import { canOnJob, type Actor } from "~/lib/permissions";
 import { Refusal } from "~/lib/refusal";
+import type { ReviewComment } from "~/lib/sync/bundle";
+import type { SealOutcome } from "~/lib/validation/review";
 import { checklistDigest } from "~/lib/record/digest.server";
 import { progress, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
@@ -9,7 +11,8 @@ import { checklistAccessFor, loadChecklistAccess } from "./checklist-access.serv
 import { db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import { photosNotYetStored } from "./photos.server.ts";
-import { checklistStateChanged } from "./sync-clock.server.ts";
+import { checklistStateChanged, nextChangeNumber } from "./sync-clock.server.ts";
+import { notifyReturned, quietly } from "./notifications.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import { checkPassword } from "./users.server.ts";
 
@@ -98,6 +101,14 @@ export async function returnChecklist(actor: Actor, checklistId: string) {
       trx,
     );
   });
+  await quietly(notifyReturned(checklistId));
+}
+
+/** Checks the lead's password again before any countersignature; `outcome` says what was not done. */
+async function confirmPassword(actor: Actor, password: string, outcome: string) {
+  const user = await db()("users").where({ id: actor.id }).first();
+  if (!user?.password_hash || !(await checkPassword(password, user.password_hash)))
+    throw new Refusal("invalid", `That password is not right; ${outcome}.`, "password");
 }
 
 /**
@@ -105,13 +116,50 @@ export async function returnChecklist(actor: Actor, checklistId: string) {
  * canonical content, and locks it (the database refuses changes from then on).
  */
 export async function countersign(actor: Actor, checklistId: string, password: string): Promise<string> {
-  const user = await db()("users").where({ id: actor.id }).first();
-  if (!user?.password_hash || !(await checkPassword(password, user.password_hash)))
-    throw new Refusal(
-      "invalid",
-      "That password is not right; the checklist was not countersigned.",
-      "password",
-    );
+  await confirmPassword(actor, password, "the checklist was not countersigned");
+  return seal(actor, checklistId);
+}
+
+/**
+ * Countersigns several checklists of one job with one password entry (decision 075). The password
+ * is checked once, before anything; then each checklist is sealed in its own transaction, with its
+ * own digest and lock, exactly as one at a time. A checklist that cannot be countersigned (a
+ * conflict, a photo not yet arrived) is reported with its reason and the others are still signed.
+ */
+export async function countersignSeveral(
+  actor: Actor,
+  jobId: number,
+  checklistIds: string[],
+  password: string,
+): Promise<SealOutcome[]> {
+  await confirmPassword(actor, password, "none was countersigned");
+  const rows = await db()("job_checklists as c")
+    .join("template_versions as t", "t.id", "c.template_version_id")
+    .whereIn("c.id", checklistIds)
+    .select("c.id", "c.job_id", "t.title");
+  const outcomes: SealOutcome[] = [];
+  for (const id of checklistIds) {
+    const row = rows.find((r) => r.id === id);
+    if (!row || row.job_id !== jobId) {
+      outcomes.push({
+        checklistId: id,
+        title: "Unknown checklist",
+        refused: "That checklist is not one of this job's.",
+      });
+      continue;
+    }
+    try {
+      outcomes.push({ checklistId: id, title: row.title, digest: await seal(actor, id) });
+    } catch (error) {
+      if (!(error instanceof Refusal)) throw error;
+      outcomes.push({ checklistId: id, title: row.title, refused: error.message });
+    }
+  }
+  return outcomes;
+}
+
+/** One checklist's countersignature, once the password has been confirmed. */
+function seal(actor: Actor, checklistId: string): Promise<string> {
   return db().transaction(async (trx) => {
     const c = await checklistAccessFor(actor, "countersign", checklistId, trx, onlyTheLead);
     if (c.state !== "submitted")
@@ -218,4 +266,95 @@ export async function startAmendment(actor: Actor, checklistId: string): Promise
     );
     return id;
   });
+}
+
+/**
+ * Discards an amendment opened by mistake, while nothing has been entered in it: no entry, photo,
+ * conflict or refused operation has reached the server for it. The sync clock's lock is taken
+ * first, as every applier does, so no entry can land between the check and the delete.
+ */
+export async function discardAmendment(actor: Actor, checklistId: string) {
+  await db().transaction(async (trx) => {
+    await nextChangeNumber(trx);
+    const c = await checklistAccessFor(
+      actor,
+      "amend",
+      checklistId,
+      trx,
+      "Only the job's lead or the manager discards an amendment.",
+    );
+    const row = (await trx("job_checklists").where({ id: checklistId }).first("amends_id", "state"))!;
+    if (!row.amends_id)
+      throw new Refusal("wrong-state", "Only an amendment can be discarded; this checklist is kept.");
+    if (row.state !== "in-progress")
+      throw new Refusal("wrong-state", "This amendment has been submitted; it is kept.");
+    const counts = await Promise.all([
+      trx("response_history").where({ checklist_id: checklistId }).whereNotNull("op_id").first("id"),
+      trx("sync_ops").where({ checklist_id: checklistId }).first("op_id"),
+      trx("photos").where({ checklist_id: checklistId }).first("id"),
+      trx("sync_conflicts").where({ checklist_id: checklistId }).first("id"),
+    ]);
+    if (counts.some(Boolean))
+      throw new Refusal(
+        "wrong-state",
+        "Entries have been made in this amendment, so it is kept; finish it and submit it for review.",
+      );
+    await trx("job_checklists").where({ id: checklistId }).delete();
+    await audit(
+      {
+        userId: actor.id,
+        action: "checklist.amendment-discarded",
+        entity: "checklist",
+        entityId: row.amends_id,
+        detail: { amendment: checklistId, jobId: c.job_id },
+      },
+      trx,
+    );
+  });
+}
+
+/**
+ * A technician's answer to a lead's comment, at its item, while the checklist is back with them
+ * (returned, or being filled again). The lead reads it on the review page once it is resubmitted.
+ */
+export async function replyToComment(
+  actor: Actor & { name: string },
+  checklistId: string,
+  commentId: number,
+  text: string,
+): Promise<ReviewComment> {
+  const c = await checklistAccessFor(
+    actor,
+    "fill",
+    checklistId,
+    db(),
+    "Only the job's technicians and its lead answer the comments on its checklists.",
+  );
+  if (c.state !== "returned" && c.state !== "in-progress")
+    throw new Refusal(
+      "wrong-state",
+      "Answers are written while the checklist is back with you, before it is submitted again.",
+    );
+  const comment = await db()("checklist_comments")
+    .where({ id: commentId, checklist_id: checklistId })
+    .whereNull("reply_to")
+    .first("id", "item_key");
+  if (!comment) throw new Refusal("not-found", "That comment is not on this checklist.");
+  const at = new Date();
+  const [id] = await db()("checklist_comments").insert({
+    checklist_id: checklistId,
+    item_key: comment.item_key,
+    reply_to: comment.id,
+    user_id: actor.id,
+    text,
+    at,
+  });
+  return {
+    id: Number(id),
+    replyTo: comment.id,
+    itemKey: comment.item_key,
+    by: actor.name,
+    at: at.toISOString(),
+    text,
+  };
 }

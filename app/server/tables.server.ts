@@ -1,3 +1,4 @@
+import type { NotificationKind } from "~/lib/notifications";
 import type { Role } from "~/lib/roles";
 
 /**
@@ -217,6 +218,8 @@ export interface ChecklistCommentRow {
   id: number;
   checklist_id: string;
   item_key: string;
+  /** A technician's answer names the lead's comment it answers. */
+  reply_to: number | null;
   user_id: number;
   text: string;
   at: Date;
@@ -237,6 +240,12 @@ export interface RecordRecipientRow {
   user_id: number;
   email: string;
   sent_at: Date;
+  first_viewed_at: Date | null;
+}
+
+export interface NotificationOptoutRow {
+  user_id: number;
+  kind: NotificationKind;
 }
 
 declare module "knex/types/tables" {
@@ -259,5 +268,6 @@ declare module "knex/types/tables" {
     checklist_comments: ChecklistCommentRow;
     records: RecordRow;
     record_recipients: RecordRecipientRow;
+    notification_optouts: NotificationOptoutRow;
   }
 }

@@ -133,12 +133,18 @@ describe("from submission to the surveyor's verified PDF", () => {
     await open(leadPage, `/jobs/${jobId}`);
     await leadPage.getByRole("link", { name: "Review" }).click();
     await leadPage.getByRole("heading", { name: /Review: Handover check/ }).waitFor();
+    // Every entry is within its limits, so the items are folded away until opened.
+    await leadPage.getByTestId("within-limits").getByText("3 items within limits").click();
     await item(leadPage, "remarks")
       .getByLabel("Comment on this item")
       .fill("Say which bolts and the torque used");
     await item(leadPage, "remarks").getByRole("button", { name: "Add comment" }).click();
     await item(leadPage, "remarks").getByTestId("review-comment").waitFor();
-    await leadPage.getByRole("button", { name: /Return to the technician/ }).click();
+    // Returning asks once more, saying what the technician will get.
+    await leadPage.getByText(/Return to the technician/).click();
+    await leadPage.getByText(/gets it back with your 1 comment/).waitFor();
+    expect(await state()).toBe("submitted");
+    await leadPage.getByRole("button", { name: "Yes, return it" }).click();
     await leadPage.waitForURL(new RegExp(`/jobs/${jobId}$`));
     expect(await state()).toBe("returned");
 
@@ -149,12 +155,19 @@ describe("from submission to the surveyor's verified PDF", () => {
       .getByTestId("offline-readiness")
       .getByText(/Ready offline/)
       .waitFor();
-    await techPage.getByRole("link", { name: /^Handover check/ }).click();
+    // Today shows what came back, with the comment; it opens the checklist.
+    const returned = techPage.getByTestId("returned-queue");
+    await returned.getByText("Say which bolts and the torque used").waitFor();
+    await returned.getByRole("link", { name: /Handover check/ }).click();
     await item(techPage, "remarks")
       .getByTestId("review-comment")
       .getByText(/torque used/)
       .waitFor();
-    await item(techPage, "remarks").getByRole("textbox").fill("Couplings faced; four M12 bolts at 85 N·m");
+    // The entry's box comes first; the box below the comment answers the lead.
+    await item(techPage, "remarks")
+      .getByRole("textbox")
+      .first()
+      .fill("Couplings faced; four M12 bolts at 85 N·m");
     await item(techPage, "remarks").getByRole("button", { name: "Save" }).click();
     await techPage.getByRole("button", { name: "Submit for review" }).click();
     await expect.poll(state, { timeout: 20_000 }).toBe("submitted");

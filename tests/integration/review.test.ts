@@ -1,3 +1,4 @@
+import { randomUUID } from "node:crypto";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { checklistDigest, sha256Hex } from "~/lib/record/digest.server";
 import { checklistCanonical } from "~/lib/record/canonical";
@@ -5,11 +6,24 @@ import { SUBMIT_KEY, submitValue } from "~/lib/sync/submission";
 import { startChecklists } from "~/server/checklists.server";
 import { loadRecordChecklist } from "~/server/record-data.server";
 import { issueRecord, verifyRecord } from "~/server/records.server";
-import { addComment, countersign, returnChecklist, startAmendment } from "~/server/review.server";
+import { notificationKinds } from "~/lib/notifications";
+import { recordOpened, setNotifications } from "~/server/notifications.server";
+import { issuedRecently, returnedTo, waitingFor } from "~/server/queue.server";
+import {
+  addComment,
+  countersign,
+  countersignSeveral,
+  discardAmendment,
+  replyToComment,
+  returnChecklist,
+  startAmendment,
+} from "~/server/review.server";
 import { sync } from "~/server/sync.server";
 import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
+import { appHandler, signInCookie } from "../support/app.ts";
 import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
+import { mailTo as mailIn, waitForMail } from "../support/mail.ts";
 import { op } from "../support/sync.ts";
 
 const knex = testDb();
@@ -224,5 +238,226 @@ describe("issuing and verifying a record", () => {
     const changed = (await verifyRecord(recordId))!;
     expect(changed.genuine).toBe(false);
     expect(changed.problems.join(" ")).toMatch(/does not match/);
+  });
+});
+
+describe("e-mail when something waits for a person", () => {
+  const sink = () => process.env.MAIL_SINK_DIR!; // this setup's sink, not the end-to-end server's
+  const mailTo = (to: string) => mailIn(to, sink());
+  const complete = (id: string) => [op(id, "a", { result: "pass" }, 0), op(id, "b", { text: "ok" }, 0)];
+
+  it("tells the lead of a submission that arrives through /api/sync, once, after it is stored", async () => {
+    const app = await appHandler();
+    const id = await freshJobChecklist();
+    const cookie = await signInCookie(app, tech.email);
+    const submit = op(id, SUBMIT_KEY, submitValue, 0);
+    const body = JSON.stringify({ deviceId: device, cursor: null, ops: [...complete(id), submit] });
+    const send = () =>
+      app("/api/sync", { method: "POST", cookie, body, headers: { "Content-Type": "application/json" } });
+    expect((await send()).status).toBe(200);
+    const mail = await waitForMail(lead.email, 10_000, /Waiting for your review/, sink());
+    expect(mail.text).toContain(`/checklists/${id}/review`);
+    // The tablet's retry of the same batch is answered again, but the lead is not told twice.
+    expect((await send()).status).toBe(200);
+    await new Promise((r) => setTimeout(r, 300)); // a background send, if one were made, lands by now
+    expect(mailTo(lead.email).filter((m) => m.text.includes(id))).toHaveLength(1);
+  });
+
+  it("sends the technician the returned checklist with the lead's comments, unless they turned it off", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [...complete(id), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await addComment(lead, id, "b", "Note the torque you used");
+    await returnChecklist(lead, id);
+    const returned = mailTo(tech.email).filter((m) => m.text.includes(`/checklists/${id}`));
+    expect(returned).toHaveLength(1);
+    expect(returned[0]!.subject).toMatch(/Returned to you: Review test/);
+    expect(returned[0]!.text).toContain("Note the torque you used");
+
+    await setNotifications(tech.id, [], notificationKinds); // every kind off
+    await push(tech, [op(id, SUBMIT_KEY, submitValue, 0)]);
+    await returnChecklist(lead, id);
+    expect(await stateOf(id)).toBe("returned");
+    expect(mailTo(tech.email).filter((m) => m.text.includes(`/checklists/${id}`))).toHaveLength(1);
+    await setNotifications(tech.id, [...notificationKinds], notificationKinds);
+  });
+
+  it("keeps the return when the mail cannot be sent", async () => {
+    // An address the mail library refuses outright: sendMail rejects, the return stands.
+    const unreachable = await makeUser(knex, "technician");
+    await knex("users").where({ id: unreachable.id }).update({ email: "" });
+    jobId = (await makeJob(knex, lead.id, [unreachable.id])).id;
+    const [id] = await startChecklists(jobId, [template.key], lead.id);
+    await push({ ...unreachable, email: "" }, [...complete(id!), op(id!, SUBMIT_KEY, submitValue, 0)]);
+    await expect(returnChecklist(lead, id!)).resolves.toBeUndefined();
+    expect(await stateOf(id!)).toBe("returned");
+  });
+
+  it("lets each person choose on the account settings page, and refuses a kind that does not exist", async () => {
+    const app = await appHandler();
+    const person = await makeUser(knex, "lead");
+    const cookie = await signInCookie(app, person.email);
+    const page = await (await app("/account", { cookie })).text();
+    for (const kind of notificationKinds) expect(page).toContain(`value="${kind}"`);
+    const save = (body: URLSearchParams) => app("/account", { method: "POST", cookie, body });
+    expect((await save(new URLSearchParams([["notify", "checklist-submitted"]]))).status).toBe(200);
+    expect(
+      (await knex("notification_optouts").where({ user_id: person.id }).orderBy("kind").pluck("kind")).sort(),
+    ).toEqual(["checklist-returned", "record-viewed"]);
+    expect((await save(new URLSearchParams([["notify", "everything"]]))).status).toBe(400);
+    expect(await knex("notification_optouts").where({ user_id: person.id })).toHaveLength(2);
+  });
+
+  it("tells the job's lead the first time a surveyor opens the record, and only then", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [...complete(id), op(id, SUBMIT_KEY, submitValue, 0)]);
+    await countersign(lead, id, TEST_PASSWORD);
+    const surveyorEmail = `first-look-${Date.now()}@survey.example`;
+    const recordId = await issueRecord(manager, jobId, [{ email: surveyorEmail, name: "Fenna Sounding" }]);
+    const surveyor = (await knex("users").where({ email: surveyorEmail }).first())!;
+    const actor = { id: surveyor.id, name: surveyor.name, role: "surveyor" };
+    await Promise.all([recordOpened(actor, recordId), recordOpened(actor, recordId)]);
+    await recordOpened(actor, recordId);
+    await recordOpened({ id: manager.id, name: manager.name, role: "manager" }, recordId);
+    const told = mailTo(lead.email).filter((m) => m.text.includes(`/records/${recordId}`));
+    expect(told).toHaveLength(1);
+    expect(told[0]!.subject).toMatch(/opened the record/);
+  });
+});
+
+/** A job of its own with two checklists of the test template, both submitted complete. */
+async function twoSubmitted() {
+  const job = (await makeJob(knex, lead.id, [tech.id])).id;
+  const [first] = await startChecklists(job, [template.key], lead.id);
+  // A second checklist of the same template on the job, as an amendment chain would allow.
+  const second = (
+    await startChecklists((await makeJob(knex, lead.id, [tech.id])).id, [template.key], lead.id)
+  )[0]!;
+  await knex("job_checklists").where({ id: second }).update({ job_id: job });
+  for (const id of [first!, second])
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
+  return { job, ids: [first!, second] };
+}
+
+describe("countersigning several checklists with one password", () => {
+  it("signs each with its own digest and lock, and names the one refused while the others are signed", async () => {
+    const { job, ids } = await twoSubmitted();
+    const third = await freshJobChecklist(); // on another job: never signed from this one
+    // A wrong password signs nothing.
+    await expect(countersignSeveral(lead, job, ids, "wrong password")).rejects.toMatchObject({
+      field: "password",
+      message: expect.stringMatching(/password is not right; none was countersigned/),
+    });
+    expect(await Promise.all(ids.map(stateOf))).toEqual(["submitted", "submitted"]);
+    // One of them has a conflict waiting: it is refused with the reason, the other is signed.
+    await knex("sync_conflicts").insert({
+      checklist_id: ids[1]!,
+      item_key: "b",
+      op_id: randomUUID(),
+      base_rev: 0,
+      server_rev: 1,
+      server_value: JSON.stringify({ text: "ok" }),
+      client_value: JSON.stringify({ text: "other" }),
+      user_id: tech.id,
+      device_id: "other-device",
+      client_at: new Date().toISOString(),
+      received_at: new Date(),
+    });
+    const outcomes = await countersignSeveral(lead, job, [...ids, third], TEST_PASSWORD);
+    expect(outcomes[0]).toMatchObject({
+      checklistId: ids[0],
+      digest: expect.stringMatching(/^[0-9a-f]{64}$/),
+    });
+    expect(outcomes[1]).toMatchObject({ checklistId: ids[1], refused: expect.stringMatching(/conflict/) });
+    expect(outcomes[2]).toMatchObject({
+      checklistId: third,
+      refused: expect.stringMatching(/not one of this job/),
+    });
+    expect(await Promise.all([...ids, third].map(stateOf))).toEqual([
+      "countersigned",
+      "submitted",
+      "in-progress",
+    ]);
+    // Its digest is the one a single countersignature stores: over its own canonical content.
+    const content = (await loadRecordChecklist(ids[0]!, knex))!;
+    expect((await knex("job_checklists").where({ id: ids[0] }).first())!.digest).toBe(
+      sha256Hex(checklistCanonical(content)),
+    );
+    // The other lead signs none of them.
+    await knex("sync_conflicts").where({ checklist_id: ids[1] }).update({ resolved_at: new Date() });
+    const stranger = await countersignSeveral(otherLead, job, [ids[1]!], TEST_PASSWORD);
+    expect(stranger[0]).toMatchObject({ refused: expect.stringMatching(/Only the job's lead/) });
+    expect(await stateOf(ids[1]!)).toBe("submitted");
+  });
+});
+
+describe("discarding an amendment opened by mistake", () => {
+  it("removes it while nothing is entered, and refuses once something is", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
+    await countersign(lead, id, TEST_PASSWORD);
+    const mistaken = await startAmendment(lead, id);
+    await expect(discardAmendment(tech, mistaken)).rejects.toMatchObject({ status: 403 });
+    await expect(discardAmendment(lead, id)).rejects.toMatchObject({ status: 409 }); // the original
+    await discardAmendment(lead, mistaken);
+    expect(await knex("job_checklists").where({ id: mistaken }).first()).toBeUndefined();
+    expect(await stateOf(id)).toBe("countersigned");
+    expect(await actions(id)).toContain("checklist.amendment-discarded");
+    // A new amendment, then an entry in it: it is kept.
+    const meant = await startAmendment(lead, id);
+    await push(tech, [op(meant, "b", { text: "corrected" }, 1)]);
+    await expect(discardAmendment(lead, meant)).rejects.toThrow(/Entries have been made/);
+    expect(await knex("job_checklists").where({ id: meant }).first()).toBeDefined();
+  });
+});
+
+describe("answers to the lead's comments, and each person's queue", () => {
+  it("lets the technician answer while the checklist is back with them, and shows each role what waits", async () => {
+    const id = await freshJobChecklist();
+    await push(tech, [
+      op(id, "a", { result: "pass" }, 0),
+      op(id, "b", { text: "ok" }, 0),
+      op(id, SUBMIT_KEY, submitValue, 0),
+    ]);
+    expect((await waitingFor(lead)).map((e) => e.to)).toContain(`/checklists/${id}/review`);
+    expect((await waitingFor(otherLead)).map((e) => e.to)).not.toContain(`/checklists/${id}/review`);
+    expect((await waitingFor(manager)).map((e) => e.kind)).not.toContain("submitted"); // the lead's to review
+    await addComment(lead, id, "b", "Which bolts?");
+    const [comment] = await knex("checklist_comments").where({ checklist_id: id }).pluck("id");
+    // Not while it waits for review.
+    await expect(replyToComment(tech, id, comment, "M12")).rejects.toMatchObject({ status: 409 });
+    await returnChecklist(lead, id);
+    expect(await returnedTo(tech)).toContainEqual(
+      expect.objectContaining({ id, comments: ["Which bolts?"] }),
+    );
+    await expect(replyToComment(otherLead, id, comment, "M12")).rejects.toMatchObject({ status: 403 });
+    const reply = await replyToComment(tech, id, comment, "Four M12, 85 N·m");
+    expect(reply).toMatchObject({ replyTo: comment, itemKey: "b", text: "Four M12, 85 N·m" });
+    await expect(replyToComment(tech, id, reply.id, "an answer to an answer")).rejects.toMatchObject({
+      status: 404,
+    });
+    await push(tech, [op(id, SUBMIT_KEY, submitValue, 0)]);
+    const queue = await waitingFor(lead);
+    const mine = queue.find((e) => e.to === `/checklists/${id}/review`)!;
+    expect(mine.kind).toBe("submitted");
+    // Oldest first.
+    expect(queue.map((e) => e.since)).toEqual([...queue.map((e) => e.since)].sort());
+    await countersign(lead, id, TEST_PASSWORD);
+    expect((await waitingFor(lead)).find((e) => e.to === `/jobs/${jobId}#record-title`)?.kind).toBe(
+      "record-ready",
+    );
+    expect((await waitingFor(manager)).map((e) => e.to)).toContain(`/jobs/${jobId}#record-title`);
+    const recordId = await issueRecord(manager, jobId, [
+      { email: `queue-${Date.now()}@survey.example`, name: "Quill Marlow" },
+    ]);
+    expect((await waitingFor(lead)).map((e) => e.to)).not.toContain(`/jobs/${jobId}#record-title`);
+    expect((await issuedRecently()).map((r) => r.id)).toContain(recordId);
   });
 });

@@ -64,6 +64,11 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
     { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 },
   ],
   ["/people", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/account", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
+  [
+    () => `/api/checklists/${ownChecklist}/replies`,
+    { anonymous: 405, technician: 405, lead: 405, manager: 405, surveyor: 405 },
+  ],
   ["/api/me", { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
   ["/api/jobs", { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   [() => `/api/jobs/${ownJob}`, { anonymous: 401, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
@@ -157,6 +162,12 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
 
 const posts: [string | (() => string), Record<Who, number>][] = [
   ["/people", { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
+  // An empty form is every message turned off: a choice, not an error.
+  ["/account", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
+  [
+    () => `/api/checklists/${ownChecklist}/replies`,
+    { anonymous: 401, technician: 400, lead: 400, manager: 400, surveyor: 400 },
+  ],
   ["/jobs/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
   ["/vessels/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
   [

@@ -34,6 +34,9 @@ export interface OfflineBundle {
 
 /** A lead's remark on an item, shown to the technician at the item. */
 export interface ReviewComment {
+  id: number;
+  /** A technician's answer names the lead's comment it answers; a lead's comment has none. */
+  replyTo: number | null;
   itemKey: string;
   by: string;
   at: string;

@@ -16,6 +16,7 @@ export const auditActionLabels = {
   "checklist.returned": "Returned a checklist for fixes",
   "checklist.countersigned": "Countersigned a checklist",
   "checklist.amended": "Amended a countersigned checklist",
+  "checklist.amendment-discarded": "Discarded an amendment opened by mistake",
   "record.issued": "Issued a commissioning record",
   "record.viewed": "Viewed a commissioning record",
   "template.created": "Created a checklist template",

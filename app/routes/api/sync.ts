@@ -6,6 +6,7 @@ import {
   syncRequestSchema,
 } from "~/lib/sync/protocol";
 import { requireApiUser } from "~/server/auth.server";
+import { inBackground, notifySubmitted, submittedBy } from "~/server/notifications.server";
 import { sync } from "~/server/sync.server";
 
 const problem = (status: number, error: string, extra: object = {}) =>
@@ -44,7 +45,10 @@ export async function action({ request }: Route.ActionArgs) {
     return problem(400, "The sync request is malformed; nothing was applied.", {
       fields: describeProblems(parsed.error),
     });
-  return Response.json(await sync(user, parsed.data));
+  const answer = await sync(user, parsed.data);
+  // The lead hears of a submission once it is committed; the tablet does not wait for the mail.
+  inBackground(notifySubmitted(submittedBy(parsed.data.ops, answer.results)));
+  return Response.json(answer);
 }
 
 export function loader() {

@@ -3,6 +3,7 @@ import { Link, useFetcher, useLocation, useRevalidator } from "react-router";
 import type { Route } from "./+types/view";
 import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { FillItem } from "~/components/checklist/fill-item";
+import { CommentSummary, ItemComments } from "~/components/checklist/item-comments";
 import { checklistStateLabels } from "~/lib/checklist-sets";
 import { canFillJob } from "~/lib/permissions";
 import { findItem, progress, valueSchemaFor, type ItemValue, type Template } from "~/lib/templates";
@@ -307,6 +308,9 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
           </ul>
         </div>
       )}
+      {!locked && (
+        <CommentSummary comments={checklist.comments} template={template} onOpenSection={setSectionIndex} />
+      )}
       <nav aria-label="Sections" className="mb-4 flex flex-wrap gap-2">
         {template.sections.map((s, i) => {
           const p = state.sections[i]!;
@@ -354,18 +358,10 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
                 />
               }
             >
-              {checklist.comments
-                .filter((c) => c.itemKey === item.key)
-                .map((c, i) => (
-                  <p key={i} className="rounded-md border-2 border-harbour p-2" data-testid="review-comment">
-                    <strong>Lead's comment: </strong>
-                    {c.text}{" "}
-                    <span className="text-sm text-ink-soft">
-                      ({c.by},{" "}
-                      {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })})
-                    </span>
-                  </p>
-                ))}
+              <ItemComments
+                comments={checklist.comments.filter((c) => c.itemKey === item.key)}
+                checklistId={checklist.canFill && !locked ? checklist.id : undefined}
+              />
               {failed?.itemKey === item.key && (
                 <p role="alert" className="font-bold text-fault">
                   ▲ {failed.error}

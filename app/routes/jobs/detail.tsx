@@ -1,3 +1,4 @@
+import type { SubmissionResult } from "@conform-to/react";
 import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Link } from "react-router";
 import type { Route } from "./+types/detail";
@@ -8,12 +9,13 @@ import { byWorkOrder } from "~/lib/templates";
 import { canOnJob } from "~/lib/permissions";
 import { Refusal } from "~/lib/refusal";
 import { jobPageActionSchema } from "~/lib/validation/job-page";
+import type { SealOutcome } from "~/lib/validation/review";
 import { jobScopeLabels, jobStatusLabels } from "~/lib/validation/jobs";
 import { listJobChecklists, startChecklists } from "~/server/checklists.server";
 import { prefillFromJob } from "~/server/prefill.server";
 import { requireJob } from "~/server/job-access.server";
 import { recordReadiness, recordsOfJob, issueRecord } from "~/server/records.server";
-import { startAmendment } from "~/server/review.server";
+import { countersignSeveral, discardAmendment, startAmendment } from "~/server/review.server";
 import { latestPublished } from "~/server/templates.server";
 
 export const meta: Route.MetaFunction = ({ data }) => [
@@ -44,36 +46,53 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params }: Route.ActionArgs) {
   const { user, job } = await requireJob(request, params.jobId, "edit");
   const submission = parseWithZod(await request.formData(), { schema: jobPageActionSchema });
-  if (submission.status !== "success")
-    return data(
-      { intent: intentOf(submission.payload), result: submission.reply(), issued: null },
-      { status: 400 },
-    );
+  const answer = (result: SubmissionResult<string[]>, more: Partial<JobPageAnswer> = {}) => ({
+    intent: submission.status === "success" ? submission.value.intent : intentOf(submission.payload),
+    result,
+    issued: null,
+    sealed: null,
+    ...more,
+  });
+  if (submission.status !== "success") return data(answer(submission.reply()), { status: 400 });
   const form = submission.value;
   try {
     switch (form.intent) {
       case "issue-record":
         await issueRecord(user, job.id, form.emails);
-        return {
-          intent: form.intent,
-          result: submission.reply({ resetForm: true }),
+        return answer(submission.reply({ resetForm: true }), {
           issued: `Record issued to ${form.emails.map((r) => r.email).join(", ")}.`,
-        };
+        });
       case "amend":
         await startAmendment(user, form.checklistId);
         break;
+      case "discard-amendment":
+        await discardAmendment(user, form.checklistId);
+        break;
+      case "countersign-several":
+        if (!canOnJob(user, "countersign", job))
+          throw new Refusal("forbidden", "Only the job's lead countersigns its checklists.");
+        return answer(submission.reply({ resetForm: true }), {
+          sealed: await countersignSeveral(user, job.id, form.checklistIds, form.password),
+        });
       case "start-checklists":
         await prefillFromJob(user, job, await startChecklists(job.id, form.templates, user.id));
         break;
     }
   } catch (error) {
     if (!(error instanceof Refusal)) throw error;
-    return data(
-      { intent: form.intent, result: submission.reply({ formErrors: [error.message] }), issued: null },
-      { status: error.status },
+    const result = submission.reply(
+      error.field ? { fieldErrors: { [error.field]: [error.message] } } : { formErrors: [error.message] },
     );
+    return data(answer(result), { status: error.status });
   }
-  return { intent: form.intent, result: submission.reply(), issued: null };
+  return answer(submission.reply());
+}
+
+interface JobPageAnswer {
+  intent: string | null;
+  result: SubmissionResult<string[]>;
+  issued: string | null;
+  sealed: SealOutcome[] | null;
 }
 
 const intentOf = (payload: Record<string, unknown>) =>
@@ -112,7 +131,13 @@ export default function JobDetail({ loaderData, actionData }: Route.ComponentPro
         defaults={defaults}
         canStart={canEdit}
         canReview={canReview}
-        lastResult={actionData?.intent === "issue-record" ? null : actionData?.result}
+        lastResult={
+          actionData?.intent === "issue-record" || actionData?.intent === "countersign-several"
+            ? null
+            : actionData?.result
+        }
+        countersignResult={actionData?.intent === "countersign-several" ? actionData.result : null}
+        sealed={actionData?.sealed}
       />
       {(canEdit || records.length > 0) && (
         <IssueRecord

@@ -7,6 +7,7 @@ import { inWorkOrder } from "~/lib/record/order";
 import { describeRule, describeValue, progress } from "~/lib/templates";
 import { jobScopeLabels } from "~/lib/validation/jobs";
 import { audit } from "~/server/audit.server";
+import { inBackground, recordOpened } from "~/server/notifications.server";
 import { requireRecord } from "~/server/record-access.server";
 import { LocalTime } from "~/components/local-time";
 
@@ -18,6 +19,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const { user, record } = await requireRecord(request, params.recordId);
   if (user.role === "surveyor")
     await audit({ userId: user.id, action: "record.viewed", entity: "record", entityId: record.id });
+  inBackground(recordOpened(user, record.id)); // the job's lead hears of the first opening
   return { record };
 }
 
