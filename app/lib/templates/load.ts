@@ -1,6 +1,7 @@
 import type { z } from "zod";
 import { dimensionOf, type Unit } from "~/lib/calc/units";
-import { calcBindingProblems } from "./calc-inputs";
+import { calcBindingProblems } from "./calc-bindings";
+import { formatPath } from "./path";
 import { prefillProblems } from "./prefill";
 import {
   findItem,
@@ -24,21 +25,9 @@ export interface TemplateProblem {
   message: string;
 }
 
-type Path = readonly PropertyKey[];
-
 interface RawProblem {
   path: (string | number)[];
   message: string;
-}
-
-export function formatPath(path: Path): string {
-  return path
-    .map((part, i) => {
-      if (typeof part === "number") return `[${part}]`;
-      const name = String(part);
-      return /^[A-Za-z_][\w-]*$/.test(name) ? (i === 0 ? name : `.${name}`) : `[${JSON.stringify(name)}]`;
-    })
-    .join("");
 }
 
 export function problemText(problem: TemplateProblem): string {
