@@ -53,6 +53,7 @@ export default [
     // end library
     route("people", "routes/people.tsx"),
     route("audit", "routes/audit.tsx"),
+    route("yard", "routes/yard.tsx"),
   ]),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

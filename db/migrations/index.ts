@@ -8,6 +8,7 @@ import * as m006 from "./006_review_and_records.ts";
 import * as m007 from "./007_sync_hardening.ts";
 import * as m008 from "./008_utf8mb4_everywhere.ts";
 import * as m009 from "./009_job_shaft_system_and_voltage.ts";
+import * as m014 from "./014_yard_settings.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
 const migrations: Record<string, Knex.Migration> = {
@@ -20,6 +21,7 @@ const migrations: Record<string, Knex.Migration> = {
   "007_sync_hardening": m007,
   "008_utf8mb4_everywhere": m008,
   "009_job_shaft_system_and_voltage": m009,
+  "014_yard_settings": m014,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -106,6 +106,7 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   ["/calculators/propSlip", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/library", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/audit", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/yard", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
   ["/sync", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
   [
     () => `/checklists/${ownChecklist}/review`,
@@ -153,6 +154,7 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
 
 const posts: [string | (() => string), Record<Who, number>][] = [
   ["/people", { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
+  ["/yard", { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
   ["/jobs/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
   ["/vessels/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
   [
