@@ -7,7 +7,7 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { useMemo } from "react";
+import { useEffect, useMemo, useRef } from "react";
 import { Link, useSearchParams } from "react-router";
 import { formatMoment } from "~/lib/format";
 import { TableBody } from "./table-body.tsx";
@@ -87,17 +87,19 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
   // The table re-derives its rows whenever a state object changes identity: keep them stable.
   const sorting = useMemo(() => sortingFrom(sortParam), [sortParam]);
   const columnFilters = useMemo(() => (status ? [{ id: "status", value: status }] : []), [status]);
-  const update = (key: string, value: string) =>
-    setParams(
-      (current) => {
-        const next = new URLSearchParams(current);
-        if (value) next.set(key, value);
-        else next.delete(key);
-        return next;
-      },
-      // Typing is not history: one entry for the page, whatever was typed.
-      { replace: true, preventScrollReset: true },
-    );
+  // Changes made while an earlier one is still on its way build on it, not on the address shown.
+  const latest = useRef(params);
+  useEffect(() => {
+    latest.current = params;
+  }, [params]);
+  const update = (key: string, value: string) => {
+    const next = new URLSearchParams(latest.current);
+    if (value) next.set(key, value);
+    else next.delete(key);
+    latest.current = next;
+    // Typing is not history: one entry for the page, whatever was typed.
+    setParams(next, { replace: true, preventScrollReset: true });
+  };
   const table = useReactTable({
     data: jobs,
     columns,
