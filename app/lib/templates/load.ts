@@ -50,7 +50,9 @@ function describeIssue(issue: z.core.$ZodIssue): TemplateProblem[] {
   switch (issue.code) {
     case "invalid_type": {
       const expected = `expected ${expectedWords[issue.expected] ?? issue.expected}`;
-      return [{ path, message: issue.input === undefined ? `missing, ${expected}` : expected }];
+      if (issue.input === undefined) return [{ path, message: `missing, ${expected}` }];
+      // The field's own words ("the minimum must be a number") where the format gives some.
+      return [{ path, message: issue.message.startsWith("Invalid input") ? expected : issue.message }];
     }
     case "unrecognized_keys":
       return issue.keys.map((key) => ({ path: formatPath([...issue.path, key]), message: "unknown field" }));

@@ -58,11 +58,13 @@ const limit = z.number({ error: "expected a number" });
  * Acceptance limits in `unit`, which may differ from the unit a reading is entered in (a limit in
  * thousandths of an inch against a reading in millimetres). nominal ± tolerance narrows min/max.
  */
+const namedLimit = (name: string) => z.number({ error: `the ${name} must be a number` });
 const ruleFields = {
-  min: limit.optional(),
-  max: limit.optional(),
-  nominal: limit.optional(),
-  tolerance: limit.nonnegative({ error: "cannot be negative" }).optional(),
+  // Said at the field in the library editor: "the minimum must be a number", not a path.
+  min: namedLimit("minimum").optional(),
+  max: namedLimit("maximum").optional(),
+  nominal: namedLimit("nominal value").optional(),
+  tolerance: namedLimit("tolerance").nonnegative({ error: "the tolerance cannot be negative" }).optional(),
   unit: unitSchema,
 };
 
