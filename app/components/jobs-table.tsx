@@ -105,7 +105,8 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
     columns,
     state: { sorting, globalFilter: search, columnFilters },
     onSortingChange: (change) => {
-      const [next] = typeof change === "function" ? change(sorting) : change;
+      // From the latest order asked for: a second tap before the address has caught up still toggles.
+      const [next] = typeof change === "function" ? change(sortingFrom(latest.current.get("sort"))) : change;
       update(
         "sort",
         !next || (next.id === DEFAULT_SORT && !next.desc) ? "" : `${next.desc ? "-" : ""}${next.id}`,

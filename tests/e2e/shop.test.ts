@@ -86,6 +86,7 @@ describe("the manager's screens on a tablet (issue 16)", () => {
     await page.getByLabel("Search").fill(firstVessel.slice(0, 5));
     await page.getByLabel("Status").selectOption({ index: 0 });
     await table.getByRole("button", { name: /Vessel/ }).click();
+    await page.waitForURL((url) => url.searchParams.get("sort") === "vesselName");
     await table.getByRole("button", { name: /Vessel/ }).click();
     await page.waitForURL((url) => url.searchParams.get("sort") === "-vesselName");
     expect(new URL(page.url()).searchParams.get("q")).toBe(firstVessel.slice(0, 5));
