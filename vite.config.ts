@@ -57,4 +57,14 @@ export default defineConfig({
     }),
   ],
   resolve: { tsconfigPaths: true },
+  build: {
+    rolldownOptions: {
+      treeshake: {
+        // The shared plain modules (templates, calculations, sync protocol) only define things: a
+        // barrel import of one helper must not drag in zod schemas or the calculation registry
+        // built at the top of a sibling module (docs/decisions/087-checklist-screen-weight.md).
+        moduleSideEffects: [{ test: /\/app\/lib\/(templates|calc|sync)\/[^/]+\.ts$/, sideEffects: false }],
+      },
+    },
+  },
 });

@@ -56,6 +56,7 @@ export default [
     route("people", "routes/people.tsx"),
     route("account", "routes/account.tsx"),
     route("audit", "routes/audit.tsx"),
+    route("yard", "routes/yard.tsx"),
   ]),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -6,7 +6,7 @@ import { SyncStatusBar } from "./sync-status.tsx";
 import { UpdatePrompt } from "./update-prompt.tsx";
 
 /** The manager's screens share one menu so the navigation stays on one row on a tablet. */
-const SHOP_SCREENS = new Set(["/library", "/people", "/audit"]);
+const SHOP_SCREENS = new Set(["/library", "/people", "/audit", "/yard"]);
 
 /** A drop-down that closes when the place changes, when another is opened, or on a tap outside. */
 function Menu({

@@ -7,8 +7,9 @@ import {
   useReactTable,
   type SortingState,
 } from "@tanstack/react-table";
-import { useMemo, useState } from "react";
-import { Link } from "react-router";
+import { useEffect, useMemo, useRef } from "react";
+import { Link, useSearchParams } from "react-router";
+import { formatMoment } from "~/lib/format";
 import { TableBody } from "./table-body.tsx";
 import { jobScopeLabels, jobStatusLabels, jobStatuses } from "~/lib/validation/jobs";
 
@@ -53,25 +54,65 @@ const columns = [
   column.accessor((j) => j.technicianNames.join(", "), { id: "technicians", header: "Technicians" }),
   column.accessor("dueDate", {
     header: "Due",
-    cell: (c) => c.getValue() ?? "—",
+    // A due date is a day, not a moment: written as the day it is, in no zone's shift.
+    cell: (c) => {
+      const day = c.getValue();
+      return day ? formatMoment(`${day}T12:00:00Z`, "UTC", "date") : "—";
+    },
     // Jobs without a due date go last; an explicit order keeps the server's and the browser's rows alike.
     sortingFn: (a, b) => byDueDate(a.original.dueDate, b.original.dueDate) || a.original.id - b.original.id,
   }),
 ];
 
-/** The shop's job list: sort by any column, filter by status, search every column. */
+const sortable = new Set(columns.map((c) => ("accessorKey" in c ? String(c.accessorKey) : c.id)));
+const DEFAULT_SORT = "dueDate";
+
+/** `?sort=-dueDate` reads as due date, latest first; an unknown column is the default order. */
+function sortingFrom(param: string | null): SortingState {
+  const desc = !!param?.startsWith("-");
+  const id = param?.replace(/^-/, "") ?? DEFAULT_SORT;
+  return sortable.has(id) ? [{ id, desc }] : [{ id: DEFAULT_SORT, desc: false }];
+}
+
+/**
+ * The shop's job list: sort by any column, filter by status, search every column. All three live
+ * in the address (?q=…&status=…&sort=…), so a reload, the back button and a shared link keep them.
+ */
 export function JobsTable({ jobs }: { jobs: JobRow[] }) {
-  const [sorting, setSorting] = useState<SortingState>([{ id: "dueDate", desc: false }]);
-  const [search, setSearch] = useState("");
-  const [status, setStatus] = useState("");
+  const [params, setParams] = useSearchParams();
+  const search = params.get("q") ?? "";
+  const statusParam = params.get("status") ?? "";
+  const status = (jobStatuses as readonly string[]).includes(statusParam) ? statusParam : "";
+  const sortParam = params.get("sort");
   // The table re-derives its rows whenever a state object changes identity: keep them stable.
+  const sorting = useMemo(() => sortingFrom(sortParam), [sortParam]);
   const columnFilters = useMemo(() => (status ? [{ id: "status", value: status }] : []), [status]);
+  // Changes made while an earlier one is still on its way build on it, not on the address shown.
+  const latest = useRef(params);
+  useEffect(() => {
+    latest.current = params;
+  }, [params]);
+  const update = (key: string, value: string) => {
+    const next = new URLSearchParams(latest.current);
+    if (value) next.set(key, value);
+    else next.delete(key);
+    latest.current = next;
+    // Typing is not history: one entry for the page, whatever was typed.
+    setParams(next, { replace: true, preventScrollReset: true });
+  };
   const table = useReactTable({
     data: jobs,
     columns,
     state: { sorting, globalFilter: search, columnFilters },
-    onSortingChange: setSorting,
-    onGlobalFilterChange: setSearch,
+    onSortingChange: (change) => {
+      // From the latest order asked for: a second tap before the address has caught up still toggles.
+      const [next] = typeof change === "function" ? change(sortingFrom(latest.current.get("sort"))) : change;
+      update(
+        "sort",
+        !next || (next.id === DEFAULT_SORT && !next.desc) ? "" : `${next.desc ? "-" : ""}${next.id}`,
+      );
+    },
+    onGlobalFilterChange: (value: string) => update("q", value),
     globalFilterFn: "includesString",
     getCoreRowModel: getCoreRowModel(),
     getSortedRowModel: getSortedRowModel(),
@@ -86,7 +127,7 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
           <input
             type="search"
             value={search}
-            onChange={(e) => setSearch(e.target.value)}
+            onChange={(e) => update("q", e.target.value)}
             placeholder="Vessel, engine, person…"
             className="field-input font-normal"
           />
@@ -95,7 +136,7 @@ export function JobsTable({ jobs }: { jobs: JobRow[] }) {
           Status
           <select
             value={status}
-            onChange={(e) => setStatus(e.target.value)}
+            onChange={(e) => update("status", e.target.value)}
             className="field-input font-normal"
           >
             <option value="">Any</option>

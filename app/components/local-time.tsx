@@ -1,27 +1,21 @@
-import { useEffect, useState } from "react";
+import { createContext, useContext } from "react";
+import { DEFAULT_TIME_ZONE, formatMoment, type DateStyle } from "~/lib/format";
 
 /**
- * UTC while rendering on the server and hydrating, the reader's own zone once the page runs in
- * the browser: the server's HTML and the first client render agree, then times read locally.
+ * The yard's time zone, given by the shell from the yard's settings (and kept on the tablet for
+ * offline use). The server renders and the browser hydrates in this zone, so they write the same
+ * text whatever zone the server or the tablet runs in.
  */
-export function useReaderTimeZone() {
-  const [zone, setZone] = useState("UTC");
-  useEffect(() => setZone(Intl.DateTimeFormat().resolvedOptions().timeZone), []);
-  return zone;
+export const YardTimeZone = createContext<string>(DEFAULT_TIME_ZONE);
+
+export function useYardTimeZone(): string {
+  return useContext(YardTimeZone);
 }
 
-const styles = {
-  short: { dateStyle: "short", timeStyle: "short" },
-  medium: { dateStyle: "medium", timeStyle: "short" },
-  date: { dateStyle: "medium" },
-  full: { dateStyle: "medium", timeStyle: "medium" },
-} satisfies Record<string, Intl.DateTimeFormatOptions>;
-
-/** A moment as the reader's clock shows it (UTC until the page has hydrated), in a <time> element. */
-export function LocalTime({ at, style = "short" }: { at: string | Date; style?: keyof typeof styles }) {
-  const zone = useReaderTimeZone();
+/** A moment as the yard's clock shows it, in a <time> element. */
+export function LocalTime({ at, style = "short" }: { at: string | Date; style?: DateStyle }) {
+  const zone = useYardTimeZone();
   const moment = new Date(at);
   if (Number.isNaN(moment.getTime())) return <>{String(at)}</>;
-  const text = new Intl.DateTimeFormat("en-GB", { ...styles[style], timeZone: zone }).format(moment);
-  return <time dateTime={moment.toISOString()}>{text}</time>;
+  return <time dateTime={moment.toISOString()}>{formatMoment(moment, zone, style)}</time>;
 }

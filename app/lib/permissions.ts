@@ -139,5 +139,6 @@ export function navigationFor(actor: Actor): { to: string; label: string }[] {
   if (can(actor, "library:view")) items.push({ to: "/library", label: "Library" });
   if (can(actor, "users:manage")) items.push({ to: "/people", label: "People" });
   if (can(actor, "audit:read")) items.push({ to: "/audit", label: "Audit log" });
+  if (can(actor, "users:manage")) items.push({ to: "/yard", label: "Yard settings" });
   return items;
 }

@@ -13,13 +13,14 @@ import {
   auditActionLabels,
   auditEntityLabels,
   auditFiltersSchema,
-  entityInWords,
 } from "~/lib/validation/audit";
 import { listAuditEntries, type AuditLogEntry } from "~/server/audit-log.server";
 import { requireCapability } from "~/server/permissions.server";
 import { listUsers } from "~/server/users.server";
 import { TableBody } from "~/components/table-body";
-import { useReaderTimeZone } from "~/components/local-time";
+import { useYardTimeZone } from "~/components/local-time";
+import { formatMoment } from "~/lib/format";
+import { yardSettings } from "~/server/yard.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Audit log · Sternpost" }];
 
@@ -27,6 +28,8 @@ export async function loader({ request }: Route.LoaderArgs) {
   await requireCapability(request, "audit:read");
   // A form sends each filter once; of a repeated one in a typed address the last counts.
   const params = new URLSearchParams(Object.fromEntries(new URL(request.url).searchParams));
+  // Days are the yard's days, whatever zone the reader's computer is in.
+  params.set("tz", (await yardSettings()).timeZone);
   const submission = parseWithZod(params, { schema: auditFiltersSchema });
   const people = (await listUsers()).map((p) => ({
     id: p.id,
@@ -39,9 +42,8 @@ export async function loader({ request }: Route.LoaderArgs) {
       reply: submission.reply() as SubmissionResult<string[]>,
       entries: [],
       olderThan: null,
-      zone: null,
     };
-  return { people, reply: null, zone: submission.value.tz, ...(await listAuditEntries(submission.value)) };
+  return { people, reply: null, ...(await listAuditEntries(submission.value)) };
 }
 
 /** The current filters with one changed and paging restarted. */
@@ -59,13 +61,12 @@ const column = createColumnHelper<AuditLogEntry>();
 const cellLink = "flex min-h-12 items-center font-bold text-harbour underline";
 
 function auditColumns(zone: string, search: URLSearchParams) {
-  const when = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "medium", timeZone: zone });
   return [
     column.accessor("at", {
       header: "When",
       cell: (c) => (
         <time dateTime={c.getValue()} className="whitespace-nowrap">
-          {when.format(new Date(c.getValue()))}
+          {formatMoment(c.getValue(), zone, "full")}
         </time>
       ),
     }),
@@ -104,13 +105,27 @@ function auditColumns(zone: string, search: URLSearchParams) {
         );
       },
     }),
-    column.accessor("action", { header: "Action", cell: (c) => actionInWords(c.getValue()) }),
+    column.accessor("sentence", {
+      header: "What happened",
+      cell: (c) => {
+        const { views, action } = c.row.original;
+        return (
+          <>
+            <span title={actionInWords(action)}>{c.getValue()}</span>
+            {views && (
+              <span className="block text-sm text-ink-soft" data-testid="views">
+                {views.count} times, first {formatMoment(views.firstAt, zone, "full")}
+              </span>
+            )}
+          </>
+        );
+      },
+    }),
     column.display({
       id: "what",
-      header: "What",
+      header: "About",
       cell: (c) => {
-        const { entity, entityId, href } = c.row.original;
-        const words = `${entityInWords(entity)} ${entityId}`;
+        const { what: words, href } = c.row.original;
         return href ? (
           <Link to={href} className={`${cellLink} break-all`}>
             {words}
@@ -160,11 +175,9 @@ const knownActions = new Set<string>([
 function AuditFilters({
   people,
   reply,
-  zone,
 }: {
   people: { id: number; label: string }[];
   reply: SubmissionResult<string[]> | null;
-  zone: string;
 }) {
   const [search] = useSearchParams();
   const current = Object.fromEntries(search);
@@ -184,7 +197,6 @@ function AuditFilters({
       {...getFormProps(form)}
       className="card mb-6 grid gap-4 md:grid-cols-2 xl:grid-cols-4 md:items-start"
     >
-      <input type="hidden" name="tz" value={zone} />
       <Field id={fields.action.id} label="Action" errors={fields.action.errors}>
         <select {...getSelectProps(fields.action)} className="field-input">
           <option value="">Any action</option>
@@ -251,13 +263,13 @@ function AuditFilters({
 
 export default function AuditLog({ loaderData }: Route.ComponentProps) {
   const [search] = useSearchParams();
-  const zone = useReaderTimeZone();
+  const zone = useYardTimeZone();
   const { entries, olderThan, reply, people } = loaderData;
   return (
     <>
       <PageHeader title="Audit log" />
       {/* A new address starts the form afresh from it, errors included. */}
-      <AuditFilters key={search.toString()} people={people} reply={reply} zone={zone} />
+      <AuditFilters key={search.toString()} people={people} reply={reply} />
       {reply ? (
         <p role="status" className="rounded-md border-2 border-fault bg-fault-light p-3 font-bold text-fault">
           Correct the marked filter to see the log.
@@ -265,11 +277,7 @@ export default function AuditLog({ loaderData }: Route.ComponentProps) {
       ) : (
         <>
           <p className="mb-2 text-sm text-ink-soft">
-            Newest first. Times are shown in {zone}
-            {loaderData.zone !== zone && (search.get("from") || search.get("to"))
-              ? `; the days above were read in ${loaderData.zone}`
-              : ""}
-            .
+            Newest first. Days and times are the yard's, in {zone}.
           </p>
           <AuditTable entries={entries} zone={zone} />
           {entries.length === 0 && <p className="mt-4 text-ink-soft">No entries match these filters.</p>}

@@ -2,18 +2,31 @@ import { Outlet, redirect, useRouteLoaderData, type ShouldRevalidateFunctionArgs
 import type { Route } from "./+types/shell";
 import { AppShell } from "~/components/app-shell";
 import { ErrorMessage } from "~/components/error-page";
+import { YardTimeZone } from "~/components/local-time";
+import { DEFAULT_TIME_ZONE } from "~/lib/format";
 import { requireUser } from "~/server/auth.server";
+import { yardSettings } from "~/server/yard.server";
 import type { Role } from "~/lib/roles";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  return { user: { id: user.id, name: user.name, role: user.role, email: user.email }, offline: false };
+  const { timeZone } = await yardSettings();
+  return {
+    user: { id: user.id, name: user.name, role: user.role, email: user.email },
+    timeZone,
+    offline: false,
+  };
 }
+
+const YARD_ZONE_KEY = "sternpost.yardTimeZone";
 
 /** Offline, the person is the one who last signed in on this tablet (kept with their work). */
 export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
   try {
-    return await serverLoader();
+    const data = await serverLoader();
+    // Kept for offline use: a tablet writes times in the yard's zone with no connection too.
+    localStorage.setItem(YARD_ZONE_KEY, data.timeZone);
+    return data;
   } catch (error) {
     if (error instanceof Response) throw error;
     const { getMeta } = await import("~/lib/offline/store.client");
@@ -24,7 +37,8 @@ export async function clientLoader({ serverLoader }: Route.ClientLoaderArgs) {
       email: string;
     }>("user");
     if (!user) throw redirect("/login");
-    return { user, offline: true };
+    const timeZone = localStorage.getItem(YARD_ZONE_KEY) ?? DEFAULT_TIME_ZONE;
+    return { user, timeZone, offline: true };
   }
 }
 
@@ -47,9 +61,11 @@ export function shouldRevalidate({
 
 export default function Shell({ loaderData }: Route.ComponentProps) {
   return (
-    <AppShell user={loaderData.user}>
-      <Outlet />
-    </AppShell>
+    <YardTimeZone value={loaderData.timeZone}>
+      <AppShell user={loaderData.user}>
+        <Outlet />
+      </AppShell>
+    </YardTimeZone>
   );
 }
 
@@ -58,8 +74,10 @@ export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   const data = useRouteLoaderData<typeof loader>("routes/shell");
   if (!data) return <ErrorMessage error={error} />;
   return (
-    <AppShell user={data.user}>
-      <ErrorMessage error={error} />
-    </AppShell>
+    <YardTimeZone value={data.timeZone}>
+      <AppShell user={data.user}>
+        <ErrorMessage error={error} />
+      </AppShell>
+    </YardTimeZone>
   );
 }

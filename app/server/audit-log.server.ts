@@ -1,5 +1,6 @@
 import type { Role } from "~/lib/roles";
-import type { AuditFilters } from "~/lib/validation/audit";
+import { entityInWords, type AuditFilters } from "~/lib/validation/audit";
+import { entityNames, nameKey, roleInWords, type EntityNames } from "./audit-names.server.ts";
 import { db } from "./db.server.ts";
 
 export const AUDIT_PAGE_SIZE = 100;
@@ -15,8 +16,76 @@ export interface AuditLogEntry {
   entityId: string;
   /** The page of the thing acted on, where it has one. */
   href: string | null;
-  /** The entry's detail as one readable line. */
+  /** What the entry is about, by name: "Tom Reyes", "Engine alignment, version 2 on Shag of Inishbofin". */
+  what: string;
+  /** The entry as a sentence: "Mara Quill deactivated Tom Reyes". */
+  sentence: string;
+  /** What the sentence does not say of the entry's detail, as one readable line. */
   detail: string | null;
+  /** Views of one thing by one person on this page are one entry: how many, and the first one's time. */
+  views?: { count: number; firstAt: string };
+}
+
+type Detail = Record<string, unknown>;
+
+/**
+ * Each action as the rest of a sentence after the person's name, and the detail keys the sentence
+ * has said (the rest stay in the detail line). An action missing here reads from its label.
+ */
+const sentences: Record<
+  string,
+  { says: (what: string, d: Detail, names: EntityNames) => string; used: string[] }
+> = {
+  "user.invited": {
+    says: (w, d) => `invited ${w}${d.role ? ` as ${roleInWords(d.role)}` : ""}`,
+    used: ["role"],
+  },
+  "user.role": { says: (w, d) => `made ${w} ${roleInWords(d.role)}`, used: ["role", "intent", "userId"] },
+  "user.deactivate": { says: (w) => `deactivated ${w}`, used: ["intent", "userId"] },
+  "user.reactivate": { says: (w) => `reactivated ${w}`, used: ["intent", "userId"] },
+  "user.reinvite": { says: (w) => `sent ${w} a new invitation`, used: ["intent", "userId"] },
+  "vessel.created": { says: (w) => `registered the vessel ${w}`, used: [] },
+  "vessel.updated": { says: (w) => `updated the vessel ${w}`, used: [] },
+  "job.created": { says: (w) => `opened ${w}`, used: [] },
+  "job.updated": { says: (w) => `updated ${w}`, used: [] },
+  "checklist.started": { says: (w) => `started ${w}`, used: ["jobId", "key", "version"] },
+  "checklist.submitted": { says: (w) => `submitted ${w} for review`, used: [] },
+  "checklist.returned": {
+    says: (w, d) =>
+      `returned ${w} for fixes${typeof d.comments === "number" ? ` with ${d.comments} comment${d.comments === 1 ? "" : "s"}` : ""}`,
+    used: ["comments"],
+  },
+  "checklist.countersigned": { says: (w) => `countersigned ${w}`, used: [] },
+  "checklist.amended": {
+    says: (w, d, names) =>
+      `amended ${names.get(nameKey("checklist", String(d.amends))) ?? "a countersigned checklist"} as ${w}`,
+    used: ["amends"],
+  },
+  "record.issued": { says: (w) => `issued ${w}`, used: [] },
+  "record.viewed": { says: (w) => `viewed ${w}`, used: [] },
+  "template.created": { says: (w) => `created the template ${w}`, used: ["key", "version"] },
+  "template.draft-created": {
+    says: (w, d) => `started the draft ${w}${d.from ? ` from version ${d.from}` : ""}`,
+    used: ["key", "version", "from"],
+  },
+  "template.draft-saved": { says: (w) => `saved the draft ${w}`, used: ["key", "version"] },
+  "template.draft-discarded": { says: (w) => `discarded the draft ${w}`, used: ["key", "version"] },
+  "template.published": {
+    says: (w, d) => `published ${w}${d.supersedes ? `, replacing version ${d.supersedes}` : ""}`,
+    used: ["key", "version", "supersedes"],
+  },
+  "template.retired": { says: (w) => `retired ${w}`, used: ["key", "version"] },
+  "template.imported": { says: (w) => `imported ${w}`, used: ["key", "version"] },
+  "yard.updated": { says: () => "changed the yard's settings", used: [] },
+};
+
+function parsedDetail(stored: unknown): unknown {
+  if (typeof stored !== "string") return stored;
+  try {
+    return JSON.parse(stored);
+  } catch {
+    return stored;
+  }
 }
 
 const pages: Record<string, (id: string) => string> = {
@@ -44,14 +113,8 @@ function valueLine(value: unknown): string {
 /** `{"jobId":3,"key":"cooling"}` reads as "job id: 3 · key: cooling". */
 export function detailLine(stored: unknown): string | null {
   if (stored === null || stored === undefined) return null;
-  let value = stored;
-  if (typeof stored === "string") {
-    try {
-      value = JSON.parse(stored);
-    } catch {
-      return stored;
-    }
-  }
+  const value = parsedDetail(stored);
+  if (typeof value === "string") return value;
   if (value && typeof value === "object" && !Array.isArray(value)) {
     const entries = Object.entries(value);
     return entries.length ? entries.map(([k, v]) => `${inWords(k)}: ${valueLine(v)}`).join(" · ") : null;
@@ -82,18 +145,67 @@ export async function listAuditEntries(
 
   const rows = await query;
   const shown = rows.slice(0, pageSize);
-  return {
-    entries: shown.map((row) => ({
+  const amended = shown
+    .filter((row) => row.action === "checklist.amended")
+    .map((row) => ({
+      entity: "checklist",
+      entityId: String((parsedDetail(row.detail) as Detail)?.amends ?? ""),
+    }));
+  const names = await entityNames([
+    ...shown.map((row) => ({ entity: row.entity, entityId: row.entity_id })),
+    ...amended,
+  ]);
+  const entries = shown.map((row): AuditLogEntry => {
+    const who = row.user_id === null ? null : { id: row.user_id, name: row.user_name, role: row.user_role };
+    const what =
+      names.get(nameKey(row.entity, row.entity_id)) ?? `${entityInWords(row.entity)} ${row.entity_id}`;
+    const detail = parsedDetail(row.detail);
+    const plain = detail && typeof detail === "object" && !Array.isArray(detail) ? (detail as Detail) : {};
+    const sentence = sentences[row.action];
+    const rest = sentence
+      ? Object.fromEntries(Object.entries(plain).filter(([key]) => !sentence.used.includes(key)))
+      : detail;
+    return {
       id: Number(row.id),
       at: new Date(row.at).toISOString(),
-      who: row.user_id === null ? null : { id: row.user_id, name: row.user_name, role: row.user_role },
+      who,
       deviceId: row.device_id,
       action: row.action,
       entity: row.entity,
       entityId: row.entity_id,
       href: pages[row.entity]?.(encodeURIComponent(row.entity_id)) ?? null,
-      detail: detailLine(row.detail),
-    })),
+      what,
+      sentence: `${who?.name ?? "The system"} ${sentence ? sentence.says(what, plain, names) : `${row.action}: ${what}`}`,
+      detail: detailLine(rest),
+    };
+  });
+  return {
+    entries: collapseViews(entries),
     olderThan: rows.length > pageSize ? Number(shown[shown.length - 1]!.id) : null,
   };
+}
+
+/**
+ * Views of the same thing by the same person on one page are one entry, at the newest view, with
+ * how many and since when: a surveyor opening a record ten times is one line, not ten.
+ */
+export function collapseViews(entries: AuditLogEntry[]): AuditLogEntry[] {
+  const kept = new Map<string, AuditLogEntry>();
+  const out: AuditLogEntry[] = [];
+  for (const entry of entries) {
+    if (!entry.action.endsWith(".viewed")) {
+      out.push(entry);
+      continue;
+    }
+    const key = `${entry.who?.id ?? "system"} ${entry.action} ${entry.entity} ${entry.entityId}`;
+    const newest = kept.get(key);
+    if (!newest) {
+      kept.set(key, entry);
+      out.push(entry);
+      continue;
+    }
+    // Newest first: this one is older than every view of the group so far.
+    newest.views = { count: (newest.views?.count ?? 1) + 1, firstAt: entry.at };
+  }
+  return out;
 }

@@ -11,6 +11,8 @@ const schema = z.object({
   MAIL_FROM: z.string().default("Sternpost <no-reply@sternpost.invalid>"),
   /** The boatyard's name, printed on its commissioning records. */
   YARD_NAME: z.string().min(1).default("Kittiwake Slip"),
+  /** The yard's time zone until a manager sets it on /yard (an IANA name, like Europe/Lisbon). */
+  YARD_TIME_ZONE: z.string().min(1).default("UTC"),
   /** Folder where the local SMTP sink keeps messages; when set, /dev/mail shows them to managers. */
   MAIL_SINK_DIR: z.string().optional(),
   /** A production server shows /dev/mail only when asked explicitly (npm start's local demo does). */

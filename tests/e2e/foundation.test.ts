@@ -11,7 +11,7 @@ beforeAll(async () => {
 afterAll(() => browser?.close());
 
 const expectedNavigation: Record<string, string[]> = {
-  manager: ["Today", "Jobs", "Vessels", "Calculators", "Library", "People", "Audit log"],
+  manager: ["Today", "Jobs", "Vessels", "Calculators", "Library", "People", "Audit log", "Yard settings"],
   lead: ["Today", "Jobs", "Vessels", "Calculators", "Library"],
   technician: ["Today", "Jobs", "Calculators", "Library"],
   surveyor: ["Today"],

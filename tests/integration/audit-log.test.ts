@@ -114,7 +114,7 @@ const tableOf = (html: string) =>
 const shown = (result: { entries: { id: number }[] }) => result.entries.map((e) => e.id);
 
 describe("the audit log query", () => {
-  it("gives an entry with its person, device, link and readable detail", async () => {
+  it("gives an entry with its person, device, link, a sentence and what the sentence does not say", async () => {
     const [started] = (
       await page({ action: "checklist.started", entity: "checklist", entityId: checklistId })
     ).entries;
@@ -123,7 +123,9 @@ describe("the audit log query", () => {
       who: { id: lead.id, name: lead.name, role: "lead" },
       deviceId: bowTablet,
       href: `/checklists/${checklistId}`,
-      detail: `job id: ${job.id} · key: cooling · version: 1`,
+      // The sentence says what the checklist is; the job, key and version are not repeated.
+      sentence: `${lead.name} started Checklist ${checklistId}`,
+      detail: null,
     });
     expect(Date.parse(started!.at)).not.toBeNaN();
     const [jobEntry] = (await page({ entity: "job", entityId: job.id })).entries;
@@ -220,6 +222,82 @@ describe("the audit log query", () => {
     } while (before !== null);
     expect(sizes).toEqual([3, 3, 1]);
     expect(seen).toEqual(written);
+  });
+});
+
+describe("the audit log in names (issue 16)", () => {
+  it("names people, vessels, jobs and template versions, and says what happened in a sentence", async () => {
+    // Reproduced with: a deactivation read "Person 8" and "intent: deactivate · user id: 8".
+    const target = await makeUser(knex, "technician", { name: `Tomás Reyes ${run}` });
+    await write("deactivated", {
+      userId: manager.id,
+      action: "user.deactivate",
+      entity: "user",
+      entityId: target.id,
+      detail: { intent: "deactivate", userId: target.id },
+    });
+    await write("promoted", {
+      userId: manager.id,
+      action: "user.role",
+      entity: "user",
+      entityId: target.id,
+      detail: { intent: "role", userId: target.id, role: "lead" },
+    });
+    const [promoted, deactivated] = (await page({ entity: "user", entityId: target.id })).entries;
+    expect(deactivated).toMatchObject({
+      what: target.name,
+      sentence: `${manager.name} deactivated ${target.name}`,
+      detail: null,
+    });
+    expect(promoted).toMatchObject({ sentence: `${manager.name} made ${target.name} Lead`, detail: null });
+
+    const vessel = (await knex("vessels").where({ id: job.vesselId }).first())!;
+    const [jobEntry] = (await page({ entity: "job", entityId: job.id })).entries;
+    expect(jobEntry!.what).toContain(vessel.name);
+    expect(jobEntry!.sentence).toBe(`${jobEntry!.who!.name} updated ${jobEntry!.what}`);
+    expect((await page({ entity: "vessel", entityId: job.vesselId })).entries[0]!.sentence).toBe(
+      `${manager.name} updated the vessel ${vessel.name}`,
+    );
+
+    const [versionId] = await knex("template_versions").insert({
+      template_key: `stern-gland-${run}`,
+      version: 4,
+      status: "draft",
+      title: "Stern gland",
+      body: "{}",
+      body_sha256: "0".repeat(64),
+    });
+    const version = { id: versionId!, template_key: `stern-gland-${run}`, version: 4, title: "Stern gland" };
+    await write("published", {
+      userId: manager.id,
+      action: "template.published",
+      entity: "template_version",
+      entityId: version.id,
+      detail: { key: version.template_key, version: version.version, supersedes: 3 },
+    });
+    const [published] = (
+      await page({ action: "template.published", entity: "template_version", entityId: version.id })
+    ).entries;
+    expect(published!.sentence).toBe(
+      `${manager.name} published ${version.title}, version ${version.version}, replacing version 3`,
+    );
+    for (const entry of [deactivated, promoted, jobEntry, published])
+      expect(`${entry!.sentence} ${entry!.detail ?? ""}`).not.toMatch(
+        /Person \d|Job \d|Template version \d|user id|intent/,
+      );
+  });
+
+  it("folds repeated views of one record by one person into one entry", async () => {
+    const viewed = `rec-views-${run}`;
+    for (let i = 0; i < 5; i++)
+      await audit({ userId: surveyor.id, action: "record.viewed", entity: "record", entityId: viewed });
+    await audit({ userId: manager.id, action: "record.viewed", entity: "record", entityId: viewed });
+    const { entries } = await page({ action: "record.viewed", entity: "record", entityId: viewed });
+    expect(entries.map((e) => [e.who?.id, e.views?.count ?? 1])).toEqual([
+      [manager.id, 1],
+      [surveyor.id, 5],
+    ]);
+    expect(Date.parse(entries[1]!.views!.firstAt)).toBeLessThanOrEqual(Date.parse(entries[1]!.at));
   });
 });
 

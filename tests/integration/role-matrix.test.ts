@@ -111,6 +111,7 @@ const matrix: [string | (() => string), Record<Who, number>][] = [
   ["/calculators/propSlip", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/library", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   ["/audit", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
+  ["/yard", { anonymous: 302, technician: 403, lead: 403, manager: 200, surveyor: 403 }],
   ["/sync", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 200 }],
   [
     () => `/checklists/${ownChecklist}/review`,
@@ -168,6 +169,7 @@ const posts: [string | (() => string), Record<Who, number>][] = [
     () => `/api/checklists/${ownChecklist}/replies`,
     { anonymous: 401, technician: 400, lead: 400, manager: 400, surveyor: 400 },
   ],
+  ["/yard", { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
   ["/jobs/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
   ["/vessels/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
   [

@@ -66,6 +66,7 @@ describe("permissions", () => {
       "Library",
       "People",
       "Audit log",
+      "Yard settings",
     ]);
     expect(labels(lead)).toEqual(["Today", "Jobs", "Vessels", "Calculators", "Library"]);
     expect(labels(tech)).toEqual(["Today", "Jobs", "Calculators", "Library"]);

@@ -1,3 +1,4 @@
+import { lazy, Suspense } from "react";
 import type { Item, Responses, Template, Verdict } from "~/lib/templates";
 import {
   CalcPanel,
@@ -10,7 +11,6 @@ import {
   type EditorProps,
 } from "./editors.tsx";
 import { ItemNotes } from "./item-notes.tsx";
-import { PhotoEditor } from "./photo-editor.tsx";
 import { VerdictBadge } from "./verdict-badge.tsx";
 
 export interface FillItemProps {
@@ -29,6 +29,9 @@ export interface FillItemProps {
   checklistId?: string;
   children?: React.ReactNode;
 }
+
+// The camera, compression and photo queue load only for a photo item.
+const PhotoEditor = lazy(() => import("./photo-editor.tsx").then((m) => ({ default: m.PhotoEditor })));
 
 function Editor(props: EditorProps & { diagram?: React.ReactNode; checklistId?: string }) {
   const { item } = props;
@@ -49,7 +52,9 @@ function Editor(props: EditorProps & { diagram?: React.ReactNode; checklistId?: 
       return <CalcPanel {...props} />;
     case "photo":
       return props.checklistId ? (
-        <PhotoEditor {...(props as EditorProps<typeof item>)} checklistId={props.checklistId} />
+        <Suspense fallback={<p className="text-ink-soft">Opening the camera…</p>}>
+          <PhotoEditor {...(props as EditorProps<typeof item>)} checklistId={props.checklistId} />
+        </Suspense>
       ) : null;
   }
 }

@@ -67,6 +67,9 @@ export interface CalcDefinition {
 
 export type Inputs = Record<string, CalcInput | undefined>;
 
+/** The calculations a screen or the server has at hand, by name (the registry, or none yet). */
+export type Calculations = Readonly<Record<string, CalcDefinition>>;
+
 // Each caution names the one hazard of the work its calculation belongs to (issue 12, item 11).
 export const CAUTION_ROTATING =
   "Isolate the engine (key out, stop control set) so it cannot start while the shaft is turned by hand; keep hands and sleeves clear of the coupling.";

@@ -1,6 +1,6 @@
 import { couplingFaceCalc, couplingRimCalc } from "./coupling";
 import type { CalcDefinition, CalcInput, CalcOutcome } from "./define";
-import { isCalcError } from "./errors";
+import { runDefinition } from "./run";
 import { exhaustBackPressureCalc, exhaustInjectionCalc } from "./exhaust";
 import { couplingFitCalc, isoFitCalc } from "./fits";
 import { validateHinCalc } from "./hin";
@@ -20,7 +20,14 @@ import {
   tachPulsesCalc,
 } from "./trial";
 
-export type { CalcDefinition, CalcInput, CalcInputSpec, CalcOutcome, UnitSystem } from "./define";
+export type {
+  CalcDefinition,
+  CalcInput,
+  CalcInputSpec,
+  CalcOutcome,
+  Calculations,
+  UnitSystem,
+} from "./define";
 
 /**
  * The calculations a template's calc item can name (docs/calculations.md lists their inputs).
@@ -63,10 +70,5 @@ export function runCalc(
 ): CalcOutcome | { error: { field: string; message: string } } {
   const definition = Object.hasOwn(calculations, name) ? calculations[name] : undefined;
   if (!definition) return { error: { field: "calc", message: `There is no calculation named "${name}".` } };
-  try {
-    return definition.run(inputs);
-  } catch (error) {
-    if (isCalcError(error)) return { error: { field: error.field, message: error.message } };
-    throw error;
-  }
+  return runDefinition(definition, inputs);
 }

@@ -1,4 +1,4 @@
-import { z } from "zod";
+import type { z } from "zod";
 import type { ChecklistState } from "../checklist-sets.ts";
 
 /**
@@ -18,105 +18,20 @@ import type { ChecklistState } from "../checklist-sets.ts";
  * attempt's id) are append-only sets that merge; every other answer is a scalar that conflicts.
  */
 
-/** The most operations one request may carry; a bigger batch is answered 413. */
-export const MAX_OPS_PER_REQUEST = 1000;
-/** The largest request body the route reads, in bytes (413 beyond it). */
-export const MAX_SYNC_BODY_BYTES = 4 * 1024 * 1024;
-/** About how many changes one pull answers (a page ends between change numbers); `more` asks for the next. */
-export const MAX_CHANGES_PER_PULL = 500;
-/** The largest number the unsigned INT columns (seq, revisions, conflict ids) hold. */
-export const MAX_UINT32 = 4_294_967_295;
-/** How deep a value may nest; the deepest item kind (readings: attempts → cells → row) needs 5. */
-export const MAX_VALUE_DEPTH = 16;
-
-const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
-
-/** A string MariaDB's utf8mb4 columns and JSON check accept: no lone UTF-16 surrogate. */
-export const isWellFormed = (s: string) => !LONE_SURROGATE.test(s);
-
-/**
- * Why a value could not be stored as JSON in MariaDB, or null if it can. Walks the value without
- * recursion, so a value nested thousands of levels deep is refused instead of overflowing the stack.
- */
-export function unstorableJson(value: unknown): string | null {
-  const stack: { v: unknown; depth: number }[] = [{ v: value, depth: 0 }];
-  while (stack.length) {
-    const { v, depth } = stack.pop()!;
-    if (v === null || typeof v === "boolean") continue;
-    if (typeof v === "number") {
-      if (!Number.isFinite(v)) return "holds a number JSON cannot carry";
-      continue;
-    }
-    if (typeof v === "string") {
-      if (!isWellFormed(v)) return "holds text cut in the middle of a character (a lone UTF-16 surrogate)";
-      continue;
-    }
-    if (typeof v !== "object") return "is not a JSON value";
-    if (depth >= MAX_VALUE_DEPTH) return `is nested more than ${MAX_VALUE_DEPTH} levels deep`;
-    if (Array.isArray(v)) {
-      for (const x of v) stack.push({ v: x, depth: depth + 1 });
-      continue;
-    }
-    if (Object.getPrototypeOf(v) !== Object.prototype && Object.getPrototypeOf(v) !== null)
-      return "is not a JSON value";
-    for (const [k, x] of Object.entries(v)) {
-      if (!isWellFormed(k)) return "has a key cut in the middle of a character (a lone UTF-16 surrogate)";
-      stack.push({ v: x, depth: depth + 1 });
-    }
-  }
-  return null;
-}
-
-const wellFormedString = (min: number, max: number) =>
-  z
-    .string({ error: "must be a string" })
-    .min(min)
-    .max(max)
-    .refine(isWellFormed, { error: "holds a lone UTF-16 surrogate" });
-const uint32 = z
-  .number({ error: "must be a number" })
-  .int()
-  .nonnegative()
-  .max(MAX_UINT32, { error: `must be at most ${MAX_UINT32}` });
-
-export const operationSchema = z.strictObject({
-  opId: z.uuid({ error: "must be a UUID" }),
-  seq: uint32,
-  checklistId: z.uuid({ error: "must be a UUID" }),
-  itemKey: wellFormedString(1, 80),
-  value: z.unknown().superRefine((v, ctx) => {
-    const problem = v === undefined ? "is missing" : unstorableJson(v);
-    if (problem) ctx.addIssue({ code: "custom", message: problem });
-  }),
-  baseRev: uint32,
-  /** The device's clock, kept as sent (however wrong) and never used to decide anything. */
-  at: z.iso.datetime({ offset: true, error: "must be an ISO 8601 date and time" }).max(40),
-  /** Conflict ids this operation decides (a resolution is an ordinary operation). */
-  resolves: z.array(uint32.positive()).max(50).optional(),
-});
-export type Operation = z.infer<typeof operationSchema> & { value: JsonValue };
+export {
+  isWellFormed,
+  MAX_CHANGES_PER_PULL,
+  MAX_OPS_PER_REQUEST,
+  MAX_SYNC_BODY_BYTES,
+  MAX_UINT32,
+  MAX_VALUE_DEPTH,
+  unstorableJson,
+} from "./storable.ts";
+// The request's zod schemas live in their own module so the tablet's store, which needs only the
+// types and `unstorableJson`, does not carry zod (see docs/decisions/087-checklist-screen-weight.md).
+export { operationSchema, syncRequestSchema } from "./request-schema.ts";
+export type { Operation, SyncRequest } from "./request-schema.ts";
 export type JsonValue = string | number | boolean | null | JsonValue[] | { [key: string]: JsonValue };
-
-/** What the envelope needs of each operation before it is read on its own: a UUID to answer to. */
-const envelopeOpSchema = z.looseObject({ opId: z.uuid({ error: "must be a UUID" }) });
-
-export const syncRequestSchema = z.strictObject({
-  deviceId: wellFormedString(8, 64),
-  cursor: z.string().max(32).nullable(),
-  ops: z
-    .array(envelopeOpSchema)
-    .max(MAX_OPS_PER_REQUEST)
-    .superRefine((ops, ctx) => {
-      // The same opId twice in one request has no single answer: the whole batch is malformed.
-      const seen = new Set<string>();
-      ops.forEach((o, i) => {
-        if (seen.has(o.opId))
-          ctx.addIssue({ code: "custom", path: [i, "opId"], message: "repeats an earlier operation's id" });
-        seen.add(o.opId);
-      });
-    }),
-});
-export type SyncRequest = z.infer<typeof syncRequestSchema>;
 
 export type OpStatus = "applied" | "conflict" | "rejected";
 

@@ -1,105 +1,39 @@
-import { calculations, type CalcDefinition, type CalcInput, type CalcInputSpec } from "~/lib/calc/registry";
-import { dimensionOf, type Unit } from "~/lib/calc/units";
-import { findItem, type CalcBinding, type CalcItem, type Item, type Template } from "./schema";
+import type { CalcDefinition, CalcInput, CalcInputSpec } from "~/lib/calc/define";
+import type { Unit } from "~/lib/calc/units";
+import { findItem } from "./items";
+import type { CalcItem, Item, Template } from "./schema";
 import { liveAttempts, valueSchemaFor, type Responses } from "./values";
 
 /**
- * The link between a template's calc item and the calculation registry: which item feeds which
- * input (checked when a template is read), and turning the responses of those items into the
- * registry's inputs (when a checklist is evaluated).
+ * Turning the responses of a calc item's source items into the registry's inputs (when a
+ * checklist is evaluated). Free of the registry itself, so the checklist screen can load the
+ * calculations only when its template has calc items; calc-bindings.ts checks a template's
+ * bindings against the registry.
  */
 
 type InputKind = CalcInput["kind"];
 
 /** Which registry input kind each item kind produces; other kinds cannot feed a calculation. */
-const kindFedBy: Partial<Record<Item["kind"], InputKind>> = {
+export const kindFedBy: Partial<Record<Item["kind"], InputKind>> = {
   measure: "number",
   readings: "grid",
   choice: "text",
 };
 
-const kindWords: Record<InputKind, string> = {
+export const kindWords: Record<InputKind, string> = {
   number: "a number (a measure item or a numeric constant)",
   grid: "a grid (a readings item)",
   numbers: "a list of numbers",
   text: "text (a choice item or a string)",
 };
 
-function constantKind(value: number | number[] | string): InputKind {
+export function constantKind(value: number | number[] | string): InputKind {
   if (typeof value === "number") return "number";
   return typeof value === "string" ? "text" : "numbers";
 }
 
-export function calcDefinition(name: string): CalcDefinition | undefined {
-  return Object.hasOwn(calculations, name) ? calculations[name] : undefined;
-}
-
-function inputSpec(definition: CalcDefinition, name: string): CalcInputSpec | undefined {
+export function inputSpec(definition: CalcDefinition, name: string): CalcInputSpec | undefined {
   return Object.hasOwn(definition.inputs, name) ? definition.inputs[name] : undefined;
-}
-
-interface BindingProblem {
-  path: (string | number)[];
-  message: string;
-}
-
-/** What is wrong with a calc item's calculation name and bindings, paths relative to the item. */
-export function calcBindingProblems(item: CalcItem, template: Template): BindingProblem[] {
-  const definition = calcDefinition(item.calc);
-  if (!definition) {
-    return [
-      {
-        path: ["calc"],
-        message: `no calculation named "${item.calc}"; known: ${Object.keys(calculations).join(", ")}`,
-      },
-    ];
-  }
-  const problems: BindingProblem[] = [];
-  for (const [name, spec] of Object.entries(definition.inputs)) {
-    if (!spec.optional && !Object.hasOwn(item.inputs, name)) {
-      problems.push({ path: ["inputs"], message: `${item.calc} needs the input "${name}" (${spec.label})` });
-    }
-  }
-  for (const [name, binding] of Object.entries(item.inputs)) {
-    const spec = inputSpec(definition, name);
-    if (!spec) {
-      problems.push({
-        path: ["inputs", name],
-        message: `${item.calc} has no input "${name}"; it takes ${Object.keys(definition.inputs).join(", ")}`,
-      });
-      continue;
-    }
-    const message = bindingProblem(item, binding, spec, template);
-    if (message) problems.push({ path: ["inputs", name, "item" in binding ? "item" : "value"], message });
-  }
-  return problems;
-}
-
-function bindingProblem(
-  item: CalcItem,
-  binding: CalcBinding,
-  spec: CalcInputSpec,
-  template: Template,
-): string | undefined {
-  const takes = spec.accepts.map((kind) => kindWords[kind]).join(" or ");
-  if ("value" in binding)
-    return spec.accepts.includes(constantKind(binding.value)) ? undefined : `expected ${takes}`;
-  const source = findItem(template, binding.item);
-  if (!source) return `no item "${binding.item}" in this template`;
-  if (source.key === item.key) return "a calculation cannot take its own result";
-  const kind = kindFedBy[source.kind];
-  if (!kind)
-    return `"${source.key}" is a ${source.kind} item; a calculation takes measure, readings or choice items`;
-  if (!spec.accepts.includes(kind))
-    return `"${source.key}" is a ${source.kind} item but this input takes ${takes}`;
-  if (
-    spec.unit &&
-    (source.kind === "measure" || source.kind === "readings") &&
-    dimensionOf(source.unit) !== dimensionOf(spec.unit)
-  ) {
-    return `"${source.key}" is measured in ${source.unit} (${dimensionOf(source.unit)}) but this input takes ${spec.unit} (${dimensionOf(spec.unit)})`;
-  }
-  return undefined;
 }
 
 export type GatheredInputs =

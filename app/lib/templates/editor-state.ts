@@ -1,8 +1,9 @@
 import { dimensionOf, isUnit, units, type Unit } from "~/lib/calc/units";
 import { readDecimal } from "~/lib/read-number";
 import { sameJson } from "~/lib/sync/protocol";
-import { calcBindingProblems, calcDefinition } from "./calc-inputs";
-import { formatPath, parseTemplate, type TemplateParse, type TemplateProblem } from "./load";
+import { calcBindingProblems, calcDefinition } from "./calc-bindings";
+import { parseTemplate, type TemplateParse, type TemplateProblem } from "./load";
+import { formatPath } from "./path";
 import type { AppliesWhen, CalcBinding, CalcItem, Item, ItemKind, JobFact, Phase, Template } from "./schema";
 
 /**

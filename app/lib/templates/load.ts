@@ -1,6 +1,7 @@
 import type { z } from "zod";
 import { dimensionOf, type Unit } from "~/lib/calc/units";
-import { calcBindingProblems } from "./calc-inputs";
+import { calcBindingProblems } from "./calc-bindings";
+import { formatPath } from "./path";
 import { prefillProblems } from "./prefill";
 import {
   findItem,
@@ -24,21 +25,9 @@ export interface TemplateProblem {
   message: string;
 }
 
-type Path = readonly PropertyKey[];
-
 interface RawProblem {
   path: (string | number)[];
   message: string;
-}
-
-export function formatPath(path: Path): string {
-  return path
-    .map((part, i) => {
-      if (typeof part === "number") return `[${part}]`;
-      const name = String(part);
-      return /^[A-Za-z_][\w-]*$/.test(name) ? (i === 0 ? name : `.${name}`) : `[${JSON.stringify(name)}]`;
-    })
-    .join("");
 }
 
 export function problemText(problem: TemplateProblem): string {
@@ -61,7 +50,9 @@ function describeIssue(issue: z.core.$ZodIssue): TemplateProblem[] {
   switch (issue.code) {
     case "invalid_type": {
       const expected = `expected ${expectedWords[issue.expected] ?? issue.expected}`;
-      return [{ path, message: issue.input === undefined ? `missing, ${expected}` : expected }];
+      if (issue.input === undefined) return [{ path, message: `missing, ${expected}` }];
+      // The field's own words ("the minimum must be a number") where the format gives some.
+      return [{ path, message: issue.message.startsWith("Invalid input") ? expected : issue.message }];
     }
     case "unrecognized_keys":
       return issue.keys.map((key) => ({ path: formatPath([...issue.path, key]), message: "unknown field" }));

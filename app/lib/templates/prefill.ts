@@ -1,6 +1,7 @@
 import type { Unit } from "~/lib/calc/units";
 import type { JobInput } from "~/lib/validation/jobs";
-import { acceptedUnits, placedItems, type Item, type JobFact, type Template } from "./schema";
+import { acceptedUnits, placedItems, type JobFact } from "./items";
+import type { Item, Template } from "./schema";
 import type { MeasureValue, Responses } from "./values";
 
 /**

@@ -1,4 +1,5 @@
-import { evaluateAll, type Verdict } from "./rules";
+import type { Calculations } from "~/lib/calc/define";
+import { evaluateAllWith, type Verdict } from "./rules";
 import type { Template } from "./schema";
 import type { Responses } from "./values";
 
@@ -32,8 +33,8 @@ export interface Progress {
 
 const ATTENTION = new Set(["out-of-range", "needs-note", "invalid"]);
 
-export function progress(template: Template, responses: Responses): Progress {
-  const verdicts = evaluateAll(template, responses);
+export function progressWith(calculations: Calculations, template: Template, responses: Responses): Progress {
+  const verdicts = evaluateAllWith(calculations, template, responses);
   const sections = template.sections.map((section): SectionProgress => {
     const tally: Tally = { required: 0, done: 0, left: [], attention: [] };
     for (const item of section.items) {

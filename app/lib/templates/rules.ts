@@ -1,22 +1,23 @@
-import { runCalc, type CalcOutcome } from "~/lib/calc/registry";
+import type { CalcOutcome, Calculations } from "~/lib/calc/define";
+import { runDefinition } from "~/lib/calc/run";
 import { atLeast, atMost } from "~/lib/calc/numbers";
 import { convert, dimensionOf, isUnit, type Unit } from "~/lib/calc/units";
-import { calcDefinition, gatherCalcInputs } from "./calc-inputs";
+import { gatherCalcInputs } from "./calc-inputs";
 import { describeRule, formatEntered, formatNumber, formatQuantity } from "./format";
-import { formatPath } from "./load";
+import { formatPath } from "./path";
 import { FROM_JOB } from "./prefill";
-import {
-  findItem,
-  type AppliesWhen,
-  type CalcItem,
-  type CalcRule,
-  type ChoiceItem,
-  type Item,
-  type MeasureItem,
-  type ReadingsItem,
-  type ReadingsRule,
-  type Rule,
-  type Template,
+import { findItem } from "./items";
+import type {
+  AppliesWhen,
+  CalcItem,
+  CalcRule,
+  ChoiceItem,
+  Item,
+  MeasureItem,
+  ReadingsItem,
+  ReadingsRule,
+  Rule,
+  Template,
 } from "./schema";
 import {
   liveAttempts,
@@ -120,14 +121,21 @@ function finding(
 
 /**
  * The verdict on one item's response. `value` is the stored response (absent when none); it is
- * validated against the item first. A calc item needs the context: its inputs are other items.
+ * validated against the item first. A calc item needs the context: its inputs are other items;
+ * and the calculations at hand (the barrel's `evaluate` passes the whole registry; the checklist
+ * screen passes what it loaded on demand).
  */
-export function evaluate(item: Item, value: unknown, context?: EvaluationContext): Verdict {
+export function evaluateWith(
+  calculations: Calculations,
+  item: Item,
+  value: unknown,
+  context?: EvaluationContext,
+): Verdict {
   if (context && item.appliesWhen) {
     const condition = appliesNow(item.appliesWhen, context);
     if (!condition.applies) return condition.verdict;
   }
-  if (item.kind === "calc") return evaluateCalc(item, value, context);
+  if (item.kind === "calc") return evaluateCalc(calculations, item, value, context);
   if (value === undefined || value === null) return verdict("unanswered", "Not answered yet.");
   const parsed = valueSchemaFor(item).safeParse(value);
   if (!parsed.success) {
@@ -199,11 +207,15 @@ function appliesNow(
 }
 
 /** Every item of a template, keyed by item key. */
-export function evaluateAll(template: Template, responses: Responses): Record<string, Verdict> {
+export function evaluateAllWith(
+  calculations: Calculations,
+  template: Template,
+  responses: Responses,
+): Record<string, Verdict> {
   const verdicts: Record<string, Verdict> = {};
   for (const section of template.sections) {
     for (const item of section.items)
-      verdicts[item.key] = evaluate(item, responses[item.key], { template, responses });
+      verdicts[item.key] = evaluateWith(calculations, item, responses[item.key], { template, responses });
   }
   return verdicts;
 }
@@ -356,7 +368,12 @@ function evaluatePhotos(count: number, minPhotos: number): Verdict {
   return verdict("ok", count === 1 ? "1 photo." : `${count} photos.`);
 }
 
-function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext | undefined): Verdict {
+function evaluateCalc(
+  calculations: Calculations,
+  item: CalcItem,
+  value: unknown,
+  context: EvaluationContext | undefined,
+): Verdict {
   let note: string | undefined;
   if (value !== undefined && value !== null) {
     const parsed = valueSchemaFor(item).safeParse(value);
@@ -364,7 +381,7 @@ function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext
       return verdict("invalid", `This entry does not fit the item: ${parsed.error.issues[0].message}.`);
     note = parsed.data.note;
   }
-  const definition = calcDefinition(item.calc);
+  const definition = Object.hasOwn(calculations, item.calc) ? calculations[item.calc] : undefined;
   if (!definition) return verdict("invalid", `There is no calculation named "${item.calc}".`);
   if (!context) return verdict("unanswered", "Computed from other items of the checklist.");
   const gathered = gatherCalcInputs(item, definition, context.template, context.responses);
@@ -373,7 +390,7 @@ function evaluateCalc(item: CalcItem, value: unknown, context: EvaluationContext
       "unanswered",
       `Waits for: ${gathered.waitingFor.map((source) => source.label).join("; ")}.`,
     );
-  const outcome = runCalc(item.calc, gathered.inputs);
+  const outcome = runDefinition(definition, gathered.inputs);
   if ("error" in outcome) {
     // The error names the registry input; say which item of the checklist fed it.
     const binding = Object.hasOwn(item.inputs, outcome.error.field)

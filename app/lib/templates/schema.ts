@@ -1,5 +1,10 @@
 import { z } from "zod";
-import { isUnit, type Unit } from "~/lib/calc/units";
+import { jobFactNames, phases } from "./items";
+import { unitSchema } from "./unit-schema";
+
+export { acceptedUnits, findItem, jobFactNames, phaseLabels, phases, placedItems } from "./items";
+export type { JobFact, Phase, PlacedItem } from "./items";
+export { unitSchema };
 
 /**
  * Sternpost's checklist template format (documented in docs/template-format.md). This is the
@@ -17,22 +22,7 @@ const kebabKey = z
 
 const words = z.string({ error: "expected a string" }).trim().min(1, { error: "cannot be empty" });
 
-export const unitSchema = z.custom<Unit>((value) => isUnit(value), {
-  error: "expected a unit Sternpost knows (in, thou, mm, psi, kPa, inHg, inH2O, degF, degC, rpm, V, A…)",
-});
-
-/** Where the boat is when the step is done; the screens can filter and order by it. */
-export const phases = ["in-the-shop", "on-the-hard", "afloat", "sea-trial", "after-sea-trial"] as const;
 export const phaseSchema = z.enum(phases);
-export type Phase = z.infer<typeof phaseSchema>;
-
-export const phaseLabels: Record<Phase, string> = {
-  "in-the-shop": "In the shop",
-  "on-the-hard": "On the hard",
-  afloat: "Afloat",
-  "sea-trial": "Sea trial",
-  "after-sea-trial": "After the sea trial",
-};
 
 /**
  * The item applies only when another item of the template has one of these answers: a choice one
@@ -68,11 +58,13 @@ const limit = z.number({ error: "expected a number" });
  * Acceptance limits in `unit`, which may differ from the unit a reading is entered in (a limit in
  * thousandths of an inch against a reading in millimetres). nominal ± tolerance narrows min/max.
  */
+const namedLimit = (name: string) => z.number({ error: `the ${name} must be a number` });
 const ruleFields = {
-  min: limit.optional(),
-  max: limit.optional(),
-  nominal: limit.optional(),
-  tolerance: limit.nonnegative({ error: "cannot be negative" }).optional(),
+  // Said at the field in the library editor: "the minimum must be a number", not a path.
+  min: namedLimit("minimum").optional(),
+  max: namedLimit("maximum").optional(),
+  nominal: namedLimit("nominal value").optional(),
+  tolerance: namedLimit("tolerance").nonnegative({ error: "the tolerance cannot be negative" }).optional(),
   unit: unitSchema,
 };
 
@@ -88,18 +80,6 @@ const gridLine = z.strictObject({ key: kebabKey, label: words });
 
 export const checkItemSchema = z.strictObject({ kind: z.literal("check"), ...itemBase });
 
-/** A fact of the job's installed equipment an item is filled from (see prefill.ts). */
-export const jobFactNames = [
-  "ratedRpmMin",
-  "ratedRpmMax",
-  "gearRatio",
-  "propellerDiameter",
-  "propellerPitch",
-  "shaftDiameter",
-  "shaftSystem",
-  "systemVoltage",
-] as const;
-export type JobFact = (typeof jobFactNames)[number];
 export const jobFactSchema = z.enum(jobFactNames);
 
 export const measureItemSchema = z.strictObject({
@@ -238,30 +218,3 @@ export type ReadingsRule = z.output<typeof readingsRuleSchema>;
 export type CalcRule = z.output<typeof calcRuleSchema>;
 export type AppliesWhen = z.output<typeof appliesWhenSchema>;
 export type CalcBinding = z.output<typeof calcBindingSchema>;
-
-/** The units a measure or readings item takes: its `accepts` list, or only its `unit`. */
-export function acceptedUnits(item: MeasureItem | ReadingsItem): readonly Unit[] {
-  return item.accepts ?? [item.unit];
-}
-
-export interface PlacedItem {
-  item: Item;
-  section: Section;
-  sectionIndex: number;
-  itemIndex: number;
-}
-
-/** Every item of a template in reading order, with where it sits. */
-export function placedItems(template: Template): PlacedItem[] {
-  return template.sections.flatMap((section, sectionIndex) =>
-    section.items.map((item, itemIndex) => ({ item, section, sectionIndex, itemIndex })),
-  );
-}
-
-export function findItem(template: Template, key: string): Item | undefined {
-  for (const section of template.sections) {
-    const item = section.items.find((candidate) => candidate.key === key);
-    if (item) return item;
-  }
-  return undefined;
-}

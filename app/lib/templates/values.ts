@@ -1,30 +1,29 @@
-import { z } from "zod";
+import * as z from "zod/mini";
 import { dimensionOf } from "~/lib/calc/units";
-import {
-  acceptedUnits,
-  unitSchema,
-  type Item,
-  type ItemKind,
-  type MeasureItem,
-  type ReadingsItem,
-} from "./schema";
+import { acceptedUnits } from "./items";
+import type { Item, ItemKind, MeasureItem, ReadingsItem } from "./schema";
+import { unitSchema } from "./unit-schema";
 
 /**
  * What a response to an item holds, per kind. A response is stored as entered; its verdict is
  * always recomputed from it by rules.ts, never stored in it. `valueSchemaFor(item)` adds what
  * depends on the item (accepted units, grid shape, known options) so a bad entry is refused at
- * the field before it is kept.
+ * the field before it is kept. Written with zod/mini: the tablet checks every entry with these and
+ * should not carry full zod for it.
  */
 
-const note = z
-  .string({ error: "expected a string" })
-  .max(4000, { error: "is longer than 4000 characters" })
-  .optional();
+const note = z.optional(
+  z
+    .string({ error: "expected a string" })
+    .check(z.maxLength(4000, { error: "is longer than 4000 characters" })),
+);
 const at = z.iso.datetime({
   offset: true,
   error: "expected a date and time in ISO 8601, like 2025-05-14T09:30:00Z",
 });
-const by = z.string({ error: "expected a string" }).trim().min(1, { error: "cannot be empty" });
+const by = z
+  .string({ error: "expected a string" })
+  .check(z.trim(), z.minLength(1, { error: "cannot be empty" }));
 const reading = z.number({ error: "expected a number" });
 
 export const checkValueSchema = z.strictObject({
@@ -37,7 +36,7 @@ export const checkValueSchema = z.strictObject({
  * app/lib/sync/merge.ts). Attempts recorded before ids existed have none and are left as stored,
  * so countersigned records keep their digests; the merge knows them by their content.
  */
-const attemptId = z.uuid({ error: "expected a UUID" }).optional();
+const attemptId = z.optional(z.uuid({ error: "expected a UUID" }));
 
 /**
  * A mistaken attempt struck through with a reason: the attempt stays in the record, shown struck,
@@ -50,13 +49,15 @@ export const strikeSchema = z.strictObject({
   attempt: z.uuid({ error: "expected the struck attempt's id" }),
   reason: z
     .string({ error: "expected a string" })
-    .trim()
-    .min(1, { error: "needs a reason" })
-    .max(500, { error: "is longer than 500 characters" }),
+    .check(
+      z.trim(),
+      z.minLength(1, { error: "needs a reason" }),
+      z.maxLength(500, { error: "is longer than 500 characters" }),
+    ),
   at,
   by,
 });
-const strikes = z.array(strikeSchema).optional();
+const strikes = z.optional(z.array(strikeSchema));
 
 export const measureAttemptSchema = z.strictObject({
   id: attemptId,
@@ -68,7 +69,7 @@ export const measureAttemptSchema = z.strictObject({
 
 /** Every attempt is kept (a shaft straightened three times has three); the last one is reported. */
 export const measureValueSchema = z.strictObject({
-  attempts: z.array(measureAttemptSchema).min(1, { error: "needs at least one attempt" }),
+  attempts: z.array(measureAttemptSchema).check(z.minLength(1, { error: "needs at least one attempt" })),
   strikes,
   note,
 });
@@ -83,7 +84,7 @@ export const readingsAttemptSchema = z.strictObject({
 });
 
 export const readingsValueSchema = z.strictObject({
-  attempts: z.array(readingsAttemptSchema).min(1, { error: "needs at least one attempt" }),
+  attempts: z.array(readingsAttemptSchema).check(z.minLength(1, { error: "needs at least one attempt" })),
   strikes,
   note,
 });
@@ -95,9 +96,11 @@ export const textValueSchema = z.strictObject({ text: z.string({ error: "expecte
 export const initialsValueSchema = z.strictObject({
   initials: z
     .string({ error: "expected a string" })
-    .trim()
-    .min(1, { error: "cannot be empty" })
-    .max(8, { error: "is longer than 8 characters" }),
+    .check(
+      z.trim(),
+      z.minLength(1, { error: "cannot be empty" }),
+      z.maxLength(8, { error: "is longer than 8 characters" }),
+    ),
   at,
   by,
 });
@@ -106,10 +109,9 @@ export const photoValueSchema = z.strictObject({
   photos: z.array(
     z.strictObject({
       id: z.uuid({ error: "expected a UUID" }),
-      sha256: z
-        .string()
-        .regex(/^[0-9a-f]{64}$/, { error: "expected 64 lower-case hexadecimal digits" })
-        .optional(),
+      sha256: z.optional(
+        z.string().check(z.regex(/^[0-9a-f]{64}$/, { error: "expected 64 lower-case hexadecimal digits" })),
+      ),
     }),
   ),
 });
@@ -126,7 +128,7 @@ export const valueSchemas = {
   text: textValueSchema,
   photo: photoValueSchema,
   initials: initialsValueSchema,
-} as const satisfies Record<ItemKind, z.ZodType>;
+} as const satisfies Record<ItemKind, z.ZodMiniType>;
 
 export type CheckValue = z.output<typeof checkValueSchema>;
 export type Strike = z.output<typeof strikeSchema>;
@@ -168,19 +170,21 @@ export function takesNegative(item: MeasureItem | ReadingsItem): boolean {
   return item.kind === "readings" && dimension === "length" && item.rule?.appliesTo !== "row-spread";
 }
 
-const schemaCache = new WeakMap<Item, z.ZodType>();
+const schemaCache = new WeakMap<Item, z.ZodMiniType>();
 
 /** The schema of a response to this particular item (built once per item: a sync batch checks many). */
-export function valueSchemaFor<I extends Item>(item: I): z.ZodType<ValueFor<I["kind"]>> {
+export function valueSchemaFor<I extends Item>(item: I): z.ZodMiniType<ValueFor<I["kind"]>> {
   let schema = schemaCache.get(item);
   if (!schema) {
-    schema = (valueSchemas[item.kind] as z.ZodType).superRefine((value, ctx) => {
-      for (const problem of fitProblems(item, value as ItemValue))
-        ctx.addIssue({ code: "custom", ...problem });
-    });
+    schema = (valueSchemas[item.kind] as z.ZodMiniType).check(
+      z.superRefine((value, ctx) => {
+        for (const problem of fitProblems(item, value as ItemValue))
+          ctx.addIssue({ code: "custom", ...problem });
+      }),
+    );
     schemaCache.set(item, schema);
   }
-  return schema as z.ZodType<ValueFor<I["kind"]>>;
+  return schema as z.ZodMiniType<ValueFor<I["kind"]>>;
 }
 
 interface FitProblem {

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { isTimeZone } from "~/lib/format";
 
 /** Plain words for each action the application writes; a code missing here is shown as stored. */
 export const auditActionLabels = {
@@ -26,6 +27,7 @@ export const auditActionLabels = {
   "template.published": "Published a template version",
   "template.retired": "Retired a template version",
   "template.imported": "Imported a template",
+  "yard.updated": "Changed the yard's settings",
 } as const satisfies Record<string, string>;
 
 export function actionInWords(code: string): string {
@@ -52,20 +54,11 @@ export const auditEntityLabels: Record<string, string> = {
   vessel: "Vessel",
   user: "Person",
   template_version: "Template version",
+  yard: "Yard settings",
 };
 
 export function entityInWords(entity: string): string {
   return auditEntityLabels[entity] ?? entity;
-}
-
-/** Whether the runtime knows this IANA time zone name. */
-function isTimeZone(name: string): boolean {
-  try {
-    new Intl.DateTimeFormat("en", { timeZone: name });
-    return true;
-  } catch {
-    return false;
-  }
 }
 
 /** The zone's wall-clock reading at an instant, written as if it were a UTC instant. */
@@ -144,7 +137,7 @@ export const auditFiltersSchema = z
     ),
     from: day("first day"),
     to: day("last day"),
-    // Hidden and filled by the browser: an unknown zone is read as UTC, and the page says so.
+    // Set by the loader to the yard's zone: the days are the yard's days.
     tz: z.string().refine(isTimeZone).catch("UTC"),
     before: optional(
       z.coerce

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { formNumber } from "./form-number";
 
 export const jobScopes = ["repower", "new-installation", "realignment", "shaft-replacement"] as const;
 export const jobScopeLabels: Record<(typeof jobScopes)[number], string> = {
@@ -24,7 +25,6 @@ export const shaftSystemLabels: Record<ShaftSystem, string> = {
 /** The DC system voltages the electrical checks are written for. */
 export const systemVoltages = [12, 24] as const;
 
-const number = (label: string) => z.coerce.number({ error: `Enter ${label} as a number.` });
 const text = (label: string, max = 120) =>
   z
     .string({ error: `Enter ${label}.` })
@@ -47,36 +47,32 @@ export const jobSchema = z
     status: z.enum(jobStatuses, { error: "Choose a status." }).default("planned"),
     engineModel: text("the engine model"),
     engineSerial: text("the engine serial number", 60),
-    ratedPowerHp: number("the rated power").positive("Rated power must be more than zero.").max(5000),
-    ratedRpmMin: number("the lowest rated rpm")
-      .int("Use whole rpm.")
-      .positive("Enter the lowest rated rpm.")
-      .max(10000),
-    ratedRpmMax: number("the highest rated rpm")
-      .int("Use whole rpm.")
-      .positive("Enter the highest rated rpm.")
-      .max(10000),
-    gearRatio: number("the gear ratio")
-      .min(1, "A marine gear ratio is 1:1 or more (enter 2.0 for 2:1).")
-      .max(10),
-    propDiameterIn: number("the propeller diameter")
-      .positive("The propeller diameter must be more than zero.")
-      .max(120),
-    propPitchIn: number("the propeller pitch")
-      .positive("The propeller pitch must be more than zero.")
-      .max(120),
-    propBlades: number("the number of blades").int().min(2, "A propeller has two blades or more.").max(7),
+    ratedPowerHp: formNumber("the rated power", { min: 1, max: 5000, unit: "hp" }),
+    ratedRpmMin: formNumber("the lowest rated rpm", { min: 1, max: 10000, unit: "rpm", whole: true }),
+    ratedRpmMax: formNumber("the highest rated rpm", { min: 1, max: 10000, unit: "rpm", whole: true }),
+    gearRatio: formNumber("the gear ratio", {
+      min: 1,
+      max: 10,
+      note: "a marine gear is 1:1 or more; 2.0 for 2:1",
+    }),
+    propDiameterIn: formNumber("the propeller diameter", { min: 0, above: true, max: 120, unit: "in" }),
+    propPitchIn: formNumber("the propeller pitch", { min: 0, above: true, max: 120, unit: "in" }),
+    propBlades: formNumber("the number of blades", { min: 2, max: 7, whole: true }),
     shaftSystem: z.enum(shaftSystems, { error: "Choose inch or metric." }).default("inch"),
     // Entered in the shaft's own system; an inch figure is kept for both (the record and the
     // older screens read it), a metric shaft also keeps its millimetres as entered.
-    shaftDiameterIn: number("the shaft diameter")
-      .positive("The shaft diameter must be more than zero.")
-      .max(12)
-      .optional(),
-    shaftDiameterMm: number("the shaft diameter in mm")
-      .positive("The shaft diameter must be more than zero.")
-      .max(300)
-      .optional(),
+    shaftDiameterIn: formNumber("the shaft diameter", {
+      min: 0,
+      above: true,
+      max: 12,
+      unit: "in",
+    }).optional(),
+    shaftDiameterMm: formNumber("the shaft diameter", {
+      min: 0,
+      above: true,
+      max: 300,
+      unit: "mm",
+    }).optional(),
     systemVolts: z.coerce
       .number({ error: "Choose 12 V or 24 V." })
       .pipe(z.union([z.literal(12), z.literal(24)], { error: "Choose 12 V or 24 V." }))

@@ -1,4 +1,5 @@
 import { z } from "zod";
+import { formNumber } from "./form-number";
 import { validateHin } from "../calc/hin.ts";
 
 export const hullTypes = ["displacement", "semi-displacement", "planing", "catamaran", "other"] as const;
@@ -34,10 +35,8 @@ export const vesselSchema = z.object({
       }
       return check.hin;
     }),
-  lengthValue: z.coerce
-    .number({ error: "Enter the length as a number." })
-    .positive("The length must be more than zero.")
-    .max(200, "That is longer than any yard boat; check the unit."),
+  // 200 covers a yard's largest boat in feet or metres; more is a unit slip.
+  lengthValue: formNumber("the length overall", { min: 0, above: true, max: 200 }),
   lengthUnit: z.enum(["ft", "m"], { error: "Choose feet or metres." }),
   hullType: z.enum(hullTypes, { error: "Choose a hull type." }),
   ownerName: z.string({ error: "Enter the owner's name." }).trim().min(1, "Enter the owner's name.").max(120),

@@ -1,15 +1,26 @@
-import { useEffect, useState } from "react";
+import { lazy, Suspense, useEffect, useState } from "react";
 import { Link, useFetcher, useLocation, useRevalidator } from "react-router";
 import type { Route } from "./+types/view";
-import { CalcDiagram } from "~/components/checklist/calc-diagram";
 import { FillItem } from "~/components/checklist/fill-item";
 import { CommentSummary, ItemComments } from "~/components/checklist/item-comments";
 import { checklistStateLabels } from "~/lib/checklist-sets";
 import { canFillJob } from "~/lib/permissions";
-import { findItem, progress, valueSchemaFor, type ItemValue, type Template } from "~/lib/templates";
+import {
+  calculationsFor,
+  findItem,
+  progressWith,
+  valueSchemaFor,
+  type ItemValue,
+  type Template,
+} from "~/lib/templates";
 import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
 import { commentsOn, openConflicts } from "~/server/offline.server";
+
+// Diagrams (and the calculations they redraw) load only when a calc item is on screen.
+const CalcDiagram = lazy(() =>
+  import("~/components/checklist/calc-diagram").then((m) => ({ default: m.CalcDiagram })),
+);
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.checklist.title ?? "Checklist"} · Sternpost` },
@@ -43,7 +54,10 @@ export async function clientLoader({ params, serverLoader }: Route.ClientLoaderA
     await takeOffline().catch(() => undefined);
     local = await store.readChecklist(params.checklistId);
   }
-  if (!local) return serverLoader();
+  if (!local) {
+    const data = await serverLoader();
+    return { ...data, calculations: await calculationsFor(data.template) };
+  }
   const jobs = await store.listLocalJobs();
   const job = jobs.find((j) => j.id === local.checklist.jobId);
   const me = (await store.getMeta<{ name: string }>("user"))?.name ?? "";
@@ -56,6 +70,7 @@ export async function clientLoader({ params, serverLoader }: Route.ClientLoaderA
     conflicts: local.conflicts.length,
     rejections: local.rejections,
     job: { id: local.checklist.jobId, vesselName: job?.vesselName ?? "" },
+    calculations: await calculationsFor(local.template),
   };
 }
 clientLoader.hydrate = true as const;
@@ -108,7 +123,7 @@ function SubmitPanel({
   onJump,
   onSubmit,
 }: {
-  state: ReturnType<typeof progress>;
+  state: ReturnType<typeof progressWith>;
   template: Template;
   onJump: (section: number, itemKey: string) => void;
   onSubmit: () => void;
@@ -199,7 +214,7 @@ export function HydrateFallback() {
 }
 
 export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
-  const { checklist, template, responses, job, me } = loaderData;
+  const { checklist, template, responses, job, me, calculations } = loaderData;
   const fetcher = useFetcher<typeof clientAction>();
   const revalidator = useRevalidator();
   // "#item-<key>" (as "Enter a new value" links) opens the checklist at that item; otherwise it
@@ -238,7 +253,7 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
     if (key && key !== itemHere) setItemHere(key);
   };
   const values = Object.fromEntries(Object.entries(responses).map(([k, r]) => [k, r.value]));
-  const state = progress(template, values);
+  const state = progressWith(calculations, template, values);
   const locked = checklist.state === "submitted" || checklist.state === "countersigned";
   const editable = loaderData.source === "device" && checklist.canFill && !locked;
   const section = template.sections[sectionIndex] ?? template.sections[0]!;
@@ -350,12 +365,16 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
               onSave={save(item.key)}
               checklistId={checklist.id}
               diagram={
-                <CalcDiagram
-                  item={item}
-                  template={template}
-                  responses={values}
-                  verdict={state.verdicts[item.key]!}
-                />
+                item.kind === "calc" && (
+                  <Suspense fallback={null}>
+                    <CalcDiagram
+                      item={item}
+                      template={template}
+                      responses={values}
+                      verdict={state.verdicts[item.key]!}
+                    />
+                  </Suspense>
+                )
               }
             >
               <ItemComments

@@ -1,4 +1,4 @@
-import { Link } from "react-router";
+import { Link, type ShouldRevalidateFunctionArgs } from "react-router";
 import type { Route } from "./+types/list";
 import { PageHeader } from "~/components/app-shell";
 import { JobsTable } from "~/components/jobs-table";
@@ -11,6 +11,17 @@ export const meta: Route.MetaFunction = () => [{ title: "Jobs · Sternpost" }];
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireCapability(request, "jobs:view");
   return { jobs: await listVisibleJobs(user), canCreate: can(user, "jobs:create") };
+}
+
+/** Sorting, filtering and searching change only the address: the rows are already here. */
+export function shouldRevalidate({
+  currentUrl,
+  nextUrl,
+  formMethod,
+  defaultShouldRevalidate,
+}: ShouldRevalidateFunctionArgs) {
+  if (!formMethod && currentUrl.pathname === nextUrl.pathname) return false;
+  return defaultShouldRevalidate;
 }
 
 export default function Jobs({ loaderData }: Route.ComponentProps) {

@@ -10,6 +10,8 @@ import { audit } from "~/server/audit.server";
 import { requireUser } from "~/server/auth.server";
 import { invariantForbidden, invariantFound } from "~/server/permissions.server";
 import { findVessel, updateVessel } from "~/server/vessels.server";
+import { vesselFigures, vesselJobsAndRecords } from "~/server/vessel-history.server";
+import { VesselHistory } from "~/components/vessel-history";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `${data?.vessel.name ?? "Vessel"} · Sternpost` },
@@ -28,7 +30,7 @@ async function editableVessel(request: Request, id: string) {
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const { vessel } = await editableVessel(request, params.vesselId);
-  return { vessel };
+  return { vessel, ...(await vesselJobsAndRecords(vessel.id)), figures: await vesselFigures(vessel.id) };
 }
 
 export async function action({ request, params }: Route.ActionArgs) {
@@ -53,6 +55,8 @@ export default function EditVessel({ loaderData, actionData }: Route.ComponentPr
   return (
     <>
       <PageHeader title={`Vessel: ${loaderData.vessel.name}`} />
+      <VesselHistory jobs={loaderData.jobs} records={loaderData.records} figures={loaderData.figures} />
+      <h2 className="mt-6 mb-2 text-2xl font-bold">Details</h2>
       <VesselForm defaults={defaults} lastResult={actionData} submitLabel="Save changes" />
     </>
   );

@@ -160,7 +160,7 @@ describe("adding and editing items", () => {
     let state = fromTemplate(starter("engine-alignment"));
     const time = itemByKey(state, "time-afloat");
     state = run(state, { type: "item/rule", id: time.id, patch: { max: "two days" } });
-    expect(problems(state).get(itemPath(2, 0, "rule", "max"))).toEqual(["expected a number"]);
+    expect(problems(state).get(itemPath(2, 0, "rule", "max"))).toEqual(["the maximum must be a number"]);
     expect(numberFrom("0,5")).toBe(0.5);
     expect(numberFrom(" 1e-3 ")).toBe("1e-3"); // exponents are refused everywhere a person types a number
     expect(numberFrom("")).toBeUndefined();

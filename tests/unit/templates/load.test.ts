@@ -102,7 +102,7 @@ describe("structure problems carry the path of the bad field", () => {
   test("a limit written as a string (the example of the issue)", () => {
     const t = base();
     t.sections[2].items[4].rule.max = "0.001";
-    expect(problemsOf(t)).toEqual(["sections[2].items[4].rule.max: expected a number"]);
+    expect(problemsOf(t)).toEqual(["sections[2].items[4].rule.max: the maximum must be a number"]);
   });
 
   test("a missing title", () => {
@@ -419,7 +419,7 @@ describe("loading a library file", () => {
       "sections[2].items[4].rule.max",
     ]);
     expect((error as Error).message).toBe(
-      "small-template.v1.json: sections[2].items[0].label: cannot be empty; sections[2].items[4].rule.max: expected a number",
+      "small-template.v1.json: sections[2].items[0].label: cannot be empty; sections[2].items[4].rule.max: the maximum must be a number",
     );
   });
 });
