@@ -1,6 +1,7 @@
-import { presentOutcome } from "~/lib/calc";
+import type { Calculations } from "~/lib/calc/define";
+import { presentOutcome } from "~/lib/calc/present";
 import {
-  evaluate,
+  evaluateWith,
   formatQuantity,
   type CalcItem,
   type MeasureAttempt,
@@ -40,15 +41,19 @@ export function attemptFigure(
   attempt: MeasureAttempt | ReadingsAttempt,
   template: Template,
   responses: Responses,
+  calculations: Calculations,
 ): AttemptFigure {
   if (item.kind === "measure") {
     const a = attempt as MeasureAttempt;
-    return { figure: formatQuantity(a.value, a.unit), verdict: evaluate(item, { attempts: [a] }) };
+    return {
+      figure: formatQuantity(a.value, a.unit),
+      verdict: evaluateWith(calculations, item, { attempts: [a] }),
+    };
   }
-  const own = evaluate(item, { attempts: [attempt] });
+  const own = evaluateWith(calculations, item, { attempts: [attempt] });
   const calc = calcReading(template, item.key);
   if (calc) {
-    const verdict = evaluate(calc, undefined, {
+    const verdict = evaluateWith(calculations, calc, undefined, {
       template,
       responses: { ...responses, [item.key]: { attempts: [attempt] } },
     });

@@ -1,12 +1,10 @@
 import { lazy, Suspense } from "react";
 import type { Item, Responses, Template, Verdict } from "~/lib/templates";
 import {
-  CalcPanel,
   CheckEditor,
   ChoiceEditor,
   InitialsEditor,
   MeasureEditor,
-  ReadingsEditor,
   TextEditor,
   type EditorProps,
 } from "./editors.tsx";
@@ -30,6 +28,13 @@ export interface FillItemProps {
   children?: React.ReactNode;
 }
 
+// The readings grid loads only for a checklist that has one; the camera, compression and photo
+// queue only for a photo item.
+const ReadingsEditor = lazy(() =>
+  import("./readings-editor.tsx").then((m) => ({ default: m.ReadingsEditor })),
+);
+// A calculation's panel loads only for a template with calc items (as its registry does).
+const CalcPanel = lazy(() => import("./calc-panel.tsx").then((m) => ({ default: m.CalcPanel })));
 // The camera, compression and photo queue load only for a photo item.
 const PhotoEditor = lazy(() => import("./photo-editor.tsx").then((m) => ({ default: m.PhotoEditor })));
 
@@ -41,7 +46,11 @@ function Editor(props: EditorProps & { diagram?: React.ReactNode; checklistId?: 
     case "measure":
       return <MeasureEditor {...(props as EditorProps<typeof item>)} />;
     case "readings":
-      return <ReadingsEditor {...(props as EditorProps<typeof item>)} />;
+      return (
+        <Suspense fallback={<p className="text-ink-soft">Opening the grid…</p>}>
+          <ReadingsEditor {...(props as EditorProps<typeof item>)} />
+        </Suspense>
+      );
     case "choice":
       return <ChoiceEditor {...(props as EditorProps<typeof item>)} />;
     case "text":
@@ -49,7 +58,11 @@ function Editor(props: EditorProps & { diagram?: React.ReactNode; checklistId?: 
     case "initials":
       return <InitialsEditor {...props} />;
     case "calc":
-      return <CalcPanel {...props} />;
+      return (
+        <Suspense fallback={null}>
+          <CalcPanel {...props} />
+        </Suspense>
+      );
     case "photo":
       return props.checklistId ? (
         <Suspense fallback={<p className="text-ink-soft">Opening the camera…</p>}>

@@ -10,7 +10,9 @@ import { Field, FormErrors } from "~/components/field";
 import { checklistStateLabels } from "~/lib/checklist-sets";
 import { canOnJob } from "~/lib/permissions";
 import { Refusal } from "~/lib/refusal";
+import { calculations } from "~/lib/calc/registry";
 import { progress, type VerdictStatus } from "~/lib/templates";
+import { CalculationsContext } from "~/components/checklist/calculations-context";
 import { reviewActionSchema } from "~/lib/validation/review";
 import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
@@ -209,6 +211,7 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
       key={item.key}
       item={item}
       template={template}
+      responses={values}
       value={responses[item.key]?.value}
       verdict={state.verdicts[item.key]!}
       pending={false}
@@ -237,7 +240,7 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
     </FillItem>
   );
   return (
-    <>
+    <CalculationsContext value={calculations}>
       <p className="mb-1">
         <Link to={`/jobs/${job.id}`} className="font-bold text-harbour underline">
           ← {job.vesselName}
@@ -335,6 +338,6 @@ export default function Review({ loaderData, actionData }: Route.ComponentProps)
           comments={comments.filter((c) => !c.replyTo).length}
         />
       )}
-    </>
+    </CalculationsContext>
   );
 }

@@ -1,8 +1,8 @@
 import { lazy, Suspense, useEffect, useState } from "react";
 import { Link, useFetcher, useLocation, useRevalidator } from "react-router";
 import type { Route } from "./+types/view";
+import { CalculationsContext } from "~/components/checklist/calculations-context";
 import { FillItem } from "~/components/checklist/fill-item";
-import { CommentSummary, ItemComments } from "~/components/checklist/item-comments";
 import { checklistStateLabels } from "~/lib/checklist-sets";
 import { canFillJob } from "~/lib/permissions";
 import {
@@ -17,6 +17,13 @@ import { requireChecklist } from "~/server/checklist-access.server";
 import { checklistResponses } from "~/server/checklists.server";
 import { commentsOn, openConflicts } from "~/server/offline.server";
 
+// The lead's comments and the answers to them load only for a checklist that has some.
+const ItemComments = lazy(() =>
+  import("~/components/checklist/item-comments").then((m) => ({ default: m.ItemComments })),
+);
+const CommentSummary = lazy(() =>
+  import("~/components/checklist/item-comments").then((m) => ({ default: m.CommentSummary })),
+);
 // Diagrams (and the calculations they redraw) load only when a calc item is on screen.
 const CalcDiagram = lazy(() =>
   import("~/components/checklist/calc-diagram").then((m) => ({ default: m.CalcDiagram })),
@@ -274,7 +281,7 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
   const failed = fetcher.data?.error ? fetcher.data : null;
 
   return (
-    <>
+    <CalculationsContext value={calculations}>
       <p className="mb-1">
         <Link to={`/jobs/${job.id}`} className="font-bold text-harbour underline">
           ← {job.vesselName || "Job"}
@@ -323,8 +330,10 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
           </ul>
         </div>
       )}
-      {!locked && (
-        <CommentSummary comments={checklist.comments} template={template} onOpenSection={setSectionIndex} />
+      {!locked && checklist.comments.length > 0 && (
+        <Suspense fallback={null}>
+          <CommentSummary comments={checklist.comments} template={template} onOpenSection={setSectionIndex} />
+        </Suspense>
       )}
       <nav aria-label="Sections" className="mb-4 flex flex-wrap gap-2">
         {template.sections.map((s, i) => {
@@ -377,10 +386,14 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
                 )
               }
             >
-              <ItemComments
-                comments={checklist.comments.filter((c) => c.itemKey === item.key)}
-                checklistId={checklist.canFill && !locked ? checklist.id : undefined}
-              />
+              {checklist.comments.some((c) => c.itemKey === item.key) && (
+                <Suspense fallback={null}>
+                  <ItemComments
+                    comments={checklist.comments.filter((c) => c.itemKey === item.key)}
+                    checklistId={checklist.canFill && !locked ? checklist.id : undefined}
+                  />
+                </Suspense>
+              )}
               {failed?.itemKey === item.key && (
                 <p role="alert" className="font-bold text-fault">
                   ▲ {failed.error}
@@ -422,6 +435,6 @@ export default function ChecklistScreen({ loaderData }: Route.ComponentProps) {
           </button>
         </div>
       </section>
-    </>
+    </CalculationsContext>
   );
 }

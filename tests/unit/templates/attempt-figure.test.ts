@@ -1,5 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { attemptFigure } from "~/components/checklist/attempt-figure";
+import { calculations } from "~/lib/calc/registry";
 import type { MeasureItem, ReadingsItem } from "~/lib/templates";
 import { itemOf, loadLibrary } from "./fixtures";
 
@@ -19,12 +20,12 @@ describe("one figure per attempt", () => {
       [0, 0.002, 0.002, 0.001],
       [0, 0.001, 0.001, 0],
     ]);
-    const out = attemptFigure(readings, bowed, shaft, {});
+    const out = attemptFigure(readings, bowed, shaft, {}, calculations);
     expect(out.figure).toMatch(/TIR.*0\.006 in/);
     expect(out.verdict.status).toBe("out-of-range");
     // Straightened: worst 0.003 − 0 = 0.003 in, at the limit: within.
     const straight = set(bowed.cells.map((row, r) => (r === 2 ? [0, 0.003, 0.001, 0.002] : row)));
-    const within = attemptFigure(readings, straight, shaft, {});
+    const within = attemptFigure(readings, straight, shaft, {}, calculations);
     expect(within.figure).toMatch(/TIR.*0\.003 in/);
     expect(within.verdict.status).toBe("ok");
   });
@@ -32,7 +33,7 @@ describe("one figure per attempt", () => {
   it("gives a measure attempt its value and the rule's verdict", () => {
     const face = itemOf(shaft, "face-runout") as MeasureItem;
     const attempt = { value: 0.0016, unit: "in" as const, at: "2026-05-01T09:00:00Z", by: "T" };
-    expect(attemptFigure(face, attempt, shaft, {})).toMatchObject({
+    expect(attemptFigure(face, attempt, shaft, {}, calculations)).toMatchObject({
       figure: "0.0016 in",
       verdict: { status: "out-of-range" },
     });
