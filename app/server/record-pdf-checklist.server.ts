@@ -70,13 +70,13 @@ export function checklistHeader(w: Writer, checklist: RecordChecklist, index: nu
     [
       "Submitted",
       checklist.submittedBy
-        ? `${checklist.submittedBy}, ${checklist.submittedAt ? when(checklist.submittedAt) : "time not recorded"}`
+        ? `${checklist.submittedBy}, ${checklist.submittedAt ? when(checklist.submittedAt, w.timeZone) : "time not recorded"}`
         : "not submitted",
     ],
     [
       "Countersigned",
       checklist.countersignedBy
-        ? `${checklist.countersignedBy}, ${checklist.countersignedAt ? when(checklist.countersignedAt) : "time not recorded"}`
+        ? `${checklist.countersignedBy}, ${checklist.countersignedAt ? when(checklist.countersignedAt, w.timeZone) : "time not recorded"}`
         : "not countersigned",
     ],
     ["Checklist digest (SHA-256)", checklist.digest || "none stored"],
@@ -175,7 +175,7 @@ export function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
 
   if (response) {
     w.style("regular", size.small, inkSoft);
-    w.paragraph(`Entered by ${response.by}, ${when(response.at)} (revision ${response.rev})`, {
+    w.paragraph(`Entered by ${response.by}, ${when(response.at, w.timeZone)} (revision ${response.rev})`, {
       indent,
       tnum: true,
     });
@@ -206,7 +206,7 @@ export function itemBlock(w: Writer, ctx: ChecklistContext, item: Item): void {
     .sort((a, b) => (a.at < b.at ? -1 : 1));
   for (const comment of comments) {
     w.y += 2;
-    w.labelled(`Review comment, ${comment.by}, ${when(comment.at)}`, comment.text, {
+    w.labelled(`Review comment, ${comment.by}, ${when(comment.at, w.timeZone)}`, comment.text, {
       indent,
       colour: copper,
       fontSize: size.small + 0.5,
@@ -310,10 +310,13 @@ export function earlierEntries(
       .filter(Boolean)
       .join("; ");
     w.style("regular", size.small, inkSoft);
-    w.paragraph(`Earlier, revision ${revision.rev}: ${words} (${revision.by}, ${when(revision.at)})`, {
-      indent,
-      tnum: true,
-    });
+    w.paragraph(
+      `Earlier, revision ${revision.rev}: ${words} (${revision.by}, ${when(revision.at, w.timeZone)})`,
+      {
+        indent,
+        tnum: true,
+      },
+    );
   }
 }
 
@@ -343,7 +346,7 @@ export function itemValue(
       return;
     case "initials": {
       const v = value as InitialsValue;
-      w.labelled("Initials", `${v.initials}, ${v.by}, ${when(v.at)}`, { indent });
+      w.labelled("Initials", `${v.initials}, ${v.by}, ${when(v.at, w.timeZone)}`, { indent });
       return;
     }
     default:
@@ -359,9 +362,9 @@ export function attemptMark(item: MeasureItem | ReadingsItem, verdict: Verdict):
 }
 
 /** A struck attempt stays in the record, marked with who struck it, when and why (docs/sync-merge-rules.md). */
-function struck(value: MeasureValue | ReadingsValue, attempt: { id?: string }): string {
+function struck(w: Writer, value: MeasureValue | ReadingsValue, attempt: { id?: string }): string {
   const strike = strikeOf(value, attempt);
-  return strike ? ` · STRUCK THROUGH by ${strike.by}, ${when(strike.at)}: ${strike.reason}` : "";
+  return strike ? ` · STRUCK THROUGH by ${strike.by}, ${when(strike.at, w.timeZone)}: ${strike.reason}` : "";
 }
 
 export function measureAttempts(w: Writer, item: MeasureItem, value: MeasureValue, indent: number): void {
@@ -382,11 +385,11 @@ export function measureAttempts(w: Writer, item: MeasureItem, value: MeasureValu
     const last = attempt === liveAttempts(value).at(-1);
     const own = evaluate(item, { attempts: [attempt] });
     return [
-      { text: (last ? `${i + 1} (reported)` : String(i + 1)) + struck(value, attempt), bold: last },
+      { text: (last ? `${i + 1} (reported)` : String(i + 1)) + struck(w, value, attempt), bold: last },
       { text: entered(attempt.value, attempt.unit), bold: last, mark: attemptMark(item, own) },
       ...(converted ? [{ text: quantity(convert(attempt.value, attempt.unit, ruleUnit!), ruleUnit!) }] : []),
       { text: attempt.by },
-      { text: when(attempt.at) },
+      { text: when(attempt.at, w.timeZone) },
     ];
   });
   w.table(columns, rows, { indent });
@@ -402,7 +405,7 @@ export function readingsAttempts(w: Writer, item: ReadingsItem, value: ReadingsV
     const last = attempt === liveAttempts(value).at(-1);
     const own = evaluate(item, { attempts: [attempt] });
     const offending = own.offending ?? [];
-    const caption = `Attempt ${i + 1} of ${attempts.length}${last ? " (reported)" : ""} · values in ${unitSymbol(attempt.unit)} · ${attempt.by}, ${when(attempt.at)}${struck(value, attempt)}`;
+    const caption = `Attempt ${i + 1} of ${attempts.length}${last ? " (reported)" : ""} · values in ${unitSymbol(attempt.unit)} · ${attempt.by}, ${when(attempt.at, w.timeZone)}${struck(w, value, attempt)}`;
     w.style(last ? "bold" : "regular", size.small + 0.5, last ? ink : inkSoft);
     w.ensure(w.height(caption, width) + 40);
     w.paragraph(caption, { indent, tnum: true, gap: 2 });

@@ -26,6 +26,8 @@ export interface RecordPdfOptions {
   verifyUrl: string;
   /** Reads a stored photo's bytes by id (photos.server.ts photoBytes); without it photos are listed, not shown. */
   photoBytes?: (id: string) => Promise<Buffer | undefined>;
+  /** The yard's time zone (IANA); moments are written on the yard's clock, naming the zone. UTC if absent. */
+  timeZone?: string;
 }
 
 export const keyWidthIn = (width: number) => Math.min(96, width * 0.34);
@@ -88,7 +90,7 @@ export async function cover(
   w.style("regular", size.body, inkSoft);
   doc.text(
     w.printable(
-      `${jobScopeLabels[job.scope]} · job ${job.id} · issued ${when(record.record.issuedAt)} · record ${record.record.id}`,
+      `${jobScopeLabels[job.scope]} · job ${job.id} · issued ${when(record.record.issuedAt, w.timeZone)} · record ${record.record.id}`,
     ),
     w.left,
     w.y,
@@ -158,7 +160,7 @@ export async function cover(
       { text: `${i + 1}. ${c.template.title}`, bold: true },
       { text: String(c.templateVersion) },
       { text: c.countersignedBy ?? "not countersigned", colour: c.countersignedBy ? ink : fault },
-      { text: c.countersignedAt ? when(c.countersignedAt) : "" },
+      { text: c.countersignedAt ? when(c.countersignedAt, w.timeZone) : "" },
       { text: tallyWords(tally(c)) },
     ]),
   );

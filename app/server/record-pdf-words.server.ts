@@ -2,29 +2,22 @@
 import { type Unit } from "~/lib/calc/units";
 import { formatQuantity } from "~/lib/templates";
 import { formatEntered } from "~/lib/templates/format";
+import { formatMoment, zoneAbbreviation } from "~/lib/format";
 
 /** The app's statement of what governs, on the cover and at the foot of every page. */
 export const GOVERNING_STATEMENT =
   "Sternpost records and computes. The engine maker's installation instructions, the applicable standards and local regulations, and the judgement of a qualified person govern.";
 
-export const dayFormat = new Intl.DateTimeFormat("en-GB", {
-  day: "numeric",
-  month: "long",
-  year: "numeric",
-  timeZone: "UTC",
-});
-
-/** "12 May 2025": a date no reader can take for another. */
+/** "12 May 2025": a calendar date (a job's start or due day), which has no time zone. */
 export function day(iso: string): string {
-  return dayFormat.format(new Date(`${iso.slice(0, 10)}T00:00:00Z`));
+  return formatMoment(`${iso.slice(0, 10)}T12:00:00Z`, "UTC", "date");
 }
 
-/** "12 May 2025, 09:14 UTC": every time in the record is in UTC, and says so. */
-export function when(iso: string): string {
+/** "12 May 2025, 09:14 UTC": a moment on the yard's clock, naming the zone so no reader guesses. */
+export function when(iso: string, timeZone: string): string {
   const t = new Date(iso);
   if (Number.isNaN(t.getTime())) return iso;
-  const utc = t.toISOString();
-  return `${day(utc)}, ${utc.slice(11, 16)} UTC`;
+  return `${formatMoment(t, timeZone, "medium")} ${zoneAbbreviation(timeZone, t)}`;
 }
 
 /** A true minus sign: "−0.0005 in" reads as negative at a glance, a hyphen does not. */

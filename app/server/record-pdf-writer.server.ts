@@ -71,8 +71,12 @@ export class Writer {
   currentTitle = "";
   private readonly hasGlyph: (codePoint: number) => boolean;
 
-  constructor(doc: PDFKit.PDFDocument) {
+  /** The yard's time zone: every moment in the record is written on the yard's clock. */
+  readonly timeZone: string;
+
+  constructor(doc: PDFKit.PDFDocument, timeZone = "UTC") {
     this.doc = doc;
+    this.timeZone = timeZone;
     this.width = doc.page.width - MARGIN.left - MARGIN.right;
     doc.on("pageAdded", () => {
       this.pageTitles.push(this.currentTitle);

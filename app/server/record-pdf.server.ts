@@ -121,7 +121,7 @@ export async function renderRecordPdf(
   });
 
   const photoFiles = await readPhotoFiles(record, options.photoBytes);
-  const w = new Writer(doc);
+  const w = new Writer(doc, options.timeZone);
   const inOrder = { ...record, checklists: inWorkOrder(record.checklists) };
   await cover(w, inOrder, options);
   inOrder.checklists.forEach((checklist, i) =>

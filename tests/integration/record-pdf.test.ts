@@ -104,6 +104,24 @@ describe("the commissioning record PDF", () => {
     expect(text).toContain(record.verifyUrl);
   });
 
+  test("writes every moment on the yard's clock and names the zone (issue 16: one formatter, the yard's zone)", async () => {
+    // The same record, for a yard in Auckland (UTC+12 in May): the second straightening set, taken
+    // in the UTC morning of 12 May, reads that evening there, and the zone is named beside it.
+    const utcTime = /Attempt 2 of 3 · values in in · Niamh Forde, 12 May 2025, (\d\d):(\d\d) UTC/.exec(text);
+    expect(utcTime).not.toBeNull();
+    const file = join(dir, "auckland.pdf");
+    writeFileSync(
+      file,
+      await renderRecordPdf(record, { digest, verifyUrl: record.verifyUrl, timeZone: "Pacific/Auckland" }),
+    );
+    const auckland = poppler("pdftotext", "-layout", "-enc", "UTF-8", file, "-");
+    const hour = String(Number(utcTime![1]) + 12).padStart(2, "0");
+    expect(auckland).toContain(
+      `Attempt 2 of 3 · values in in · Niamh Forde, 12 May 2025, ${hour}:${utcTime![2]} GMT+12`,
+    );
+    expect(auckland).not.toMatch(/\d\d:\d\d UTC/);
+  });
+
   test("shows the readings of every attempt, with who took them and when", () => {
     // The second straightening set, mid-length at 180° (an earlier attempt, kept in the record).
     expect(text).toMatch(/Attempt 2 of 3 · values in in · Niamh Forde, 12 May 2025, \d\d:\d\d UTC/);

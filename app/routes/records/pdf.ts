@@ -1,6 +1,7 @@
 import type { Route } from "./+types/pdf";
 import { photoBytes } from "~/server/photos.server";
 import { requireRecord } from "~/server/record-access.server";
+import { yardSettings } from "~/server/yard.server";
 
 /** The record as a PDF, rendered from the stored snapshot (so it is the same every time). */
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -11,6 +12,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     digest: record.digest,
     verifyUrl: record.content.verifyUrl,
     photoBytes,
+    timeZone: (await yardSettings()).timeZone,
   });
   const name = record.content.vessel.name.replace(/[^A-Za-z0-9]+/g, "-");
   return new Response(new Uint8Array(pdf), {
