@@ -1,6 +1,8 @@
 import { useEffect, useState, useSyncExternalStore } from "react";
 import { Link } from "react-router";
 import type { SyncStatus } from "~/lib/offline/status.client";
+import { formatCount, formatMoment } from "~/lib/format";
+import { useYardTimeZone } from "~/components/local-time";
 
 const initial: SyncStatus = {
   online: true,
@@ -15,6 +17,7 @@ const initial: SyncStatus = {
 
 /** The status the brief asks to be always on screen: connection, waiting entries, last sync, conflicts. */
 export function SyncStatusBar() {
+  const zone = useYardTimeZone();
   const [store, setStore] = useState<typeof import("~/lib/offline/status.client") | null>(null);
   useEffect(() => {
     import("~/lib/offline/status.client").then((m) => {
@@ -27,9 +30,7 @@ export function SyncStatusBar() {
     store?.syncStatus.get ?? (() => initial),
     () => initial,
   );
-  const last = status.lastSyncAt
-    ? new Date(status.lastSyncAt).toLocaleTimeString("en-GB", { hour: "2-digit", minute: "2-digit" })
-    : "not yet";
+  const last = status.lastSyncAt ? formatMoment(status.lastSyncAt, zone, "time") : "not yet";
   return (
     <div
       className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm"
@@ -77,8 +78,7 @@ export function SyncStatusBar() {
       )}
       {status.progress && status.progress.total > 1 && (
         <span data-testid="sync-progress">
-          Sent {status.progress.sent.toLocaleString("en-GB")} of{" "}
-          {status.progress.total.toLocaleString("en-GB")}
+          Sent {formatCount(status.progress.sent)} of {formatCount(status.progress.total)}
         </span>
       )}
       {status.problem && (

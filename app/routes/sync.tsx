@@ -3,6 +3,8 @@ import { Link, useFetcher } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/sync";
 import { describeValue, findItem } from "~/lib/templates";
+import { formatMoment } from "~/lib/format";
+import { LocalTime, useYardTimeZone } from "~/components/local-time";
 
 export const meta: Route.MetaFunction = () => [{ title: "To decide · Sternpost" }];
 
@@ -84,6 +86,7 @@ export function HydrateFallback() {
 
 export default function ToDecide({ loaderData }: Route.ComponentProps) {
   const fetcher = useFetcher();
+  const zone = useYardTimeZone();
   const { conflicts, rejections } = loaderData;
   return (
     <>
@@ -107,7 +110,7 @@ export default function ToDecide({ loaderData }: Route.ComponentProps) {
                 <p className="text-sm font-bold" data-testid="server-set-by">
                   On the server now
                   {c.serverBy &&
-                    `, set by ${c.serverBy}${c.serverAt ? `, ${new Date(c.serverAt).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}` : ""}`}
+                    `, set by ${c.serverBy}${c.serverAt ? `, ${formatMoment(c.serverAt, zone)}` : ""}`}
                 </p>
                 <p className="num text-lg" data-testid="server-value">
                   {c.server}
@@ -115,8 +118,7 @@ export default function ToDecide({ loaderData }: Route.ComponentProps) {
               </div>
               <div className="rounded-md border-2 border-rule p-3">
                 <p className="text-sm font-bold">
-                  Sent by {c.by},{" "}
-                  {new Date(c.at).toLocaleString("en-GB", { dateStyle: "short", timeStyle: "short" })}
+                  Sent by {c.by}, <LocalTime at={c.at} />
                 </p>
                 <p className="num text-lg" data-testid="sent-value">
                   {c.sent}

@@ -1,6 +1,8 @@
 import { data } from "react-router";
 import type { Route } from "./+types/verify";
+import { formatStamp } from "~/lib/format";
 import { verifyRecord } from "~/server/records.server";
+import { yardSettings } from "~/server/yard.server";
 
 export const meta: Route.MetaFunction = () => [{ title: "Verify a commissioning record · Sternpost" }];
 
@@ -16,17 +18,13 @@ export async function loader({ params }: Route.LoaderArgs) {
       { message: "No commissioning record has this number. Check the link or the QR code." },
       { status: 404 },
     );
-  return result;
+  return { ...result, timeZone: (await yardSettings()).timeZone };
 }
-
-const when = (at?: string) =>
-  at
-    ? new Date(at).toLocaleString("en-GB", { dateStyle: "long", timeStyle: "short", timeZone: "UTC" }) +
-      " UTC"
-    : "—";
 
 export default function Verify({ loaderData }: Route.ComponentProps) {
   const v = loaderData;
+  // Read far from the yard, perhaps years later: the yard's clock, with its zone named.
+  const when = (at?: string | null) => (at ? formatStamp(at, v.timeZone) : "—");
   return (
     <main className="mx-auto flex min-h-dvh max-w-2xl flex-col gap-6 p-6">
       <p className="font-bold text-copper">Sternpost · record verification</p>

@@ -2,7 +2,7 @@
 import { type Unit } from "~/lib/calc/units";
 import { formatQuantity } from "~/lib/templates";
 import { formatEntered } from "~/lib/templates/format";
-import { formatMoment, zoneAbbreviation } from "~/lib/format";
+import { formatMoment, formatStamp } from "~/lib/format";
 
 /** The app's statement of what governs, on the cover and at the foot of every page. */
 export const GOVERNING_STATEMENT =
@@ -14,11 +14,7 @@ export function day(iso: string): string {
 }
 
 /** "12 May 2025, 09:14 UTC": a moment on the yard's clock, naming the zone so no reader guesses. */
-export function when(iso: string, timeZone: string): string {
-  const t = new Date(iso);
-  if (Number.isNaN(t.getTime())) return iso;
-  return `${formatMoment(t, timeZone, "medium")} ${zoneAbbreviation(timeZone, t)}`;
-}
+export const when = (iso: string, timeZone: string): string => formatStamp(iso, timeZone);
 
 /** A true minus sign: "−0.0005 in" reads as negative at a glance, a hyphen does not. */
 export function minus(text: string): string {

@@ -1,6 +1,7 @@
 import { Form, Link } from "react-router";
 import type { LibraryTemplate, LibraryVersion } from "~/server/library.server";
-import { shortDate, VersionStatusBadge } from "./version-status.tsx";
+import { LocalTime } from "~/components/local-time";
+import { VersionStatusBadge } from "./version-status.tsx";
 import { VersionUses } from "./version-uses.tsx";
 
 function UsedBy({ version }: { version: LibraryVersion }) {
@@ -42,12 +43,20 @@ function VersionRow({
         <p className="mt-1 text-sm text-ink-soft">
           {version.status === "draft" && (
             <>
-              Started {shortDate(version.createdAt)}
+              Started <LocalTime at={version.createdAt} style="date" />
               {version.createdByName ? ` by ${version.createdByName}` : ""}
             </>
           )}
-          {version.publishedAt && <>Published {shortDate(version.publishedAt)}</>}
-          {version.retiredAt && <>, retired {shortDate(version.retiredAt)}</>}
+          {version.publishedAt && (
+            <>
+              Published <LocalTime at={version.publishedAt} style="date" />
+            </>
+          )}
+          {version.retiredAt && (
+            <>
+              , retired <LocalTime at={version.retiredAt} style="date" />
+            </>
+          )}
         </p>
       </td>
       <td className="p-2">

@@ -27,9 +27,3 @@ export function VersionStatusBadge({ status, newest }: { status: VersionStatus; 
     </span>
   );
 }
-
-/** A date as the shop reads it, the same on the server and in the browser (no time-zone drift). */
-export function shortDate(value: Date | string | null | undefined): string {
-  if (!value) return "";
-  return new Date(value).toISOString().slice(0, 10);
-}

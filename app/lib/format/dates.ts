@@ -11,6 +11,8 @@ export const dateStyles = {
   medium: { dateStyle: "medium", timeStyle: "short" },
   /** 2 Dec 2026 — a day. */
   date: { dateStyle: "medium" },
+  /** 09:30 — a time on a day the reader already knows (the last sync). */
+  time: { timeStyle: "short" },
   /** 2 Dec 2026, 09:30:15 — the audit log, where seconds tell entries apart. */
   full: { dateStyle: "medium", timeStyle: "medium" },
 } satisfies Record<string, Intl.DateTimeFormatOptions>;
@@ -54,4 +56,14 @@ export function zoneAbbreviation(timeZone: string, at: Date = new Date()): strin
   const zone = isTimeZone(timeZone) ? timeZone : DEFAULT_TIME_ZONE;
   const parts = new Intl.DateTimeFormat("en-GB", { timeZone: zone, timeZoneName: "short" }).formatToParts(at);
   return parts.find((p) => p.type === "timeZoneName")?.value ?? zone;
+}
+
+/**
+ * "12 May 2025, 09:14 GMT+12": a moment that names its zone, for what stands on its own and may be
+ * read far from the yard (the record PDF, the verification page).
+ */
+export function formatStamp(at: string | Date, timeZone: string): string {
+  const moment = at instanceof Date ? at : new Date(at);
+  if (Number.isNaN(moment.getTime())) return String(at);
+  return `${formatMoment(moment, timeZone, "medium")} ${zoneAbbreviation(timeZone, moment)}`;
 }

@@ -11,3 +11,7 @@ export function formatFigure(value: number, unit?: string): string {
   const text = grouped.format(value);
   return unit ? `${text} ${unit}` : text;
 }
+
+const counts = new Intl.NumberFormat("en-GB", { maximumFractionDigits: 0 });
+/** A count of things, grouped for reading: "1,200". */
+export const formatCount = (value: number): string => counts.format(value);

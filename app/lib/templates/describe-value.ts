@@ -1,6 +1,7 @@
 import { formatQuantity, unitSymbol } from "./format";
 import type { Item } from "./schema";
 import { liveAttempts, strikeOf, type Strike } from "./values";
+import { DEFAULT_TIME_ZONE, formatStamp } from "~/lib/format/dates";
 import type {
   CheckValue,
   ChoiceValue,
@@ -11,23 +12,24 @@ import type {
   TextValue,
 } from "./values";
 
-/** A moment in UTC, the same on the server and in the browser: "1 May 2026, 09:00 UTC". */
-const utc = new Intl.DateTimeFormat("en-GB", { dateStyle: "medium", timeStyle: "short", timeZone: "UTC" });
-
 /** "; attempt 1 struck through by T. Tern (1 May 2026, 09:00 UTC): misread the dial" per strike. */
-function struckText(v: { attempts: { id?: string }[]; strikes?: Strike[] }, noun: string): string {
+function struckText(
+  v: { attempts: { id?: string }[]; strikes?: Strike[] },
+  noun: string,
+  timeZone: string,
+): string {
   return v.attempts
     .flatMap((a, i) => {
       const s = strikeOf(v, a);
       return s
-        ? [`; ${noun} ${i + 1} struck through by ${s.by} (${utc.format(new Date(s.at))} UTC): ${s.reason}`]
+        ? [`; ${noun} ${i + 1} struck through by ${s.by} (${formatStamp(s.at, timeZone)}): ${s.reason}`]
         : [];
     })
     .join("");
 }
 
 /** A response in words, for places that show a value without its editor (conflicts, review). */
-export function describeValue(item: Item | undefined, value: unknown): string {
+export function describeValue(item: Item | undefined, value: unknown, timeZone = DEFAULT_TIME_ZONE): string {
   if (value === null || value === undefined) return "nothing entered";
   const stored = value as { note?: string };
   const note = stored.note ? ` — note: “${stored.note}”` : "";
@@ -40,7 +42,7 @@ export function describeValue(item: Item | undefined, value: unknown): string {
       const v = value as MeasureValue;
       if (!v.attempts) return "no attempt";
       const last = liveAttempts(v).at(-1);
-      const struck = struckText(v, "attempt");
+      const struck = struckText(v, "attempt", timeZone);
       return last
         ? `${formatQuantity(last.value, last.unit)} (attempt ${v.attempts.indexOf(last) + 1}, ${last.by})${struck}${note}`
         : `every attempt struck through${struck}${note}`;
@@ -49,7 +51,7 @@ export function describeValue(item: Item | undefined, value: unknown): string {
       const v = value as ReadingsValue;
       if (!v.attempts) return "no readings";
       const last = liveAttempts(v).at(-1);
-      const struck = struckText(v, "set");
+      const struck = struckText(v, "set", timeZone);
       return last
         ? `${last.cells.map((row) => row.map((n) => (n === null ? "–" : n)).join(" ")).join(" | ")} ${unitSymbol(last.unit)} (set ${v.attempts.indexOf(last) + 1})${struck}${note}`
         : `every set struck through${struck}${note}`;

@@ -8,7 +8,8 @@ import { FormErrors } from "~/components/field";
 import { TemplateDiffView } from "~/components/library/template-diff";
 import { TwoStepButton } from "~/components/library/two-step-button";
 import { VersionUses } from "~/components/library/version-uses";
-import { shortDate, VersionStatusBadge } from "~/components/library/version-status";
+import { LocalTime } from "~/components/local-time";
+import { VersionStatusBadge } from "~/components/library/version-status";
 import { can } from "~/lib/permissions";
 import { diffTemplates } from "~/lib/templates";
 import { versionActionSchema } from "~/lib/validation/library";
@@ -115,10 +116,20 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
             <span className="font-mono text-sm text-ink-soft">{template.key}</span>
           </p>
           <p className="text-sm text-ink-soft">
-            {entry.publishedAt
-              ? `Published ${shortDate(entry.publishedAt)}`
-              : `Draft started ${shortDate(entry.createdAt)}`}
-            {entry.retiredAt && `, retired ${shortDate(entry.retiredAt)}`}
+            {entry.publishedAt ? (
+              <>
+                Published <LocalTime at={entry.publishedAt} style="date" />
+              </>
+            ) : (
+              <>
+                Draft started <LocalTime at={entry.createdAt} style="date" />
+              </>
+            )}
+            {entry.retiredAt && (
+              <>
+                , retired <LocalTime at={entry.retiredAt} style="date" />
+              </>
+            )}
           </p>
         </div>
         <div className="flex flex-wrap gap-2">

@@ -9,7 +9,7 @@ import { jobScopeLabels } from "~/lib/validation/jobs";
 import { audit } from "~/server/audit.server";
 import { inBackground, recordOpened } from "~/server/notifications.server";
 import { requireRecord } from "~/server/record-access.server";
-import { LocalTime } from "~/components/local-time";
+import { LocalTime, useYardTimeZone } from "~/components/local-time";
 
 export const meta: Route.MetaFunction = ({ data }) => [
   { title: `Record: ${data?.record.content.vessel.name ?? ""} · Sternpost` },
@@ -27,6 +27,7 @@ const when = (at?: string) => (at ? <LocalTime at={at} style="medium" /> : "—"
 
 export default function RecordView({ loaderData }: Route.ComponentProps) {
   const { record } = loaderData;
+  const zone = useYardTimeZone();
   const { vessel, job } = record.content;
   const checklists = inWorkOrder(record.content.checklists);
   return (
@@ -123,12 +124,12 @@ export default function RecordView({ loaderData }: Route.ComponentProps) {
                           <p className="text-sm">Accept: {describeRule(item.rule)}</p>
                         )}
                         <p className="num">
-                          {item.kind === "calc" ? "" : describeValue(item, response?.value)}
+                          {item.kind === "calc" ? "" : describeValue(item, response?.value, zone)}
                         </p>
                         {earlier.length > 0 && (
                           <p className="text-sm text-ink-soft" data-testid="earlier">
                             Earlier:{" "}
-                            {earlier.map((h) => `${describeValue(item, h.value)} (${h.by})`).join("; ")}
+                            {earlier.map((h) => `${describeValue(item, h.value, zone)} (${h.by})`).join("; ")}
                           </p>
                         )}
                         {c.photos.some((p) => p.itemKey === item.key) && (
