@@ -1,105 +1,28 @@
 /** Verdicts on paper, in words and a drawn shape (never colour alone), and the tally of a checklist. */
 import type { RecordChecklist } from "~/lib/record/types";
+import { verdictOnRecord, type RecordShape, type RecordVerdict } from "~/lib/format";
 import { evaluate, type Item, type Verdict } from "~/lib/templates";
 import { inkSoft, sound, brass, fault } from "./record-pdf-writer.server.ts";
 
-export type Shape = "tick" | "triangle" | "circle" | "square" | "cross";
+export type Shape = RecordShape;
 
-export interface Reading {
-  shape: Shape;
+/** A verdict as the PDF draws it: the record's words and shape, and the shape's colour. */
+export interface Reading extends RecordVerdict {
   colour: string;
-  words: string;
-  /** What the note is, when the item carries one: "Corrective action", "Reason"… */
-  noteLabel: string;
-  /** The evaluator's account of what is out ("0.0016 in is above the upper limit of 0.001 in."). */
-  detail?: string;
 }
 
-export function hasRule(item: Item): boolean {
-  return (item.kind === "measure" || item.kind === "readings") && item.rule !== undefined;
-}
-
-/** How a verdict reads on paper. The verdict itself always comes from the one evaluator (rules.ts). */
+/** How a verdict reads on paper: the record's words (app/lib/format) with the shape drawn in its colour. */
 export function readVerdict(item: Item, verdict: Verdict): Reading {
-  // A finding's own account (rules.ts keeps it apart from what it asks of the technician).
-  const detail = verdict.account ?? verdict.message;
-  switch (verdict.status) {
-    case "ok": {
-      if (item.kind === "check") return { shape: "tick", colour: sound, words: "Passed", noteLabel: "Note" };
-      if (item.kind === "initials")
-        return { shape: "tick", colour: sound, words: "Confirmed", noteLabel: "Note" };
-      if (item.kind === "calc") {
-        return verdict.outcome?.verdict === "pass"
-          ? { shape: "tick", colour: sound, words: "Within limit", noteLabel: "Note" }
-          : { shape: "square", colour: inkSoft, words: "Computed (no limit applies)", noteLabel: "Note" };
-      }
-      if (hasRule(item)) return { shape: "tick", colour: sound, words: "Within limit", noteLabel: "Note" };
-      const words = {
-        measure: "Recorded",
-        readings: "Recorded",
-        choice: "Recorded",
-        text: "Written",
-        photo: "Photographed",
-      } as const;
-      return {
-        shape: "square",
-        colour: inkSoft,
-        words: words[item.kind as keyof typeof words] ?? "Recorded",
-        noteLabel: "Note",
-      };
-    }
-    case "noted":
-    case "action-noted":
-      switch (verdict.finding) {
-        case "fail":
-          return {
-            shape: "triangle",
-            colour: brass,
-            words: "Failed, action recorded",
-            noteLabel: "Action taken",
-          };
-        case "not-applicable":
-          return { shape: "circle", colour: inkSoft, words: "Not applicable", noteLabel: "Reason" };
-        case "flagged-option":
-          return { shape: "triangle", colour: brass, words: "Finding recorded", noteLabel: "Note" };
-        default:
-          return {
-            shape: "triangle",
-            colour: brass,
-            words: "Outside limit, corrective action recorded",
-            noteLabel: "Corrective action",
-            detail,
-          };
-      }
-    case "out-of-range":
-      return {
-        shape: "triangle",
-        colour: fault,
-        words: "Outside limit, no corrective action recorded",
-        noteLabel: "Note",
-        detail,
-      };
-    case "needs-note":
-      return { shape: "triangle", colour: fault, words: "Finding without its note", noteLabel: "Note" };
-    case "unanswered":
-      return {
-        shape: "circle",
-        colour: inkSoft,
-        words: item.required ? "Not answered" : "Not answered (optional)",
-        noteLabel: "Note",
-      };
-    case "incomplete":
-      return { shape: "cross", colour: fault, words: "Incomplete", noteLabel: "Note", detail };
-    case "invalid":
-      return {
-        shape: "cross",
-        colour: fault,
-        words: "Entry does not fit the item",
-        noteLabel: "Note",
-        detail,
-      };
-  }
+  const reading = verdictOnRecord(item, verdict);
+  return { ...reading, colour: toneColours[reading.tone] };
 }
+
+const toneColours: Record<RecordVerdict["tone"], string> = {
+  sound: sound,
+  finding: brass,
+  fault: fault,
+  quiet: inkSoft,
+};
 
 export const shapeLegend: [Shape, string, string][] = [
   ["tick", sound, "within limit, passed or confirmed"],

@@ -19,4 +19,5 @@ export {
   formatQuantity,
   unitSymbol,
 } from "./quantities";
-export { calcVerdictWords, verdictInWords, verdictWords } from "./verdicts";
+export { calcVerdictWords, verdictInWords, verdictOnRecord, verdictWords } from "./verdicts";
+export type { RecordShape, RecordVerdict } from "./verdicts";
