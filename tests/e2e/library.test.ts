@@ -113,6 +113,16 @@ describe("keeping the template library current", () => {
     await page.waitForURL(/\/library\/engine-alignment\/3$/);
     await hydrated(page);
 
+    // The version is shown on the fill screen's own items (issue 16): a reading tried there gets
+    // the verdict its new rule gives, and nothing is kept.
+    const tried = page.getByTestId("checklist-preview").locator('[data-item="mount-stud-torque"]');
+    await tried.getByLabel("Reading").fill("45");
+    await tried.getByRole("button", { name: "Record reading" }).click();
+    await tried.locator('[data-verdict="out-of-range"]').waitFor();
+    await tried.getByLabel("Reading").fill("41");
+    await tried.getByRole("button", { name: "Record a new attempt" }).click();
+    await tried.locator('[data-verdict="ok"]').waitFor();
+
     // The difference against version 2, item by item.
     const review = page.getByRole("region", { name: "Before you publish" });
     expect(await review.getByTestId("diff-summary").innerText()).toMatch(

@@ -3,7 +3,7 @@ import { parseWithZod } from "@conform-to/zod/v4";
 import { data, Form, Link, redirect } from "react-router";
 import type { Route } from "./+types/version";
 import { Refusal } from "~/lib/refusal";
-import { ChecklistOutline } from "~/components/checklist/checklist-outline";
+import { ChecklistPreview } from "~/components/library/checklist-preview";
 import { FormErrors } from "~/components/field";
 import { TemplateDiffView } from "~/components/library/template-diff";
 import { TwoStepButton } from "~/components/library/two-step-button";
@@ -267,7 +267,7 @@ export default function TemplateVersion({ loaderData, actionData }: Route.Compon
         <h2 id="preview-title" className="mb-3 text-sm font-bold tracking-wide text-ink-soft uppercase">
           As a technician sees it
         </h2>
-        <ChecklistOutline template={template} />
+        <ChecklistPreview template={template} />
       </section>
     </>
   );

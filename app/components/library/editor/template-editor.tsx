@@ -1,6 +1,6 @@
 import { useEffect, useMemo, useReducer, useRef, useState } from "react";
 import { useBlocker, useFetcher } from "react-router";
-import { ChecklistOutline } from "~/components/checklist/checklist-outline";
+import { ChecklistPreview } from "~/components/library/checklist-preview";
 import { FormErrors } from "~/components/field";
 import type { Template, TemplateProblem } from "~/lib/templates";
 import {
@@ -221,7 +221,7 @@ export function TemplateEditor({ saved }: { saved: Template }) {
             {check.ok ? (
               <>
                 <h2 className="text-3xl font-bold">{check.template.title}</h2>
-                <ChecklistOutline template={check.template} />
+                <ChecklistPreview template={check.template} />
               </>
             ) : (
               <p>The preview appears once the draft has no problems.</p>
