@@ -157,8 +157,10 @@ export async function listAuditEntries(
   ]);
   const entries = shown.map((row): AuditLogEntry => {
     const who = row.user_id === null ? null : { id: row.user_id, name: row.user_name, role: row.user_role };
+    // The yard's settings are one row: its number means nothing to a reader.
     const what =
-      names.get(nameKey(row.entity, row.entity_id)) ?? `${entityInWords(row.entity)} ${row.entity_id}`;
+      names.get(nameKey(row.entity, row.entity_id)) ??
+      (row.entity === "yard" ? entityInWords(row.entity) : `${entityInWords(row.entity)} ${row.entity_id}`);
     const detail = parsedDetail(row.detail);
     const plain = detail && typeof detail === "object" && !Array.isArray(detail) ? (detail as Detail) : {};
     const sentence = sentences[row.action];

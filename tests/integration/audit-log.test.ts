@@ -251,6 +251,16 @@ describe("the audit log in names (issue 16)", () => {
     });
     expect(promoted).toMatchObject({ sentence: `${manager.name} made ${target.name} Lead`, detail: null });
 
+    // The yard's settings are one row: named, not numbered ("Yard settings 1").
+    await write("yard settings saved", {
+      userId: manager.id,
+      action: "yard.updated",
+      entity: "yard",
+      entityId: 1,
+      detail: { name: "Kittiwake Slip", timeZone: "Europe/Dublin" },
+    });
+    expect((await page({ entity: "yard", entityId: 1 })).entries[0]!.what).toBe("Yard settings");
+
     const vessel = (await knex("vessels").where({ id: job.vesselId }).first())!;
     const [jobEntry] = (await page({ entity: "job", entityId: job.id })).entries;
     expect(jobEntry!.what).toContain(vessel.name);
