@@ -17,14 +17,49 @@ import {
   type Template,
   type TextValue,
   type Verdict,
+  type Strike,
 } from "~/lib/templates";
 import { LocalTime } from "~/components/local-time";
 import { SignToggle } from "~/components/signed-input";
 import { attemptFigure } from "./attempt-figure.ts";
 import { useCalculations } from "./calculations-context.ts";
+import type { LoggedAttempt } from "./attempt-log.tsx";
 
 // The attempt log (figures, raw readings, strike-through) loads once an item has an attempt.
-export const AttemptLog = lazy(() => import("./attempt-log.tsx").then((m) => ({ default: m.AttemptLog })));
+const AttemptLog = lazy(() => import("./attempt-log.tsx").then((m) => ({ default: m.AttemptLog })));
+
+/**
+ * An item's attempts as a log (each with its figure), where a mistaken one is struck through: the
+ * strike is appended to the item's strikes, never replacing one (docs/sync-merge-rules.md).
+ */
+export function AttemptsLogged<V extends { attempts: unknown[]; strikes?: Strike[] }>({
+  noun,
+  attempts,
+  value,
+  by,
+  disabled,
+  onSave,
+}: {
+  noun: "Attempt" | "Set";
+  attempts: LoggedAttempt[];
+  value: V;
+  by: string;
+  disabled: boolean;
+  onSave: (value: V) => void;
+}) {
+  return (
+    <Suspense fallback={null}>
+      <AttemptLog
+        noun={noun}
+        attempts={attempts}
+        strikes={value.strikes}
+        by={by}
+        disabled={disabled}
+        onStrike={(strike) => onSave({ ...value, strikes: [...(value.strikes ?? []), strike] })}
+      />
+    </Suspense>
+  );
+}
 
 export interface EditorProps<I extends Item = Item> {
   item: I;
@@ -255,19 +290,17 @@ export function MeasureEditor({
         </p>
       )}
       {v && v.attempts.length > 0 && (
-        <Suspense fallback={null}>
-          <AttemptLog
-            noun="Attempt"
-            attempts={v.attempts.map((a) => ({
-              ...a,
-              ...attemptFigure(item, a, template, responses ?? {}, calculations),
-            }))}
-            strikes={v.strikes}
-            by={by}
-            disabled={disabled}
-            onStrike={(strike) => onSave({ ...v, strikes: [...(v.strikes ?? []), strike] })}
-          />
-        </Suspense>
+        <AttemptsLogged
+          noun="Attempt"
+          attempts={v.attempts.map((a) => ({
+            ...a,
+            ...attemptFigure(item, a, template, responses ?? {}, calculations),
+          }))}
+          value={v}
+          by={by}
+          disabled={disabled}
+          onSave={onSave}
+        />
       )}
       <MeasurementNote
         item={item}

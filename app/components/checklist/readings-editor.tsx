@@ -1,4 +1,4 @@
-import { Suspense, useEffect, useRef, useState } from "react";
+import { useEffect, useRef, useState } from "react";
 import type { Unit } from "~/lib/calc/units";
 import { useDirtyMark } from "~/lib/pwa/dirty";
 import { readNumber } from "~/lib/read-number";
@@ -14,7 +14,7 @@ import {
 import { SignToggle } from "~/components/signed-input";
 import { attemptFigure } from "./attempt-figure.ts";
 import { useCalculations } from "./calculations-context.ts";
-import { AttemptLog, MeasurementNote, now, UnitField, type EditorProps } from "./editors.tsx";
+import { AttemptsLogged, MeasurementNote, now, UnitField, type EditorProps } from "./editors.tsx";
 
 /** A set of readings as its grid, for the "The readings" details of a logged set. */
 function RawGrid({ item, attempt }: { item: ReadingsItem; attempt: ReadingsAttempt }) {
@@ -218,19 +218,18 @@ export function ReadingsEditor({
         </p>
       )}
       {v && v.attempts.length > 0 && (
-        <Suspense fallback={null}>
-          <AttemptLog
-            noun="Set"
-            attempts={v.attempts.map((a) => {
-              const shown = attemptFigure(item, a, template, responses ?? {}, calculations);
-              return { ...a, ...shown, raw: <RawGrid item={item} attempt={a} /> };
-            })}
-            strikes={v.strikes}
-            by={by}
-            disabled={disabled}
-            onStrike={(strike) => onSave({ ...v, strikes: [...(v.strikes ?? []), strike] })}
-          />
-        </Suspense>
+        <AttemptsLogged
+          noun="Set"
+          attempts={v.attempts.map((a) => ({
+            ...a,
+            ...attemptFigure(item, a, template, responses ?? {}, calculations),
+            raw: <RawGrid item={item} attempt={a} />,
+          }))}
+          value={v}
+          by={by}
+          disabled={disabled}
+          onSave={onSave}
+        />
       )}
       <MeasurementNote
         item={item}
