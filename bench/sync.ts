@@ -103,23 +103,23 @@ await knex.raw("CREATE TABLE bench_raw LIKE checklist_responses");
 
 /** Runs `work` timing it and each SQL statement it sends (the round trips of one batch). */
 async function statementsOf<T>(work: () => Promise<T>) {
-  const { db } = await import("../app/server/db.server.ts");
+  const { applierDb, db } = await import("../app/server/db.server.ts");
   const list: { sql: string; ms: number }[] = [];
   const started = new Map<string, number>();
   type Query = { __knexQueryUid: string; sql: string };
   const onQuery = (q: Query) => started.set(q.__knexQueryUid, performance.now());
   const onResponse = (_r: unknown, q: Query) =>
     list.push({
-      sql: q.sql.replace(/\s+/g, " ").slice(0, 70),
+      sql: q.sql.replace(/\s+/g, " ").slice(0, 110),
       ms: performance.now() - started.get(q.__knexQueryUid)!,
     });
-  db().on("query", onQuery).on("query-response", onResponse);
+  for (const pool of [db(), applierDb()]) pool.on("query", onQuery).on("query-response", onResponse);
   const t = performance.now();
   try {
     const result = await work();
     return { result, ms: performance.now() - t, list };
   } finally {
-    db().off("query", onQuery).off("query-response", onResponse);
+    for (const pool of [db(), applierDb()]) pool.off("query", onQuery).off("query-response", onResponse);
   }
 }
 
@@ -214,7 +214,7 @@ for (let round = 0; round < ROUNDS + 1; round++) {
 const s = median(syncTimes);
 const r = median(rawTimes);
 console.log(
-  `sync batch of ${OPS} operations: ${s.toFixed(1)} ms (median of ${ROUNDS}), ${median(statementCounts)} SQL statements`,
+  `sync batch of ${OPS} operations: ${s.toFixed(1)} ms (median of ${ROUNDS}), ${median(statementCounts)} round trips to MariaDB`,
 );
 console.log(`raw Knex insert of ${OPS} rows:  ${r.toFixed(1)} ms (median of ${ROUNDS})`);
 const f = median(floorTimes);
@@ -227,6 +227,6 @@ if (f / r > 3)
     `≤ 3× raw is below the floor here: the value and history rows every applied entry must write, with their keys and the seal triggers, alone take ${(f / r).toFixed(2)}× (docs/decisions/042-sync-cost-floor.md)`,
   );
 await knex.destroy();
-const { db } = await import("../app/server/db.server.ts");
-await db().destroy();
+const { applierDb, db } = await import("../app/server/db.server.ts");
+await Promise.all([db().destroy(), applierDb().destroy()]);
 await dropDatabase(url);

@@ -11,6 +11,7 @@ const ACQUIRE_TIMEOUT_MS = 5_000;
 declare global {
   // Survives module reloads in development so the pool is not opened twice.
   var __sternpostDb: Knex | undefined;
+  var __sternpostApplierDb: Knex | undefined;
 }
 
 let answeredAt = 0;
@@ -24,6 +25,24 @@ export function db(): Knex {
     globalThis.__sternpostDb.on("query-response", () => (answeredAt = Date.now()));
   }
   return globalThis.__sternpostDb;
+}
+
+/**
+ * The sync applier's own pool: its connections accept several statements in one request, so a
+ * batch is read in one round trip and written in another (round-trip.server.ts, decision 044).
+ * Everything else uses `db()`, whose connections take one statement at a time.
+ */
+export function applierDb(): Knex {
+  if (!globalThis.__sternpostApplierDb) {
+    const config = knexConfig(env().DATABASE_URL);
+    globalThis.__sternpostApplierDb = knexFactory({
+      ...config,
+      connection: { ...(config.connection as object), multipleStatements: true },
+      acquireConnectionTimeout: ACQUIRE_TIMEOUT_MS,
+    });
+    globalThis.__sternpostApplierDb.on("query-response", () => (answeredAt = Date.now()));
+  }
+  return globalThis.__sternpostApplierDb;
 }
 
 /**

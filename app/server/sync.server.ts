@@ -15,19 +15,19 @@ import {
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
-import { db } from "./db.server.ts";
+import { applierDb, db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
+import { inOneRoundTrip } from "./round-trip.server.ts";
 import type {
   ChecklistResponseRow,
   ChecklistStateColumn,
   JobChecklistRow,
-  JobTechnicianRow,
   ResponseHistoryRow,
   SyncConflictRow,
 } from "./tables.server.ts";
 import { withRetry } from "./retry.server.ts";
 import { submitChecklist, undecidedConflicts } from "./review.server.ts";
-import { lastChangeNumber, nextChangeNumber } from "./sync-clock.server.ts";
+import { lastChangeNumber } from "./sync-clock.server.ts";
 
 interface ChecklistAccess {
   state: string;
@@ -72,36 +72,40 @@ async function templatesById(trx: Knex.Transaction, ids: number[]): Promise<Map<
   return new Map(ids.map((id) => [id, parsedTemplates.get(id)!]));
 }
 
-/** Who may do what on each checklist the batch touches, read in two queries. */
+type LockedChecklist = Pick<JobChecklistRow, "id" | "state" | "template_version_id" | "job_id">;
+
+type CrewRow = { job_id: number; lead_id: number; user_id: number | null };
+
+/** The jobs and crews of the batch's checklists (one row per job and technician). */
+const crewQuery = (trx: Knex.Transaction, checklistIds: string[]) =>
+  trx("job_checklists as c")
+    .join("jobs as j", "j.id", "c.job_id")
+    .leftJoin("job_technicians as t", "t.job_id", "j.id")
+    .whereIn("c.id", checklistIds)
+    .distinct("j.id as job_id", "j.lead_id", "t.user_id");
+
+/** Who may do what on each checklist the batch touches, from its locked row and its job's crew. */
 async function loadAccess(
   trx: Knex.Transaction,
   actor: Actor,
-  checklistIds: string[],
+  checklists: LockedChecklist[],
+  crew: CrewRow[],
 ): Promise<Map<string, ChecklistAccess>> {
-  const rows: (Pick<JobChecklistRow, "id" | "state" | "template_version_id"> & {
-    job_id: number;
-    lead_id: number;
-  })[] = await trx("job_checklists as c")
-    .join("jobs as j", "j.id", "c.job_id")
-    .whereIn("c.id", checklistIds)
-    .select("c.id", "c.state", "c.template_version_id", "j.id as job_id", "j.lead_id");
-  const [crew, templates] = await Promise.all([
-    trx("job_technicians")
-      .whereIn("job_id", [...new Set(rows.map((r) => r.job_id))])
-      .select("job_id", "user_id") as Promise<JobTechnicianRow[]>,
-    templatesById(trx, [...new Set(rows.map((r) => r.template_version_id))]),
-  ]);
+  const templates = await templatesById(trx, [...new Set(checklists.map((c) => c.template_version_id))]);
+  const jobs = new Map<number, { leadId: number; technicianIds: number[] }>();
+  for (const r of crew) {
+    const job = jobs.get(r.job_id) ?? { leadId: r.lead_id, technicianIds: [] };
+    if (r.user_id !== null) job.technicianIds.push(r.user_id);
+    jobs.set(r.job_id, job);
+  }
   return new Map(
-    rows.map((r) => {
-      const job = {
-        leadId: r.lead_id,
-        technicianIds: crew.filter((c) => c.job_id === r.job_id).map((c) => c.user_id),
-      };
+    checklists.map((c) => {
+      const job = jobs.get(c.job_id) ?? { leadId: 0, technicianIds: [] };
       return [
-        r.id,
+        c.id,
         {
-          state: r.state,
-          template: templates.get(r.template_version_id)!,
+          state: c.state,
+          template: templates.get(c.template_version_id)!,
           canView: canViewJob(actor, job),
           canFill: canFillJob(actor, job),
         },
@@ -110,22 +114,26 @@ async function loadAccess(
   );
 }
 
-/**
- * The answers already given to these operation ids, from wherever each kind of answer is kept.
- * One round trip finds which ids are known at all (in a fresh batch, none); their answers are then
- * read only from the table that holds them.
- */
-async function answersGiven(trx: Knex.Transaction, opIds: string[]) {
-  const answers = new Map<string, { userId: number; result: OpResult }>();
-  if (!opIds.length) return answers;
+type KnownOpId = { op_id: string; kept: "history" | "conflict" | "other" };
+
+/** Which of these operation ids are known at all, and where each one's answer is kept. */
+function knownOpIdsQuery(trx: Knex.Transaction, opIds: string[]) {
   const marks = opIds.map(() => "?").join(",");
-  type Found = { op_id: string; kept: "history" | "conflict" | "other" };
-  const [found] = (await trx.raw(
+  return trx.raw(
     `SELECT op_id, 'history' AS kept FROM response_history WHERE op_id IN (${marks})
      UNION ALL SELECT op_id, 'conflict' FROM sync_conflicts WHERE op_id IN (${marks})
      UNION ALL SELECT op_id, 'other' FROM sync_ops WHERE op_id IN (${marks})`,
     [...opIds, ...opIds, ...opIds],
-  )) as [Found[]];
+  );
+}
+
+/**
+ * The answers already given to the known operation ids (in a fresh batch, none), read only from
+ * the table that holds each kind of answer.
+ */
+async function answersGiven(trx: Knex.Transaction, found: KnownOpId[]) {
+  const answers = new Map<string, { userId: number; result: OpResult }>();
+  if (!found.length) return answers;
   const keptIn = (kept: string) => found.filter((f) => f.kept === kept).map((f) => f.op_id);
   const [applied, conflicted, others] = await Promise.all([
     keptIn("history").length
@@ -215,43 +223,71 @@ type FeedRow = Pick<
 > & { name: string };
 
 /**
- * One page of the change feed after `since` (up to `upTo`), at most about `limit` changes: a page
- * ends only between change numbers, so a batch's changes are never split and the cursor (the
- * last number included) is exact. `more` says the device should pull again from that cursor.
+ * The change feed after `since` up to `upTo`, in order; with a limit, one row more than it, to
+ * tell whether more follow.
  */
-export async function changesPage(
-  trx: Knex,
-  scope: string[],
+const feedQuery = (
+  knex: Knex,
+  scope: string[] | Knex.QueryBuilder,
   since: number,
   upTo: number,
-  limit = MAX_CHANGES_PER_PULL,
+  limit?: number,
+) => {
+  const q = knex("checklist_responses as r")
+    .join("users as u", "u.id", "r.updated_by")
+    .whereIn("r.checklist_id", scope)
+    .where("r.change_seq", ">", since)
+    .where("r.change_seq", "<=", upTo)
+    .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name")
+    .orderBy("r.change_seq");
+  return limit === undefined ? q : q.limit(limit + 1);
+};
+
+const toChange = (r: FeedRow): Change => ({
+  checklistId: r.checklist_id,
+  itemKey: r.item_key,
+  value: parseJsonColumn(r.value),
+  rev: r.rev,
+  by: r.name,
+  at: new Date(r.updated_at).toISOString(),
+});
+
+/**
+ * A page of the feed from its first rows (read with feedQuery): a page ends only between change
+ * numbers, so a batch's changes are never split and the cursor (the last number included) is
+ * exact; the last number's changes are read whole when the page ends inside them. `more` says
+ * the device should pull again from that cursor.
+ */
+async function pageOf(
+  knex: Knex,
+  rows: FeedRow[],
+  scope: string[] | Knex.QueryBuilder,
+  upTo: number,
+  limit: number,
 ): Promise<{ changes: Change[]; cursor: number; more: boolean }> {
-  const feed = () =>
-    trx("checklist_responses as r")
-      .join("users as u", "u.id", "r.updated_by")
-      .whereIn("r.checklist_id", scope)
-      .where("r.change_seq", ">", since)
-      .where("r.change_seq", "<=", upTo)
-      .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name");
-  const toChange = (r: FeedRow): Change => ({
-    checklistId: r.checklist_id,
-    itemKey: r.item_key,
-    value: parseJsonColumn(r.value),
-    rev: r.rev,
-    by: r.name,
-    at: new Date(r.updated_at).toISOString(),
-  });
-  const rows: FeedRow[] = await feed()
-    .orderBy("r.change_seq")
-    .limit(limit + 1);
   if (rows.length <= limit) return { changes: rows.map(toChange), cursor: upTo, more: false };
   const last = Number(rows[limit - 1]!.change_seq);
-  const whole: FeedRow[] = await feed().where("r.change_seq", last); // the last number's changes, all of them
+  const whole: FeedRow[] = await feedQuery(knex, scope, last - 1, last);
   return {
     changes: [...rows.filter((r) => Number(r.change_seq) < last), ...whole].map(toChange),
     cursor: last,
     more: last < upTo,
   };
+}
+
+/**
+ * One page of the change feed after `since` (up to `upTo`), at most about `limit` changes (see
+ * pageOf).
+ */
+export async function changesPage(
+  knex: Knex,
+  scope: string[] | Knex.QueryBuilder,
+  since: number,
+  upTo: number,
+  limit = MAX_CHANGES_PER_PULL,
+): Promise<{ changes: Change[]; cursor: number; more: boolean }> {
+  if (upTo <= since) return { changes: [], cursor: upTo, more: false };
+  return pageOf(knex, await feedQuery(knex, scope, since, upTo, limit), scope, upTo, limit);
 }
 
 /**
@@ -275,22 +311,100 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
   // A pull needs no transaction of its own: every change numbered up to the clock it reads (or to
   // the batch's own number) is committed, so plain reads see each of them or a later change.
   if (!request.ops.length)
-    return { results: [], ...(await pullPage(db(), actor, since, await lastChangeNumber(db()), [])) };
+    return { results: [], ...(await pullPage(actor, since, await lastChangeNumber(db()), [])) };
   // A deadlock, a lost certification on a Galera cluster, or a concurrent copy of one of the
   // batch's opIds (a duplicate key) runs the whole batch again; a copy is then answered as a repeat.
   const { results, clock, wrote } = await withRetry(
-    () => db().transaction((trx) => applyBatch(trx, actor, request)),
+    () => applierDb().transaction((trx) => applyBatch(trx, actor, request)),
     { alsoRetry: [ER_DUP_ENTRY] },
   );
   // Read after the commit, the pull sees every change numbered up to the batch's own.
-  return { results, ...(await pullPage(db(), actor, since, clock, wrote)) };
+  return { results, ...(await pullPage(actor, since, clock, wrote)) };
 }
 
 const ER_DUP_ENTRY = 1062;
 
-/** The checklists' rows, locked in key order (the same order in every batch, so no deadlock). */
-async function lockChecklists(trx: Knex.Transaction, ids: string[]) {
-  if (ids.length) await trx("job_checklists").whereIn("id", ids).orderBy("id").forUpdate().select("id");
+/**
+ * The checklists' rows, locked in key order (the same order in every batch, so no deadlock), with
+ * what deciding the batch needs of them.
+ */
+const lockQuery = (trx: Knex.Transaction, ids: string[]) =>
+  trx("job_checklists")
+    .whereIn("id", ids)
+    .orderBy("id")
+    .forUpdate()
+    .select("id", "state", "template_version_id", "job_id");
+
+type CurrentRow = {
+  kind: "value" | "conflict";
+  checklist_id: string;
+  item_key: string;
+  rev: number | string;
+  value: string;
+  updated_at: Date;
+  name: string;
+  conflict_id: number | string;
+};
+
+/**
+ * Every current value of the batch's checklists, and the conflicts still waiting on them (a
+ * row-constructor IN over a thousand pairs costs more than reading the few checklists whole).
+ */
+const currentStateQuery = (trx: Knex.Transaction, checklistIds: string[]) =>
+  trx("checklist_responses as r")
+    .join("users as u", "u.id", "r.updated_by")
+    .whereIn("r.checklist_id", checklistIds)
+    .select(
+      trx.raw("'value' AS kind"),
+      "r.checklist_id",
+      "r.item_key",
+      "r.rev",
+      "r.value",
+      "r.updated_at",
+      "u.name",
+      trx.raw("NULL AS conflict_id"),
+    )
+    .unionAll((q) =>
+      q
+        .from("sync_conflicts as k")
+        .whereIn("k.checklist_id", checklistIds)
+        .whereNull("k.resolved_at")
+        .select(
+          trx.raw("'conflict'"),
+          "k.checklist_id",
+          "k.item_key",
+          trx.raw("NULL"),
+          trx.raw("NULL"),
+          trx.raw("NULL"),
+          trx.raw("NULL"),
+          "k.id",
+        ),
+    );
+
+/**
+ * Everything deciding a batch needs, in one round trip: its checklists' rows, locked first (so
+ * every read after sees what batches before this one committed on them), the opIds already
+ * answered, the jobs' crews, and the current values with the conflicts waiting on them.
+ */
+async function readBatch(trx: Knex.Transaction, checklistIds: string[], opIds: string[]) {
+  const some = checklistIds.length > 0;
+  const queries = [
+    ...(some ? [lockQuery(trx, checklistIds)] : []),
+    ...(opIds.length ? [knownOpIdsQuery(trx, opIds)] : []),
+    ...(some ? [crewQuery(trx, checklistIds), currentStateQuery(trx, checklistIds)] : []),
+  ];
+  const answers = await inOneRoundTrip(trx, queries);
+  const locked = (some ? answers.shift() : []) as LockedChecklist[];
+  const known = (opIds.length ? answers.shift() : []) as KnownOpId[];
+  const [crew = [], rows = []] = answers as [CrewRow[]?, CurrentRow[]?];
+  const [values, conflicts] = partition(rows, (r) => r.kind === "value");
+  // Conflicts still waiting on the batch's checklists: an entry applied on the item decides them.
+  const waiting = new Map<string, number[]>();
+  for (const c of conflicts) {
+    const key = itemId(c.checklist_id, c.item_key);
+    waiting.set(key, [...(waiting.get(key) ?? []), Number(c.conflict_id)]);
+  }
+  return { locked, known, crew, values, waiting };
 }
 
 /**
@@ -308,38 +422,20 @@ async function applyBatch(
   const ops = request.ops.map(readOperation);
   const valid = ops.filter((o): o is Operation => !("status" in o));
   const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
-  // Locked first, so every read below sees what batches before this one committed on them.
-  await lockChecklists(trx, checklistIds);
-  const known = await answersGiven(
+  const batch = await readBatch(
     trx,
+    checklistIds,
     request.ops.map((o) => o.opId),
   );
-  const access = await loadAccess(trx, actor, checklistIds);
-  // Every current value of the batch's checklists in one query (a row-constructor IN over
-  // a thousand pairs costs more than reading the few checklists whole). Their checklists are
-  // locked, so no other batch changes them before this one commits.
-  const currentRows = checklistIds.length
-    ? await trx("checklist_responses as r")
-        .join("users as u", "u.id", "r.updated_by")
-        .select("r.checklist_id", "r.item_key", "r.rev", "r.value", "r.updated_at", "u.name")
-        .whereIn("r.checklist_id", checklistIds)
-    : [];
-  // Conflicts still waiting on the batch's checklists: an entry applied on the item decides them.
-  const waiting = new Map<string, number[]>();
-  for (const c of checklistIds.length
-    ? await trx("sync_conflicts")
-        .whereIn("checklist_id", checklistIds)
-        .whereNull("resolved_at")
-        .select("id", "checklist_id", "item_key")
-    : []) {
-    const key = itemId(c.checklist_id, c.item_key);
-    waiting.set(key, [...(waiting.get(key) ?? []), c.id]);
-  }
+  const known = await answersGiven(trx, batch.known);
+  const access = await loadAccess(trx, actor, batch.locked, batch.crew);
+  const { values: currentRows, waiting } = batch;
   const existed = new Set(currentRows.map((r) => itemId(r.checklist_id, r.item_key)));
   const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
     currentRows.map((r) => [
       itemId(r.checklist_id, r.item_key),
-      { rev: r.rev, value: parseJsonColumn(r.value), by: r.name, at: new Date(r.updated_at) },
+      // A union's integer columns may arrive as strings (BIGINT): numbers here.
+      { rev: Number(r.rev), value: parseJsonColumn(r.value), by: r.name, at: new Date(r.updated_at) },
     ]),
   );
 
@@ -480,27 +576,17 @@ async function applyBatch(
       recorded.push({ op, resultIndex: results.length - 1 });
     }
   }
-  // One multi-row insert, then the ids read back by opId: a Galera cluster hands out
-  // auto-increment ids in steps of the node count, so they are not consecutive there.
-  // The clock, last: its lock (every applier's) is held only for the writes and the commit.
-  // A batch with nothing for the feed (repeats, refusals, conflicts) does not take it.
-  const clock =
-    responses.size || submissions.length ? await nextChangeNumber(trx) : await lastChangeNumber(trx);
-  if (conflicts.length) {
-    await trx("sync_conflicts").insert(conflicts.map((c) => c.row));
-    const ids = new Map(
-      (
-        await trx("sync_conflicts")
-          .whereIn(
-            "op_id",
-            conflicts.map((c) => c.op.opId),
-          )
-          .select("id", "op_id")
-      ).map((r) => [r.op_id, Number(r.id)]),
-    );
-    for (const c of conflicts)
-      results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: ids.get(c.op.opId)! };
-  }
+  const opRow = ({ op, resultIndex }: { op: Operation; resultIndex: number }) => ({
+    op_id: op.opId,
+    device_id: request.deviceId,
+    seq: op.seq,
+    user_id: actor.id,
+    checklist_id: op.checklistId,
+    item_key: op.itemKey,
+    status: results[resultIndex]!.status,
+    result: JSON.stringify(results[resultIndex]),
+    received_at: now,
+  });
   for (const r of responses.values()) {
     wrote.push({
       checklistId: r.checklist_id,
@@ -511,29 +597,67 @@ async function applyBatch(
       at: now.toISOString(),
     });
   }
-  // New items take a plain insert; only items that had a value go through the upsert.
+  // The clock is taken by the UPDATE below; LAST_INSERT_ID() is its new number on this connection
+  // (the value table has no auto-increment column to change it).
   const [changed, added] = partition(
-    [...responses.values()].map((r) => ({ ...r, change_seq: clock })),
+    [...responses.values()].map((r) => ({ ...r, change_seq: trx.raw("LAST_INSERT_ID()") })),
     (r) => existed.has(itemId(r.checklist_id, r.item_key)),
   );
-  if (added.length) await trx("checklist_responses").insert(added);
-  if (changed.length) {
-    await trx("checklist_responses")
-      .insert(changed)
-      .onConflict(["checklist_id", "item_key"])
-      .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]);
+  const takesClock = responses.size > 0 || submissions.length > 0;
+  // The whole write in one round trip. Everything not in the change feed comes first; the clock,
+  // last: its lock (every applier's) is held only for the feed's writes and the commit. A batch
+  // with nothing for the feed (repeats, refusals, conflicts) does not take it. Conflict ids are
+  // read back by opId: a Galera cluster hands out auto-increment ids in steps of the node count.
+  const writes = await inOneRoundTrip(trx, [
+    ...(conflicts.length
+      ? [
+          trx("sync_conflicts").insert(conflicts.map((c) => c.row)),
+          trx("sync_conflicts")
+            .whereIn(
+              "op_id",
+              conflicts.map((c) => c.op.opId),
+            )
+            .select("id", "op_id"),
+        ]
+      : []),
+    // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
+    ...(history.length ? [trx("response_history").insert(history)] : []),
+    ...resolutions.map(({ op, ids }) =>
+      trx("sync_conflicts")
+        .whereIn("id", ids)
+        .where({ checklist_id: op.checklistId, item_key: op.itemKey })
+        .whereNull("resolved_at")
+        .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
+    ),
+    ...(recorded.length ? [trx("sync_ops").insert(recorded.map(opRow))] : []),
+    ...(takesClock ? [trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1")] : []),
+    // New items take a plain insert; only items that had a value go through the upsert.
+    ...(added.length ? [trx("checklist_responses").insert(added)] : []),
+    ...(changed.length
+      ? [
+          trx("checklist_responses")
+            .insert(changed)
+            .onConflict(["checklist_id", "item_key"])
+            .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]),
+        ]
+      : []),
+    takesClock ? trx.raw("SELECT LAST_INSERT_ID() AS seq") : trx("sync_clock").where({ id: 1 }).select("seq"),
+    // With nothing left to do in the transaction, the commit travels with the writes: the server
+    // releases the clock as soon as they are done, not a round trip later, once this busy process
+    // gets round to asking. (The transaction's own COMMIT afterwards finds nothing to do.)
+    ...(submissions.length ? [] : [trx.raw("COMMIT")]),
+  ]);
+  const clock = Number(
+    (writes[writes.length - (submissions.length ? 1 : 2)] as { seq: number | string }[])[0]!.seq,
+  );
+  if (conflicts.length) {
+    const ids = new Map((writes[1] as { id: number; op_id: string }[]).map((r) => [r.op_id, Number(r.id)]));
+    for (const c of conflicts)
+      results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: ids.get(c.op.opId)! };
   }
-  // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
-  if (history.length) await trx("response_history").insert(history);
-  for (const { op, ids } of resolutions) {
-    await trx("sync_conflicts")
-      .whereIn("id", ids)
-      .where({ checklist_id: op.checklistId, item_key: op.itemKey })
-      .whereNull("resolved_at")
-      .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId });
-  }
+  const submitted: { op: Operation; resultIndex: number }[] = [];
   for (const { op, resultIndex } of submissions) {
-    recorded.push({ op, resultIndex });
+    submitted.push({ op, resultIndex });
     if (submittedHere.has(op.checklistId)) {
       results[resultIndex] = reject(op, "locked", "The checklist is already waiting for review.");
       continue;
@@ -556,18 +680,7 @@ async function applyBatch(
     await trx("job_checklists").where({ id: op.checklistId }).update({ change_seq: clock });
     results[resultIndex] = { opId: op.opId, status: "applied", rev: 0 };
   }
-  const opRows = recorded.map(({ op, resultIndex }) => ({
-    op_id: op.opId,
-    device_id: request.deviceId,
-    seq: op.seq,
-    user_id: actor.id,
-    checklist_id: op.checklistId,
-    item_key: op.itemKey,
-    status: results[resultIndex]!.status,
-    result: JSON.stringify(results[resultIndex]),
-    received_at: now,
-  }));
-  if (opRows.length) await trx("sync_ops").insert(opRows);
+  if (submitted.length) await trx("sync_ops").insert(submitted.map(opRow));
   return { results, clock, wrote };
 }
 
@@ -576,29 +689,39 @@ async function applyBatch(
  * batch wrote changes numbered `clock`, up to the number before, plus those changes as written).
  */
 async function pullPage(
-  trx: Knex,
   actor: Actor,
   since: number,
   clock: number,
   wrote: Change[],
 ): Promise<Omit<SyncResponse, "results">> {
-  // The visible checklists first, as a list: the feed query then reads only the change numbers
-  // after the cursor, instead of every response of every visible checklist.
-  const scope: string[] = await visibleChecklists(trx, actor).pluck("c.id");
-  const page = scope.length
-    ? await changesPage(trx, scope, since, wrote.length ? clock - 1 : clock)
-    : { changes: [], cursor: clock, more: false };
+  // The visible checklists as a subquery: the feed is read by its change numbers after the
+  // cursor (an index range), each row kept if its checklist is one of them. The feed and the
+  // checklists' states go in one round trip (the applier's pool takes several statements).
+  const knex = applierDb();
+  const scope = () => visibleChecklists(knex, actor).select("c.id");
+  const upTo = wrote.length ? clock - 1 : clock;
+  const limit = MAX_CHANGES_PER_PULL;
+  const [rows = [], stateRows = []] = (await inOneRoundTrip(knex, [
+    ...(upTo > since ? [feedQuery(knex, scope(), since, upTo, limit)] : []),
+    // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
+    ...(clock > since
+      ? [
+          knex("job_checklists as s")
+            .whereIn("s.id", scope())
+            .where("s.change_seq", ">", since)
+            .where("s.change_seq", "<=", clock)
+            .select("s.id", "s.state", "s.change_seq"),
+        ]
+      : []),
+  ])) as [FeedRow[]?, { id: string; state: ChecklistStateColumn; change_seq: number | string }[]?];
+  const page =
+    upTo > since
+      ? await pageOf(knex, rows, scope(), upTo, limit)
+      : { changes: [], cursor: upTo, more: false };
   const changes = page.changes;
   const cursor = page.more ? page.cursor : clock;
   if (!page.more && since < clock) changes.push(...wrote);
-  // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
-  const states = scope.length
-    ? await trx("job_checklists as c")
-        .whereIn("c.id", scope)
-        .where("c.change_seq", ">", since)
-        .where("c.change_seq", "<=", cursor)
-        .select("c.id", "c.state")
-    : [];
+  const states = stateRows.filter((c) => Number(c.change_seq) <= cursor);
   return {
     changes,
     checklists: states.map((c: { id: string; state: ChecklistStateColumn }) => ({
