@@ -5,9 +5,9 @@ import { redirect } from "react-router";
 import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { loginSchema } from "~/lib/validation/people";
-import { checkPassword, findUserByEmail, findUserById, PASSWORD_COST, type User } from "./users.server.ts";
+import { checkPassword, findUserByEmail, PASSWORD_COST, toUser, type User } from "./users.server.ts";
 import { noteUser } from "./request-log.server.ts";
-import { getSession, sessionStorage } from "./session.server.ts";
+import { getSession, sessionStorage, sessionUserRow } from "./session.server.ts";
 import {
   accountSlowdownMs,
   clearFailedLogins,
@@ -111,11 +111,10 @@ export async function signOut(request: Request) {
 
 /** The signed-in, active user, or null. */
 export async function currentUser(request: Request): Promise<User | null> {
-  const session = await getSession(request);
-  const id = session.get("userId");
-  if (!id) return null;
-  const user = await findUserById(id);
-  if (!user?.active) return null;
+  const row = await sessionUserRow(request);
+  if (!row) return null;
+  const user = toUser(row);
+  if (!user.active) return null;
   noteUser(request, user.id);
   return user;
 }

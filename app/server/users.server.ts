@@ -15,7 +15,7 @@ export interface User {
 
 const INVITATION_DAYS = 7;
 
-function toUser(row: UserRow): User {
+export function toUser(row: UserRow): User {
   return {
     id: row.id,
     email: row.email,
