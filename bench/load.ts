@@ -3,6 +3,8 @@
 // 10-operation sync push — then requests per second, latency percentiles, errors, each route's
 // p99 as a multiple of the health route's, and the server's peak resident memory.
 //   npx react-router build && npx tsx bench/load.ts     (SECONDS=10 CONNECTIONS=32 to change)
+//   ONLY="sync push"   the health route and that one only
+//   SERVER_NODE_ARGS="--cpu-prof --cpu-prof-dir=/tmp/prof"   flags for the server's node
 import { randomUUID } from "node:crypto";
 import { readFileSync } from "node:fs";
 import autocannon from "autocannon";
@@ -117,7 +119,9 @@ const sampler = setInterval(() => {
 }, 100);
 
 const results: { name: string; rps: number; p50: number; p975: number; p99: number; errors: number }[] = [];
-for (const scenario of scenarios) {
+for (const scenario of scenarios.filter(
+  (s) => !process.env.ONLY || ["health", process.env.ONLY].includes(s.name),
+)) {
   let next = 0;
   const result = await autocannon({
     url: server.url,

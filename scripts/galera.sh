@@ -59,7 +59,7 @@ export NODE_ENV=production SESSION_SECRET="galera-test-secret-0123456789abcdef" 
 for n in 1 2; do
   port=$((BASE_PORT + 100 + n))
   url=$([ $n = 1 ] && echo "$NODE1" || echo "$NODE2")
-  PORT=$port APP_URL="http://localhost:$port" DATABASE_URL="$url" node server.js >"$DATA/galera-app$n.log" 2>&1 &
+  PORT=$port APP_URL="http://localhost:$port" DATABASE_URL="$url" node --max-old-space-size="$APP_HEAP_MB" server.js >"$DATA/galera-app$n.log" 2>&1 &
   pids+=($!)
 done
 for n in 1 2; do

@@ -21,7 +21,7 @@ node_modules/.bin/tsx scripts/db.ts create migrate seed
 log "building the app"
 node_modules/.bin/react-router build >"$DATA/build.log" 2>&1 || { tail -40 "$DATA/build.log"; exit 1; }
 
-node server.js &
+node --max-old-space-size="$APP_HEAP_MB" server.js &
 APP_PID=$!
 remember_pid app "$APP_PID"
 trap 'kill "$APP_PID" 2>/dev/null; wait "$APP_PID" 2>/dev/null; rm -f "$PIDS/app.pid"; exit 0' INT TERM

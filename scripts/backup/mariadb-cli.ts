@@ -10,8 +10,10 @@ export function cliArgs(databaseUrl: string): { args: string[]; env: NodeJS.Proc
     // --no-defaults must come first: no option file on the machine changes what is dumped.
     args: [
       "--no-defaults",
-      `--host=${url.hostname}`,
-      `--port=${url.port || "3306"}`,
+      // mysql2's socketPath parameter (a local server's Unix socket) or host and port.
+      ...(url.searchParams.get("socketPath")
+        ? [`--socket=${url.searchParams.get("socketPath")}`]
+        : [`--host=${url.hostname}`, `--port=${url.port || "3306"}`]),
       `--user=${decodeURIComponent(url.username || "root")}`,
       "--default-character-set=utf8mb4",
     ],

@@ -7,6 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startHttpsProxy } from "../../scripts/https-proxy.ts";
 import { baseUrl, expectNoConsoleErrors, hydrated, launch, tabletContext } from "../support/browser.ts";
 import { DEMO_PASSWORD } from "../../db/seeds/demo-people.ts";
+import { serverArgs } from "../support/server-process.ts";
 
 // The way a yard's tablets reach the app: Caddy with the yard's own certificate authority in front
 // of the production server, and a browser that trusts that authority the way a tablet does after
@@ -52,7 +53,7 @@ async function signInAt(page: Page, origin: string, email: string) {
 describe("from a tablet on the yard's network", () => {
   let caFile: string;
   beforeAll(async () => {
-    const server = spawn("node", ["server.js"], {
+    const server = spawn("node", serverArgs(), {
       env: {
         ...process.env,
         NODE_ENV: "production",

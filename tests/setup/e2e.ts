@@ -7,6 +7,7 @@ import { seedDemo } from "../../db/seeds/demo.ts";
 import { seedLibrary } from "../../db/seeds/library.ts";
 import { startS3Fake } from "../../scripts/s3-fake.ts";
 import { freshDatabase } from "../support/database.ts";
+import { serverArgs } from "../support/server-process.ts";
 
 const PORT = Number(process.env.E2E_PORT ?? 3100);
 const SMTP_PORT = Number(process.env.E2E_SMTP_PORT ?? 2626);
@@ -60,7 +61,7 @@ export default async function setup() {
   const children: ChildProcess[] = [];
   const sink = spawn("node_modules/.bin/tsx", ["scripts/mail-sink.ts"], { env, stdio: "inherit" });
   children.push(sink);
-  const server = spawn("node", ["server.js"], { env, stdio: ["ignore", "ignore", "inherit"] });
+  const server = spawn("node", serverArgs(), { env, stdio: ["ignore", "ignore", "inherit"] });
   children.push(server);
   await waitFor(`http://localhost:${PORT}/healthz`, server, "The app server");
 

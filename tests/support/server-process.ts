@@ -27,13 +27,23 @@ export interface RunningServer {
 }
 
 /**
+ * How the production server is started (scripts/start.sh): node with the app's heap cap
+ * (APP_HEAP_MB), then server.js; SERVER_NODE_ARGS adds flags (e.g. --cpu-prof to profile it).
+ */
+export const serverArgs = () => [
+  `--max-old-space-size=${process.env.APP_HEAP_MB ?? 256}`,
+  ...(process.env.SERVER_NODE_ARGS?.split(" ").filter(Boolean) ?? []),
+  "server.js",
+];
+
+/**
  * The production server (`node server.js`, the build npm test makes) on a free port of its own,
  * with the integration setup's database, S3 stand-in and mail sink unless `env` says otherwise.
  */
 export async function startServer(env: Record<string, string | undefined> = {}): Promise<RunningServer> {
   const port = await freePort();
   const url = `http://127.0.0.1:${port}`;
-  const child = spawn("node", ["server.js"], {
+  const child = spawn("node", serverArgs(), {
     env: {
       ...process.env,
       NODE_ENV: "production",
