@@ -167,7 +167,8 @@ const posts: [string | (() => string), Record<Who, number>][] = [
   ["/account", { anonymous: 302, technician: 200, lead: 200, manager: 200, surveyor: 403 }],
   [
     () => `/api/checklists/${ownChecklist}/replies`,
-    { anonymous: 401, technician: 400, lead: 400, manager: 400, surveyor: 400 },
+    // The surveyor is refused on role before the empty form is read.
+    { anonymous: 401, technician: 400, lead: 400, manager: 400, surveyor: 403 },
   ],
   ["/yard", { anonymous: 302, technician: 403, lead: 403, manager: 400, surveyor: 403 }],
   ["/jobs/new", { anonymous: 302, technician: 403, lead: 400, manager: 400, surveyor: 403 }],
