@@ -29,6 +29,6 @@ export async function dropDatabase(databaseUrl: string) {
   }
 }
 
-export function connect(databaseUrl: string): Knex {
-  return knexFactory(knexConfig(databaseUrl));
+export function connect(databaseUrl: string, options?: { severalStatements?: boolean }): Knex {
+  return knexFactory(knexConfig(databaseUrl, options));
 }

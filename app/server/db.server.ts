@@ -34,10 +34,8 @@ export function db(): Knex {
  */
 export function applierDb(): Knex {
   if (!globalThis.__sternpostApplierDb) {
-    const config = knexConfig(env().DATABASE_URL);
     globalThis.__sternpostApplierDb = knexFactory({
-      ...config,
-      connection: { ...(config.connection as object), multipleStatements: true },
+      ...knexConfig(env().DATABASE_URL, { severalStatements: true }),
       acquireConnectionTimeout: ACQUIRE_TIMEOUT_MS,
     });
     globalThis.__sternpostApplierDb.on("query-response", () => (answeredAt = Date.now()));

@@ -1,5 +1,6 @@
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
+import { connect } from "../connect.ts";
 import type { Role } from "../../app/lib/roles.ts";
 import { SUBMIT_KEY, submitValue } from "../../app/lib/sync/submission.ts";
 import type { Template } from "../../app/lib/templates/schema.ts";
@@ -271,14 +272,19 @@ export async function seedDemoStory(knex: Knex): Promise<string> {
     lead: await byEmail("lead@kittiwake-slip.example"),
     tech: await byEmail("tech@kittiwake-slip.example"),
   };
-  // The app's functions read the database through db(); for the story it is the seed's.
-  const previous = globalThis.__sternpostDb;
+  // The app's functions read the database through db() and the sync applier through
+  // applierDb(); for the story both are the seed's.
+  const previous = [globalThis.__sternpostDb, globalThis.__sternpostApplierDb] as const;
+  const { uri } = knex.client.config.connection as { uri: string };
+  const applier = connect(uri, { severalStatements: true });
   globalThis.__sternpostDb = knex;
+  globalThis.__sternpostApplierDb = applier;
   try {
     await completedJob(knex, completed.id, people, "surveyor@harbourmark-survey.example");
     await repower(knex, underway.id, people);
   } finally {
-    globalThis.__sternpostDb = previous;
+    [globalThis.__sternpostDb, globalThis.__sternpostApplierDb] = previous;
+    await applier.destroy();
   }
   return "the completed job issued, the repower under way, a review and a conflict waiting";
 }

@@ -121,6 +121,8 @@ describe("the demo", () => {
     await page.goto("/sync");
     await hydrated(page);
     const conflict = page.getByTestId("conflict");
+    // The list is read from the tablet's own store after the page shows: wait for it, then count.
+    await conflict.first().waitFor();
     expect(await conflict.count()).toBe(1);
     expect(await conflict.innerText()).toMatch(/Strainer/i);
     expectNoConsoleErrors(errors);
