@@ -139,9 +139,16 @@ export interface JobChecklistRow {
   change_seq: BigIntColumn | null;
   created_at: Date;
   updated_at: Date;
+  /** Its own id until countersigned, then NULL: what the seal's keys point at (migration 015). */
+  open_id?: string | null;
 }
 
-export interface ChecklistResponseRow {
+/** The seal's column on a checklist's rows, set by a trigger whatever is sent (migration 015). */
+interface SealedRow {
+  open_ref?: string | null;
+}
+
+export interface ChecklistResponseRow extends SealedRow {
   checklist_id: string;
   item_key: string;
   value: JsonColumn;
@@ -152,7 +159,7 @@ export interface ChecklistResponseRow {
   change_seq: BigIntColumn;
 }
 
-export interface ResponseHistoryRow {
+export interface ResponseHistoryRow extends SealedRow {
   id: BigIntColumn;
   checklist_id: string;
   item_key: string;
@@ -214,7 +221,7 @@ export interface PhotoRow {
   storage_key: string;
 }
 
-export interface ChecklistCommentRow {
+export interface ChecklistCommentRow extends SealedRow {
   id: number;
   checklist_id: string;
   item_key: string;

@@ -166,7 +166,9 @@ describe("the lock", () => {
       op(id, SUBMIT_KEY, submitValue, 0),
     ]);
     await countersign(lead, id, TEST_PASSWORD);
-    const refused = /countersigned checklist cannot be changed/;
+    // Updates, deletes and new rows alike: the look-up triggers say it in words, the seal's key
+    // by its name (migration 015).
+    const refused = /countersigned checklist cannot be changed|sealed_when_countersigned/;
     await expect(
       knex("checklist_responses")
         .where({ checklist_id: id, item_key: "b" })
@@ -186,6 +188,33 @@ describe("the lock", () => {
         text: "late",
         at: new Date(),
       }),
+    ).rejects.toThrow(refused);
+    await expect(
+      knex("checklist_responses").insert({
+        checklist_id: id,
+        item_key: "c",
+        value: JSON.stringify({ text: "late" }),
+        rev: 1,
+        updated_by: tech.id,
+        updated_at: new Date(),
+        change_seq: 1,
+      }),
+    ).rejects.toThrow(refused);
+    await expect(
+      knex("response_history").insert({
+        checklist_id: id,
+        item_key: "b",
+        rev: 9,
+        value: JSON.stringify({ text: "late" }),
+        user_id: tech.id,
+        at: new Date(),
+      }),
+    ).rejects.toThrow(refused);
+    // The key cannot be talked round: the trigger sets it whatever the writer sends.
+    await expect(
+      knex("checklist_responses")
+        .where({ checklist_id: id, item_key: "b" })
+        .update({ value: JSON.stringify({ text: "edited" }), open_ref: null }),
     ).rejects.toThrow(refused);
     const { value } = (await knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).first())!;
     expect(typeof value === "string" ? JSON.parse(value) : value).toEqual({ text: "ok" });
