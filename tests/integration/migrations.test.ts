@@ -3,10 +3,10 @@ import { connect, createDatabase, dropDatabase } from "../../db/connect.ts";
 
 describe("migrations", () => {
   // Suffixed like every test database, so two checkouts testing on one server do not share it.
-  const url = process.env.DATABASE_URL!.replace(
-    /\/[^/]+$/,
-    `/sternpost_migrations${process.env.TEST_DB_SUFFIX ?? ""}`,
-  );
+  // The name is the URL's path: a socket's path may follow in its query (?socketPath=…).
+  const base = new URL(process.env.DATABASE_URL!);
+  base.pathname = `/sternpost_migrations${process.env.TEST_DB_SUFFIX ?? ""}`;
+  const url = base.toString();
   afterAll(() => dropDatabase(url));
 
   it("run up, all the way down, and up again on MariaDB", async () => {
