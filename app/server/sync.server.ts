@@ -17,7 +17,7 @@ import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
 import { applierDb, db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
-import { inOneRoundTrip } from "./round-trip.server.ts";
+import { runStatements } from "./round-trip.server.ts";
 import type {
   ChecklistResponseRow,
   ChecklistStateColumn,
@@ -311,18 +311,39 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
   // A pull needs no transaction of its own: every change numbered up to the clock it reads (or to
   // the batch's own number) is committed, so plain reads see each of them or a later change.
   if (!request.ops.length)
-    return { results: [], ...(await pullPage(actor, since, await lastChangeNumber(db()), [])) };
+    return {
+      results: [],
+      ...(await pullPage(actor, since, await lastChangeNumber(db()), [], !(await onGaleraNode()))),
+    };
   // A deadlock, a lost certification on a Galera cluster, or a concurrent copy of one of the
   // batch's opIds (a duplicate key) runs the whole batch again; a copy is then answered as a repeat.
+  // On a Galera cluster statements go one at a time, each answered before the next (decision 044).
+  const oneServer = !(await onGaleraNode());
   const { results, clock, wrote } = await withRetry(
-    () => applierDb().transaction((trx) => applyBatch(trx, actor, request)),
+    () => applierDb().transaction((trx) => applyBatch(trx, actor, request, oneServer)),
     { alsoRetry: [ER_DUP_ENTRY] },
   );
   // Read after the commit, the pull sees every change numbered up to the batch's own.
-  return { results, ...(await pullPage(actor, since, clock, wrote)) };
+  return { results, ...(await pullPage(actor, since, clock, wrote, oneServer)) };
 }
 
 const ER_DUP_ENTRY = 1062;
+
+/**
+ * Whether the applier's server is a Galera node (`wsrep_on`), asked once per process. When it
+ * cannot be told, the answer is yes: the commit is then sent on its own, which is right anywhere.
+ */
+let galera: Promise<boolean> | undefined;
+function onGaleraNode(): Promise<boolean> {
+  galera ??= applierDb()
+    .raw("SELECT @@wsrep_on AS wsrep")
+    .then(([rows]: [{ wsrep: number | string }[]]) => Number(rows[0]?.wsrep) !== 0)
+    .catch(() => {
+      galera = undefined; // ask again next time
+      return true;
+    });
+  return galera;
+}
 
 /**
  * The checklists' rows, locked in key order (the same order in every batch, so no deadlock), with
@@ -386,14 +407,14 @@ const currentStateQuery = (trx: Knex.Transaction, checklistIds: string[]) =>
  * every read after sees what batches before this one committed on them), the opIds already
  * answered, the jobs' crews, and the current values with the conflicts waiting on them.
  */
-async function readBatch(trx: Knex.Transaction, checklistIds: string[], opIds: string[]) {
+async function readBatch(trx: Knex.Transaction, checklistIds: string[], opIds: string[], together: boolean) {
   const some = checklistIds.length > 0;
   const queries = [
     ...(some ? [lockQuery(trx, checklistIds)] : []),
     ...(opIds.length ? [knownOpIdsQuery(trx, opIds)] : []),
     ...(some ? [crewQuery(trx, checklistIds), currentStateQuery(trx, checklistIds)] : []),
   ];
-  const answers = await inOneRoundTrip(trx, queries);
+  const answers = await runStatements(trx, queries, { together });
   const locked = (some ? answers.shift() : []) as LockedChecklist[];
   const known = (opIds.length ? answers.shift() : []) as KnownOpId[];
   const [crew = [], rows = []] = answers as [CrewRow[]?, CurrentRow[]?];
@@ -415,6 +436,7 @@ async function applyBatch(
   trx: Knex.Transaction,
   actor: Actor & { name: string },
   request: SyncRequest,
+  oneServer: boolean,
 ): Promise<{ results: OpResult[]; clock: number; wrote: Change[] }> {
   const results: OpResult[] = [];
   const wrote: Change[] = [];
@@ -426,6 +448,7 @@ async function applyBatch(
     trx,
     checklistIds,
     request.ops.map((o) => o.opId),
+    oneServer,
   );
   const known = await answersGiven(trx, batch.known);
   const access = await loadAccess(trx, actor, batch.locked, batch.crew);
@@ -608,47 +631,57 @@ async function applyBatch(
   // last: its lock (every applier's) is held only for the feed's writes and the commit. A batch
   // with nothing for the feed (repeats, refusals, conflicts) does not take it. Conflict ids are
   // read back by opId: a Galera cluster hands out auto-increment ids in steps of the node count.
-  const writes = await inOneRoundTrip(trx, [
-    ...(conflicts.length
-      ? [
-          trx("sync_conflicts").insert(conflicts.map((c) => c.row)),
-          trx("sync_conflicts")
-            .whereIn(
-              "op_id",
-              conflicts.map((c) => c.op.opId),
-            )
-            .select("id", "op_id"),
-        ]
-      : []),
-    // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
-    ...(history.length ? [trx("response_history").insert(history)] : []),
-    ...resolutions.map(({ op, ids }) =>
-      trx("sync_conflicts")
-        .whereIn("id", ids)
-        .where({ checklist_id: op.checklistId, item_key: op.itemKey })
-        .whereNull("resolved_at")
-        .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
-    ),
-    ...(recorded.length ? [trx("sync_ops").insert(recorded.map(opRow))] : []),
-    ...(takesClock ? [trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1")] : []),
-    // New items take a plain insert; only items that had a value go through the upsert.
-    ...(added.length ? [trx("checklist_responses").insert(added)] : []),
-    ...(changed.length
-      ? [
-          trx("checklist_responses")
-            .insert(changed)
-            .onConflict(["checklist_id", "item_key"])
-            .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]),
-        ]
-      : []),
-    takesClock ? trx.raw("SELECT LAST_INSERT_ID() AS seq") : trx("sync_clock").where({ id: 1 }).select("seq"),
-    // With nothing left to do in the transaction, the commit travels with the writes: the server
-    // releases the clock as soon as they are done, not a round trip later, once this busy process
-    // gets round to asking. (The transaction's own COMMIT afterwards finds nothing to do.)
-    ...(submissions.length ? [] : [trx.raw("COMMIT")]),
-  ]);
+  const commitWithWrites = oneServer && !submissions.length;
+  const writes = await runStatements(
+    trx,
+    [
+      ...(conflicts.length
+        ? [
+            trx("sync_conflicts").insert(conflicts.map((c) => c.row)),
+            trx("sync_conflicts")
+              .whereIn(
+                "op_id",
+                conflicts.map((c) => c.op.opId),
+              )
+              .select("id", "op_id"),
+          ]
+        : []),
+      // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
+      ...(history.length ? [trx("response_history").insert(history)] : []),
+      ...resolutions.map(({ op, ids }) =>
+        trx("sync_conflicts")
+          .whereIn("id", ids)
+          .where({ checklist_id: op.checklistId, item_key: op.itemKey })
+          .whereNull("resolved_at")
+          .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
+      ),
+      ...(recorded.length ? [trx("sync_ops").insert(recorded.map(opRow))] : []),
+      ...(takesClock ? [trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1")] : []),
+      // New items take a plain insert; only items that had a value go through the upsert.
+      ...(added.length ? [trx("checklist_responses").insert(added)] : []),
+      ...(changed.length
+        ? [
+            trx("checklist_responses")
+              .insert(changed)
+              .onConflict(["checklist_id", "item_key"])
+              .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]),
+          ]
+        : []),
+      takesClock
+        ? trx.raw("SELECT LAST_INSERT_ID() AS seq")
+        : trx("sync_clock").where({ id: 1 }).select("seq"),
+      // With nothing left to do in the transaction, on one server the commit travels with the
+      // writes: the server releases the clock as soon as they are done, not a round trip later, once
+      // this busy process gets round to asking. (The transaction's own COMMIT then finds nothing to
+      // do.)
+      ...(commitWithWrites ? [trx.raw("COMMIT")] : []),
+    ],
+    { together: oneServer },
+  );
   const clock = Number(
-    (writes[writes.length - (submissions.length ? 1 : 2)] as { seq: number | string }[])[0]!.seq,
+    (
+      writes[writes.length - (commitWithWrites && !submissions.length ? 2 : 1)] as { seq: number | string }[]
+    )[0]!.seq,
   );
   if (conflicts.length) {
     const ids = new Map((writes[1] as { id: number; op_id: string }[]).map((r) => [r.op_id, Number(r.id)]));
@@ -693,6 +726,7 @@ async function pullPage(
   since: number,
   clock: number,
   wrote: Change[],
+  together: boolean,
 ): Promise<Omit<SyncResponse, "results">> {
   // The visible checklists as a subquery: the feed is read by its change numbers after the
   // cursor (an index range), each row kept if its checklist is one of them. The feed and the
@@ -701,19 +735,23 @@ async function pullPage(
   const scope = () => visibleChecklists(knex, actor).select("c.id");
   const upTo = wrote.length ? clock - 1 : clock;
   const limit = MAX_CHANGES_PER_PULL;
-  const [rows = [], stateRows = []] = (await inOneRoundTrip(knex, [
-    ...(upTo > since ? [feedQuery(knex, scope(), since, upTo, limit)] : []),
-    // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
-    ...(clock > since
-      ? [
-          knex("job_checklists as s")
-            .whereIn("s.id", scope())
-            .where("s.change_seq", ">", since)
-            .where("s.change_seq", "<=", clock)
-            .select("s.id", "s.state", "s.change_seq"),
-        ]
-      : []),
-  ])) as [FeedRow[]?, { id: string; state: ChecklistStateColumn; change_seq: number | string }[]?];
+  const [rows = [], stateRows = []] = (await runStatements(
+    knex,
+    [
+      ...(upTo > since ? [feedQuery(knex, scope(), since, upTo, limit)] : []),
+      // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
+      ...(clock > since
+        ? [
+            knex("job_checklists as s")
+              .whereIn("s.id", scope())
+              .where("s.change_seq", ">", since)
+              .where("s.change_seq", "<=", clock)
+              .select("s.id", "s.state", "s.change_seq"),
+          ]
+        : []),
+    ],
+    { together },
+  )) as [FeedRow[]?, { id: string; state: ChecklistStateColumn; change_seq: number | string }[]?];
   const page =
     upTo > since
       ? await pageOf(knex, rows, scope(), upTo, limit)
