@@ -16,15 +16,17 @@ declare global {
 
 let answeredAt = 0;
 
+function pool(options: { severalStatements?: boolean } = {}): Knex {
+  const knex = knexFactory({
+    ...knexConfig(env().DATABASE_URL, options),
+    acquireConnectionTimeout: ACQUIRE_TIMEOUT_MS,
+  });
+  knex.on("query-response", () => (answeredAt = Date.now()));
+  return knex;
+}
+
 export function db(): Knex {
-  if (!globalThis.__sternpostDb) {
-    globalThis.__sternpostDb = knexFactory({
-      ...knexConfig(env().DATABASE_URL),
-      acquireConnectionTimeout: ACQUIRE_TIMEOUT_MS,
-    });
-    globalThis.__sternpostDb.on("query-response", () => (answeredAt = Date.now()));
-  }
-  return globalThis.__sternpostDb;
+  return (globalThis.__sternpostDb ??= pool());
 }
 
 /**
@@ -33,14 +35,7 @@ export function db(): Knex {
  * Everything else uses `db()`, whose connections take one statement at a time.
  */
 export function applierDb(): Knex {
-  if (!globalThis.__sternpostApplierDb) {
-    globalThis.__sternpostApplierDb = knexFactory({
-      ...knexConfig(env().DATABASE_URL, { severalStatements: true }),
-      acquireConnectionTimeout: ACQUIRE_TIMEOUT_MS,
-    });
-    globalThis.__sternpostApplierDb.on("query-response", () => (answeredAt = Date.now()));
-  }
-  return globalThis.__sternpostApplierDb;
+  return (globalThis.__sternpostApplierDb ??= pool({ severalStatements: true }));
 }
 
 /**

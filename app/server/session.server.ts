@@ -38,12 +38,15 @@ export async function sessionUserRow(request: Request): Promise<UserRow | null> 
     .join("users as u", "u.id", "s.user_id")
     .where("s.id", id)
     .first("u.*", "s.expires_at as session_expires_at");
-  if (!row) return null;
-  if (row.session_expires_at && new Date(row.session_expires_at) < new Date()) {
-    await db()("sessions").where({ id }).delete();
-    return null;
-  }
+  if (!row || (await droppedIfExpired(id, row.session_expires_at))) return null;
   return row;
+}
+
+/** A session past its expiry is deleted on sight; says whether it was. */
+async function droppedIfExpired(id: string, expiresAt: Date | null): Promise<boolean> {
+  if (!expiresAt || new Date(expiresAt) >= new Date()) return false;
+  await db()("sessions").where({ id }).delete();
+  return true;
 }
 
 let storage: ReturnType<typeof createSessionStorage<SessionData, FlashData>> | undefined;
@@ -65,10 +68,7 @@ export function sessionStorage() {
     async readData(id) {
       const row = await db()("sessions").where({ id }).first();
       if (!row) return null;
-      if (row.expires_at && new Date(row.expires_at) < new Date()) {
-        await db()("sessions").where({ id }).delete();
-        return null;
-      }
+      if (await droppedIfExpired(id, row.expires_at)) return null;
       return JSON.parse(row.data);
     },
     async updateData(id, data, expires) {

@@ -7,15 +7,24 @@ import type { Knex } from "knex";
  * before writing: whoever holds it holds up every other writer.
  */
 export async function nextChangeNumber(trx: Knex.Transaction): Promise<number> {
-  // One round trip: the UPDATE takes the row lock and LAST_INSERT_ID(expr) hands the new value
-  // back in the statement's own answer (the OK packet's insert id).
-  const [answer] = await trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1");
+  const [answer] = await takeClock(trx);
   return Number((answer as { insertId: number | string }).insertId);
 }
 
+/**
+ * The statement that takes the next number: the UPDATE takes the row lock and LAST_INSERT_ID(expr)
+ * hands the new value back in its own answer (the OK packet's insert id) and, until the
+ * connection's next auto-increment insert, as LAST_INSERT_ID() to the statements after it.
+ */
+export const takeClock = (trx: Knex.Transaction) =>
+  trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1");
+
+/** The last number handed out, as a statement (for sending together with others). */
+export const clockQuery = (knex: Knex) => knex("sync_clock").where({ id: 1 }).select("seq");
+
 /** The last number handed out (what a pull may read up to without taking the lock). */
 export async function lastChangeNumber(trx: Knex): Promise<number> {
-  return Number((await trx("sync_clock").where({ id: 1 }).first())!.seq);
+  return Number((await clockQuery(trx).first())!.seq);
 }
 
 /** Puts a checklist's state change in the feed (call in the transaction that changes it). */

@@ -27,7 +27,7 @@ import type {
 } from "./tables.server.ts";
 import { withRetry } from "./retry.server.ts";
 import { submitChecklist, undecidedConflicts } from "./review.server.ts";
-import { lastChangeNumber } from "./sync-clock.server.ts";
+import { clockQuery, lastChangeNumber, takeClock } from "./sync-clock.server.ts";
 
 interface ChecklistAccess {
   state: string;
@@ -656,7 +656,7 @@ async function applyBatch(
           .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
       ),
       ...(recorded.length ? [trx("sync_ops").insert(recorded.map(opRow))] : []),
-      ...(takesClock ? [trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1")] : []),
+      ...(takesClock ? [takeClock(trx)] : []),
       // New items take a plain insert; only items that had a value go through the upsert.
       ...(added.length ? [trx("checklist_responses").insert(added)] : []),
       ...(changed.length
@@ -667,9 +667,7 @@ async function applyBatch(
               .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]),
           ]
         : []),
-      takesClock
-        ? trx.raw("SELECT LAST_INSERT_ID() AS seq")
-        : trx("sync_clock").where({ id: 1 }).select("seq"),
+      takesClock ? trx.raw("SELECT LAST_INSERT_ID() AS seq") : clockQuery(trx),
       // With nothing left to do in the transaction, on one server the commit travels with the
       // writes: the server releases the clock as soon as they are done, not a round trip later, once
       // this busy process gets round to asking. (The transaction's own COMMIT then finds nothing to
