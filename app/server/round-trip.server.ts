@@ -1,29 +1,67 @@
+import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 
+export type Statement = Knex.QueryBuilder | Knex.Raw;
+
 /**
- * Statements answered in order, one result each: a statement's outcome or its rows. `together`
- * sends them to MariaDB as one request — only on the connections of `applierDb()` (the sync
- * applier's pool), which allow several statements per request; every value still travels as a
- * bound parameter. A batch that needs five round trips on a busy server waits behind other
- * requests five times; sent together, once (decision 044). Otherwise they go one at a time, as a
- * Galera node needs them.
+ * Sends statements on one connection and answers them in order, one answer each: a SELECT's rows,
+ * a write's outcome (affected rows, insert id). `together` sends them to MariaDB as one request —
+ * only on the connections of `applierDb()` (the sync applier's pool), which allow several
+ * statements per request; every value still travels as a bound parameter. Otherwise they go one
+ * at a time, as a Galera node needs them (decision 044). A failing statement stops the ones after
+ * it either way.
  */
-export async function runStatements(
-  knex: Knex | Knex.Transaction,
-  statements: (Knex.QueryBuilder | Knex.Raw)[],
-  { together }: { together: boolean },
-): Promise<unknown[]> {
-  if (!statements.length) return [];
-  if (!together) {
-    const answers: unknown[] = [];
-    // A raw statement answers [rows, fields]; a built one, its rows.
-    for (const s of statements) answers.push("isRawInstance" in s ? ((await s) as unknown[])[0] : await s);
-    return answers;
+export type Send = (statements: Statement[], options: { together: boolean }) => Promise<unknown[]>;
+
+type Connection = {
+  query(
+    options: { sql: string },
+    bindings: readonly unknown[],
+    done: (error: Error | null, answer: unknown) => void,
+  ): void;
+};
+
+/**
+ * Runs `work` on one connection of `knex`'s pool, which it has to itself. A transaction is opened
+ * and ended by the statements `work` sends (`START TRANSACTION` with its first reads, `COMMIT`
+ * with its last writes), so neither costs a round trip of its own — on a busy server each round
+ * trip waits behind everyone else's. When `work` fails, whatever it left open is rolled back
+ * before the connection goes back to the pool.
+ */
+export async function onOneConnection<T>(knex: Knex, work: (send: Send) => Promise<T>): Promise<T> {
+  const connection = (await knex.client.acquireConnection()) as Connection;
+  const query = (sql: string, bindings: readonly unknown[]) =>
+    new Promise<unknown>((resolve, reject) => {
+      // The pool's own events, as for any Knex query: the health check counts on them.
+      const event = { sql, bindings, __knexQueryUid: randomUUID() };
+      knex.emit("query", event);
+      connection.query({ sql }, bindings, (error, answer) => {
+        if (error) {
+          knex.emit("query-error", error, event);
+          return reject(error);
+        }
+        knex.emit("query-response", answer, event);
+        resolve(answer);
+      });
+    });
+  const send: Send = async (statements, { together }) => {
+    const parts = statements.map((s) => s.toSQL().toNative());
+    if (!together || parts.length < 2) {
+      const answers: unknown[] = [];
+      for (const p of parts) answers.push(await query(p.sql, p.bindings));
+      return answers;
+    }
+    return (await query(
+      parts.map((p) => p.sql).join(";\n"),
+      parts.flatMap((p) => p.bindings),
+    )) as unknown[];
+  };
+  try {
+    return await work(send);
+  } catch (error) {
+    await query("ROLLBACK", []).catch(() => {}); // a connection that broke is dropped by the pool
+    throw error;
+  } finally {
+    await knex.client.releaseConnection(connection);
   }
-  const parts = statements.map((s) => s.toSQL().toNative());
-  const [answer] = (await knex.raw(
-    parts.map((p) => p.sql).join(";\n"),
-    parts.flatMap((p) => p.bindings as Knex.Value[]),
-  )) as [unknown];
-  return parts.length === 1 ? [answer] : (answer as unknown[]);
 }

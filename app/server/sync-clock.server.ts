@@ -16,15 +16,12 @@ export async function nextChangeNumber(trx: Knex.Transaction): Promise<number> {
  * hands the new value back in its own answer (the OK packet's insert id) and, until the
  * connection's next auto-increment insert, as LAST_INSERT_ID() to the statements after it.
  */
-export const takeClock = (trx: Knex.Transaction) =>
-  trx.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1");
-
-/** The last number handed out, as a statement (for sending together with others). */
-export const clockQuery = (knex: Knex) => knex("sync_clock").where({ id: 1 }).select("seq");
+export const takeClock = (knex: Knex) =>
+  knex.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1");
 
 /** The last number handed out (what a pull may read up to without taking the lock). */
 export async function lastChangeNumber(trx: Knex): Promise<number> {
-  return Number((await clockQuery(trx).first())!.seq);
+  return Number((await trx("sync_clock").where({ id: 1 }).first("seq"))!.seq);
 }
 
 /** Puts a checklist's state change in the feed (call in the transaction that changes it). */

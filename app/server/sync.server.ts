@@ -15,9 +15,9 @@ import {
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
-import { applierDb, db } from "./db.server.ts";
+import { applierDb } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
-import { runStatements } from "./round-trip.server.ts";
+import { onOneConnection, type Send, type Statement } from "./round-trip.server.ts";
 import type {
   ChecklistResponseRow,
   ChecklistStateColumn,
@@ -27,7 +27,7 @@ import type {
 } from "./tables.server.ts";
 import { withRetry } from "./retry.server.ts";
 import { submitChecklist, undecidedConflicts } from "./review.server.ts";
-import { clockQuery, lastChangeNumber, takeClock } from "./sync-clock.server.ts";
+import { lastChangeNumber, nextChangeNumber, takeClock } from "./sync-clock.server.ts";
 
 interface ChecklistAccess {
   state: string;
@@ -63,10 +63,17 @@ function visibleChecklists(knex: Knex, actor: Actor) {
  * schemas cached on its items (valueSchemaFor) then serve every later batch.
  */
 const parsedTemplates = new Map<number, Template>();
-async function templatesById(trx: Knex.Transaction, ids: number[]): Promise<Map<number, Template>> {
+async function templatesById(
+  send: Send,
+  knex: Knex,
+  ids: number[],
+  together: boolean,
+): Promise<Map<number, Template>> {
   const missing = ids.filter((id) => !parsedTemplates.has(id));
   if (missing.length) {
-    const bodies = await trx("template_versions").whereIn("id", missing).select("id", "body");
+    const [bodies] = (await send([knex("template_versions").whereIn("id", missing).select("id", "body")], {
+      together,
+    })) as [{ id: number; body: string }[]];
     for (const b of bodies) parsedTemplates.set(b.id, JSON.parse(b.body));
   }
   return new Map(ids.map((id) => [id, parsedTemplates.get(id)!]));
@@ -77,8 +84,8 @@ type LockedChecklist = Pick<JobChecklistRow, "id" | "state" | "template_version_
 type CrewRow = { job_id: number; lead_id: number; user_id: number | null };
 
 /** The jobs and crews of the batch's checklists (one row per job and technician). */
-const crewQuery = (trx: Knex.Transaction, checklistIds: string[]) =>
-  trx("job_checklists as c")
+const crewQuery = (knex: Knex, checklistIds: string[]) =>
+  knex("job_checklists as c")
     .join("jobs as j", "j.id", "c.job_id")
     .leftJoin("job_technicians as t", "t.job_id", "j.id")
     .whereIn("c.id", checklistIds)
@@ -86,12 +93,18 @@ const crewQuery = (trx: Knex.Transaction, checklistIds: string[]) =>
 
 /** Who may do what on each checklist the batch touches, from its locked row and its job's crew. */
 async function loadAccess(
-  trx: Knex.Transaction,
+  send: Send,
+  knex: Knex,
   actor: Actor,
-  checklists: LockedChecklist[],
-  crew: CrewRow[],
+  { locked: checklists, crew }: { locked: LockedChecklist[]; crew: CrewRow[] },
+  together: boolean,
 ): Promise<Map<string, ChecklistAccess>> {
-  const templates = await templatesById(trx, [...new Set(checklists.map((c) => c.template_version_id))]);
+  const templates = await templatesById(
+    send,
+    knex,
+    [...new Set(checklists.map((c) => c.template_version_id))],
+    together,
+  );
   const jobs = new Map<number, { leadId: number; technicianIds: number[] }>();
   for (const r of crew) {
     const job = jobs.get(r.job_id) ?? { leadId: r.lead_id, technicianIds: [] };
@@ -117,9 +130,9 @@ async function loadAccess(
 type KnownOpId = { op_id: string; kept: "history" | "conflict" | "other" };
 
 /** Which of these operation ids are known at all, and where each one's answer is kept. */
-function knownOpIdsQuery(trx: Knex.Transaction, opIds: string[]) {
+function knownOpIdsQuery(knex: Knex, opIds: string[]) {
   const marks = opIds.map(() => "?").join(",");
-  return trx.raw(
+  return knex.raw(
     `SELECT op_id, 'history' AS kept FROM response_history WHERE op_id IN (${marks})
      UNION ALL SELECT op_id, 'conflict' FROM sync_conflicts WHERE op_id IN (${marks})
      UNION ALL SELECT op_id, 'other' FROM sync_ops WHERE op_id IN (${marks})`,
@@ -131,31 +144,48 @@ function knownOpIdsQuery(trx: Knex.Transaction, opIds: string[]) {
  * The answers already given to the known operation ids (in a fresh batch, none), read only from
  * the table that holds each kind of answer.
  */
-async function answersGiven(trx: Knex.Transaction, found: KnownOpId[]) {
+async function answersGiven(send: Send, knex: Knex, found: KnownOpId[], together: boolean) {
   const answers = new Map<string, { userId: number; result: OpResult }>();
   if (!found.length) return answers;
   const keptIn = (kept: string) => found.filter((f) => f.kept === kept).map((f) => f.op_id);
-  const [applied, conflicted, others] = await Promise.all([
-    keptIn("history").length
-      ? trx("response_history").whereIn("op_id", keptIn("history")).select("op_id", "user_id", "rev")
-      : [],
-    keptIn("conflict").length
-      ? trx("sync_conflicts as k")
-          // Who set the server's value, and when: its history row.
-          .leftJoin("response_history as h", (j) =>
-            j
-              .on("h.checklist_id", "k.checklist_id")
-              .on("h.item_key", "k.item_key")
-              .on("h.rev", "k.server_rev"),
-          )
-          .leftJoin("users as u", "u.id", "h.user_id")
-          .whereIn("k.op_id", keptIn("conflict"))
-          .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at")
-      : [],
-    keptIn("other").length
-      ? trx("sync_ops").whereIn("op_id", keptIn("other")).select("op_id", "user_id", "result")
-      : [],
-  ]);
+  const reads: [string, Statement][] = [
+    [
+      "history",
+      knex("response_history").whereIn("op_id", keptIn("history")).select("op_id", "user_id", "rev"),
+    ],
+    [
+      "conflict",
+      knex("sync_conflicts as k")
+        // Who set the server's value, and when: its history row.
+        .leftJoin("response_history as h", (j) =>
+          j.on("h.checklist_id", "k.checklist_id").on("h.item_key", "k.item_key").on("h.rev", "k.server_rev"),
+        )
+        .leftJoin("users as u", "u.id", "h.user_id")
+        .whereIn("k.op_id", keptIn("conflict"))
+        .select("k.op_id", "k.user_id", "k.id", "k.server_rev", "k.server_value", "u.name", "h.at"),
+    ],
+    ["other", knex("sync_ops").whereIn("op_id", keptIn("other")).select("op_id", "user_id", "result")],
+  ];
+  const asked = reads.filter(([kept]) => keptIn(kept).length);
+  const rows = new Map(
+    (
+      await send(
+        asked.map(([, q]) => q),
+        { together },
+      )
+    ).map((r, i) => [asked[i]![0], r as never[]]),
+  );
+  const applied: { op_id: string; user_id: number; rev: number }[] = rows.get("history") ?? [];
+  const conflicted: {
+    op_id: string;
+    user_id: number;
+    id: number;
+    server_rev: number;
+    server_value: string | null;
+    name: string | null;
+    at: Date;
+  }[] = rows.get("conflict") ?? [];
+  const others: { op_id: string; user_id: number; result: string }[] = rows.get("other") ?? [];
   for (const r of applied)
     answers.set(r.op_id!, { userId: r.user_id, result: { opId: r.op_id!, status: "applied", rev: r.rev } });
   for (const r of conflicted) {
@@ -223,14 +253,14 @@ type FeedRow = Pick<
 > & { name: string };
 
 /**
- * The change feed after `since` up to `upTo`, in order; with a limit, one row more than it, to
- * tell whether more follow.
+ * The change feed after `since` up to `upTo` (a number, or an expression such as the `@clock` a
+ * batch sets), in order; with a limit, one row more than it, to tell whether more follow.
  */
 const feedQuery = (
   knex: Knex,
   scope: string[] | Knex.QueryBuilder,
   since: number,
-  upTo: number,
+  upTo: number | Knex.Raw,
   limit?: number,
 ) => {
   const q = knex("checklist_responses as r")
@@ -295,7 +325,8 @@ export async function changesPage(
  * all of it is recorded (with each op's result) or nothing is. The rules per operation: a known
  * opId gets its first answer again; baseRev equal to the current revision is applied
  * (revision + 1); the same value as the server's is accepted without a conflict; anything else is
- * a conflict, kept with both values.
+ * a conflict, kept with both values. A submission is decided after the batch's entries are
+ * committed, in a transaction of its own, so they count towards "complete".
  *
  * Concurrency (decision 043): the batch first locks the rows of the checklists it touches, so
  * batches on other checklists run beside it, and takes the change-feed clock only once its
@@ -303,35 +334,45 @@ export async function changesPage(
  * commit alone. Change numbers therefore still follow commit order, and the pull — read after the
  * commit, when every smaller number is committed — never misses a late commit (decision 004).
  *
- * The batch is decided in memory over rows read with a few queries, then written with a few
- * multi-row statements, so a thousand operations cost a handful of round trips.
+ * Round trips (decision 044): on one server the batch is read in one request (which opens the
+ * transaction) and written, committed and followed by the pull in a second; a pull alone is one.
  */
 export async function sync(actor: Actor & { name: string }, request: SyncRequest): Promise<SyncResponse> {
   const since = request.cursor && /^\d+$/.test(request.cursor) ? Number(request.cursor) : 0;
-  // A pull needs no transaction of its own: every change numbered up to the clock it reads (or to
-  // the batch's own number) is committed, so plain reads see each of them or a later change.
-  if (!request.ops.length)
-    return {
-      results: [],
-      ...(await pullPage(actor, since, await lastChangeNumber(db()), [], !(await onGaleraNode()))),
-    };
+  const knex = applierDb();
+  // On a Galera cluster statements go one at a time, each answered before the next (decision 044).
+  const together = !(await onGaleraNode());
+  // A pull needs no transaction: every change numbered up to the clock it reads is committed, so
+  // plain reads see each of them or a later change.
+  if (!request.ops.length) {
+    const read = await onOneConnection(knex, (send) =>
+      send([clockNow(knex), ...pullStatements(knex, actor, since, false)], { together }),
+    );
+    return { results: [], ...(await pageFrom(knex, actor, since, pulled(read, []))) };
+  }
   // A deadlock, a lost certification on a Galera cluster, or a concurrent copy of one of the
   // batch's opIds (a duplicate key) runs the whole batch again; a copy is then answered as a repeat.
-  // On a Galera cluster statements go one at a time, each answered before the next (decision 044).
-  const oneServer = !(await onGaleraNode());
-  const { results, clock, wrote } = await withRetry(
-    () => applierDb().transaction((trx) => applyBatch(trx, actor, request, oneServer)),
+  const batch = await withRetry(
+    () => onOneConnection(knex, (send) => applyBatch(send, knex, actor, request, since, together)),
     { alsoRetry: [ER_DUP_ENTRY] },
   );
-  // Read after the commit, the pull sees every change numbered up to the batch's own.
-  return { results, ...(await pullPage(actor, since, clock, wrote, oneServer)) };
+  const { results, submissions } = batch;
+  if (!submissions.length) return { results, ...(await pageFrom(knex, actor, since, batch.pulled!)) };
+  const clock = await withRetry(
+    () => knex.transaction((trx) => decideSubmissions(trx, actor, request.deviceId, submissions, results)),
+    { alsoRetry: [ER_DUP_ENTRY] },
+  );
+  const read = await onOneConnection(knex, (send) =>
+    send([clockAt(knex, clock), ...pullStatements(knex, actor, since, false)], { together }),
+  );
+  return { results, ...(await pageFrom(knex, actor, since, pulled(read, []))) };
 }
 
 const ER_DUP_ENTRY = 1062;
 
 /**
  * Whether the applier's server is a Galera node (`wsrep_on`), asked once per process. When it
- * cannot be told, the answer is yes: the commit is then sent on its own, which is right anywhere.
+ * cannot be told, the answer is yes: statements then go one at a time, which is right anywhere.
  */
 let galera: Promise<boolean> | undefined;
 function onGaleraNode(): Promise<boolean> {
@@ -349,8 +390,8 @@ function onGaleraNode(): Promise<boolean> {
  * The checklists' rows, locked in key order (the same order in every batch, so no deadlock), with
  * what deciding the batch needs of them.
  */
-const lockQuery = (trx: Knex.Transaction, ids: string[]) =>
-  trx("job_checklists")
+const lockQuery = (knex: Knex, ids: string[]) =>
+  knex("job_checklists")
     .whereIn("id", ids)
     .orderBy("id")
     .forUpdate()
@@ -371,19 +412,19 @@ type CurrentRow = {
  * Every current value of the batch's checklists, and the conflicts still waiting on them (a
  * row-constructor IN over a thousand pairs costs more than reading the few checklists whole).
  */
-const currentStateQuery = (trx: Knex.Transaction, checklistIds: string[]) =>
-  trx("checklist_responses as r")
+const currentStateQuery = (knex: Knex, checklistIds: string[]) =>
+  knex("checklist_responses as r")
     .join("users as u", "u.id", "r.updated_by")
     .whereIn("r.checklist_id", checklistIds)
     .select(
-      trx.raw("'value' AS kind"),
+      knex.raw("'value' AS kind"),
       "r.checklist_id",
       "r.item_key",
       "r.rev",
       "r.value",
       "r.updated_at",
       "u.name",
-      trx.raw("NULL AS conflict_id"),
+      knex.raw("NULL AS conflict_id"),
     )
     .unionAll((q) =>
       q
@@ -391,30 +432,32 @@ const currentStateQuery = (trx: Knex.Transaction, checklistIds: string[]) =>
         .whereIn("k.checklist_id", checklistIds)
         .whereNull("k.resolved_at")
         .select(
-          trx.raw("'conflict'"),
+          knex.raw("'conflict'"),
           "k.checklist_id",
           "k.item_key",
-          trx.raw("NULL"),
-          trx.raw("NULL"),
-          trx.raw("NULL"),
-          trx.raw("NULL"),
+          knex.raw("NULL"),
+          knex.raw("NULL"),
+          knex.raw("NULL"),
+          knex.raw("NULL"),
           "k.id",
         ),
     );
 
 /**
- * Everything deciding a batch needs, in one round trip: its checklists' rows, locked first (so
- * every read after sees what batches before this one committed on them), the opIds already
- * answered, the jobs' crews, and the current values with the conflicts waiting on them.
+ * Everything deciding a batch needs, in one round trip that opens its transaction: its checklists'
+ * rows, locked first (so every read after sees what batches before this one committed on them),
+ * the opIds already answered, the jobs' crews, and the current values with the conflicts waiting
+ * on them.
  */
-async function readBatch(trx: Knex.Transaction, checklistIds: string[], opIds: string[], together: boolean) {
+async function readBatch(send: Send, knex: Knex, checklistIds: string[], opIds: string[], together: boolean) {
   const some = checklistIds.length > 0;
   const queries = [
-    ...(some ? [lockQuery(trx, checklistIds)] : []),
-    ...(opIds.length ? [knownOpIdsQuery(trx, opIds)] : []),
-    ...(some ? [crewQuery(trx, checklistIds), currentStateQuery(trx, checklistIds)] : []),
+    knex.raw("START TRANSACTION"),
+    ...(some ? [lockQuery(knex, checklistIds)] : []),
+    ...(opIds.length ? [knownOpIdsQuery(knex, opIds)] : []),
+    ...(some ? [crewQuery(knex, checklistIds), currentStateQuery(knex, checklistIds)] : []),
   ];
-  const answers = await runStatements(trx, queries, { together });
+  const answers = (await send(queries, { together })).slice(1);
   const locked = (some ? answers.shift() : []) as LockedChecklist[];
   const known = (opIds.length ? answers.shift() : []) as KnownOpId[];
   const [crew = [], rows = []] = answers as [CrewRow[]?, CurrentRow[]?];
@@ -428,16 +471,20 @@ async function readBatch(trx: Knex.Transaction, checklistIds: string[], opIds: s
   return { locked, known, crew, values, waiting };
 }
 
+type Submission = { op: Operation; resultIndex: number };
+
 /**
- * Decides and writes a batch; answers each operation, the change number of its writes (or, with
- * nothing for the feed, the last number handed out) and the changes it wrote.
+ * Decides, writes and commits a batch; answers each operation and the submissions left to decide,
+ * and, when there are none, the pull read after the commit.
  */
 async function applyBatch(
-  trx: Knex.Transaction,
+  send: Send,
+  knex: Knex,
   actor: Actor & { name: string },
   request: SyncRequest,
-  oneServer: boolean,
-): Promise<{ results: OpResult[]; clock: number; wrote: Change[] }> {
+  since: number,
+  together: boolean,
+): Promise<{ results: OpResult[]; submissions: Submission[]; pulled?: Pulled }> {
   const results: OpResult[] = [];
   const wrote: Change[] = [];
   const now = new Date();
@@ -445,13 +492,14 @@ async function applyBatch(
   const valid = ops.filter((o): o is Operation => !("status" in o));
   const checklistIds = [...new Set(valid.map((o) => o.checklistId))];
   const batch = await readBatch(
-    trx,
+    send,
+    knex,
     checklistIds,
     request.ops.map((o) => o.opId),
-    oneServer,
+    together,
   );
-  const known = await answersGiven(trx, batch.known);
-  const access = await loadAccess(trx, actor, batch.locked, batch.crew);
+  const known = await answersGiven(send, knex, batch.known, together);
+  const access = await loadAccess(send, knex, actor, batch, together);
   const { values: currentRows, waiting } = batch;
   const existed = new Set(currentRows.map((r) => itemId(r.checklist_id, r.item_key)));
   const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
@@ -472,10 +520,9 @@ async function applyBatch(
     resultIndex: number;
   }[] = [];
   const resolutions: { op: Operation; ids: number[] }[] = [];
-  const recorded: { op: Operation; resultIndex: number }[] = [];
-  const submissions: { op: Operation; resultIndex: number }[] = [];
+  const recorded: Submission[] = [];
+  const submissions: Submission[] = [];
 
-  const submittedHere = new Set<string>();
   for (const read of ops) {
     const seen = known.get(read.opId);
     if (seen) {
@@ -599,17 +646,7 @@ async function applyBatch(
       recorded.push({ op, resultIndex: results.length - 1 });
     }
   }
-  const opRow = ({ op, resultIndex }: { op: Operation; resultIndex: number }) => ({
-    op_id: op.opId,
-    device_id: request.deviceId,
-    seq: op.seq,
-    user_id: actor.id,
-    checklist_id: op.checklistId,
-    item_key: op.itemKey,
-    status: results[resultIndex]!.status,
-    result: JSON.stringify(results[resultIndex]),
-    received_at: now,
-  });
+  const opRow = opRowOf(actor, request.deviceId, results, now);
   for (const r of responses.values()) {
     wrote.push({
       checklistId: r.checklist_id,
@@ -623,74 +660,126 @@ async function applyBatch(
   // The clock is taken by the UPDATE below; LAST_INSERT_ID() is its new number on this connection
   // (the value table has no auto-increment column to change it).
   const [changed, added] = partition(
-    [...responses.values()].map((r) => ({ ...r, change_seq: trx.raw("LAST_INSERT_ID()") })),
+    [...responses.values()].map((r) => ({ ...r, change_seq: knex.raw("LAST_INSERT_ID()") })),
     (r) => existed.has(itemId(r.checklist_id, r.item_key)),
   );
-  const takesClock = responses.size > 0 || submissions.length > 0;
-  // The whole write in one round trip. Everything not in the change feed comes first; the clock,
-  // last: its lock (every applier's) is held only for the feed's writes and the commit. A batch
-  // with nothing for the feed (repeats, refusals, conflicts) does not take it. Conflict ids are
-  // read back by opId: a Galera cluster hands out auto-increment ids in steps of the node count.
-  const commitWithWrites = oneServer && !submissions.length;
-  const writes = await runStatements(
-    trx,
-    [
-      ...(conflicts.length
-        ? [
-            trx("sync_conflicts").insert(conflicts.map((c) => c.row)),
-            trx("sync_conflicts")
-              .whereIn(
-                "op_id",
-                conflicts.map((c) => c.op.opId),
-              )
-              .select("id", "op_id"),
-          ]
-        : []),
-      // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
-      ...(history.length ? [trx("response_history").insert(history)] : []),
-      ...resolutions.map(({ op, ids }) =>
-        trx("sync_conflicts")
-          .whereIn("id", ids)
-          .where({ checklist_id: op.checklistId, item_key: op.itemKey })
-          .whereNull("resolved_at")
-          .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
-      ),
-      ...(recorded.length ? [trx("sync_ops").insert(recorded.map(opRow))] : []),
-      ...(takesClock ? [takeClock(trx)] : []),
-      // New items take a plain insert; only items that had a value go through the upsert.
-      ...(added.length ? [trx("checklist_responses").insert(added)] : []),
-      ...(changed.length
-        ? [
-            trx("checklist_responses")
-              .insert(changed)
-              .onConflict(["checklist_id", "item_key"])
-              .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]),
-          ]
-        : []),
-      takesClock ? trx.raw("SELECT LAST_INSERT_ID() AS seq") : clockQuery(trx),
-      // With nothing left to do in the transaction, on one server the commit travels with the
-      // writes: the server releases the clock as soon as they are done, not a round trip later, once
-      // this busy process gets round to asking. (The transaction's own COMMIT then finds nothing to
-      // do.)
-      ...(commitWithWrites ? [trx.raw("COMMIT")] : []),
-    ],
-    { together: oneServer },
-  );
-  const clock = Number(
-    (
-      writes[writes.length - (commitWithWrites && !submissions.length ? 2 : 1)] as { seq: number | string }[]
-    )[0]!.seq,
-  );
+  const takesClock = responses.size > 0;
+  // The whole write in one round trip, with the commit. Everything not in the change feed comes
+  // first; the clock, last: its lock (every applier's) is held only for the feed's writes and the
+  // commit. A batch with nothing for the feed (repeats, refusals, conflicts) does not take it.
+  // Conflict ids are read back by opId: a Galera cluster hands out auto-increment ids in steps of
+  // the node count.
+  const writes: Statement[] = [];
+  const add = (s: Statement) => writes.push(s) - 1;
+  let conflictIdsAt = -1;
   if (conflicts.length) {
-    const ids = new Map((writes[1] as { id: number; op_id: string }[]).map((r) => [r.op_id, Number(r.id)]));
+    add(knex("sync_conflicts").insert(conflicts.map((c) => c.row)));
+    const opIds = conflicts.map((c) => c.op.opId);
+    conflictIdsAt = add(knex("sync_conflicts").whereIn("op_id", opIds).select("id", "op_id"));
+  }
+  // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
+  if (history.length) add(knex("response_history").insert(history));
+  for (const { op, ids } of resolutions)
+    add(
+      knex("sync_conflicts")
+        .whereIn("id", ids)
+        .where({ checklist_id: op.checklistId, item_key: op.itemKey })
+        .whereNull("resolved_at")
+        .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
+    );
+  if (recorded.length) add(knex("sync_ops").insert(recorded.map(opRow)));
+  if (takesClock) add(takeClock(knex));
+  // New items take a plain insert; only items that had a value go through the upsert.
+  if (added.length) add(knex("checklist_responses").insert(added));
+  if (changed.length)
+    add(
+      knex("checklist_responses")
+        .insert(changed)
+        .onConflict(["checklist_id", "item_key"])
+        .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]),
+    );
+  add(knex.raw("COMMIT"));
+  // After the commit, in the same request: the clock (the batch's own number, or the last handed
+  // out) and, with no submission left to decide, the pull.
+  const clockIndex = add(takesClock ? knex.raw("SELECT @clock := LAST_INSERT_ID() AS seq") : clockNow(knex));
+  if (!submissions.length) writes.push(...pullStatements(knex, actor, since, wrote.length > 0));
+  const answers = await send(writes, { together });
+  if (conflicts.length) {
+    const rows = answers[conflictIdsAt] as { id: number; op_id: string }[];
+    const ids = new Map(rows.map((r) => [r.op_id, Number(r.id)]));
     for (const c of conflicts)
       results[c.resultIndex] = { ...results[c.resultIndex]!, conflictId: ids.get(c.op.opId)! };
   }
-  const submitted: { op: Operation; resultIndex: number }[] = [];
+  return {
+    results,
+    submissions,
+    ...(submissions.length ? {} : { pulled: pulled(answers.slice(clockIndex), wrote) }),
+  };
+}
+
+/** The bookkeeping row of an operation whose answer is kept in sync_ops. */
+const opRowOf =
+  (actor: Actor, deviceId: string, results: OpResult[], now: Date) =>
+  ({ op, resultIndex }: Submission) => ({
+    op_id: op.opId,
+    device_id: deviceId,
+    seq: op.seq,
+    user_id: actor.id,
+    checklist_id: op.checklistId,
+    item_key: op.itemKey,
+    status: results[resultIndex]!.status,
+    result: JSON.stringify(results[resultIndex]),
+    received_at: now,
+  });
+
+/**
+ * Decides a batch's submissions once its entries are committed, in order, in one transaction:
+ * each checklist's row is locked, then the clock, as a batch takes them. Answers the clock the
+ * state changes are numbered with (or the last number handed out).
+ */
+async function decideSubmissions(
+  trx: Knex.Transaction,
+  actor: Actor,
+  deviceId: string,
+  submissions: Submission[],
+  results: OpResult[],
+): Promise<number> {
+  const opIds = submissions.map((s) => s.op.opId);
+  // A copy of one of these operations, decided since: answered as a repeat.
+  const known = new Map(
+    (await trx("sync_ops").whereIn("op_id", opIds).select("op_id", "user_id", "result")).map((r) => [
+      r.op_id,
+      r,
+    ]),
+  );
+  const checklistIds = [...new Set(submissions.map((s) => s.op.checklistId))];
+  const locked = await trx("job_checklists")
+    .whereIn("id", checklistIds)
+    .orderBy("id")
+    .forUpdate()
+    .select("id", "state");
+  const states = new Map(locked.map((c) => [c.id, c.state]));
+  const submitted = new Set<string>();
+  const decided: Submission[] = [];
   for (const { op, resultIndex } of submissions) {
-    submitted.push({ op, resultIndex });
-    if (submittedHere.has(op.checklistId)) {
-      results[resultIndex] = reject(op, "locked", "The checklist is already waiting for review.");
+    const seen = known.get(op.opId);
+    if (seen) {
+      results[resultIndex] =
+        seen.user_id === actor.id
+          ? { ...parseJsonColumn<OpResult>(seen.result), opId: op.opId, repeat: true }
+          : reject(op, "op-id-taken", "This operation id was used by someone else.");
+      continue;
+    }
+    decided.push({ op, resultIndex });
+    const state = submitted.has(op.checklistId) ? "submitted" : states.get(op.checklistId);
+    if (state === "submitted" || state === "countersigned") {
+      results[resultIndex] = reject(
+        op,
+        "locked",
+        state === "submitted"
+          ? "The checklist is already waiting for review."
+          : "The checklist is countersigned and locked; a correction is an amendment.",
+      );
       continue;
     }
     const undecided = await undecidedConflicts(trx, op.checklistId);
@@ -702,57 +791,74 @@ async function applyBatch(
       );
       continue;
     }
-    const refused = await submitChecklist(trx, actor, op.checklistId, request.deviceId);
+    const refused = await submitChecklist(trx, actor, op.checklistId, deviceId);
     if (refused) {
       results[resultIndex] = reject(op, "incomplete", refused);
       continue;
     }
-    submittedHere.add(op.checklistId);
-    await trx("job_checklists").where({ id: op.checklistId }).update({ change_seq: clock });
+    submitted.add(op.checklistId);
     results[resultIndex] = { opId: op.opId, status: "applied", rev: 0 };
   }
-  if (submitted.length) await trx("sync_ops").insert(submitted.map(opRow));
-  return { results, clock, wrote };
+  if (decided.length)
+    await trx("sync_ops").insert(decided.map(opRowOf(actor, deviceId, results, new Date())));
+  if (!submitted.size) return lastChangeNumber(trx);
+  // Submitted: every tablet learns the state with its next pull.
+  const clock = await nextChangeNumber(trx);
+  await trx("job_checklists")
+    .whereIn("id", [...submitted])
+    .update({ change_seq: clock });
+  return clock;
 }
 
+/** Sets `@clock` to the last number handed out (the pull reads up to it). */
+const clockNow = (knex: Knex) => knex.raw("SELECT @clock := seq AS seq FROM sync_clock WHERE id = 1");
+/** Sets `@clock` to a known number. */
+const clockAt = (knex: Knex, clock: number) => knex.raw("SELECT @clock := ? AS seq", [clock]);
+
 /**
- * One page of what changed after `since` for this person: the feed up to `clock` (or, when the
- * batch wrote changes numbered `clock`, up to the number before, plus those changes as written).
+ * The pull's reads, after a statement that set `@clock`: the feed after `since` up to it (up to
+ * the number before, when the batch wrote: its own changes travel as written), and the checklists
+ * whose state changed in that span.
  */
-async function pullPage(
+function pullStatements(knex: Knex, actor: Actor, since: number, wrote: boolean): Statement[] {
+  // The visible checklists as a subquery: the feed is read by its change numbers after the
+  // cursor (an index range), each row kept if its checklist is one of them.
+  const scope = () => visibleChecklists(knex, actor).select("c.id");
+  return [
+    feedQuery(knex, scope(), since, knex.raw(wrote ? "@clock - 1" : "@clock"), MAX_CHANGES_PER_PULL),
+    // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
+    knex("job_checklists as s")
+      .whereIn("s.id", scope())
+      .where("s.change_seq", ">", since)
+      .where("s.change_seq", "<=", knex.raw("@clock"))
+      .select("s.id", "s.state", "s.change_seq"),
+  ];
+}
+
+type StateRow = { id: string; state: ChecklistStateColumn; change_seq: number | string };
+type Pulled = { clock: number; rows: FeedRow[]; states: StateRow[]; wrote: Change[] };
+
+/** The answers to [clock, ...pullStatements], with the changes the batch wrote. */
+const pulled = (answers: unknown[], wrote: Change[]): Pulled => {
+  const [clockRows, rows, states] = answers as [{ seq: number | string }[], FeedRow[], StateRow[]];
+  return { clock: Number(clockRows[0]!.seq), rows, states, wrote };
+};
+
+/**
+ * One page of what changed after `since` for this person, from the pull's reads: the feed up to
+ * the clock (or, when the batch wrote changes numbered `clock`, up to the number before, plus
+ * those changes as written).
+ */
+async function pageFrom(
+  knex: Knex,
   actor: Actor,
   since: number,
-  clock: number,
-  wrote: Change[],
-  together: boolean,
+  { clock, rows, states: stateRows, wrote }: Pulled,
 ): Promise<Omit<SyncResponse, "results">> {
-  // The visible checklists as a subquery: the feed is read by its change numbers after the
-  // cursor (an index range), each row kept if its checklist is one of them. The feed and the
-  // checklists' states go in one round trip (the applier's pool takes several statements).
-  const knex = applierDb();
-  const scope = () => visibleChecklists(knex, actor).select("c.id");
   const upTo = wrote.length ? clock - 1 : clock;
-  const limit = MAX_CHANGES_PER_PULL;
-  const [rows = [], stateRows = []] = (await runStatements(
-    knex,
-    [
-      ...(upTo > since ? [feedQuery(knex, scope(), since, upTo, limit)] : []),
-      // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
-      ...(clock > since
-        ? [
-            knex("job_checklists as s")
-              .whereIn("s.id", scope())
-              .where("s.change_seq", ">", since)
-              .where("s.change_seq", "<=", clock)
-              .select("s.id", "s.state", "s.change_seq"),
-          ]
-        : []),
-    ],
-    { together },
-  )) as [FeedRow[]?, { id: string; state: ChecklistStateColumn; change_seq: number | string }[]?];
   const page =
     upTo > since
-      ? await pageOf(knex, rows, scope(), upTo, limit)
+      ? await pageOf(knex, rows, visibleChecklists(knex, actor).select("c.id"), upTo, MAX_CHANGES_PER_PULL)
       : { changes: [], cursor: upTo, more: false };
   const changes = page.changes;
   const cursor = page.more ? page.cursor : clock;
@@ -760,10 +866,7 @@ async function pullPage(
   const states = stateRows.filter((c) => Number(c.change_seq) <= cursor);
   return {
     changes,
-    checklists: states.map((c: { id: string; state: ChecklistStateColumn }) => ({
-      id: c.id,
-      state: c.state,
-    })),
+    checklists: states.map((c) => ({ id: c.id, state: c.state })),
     cursor: String(cursor),
     ...(page.more ? { more: true as const } : {}),
   };
