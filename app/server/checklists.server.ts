@@ -3,6 +3,7 @@ import type { ChecklistState } from "~/lib/checklist-sets";
 import { Refusal } from "~/lib/refusal";
 import { workOrderIndex, type Template } from "~/lib/templates";
 import { audit } from "./audit.server.ts";
+import { authorName } from "./author-name.server.ts";
 import { db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import type { ChecklistResponseRow, JobChecklistRow, TemplateVersionRow } from "./tables.server.ts";
@@ -134,9 +135,8 @@ type ResponseWithAuthor = Pick<ChecklistResponseRow, "item_key" | "value" | "rev
 /** The current responses of a checklist as the server holds them. */
 export async function checklistResponses(checklistId: string) {
   const rows: ResponseWithAuthor[] = await db()("checklist_responses as r")
-    .join("users as u", "u.id", "r.updated_by")
     .where("r.checklist_id", checklistId)
-    .select("r.item_key", "r.value", "r.rev", "r.updated_at", "u.name");
+    .select("r.item_key", "r.value", "r.rev", "r.updated_at", authorName(db(), "r.updated_by"));
   return Object.fromEntries(
     rows.map((r) => [
       r.item_key,

@@ -1,6 +1,7 @@
 import type { Knex } from "knex";
 import type { RecordChecklist } from "~/lib/record/types";
 import type { Template } from "~/lib/templates";
+import { authorName } from "./author-name.server.ts";
 import { db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import { checklistPhotos } from "./photos.server.ts";
@@ -56,9 +57,8 @@ export async function loadRecordChecklist(
     Authored<CommentRow>[],
   ] = await Promise.all([
     knex("checklist_responses as r")
-      .join("users as u", "u.id", "r.updated_by")
       .where("r.checklist_id", checklistId)
-      .select("r.item_key", "r.value", "r.rev", "r.updated_at", "u.name"),
+      .select("r.item_key", "r.value", "r.rev", "r.updated_at", authorName(knex, "r.updated_by")),
     knex("response_history as h")
       .join("users as u", "u.id", "h.user_id")
       .where("h.checklist_id", checklistId)

@@ -229,31 +229,21 @@ export async function startAmendment(actor: Actor, checklistId: string): Promise
     });
     const now = new Date();
     const rows = await trx("checklist_responses").where({ checklist_id: checklistId });
-    const { seq } = (await trx("sync_clock").where({ id: 1 }).forUpdate().first())!;
-    await trx("sync_clock")
-      .where({ id: 1 })
-      .update({ seq: Number(seq) + 1 });
-    for (const r of rows) {
-      const value = r.value;
-      await trx("checklist_responses").insert({
-        checklist_id: id,
-        item_key: r.item_key,
-        value,
-        rev: 1,
-        updated_by: actor.id,
-        device_id: null,
-        updated_at: now,
-        change_seq: Number(seq) + 1,
-      });
-      await trx("response_history").insert({
-        checklist_id: id,
-        item_key: r.item_key,
-        rev: 1,
-        value,
-        user_id: actor.id,
-        at: now,
-      });
-    }
+    const changeSeq = await nextChangeNumber(trx);
+    // The original's values, each the first revision of the amendment's item (decision 046: an
+    // item's latest history row is its value).
+    if (rows.length)
+      await trx("response_history").insert(
+        rows.map((r) => ({
+          checklist_id: id,
+          item_key: r.item_key,
+          rev: 1,
+          value: r.value,
+          user_id: actor.id,
+          at: now,
+          change_seq: changeSeq,
+        })),
+      );
     await audit(
       {
         userId: actor.id,

@@ -15,9 +15,10 @@ import {
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
+import { authorName } from "./author-name.server.ts";
 import { applierDb } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
-import { onOneConnection, type Send, type Statement } from "./round-trip.server.ts";
+import { insertRows, onOneConnection, type Send, type Statement } from "./round-trip.server.ts";
 import type {
   ChecklistResponseRow,
   ChecklistStateColumn,
@@ -130,14 +131,16 @@ async function loadAccess(
 type KnownOpId = { op_id: string; kept: "history" | "conflict" | "other" };
 
 /** Which of these operation ids are known at all, and where each one's answer is kept. */
-function knownOpIdsQuery(knex: Knex, opIds: string[]) {
+function knownOpIdsQuery(opIds: string[]): Statement {
   const marks = opIds.map(() => "?").join(",");
-  return knex.raw(
-    `SELECT op_id, 'history' AS kept FROM response_history WHERE op_id IN (${marks})
-     UNION ALL SELECT op_id, 'conflict' FROM sync_conflicts WHERE op_id IN (${marks})
-     UNION ALL SELECT op_id, 'other' FROM sync_ops WHERE op_id IN (${marks})`,
-    [...opIds, ...opIds, ...opIds],
-  );
+  return {
+    native: {
+      sql: `SELECT op_id, 'history' AS kept FROM response_history WHERE op_id IN (${marks})
+        UNION ALL SELECT op_id, 'conflict' FROM sync_conflicts WHERE op_id IN (${marks})
+        UNION ALL SELECT op_id, 'other' FROM sync_ops WHERE op_id IN (${marks})`,
+      bindings: [...opIds, ...opIds, ...opIds],
+    },
+  };
 }
 
 /**
@@ -264,11 +267,18 @@ const feedQuery = (
   limit?: number,
 ) => {
   const q = knex("checklist_responses as r")
-    .join("users as u", "u.id", "r.updated_by")
     .whereIn("r.checklist_id", scope)
     .where("r.change_seq", ">", since)
     .where("r.change_seq", "<=", upTo)
-    .select("r.checklist_id", "r.item_key", "r.value", "r.rev", "r.updated_at", "r.change_seq", "u.name")
+    .select(
+      "r.checklist_id",
+      "r.item_key",
+      "r.value",
+      "r.rev",
+      "r.updated_at",
+      "r.change_seq",
+      authorName(knex, "r.updated_by"),
+    )
     .orderBy("r.change_seq");
   return limit === undefined ? q : q.limit(limit + 1);
 };
@@ -414,7 +424,6 @@ type CurrentRow = {
  */
 const currentStateQuery = (knex: Knex, checklistIds: string[]) =>
   knex("checklist_responses as r")
-    .join("users as u", "u.id", "r.updated_by")
     .whereIn("r.checklist_id", checklistIds)
     .select(
       knex.raw("'value' AS kind"),
@@ -423,7 +432,7 @@ const currentStateQuery = (knex: Knex, checklistIds: string[]) =>
       "r.rev",
       "r.value",
       "r.updated_at",
-      "u.name",
+      authorName(knex, "r.updated_by"),
       knex.raw("NULL AS conflict_id"),
     )
     .unionAll((q) =>
@@ -454,7 +463,7 @@ async function readBatch(send: Send, knex: Knex, checklistIds: string[], opIds: 
   const queries = [
     knex.raw("START TRANSACTION"),
     ...(some ? [lockQuery(knex, checklistIds)] : []),
-    ...(opIds.length ? [knownOpIdsQuery(knex, opIds)] : []),
+    ...(opIds.length ? [knownOpIdsQuery(opIds)] : []),
     ...(some ? [crewQuery(knex, checklistIds), currentStateQuery(knex, checklistIds)] : []),
   ];
   const answers = (await send(queries, { together })).slice(1);
@@ -486,7 +495,6 @@ async function applyBatch(
   together: boolean,
 ): Promise<{ results: OpResult[]; submissions: Submission[]; pulled?: Pulled }> {
   const results: OpResult[] = [];
-  const wrote: Change[] = [];
   const now = new Date();
   const ops = request.ops.map(readOperation);
   const valid = ops.filter((o): o is Operation => !("status" in o));
@@ -501,7 +509,6 @@ async function applyBatch(
   const known = await answersGiven(send, knex, batch.known, together);
   const access = await loadAccess(send, knex, actor, batch, together);
   const { values: currentRows, waiting } = batch;
-  const existed = new Set(currentRows.map((r) => itemId(r.checklist_id, r.item_key)));
   const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
     currentRows.map((r) => [
       itemId(r.checklist_id, r.item_key),
@@ -510,8 +517,9 @@ async function applyBatch(
     ]),
   );
 
-  const responses = new Map<string, Omit<ChecklistResponseRow, "change_seq">>();
-  const history: Omit<ResponseHistoryRow, "id">[] = [];
+  // The items' new values, the last per item (the feed's changes), and every row written for them.
+  const changed = new Map<string, Change>();
+  const history: Omit<ResponseHistoryRow, "id" | "change_seq">[] = [];
   const writtenOps = new Set<string>();
   const conflicts: {
     op: Operation;
@@ -574,14 +582,13 @@ async function applyBatch(
       if ("write" in next) {
         const value = JSON.stringify(next.write);
         current.set(key, { rev: rev + 1, value: next.write, by: actor.name, at: now });
-        responses.set(key, {
-          checklist_id: op.checklistId,
-          item_key: op.itemKey,
-          value,
+        changed.set(key, {
+          checklistId: op.checklistId,
+          itemKey: op.itemKey,
+          value: next.write as Change["value"],
           rev: rev + 1,
-          updated_by: actor.id,
-          device_id: request.deviceId,
-          updated_at: now,
+          by: actor.name,
+          at: now.toISOString(),
         });
         writtenOps.add(op.opId);
         history.push({
@@ -647,28 +654,13 @@ async function applyBatch(
     }
   }
   const opRow = opRowOf(actor, request.deviceId, results, now);
-  for (const r of responses.values()) {
-    wrote.push({
-      checklistId: r.checklist_id,
-      itemKey: r.item_key,
-      value: JSON.parse(r.value),
-      rev: r.rev,
-      by: actor.name,
-      at: now.toISOString(),
-    });
-  }
-  // The clock is taken by the UPDATE below; LAST_INSERT_ID() is its new number on this connection
-  // (the value table has no auto-increment column to change it).
-  const [changed, added] = partition(
-    [...responses.values()].map((r) => ({ ...r, change_seq: knex.raw("LAST_INSERT_ID()") })),
-    (r) => existed.has(itemId(r.checklist_id, r.item_key)),
-  );
-  const takesClock = responses.size > 0;
+  const wrote = [...changed.values()];
+  const takesClock = history.length > 0;
   // The whole write in one round trip, with the commit. Everything not in the change feed comes
-  // first; the clock, last: its lock (every applier's) is held only for the feed's writes and the
-  // commit. A batch with nothing for the feed (repeats, refusals, conflicts) does not take it.
-  // Conflict ids are read back by opId: a Galera cluster hands out auto-increment ids in steps of
-  // the node count.
+  // first; the clock, last: its lock (every applier's) is held only for the history rows — each
+  // item's latest is its current value (decision 046) — and the commit. A batch with nothing for
+  // the feed (repeats, refusals, conflicts) does not take it. Conflict ids are read back by opId:
+  // a Galera cluster hands out auto-increment ids in steps of the node count.
   const writes: Statement[] = [];
   const add = (s: Statement) => writes.push(s) - 1;
   let conflictIdsAt = -1;
@@ -677,8 +669,6 @@ async function applyBatch(
     const opIds = conflicts.map((c) => c.op.opId);
     conflictIdsAt = add(knex("sync_conflicts").whereIn("op_id", opIds).select("id", "op_id"));
   }
-  // One statement each: a batch holds at most MAX_OPS_PER_REQUEST rows, well within a packet.
-  if (history.length) add(knex("response_history").insert(history));
   for (const { op, ids } of resolutions)
     add(
       knex("sync_conflicts")
@@ -688,20 +678,18 @@ async function applyBatch(
         .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
     );
   if (recorded.length) add(knex("sync_ops").insert(recorded.map(opRow)));
-  if (takesClock) add(takeClock(knex));
-  // New items take a plain insert; only items that had a value go through the upsert.
-  if (added.length) add(knex("checklist_responses").insert(added));
-  if (changed.length)
-    add(
-      knex("checklist_responses")
-        .insert(changed)
-        .onConflict(["checklist_id", "item_key"])
-        .merge(["value", "rev", "updated_by", "device_id", "updated_at", "change_seq"]),
-    );
+  if (takesClock) {
+    // The UPDATE takes the clock; its number is kept in @clock, since the history's own
+    // auto-increment changes LAST_INSERT_ID(). One statement: a batch holds at most
+    // MAX_OPS_PER_REQUEST rows, well within a packet.
+    add(takeClock(knex));
+    add(knex.raw("SET @clock = LAST_INSERT_ID()"));
+    add(insertRows("response_history", history, { change_seq: "@clock" }));
+  }
   add(knex.raw("COMMIT"));
   // After the commit, in the same request: the clock (the batch's own number, or the last handed
   // out) and, with no submission left to decide, the pull.
-  const clockIndex = add(takesClock ? knex.raw("SELECT @clock := LAST_INSERT_ID() AS seq") : clockNow(knex));
+  const clockIndex = add(takesClock ? knex.raw("SELECT @clock AS seq") : clockNow(knex));
   if (!submissions.length) writes.push(...pullStatements(knex, actor, since, wrote.length > 0));
   const answers = await send(writes, { together });
   if (conflicts.length) {

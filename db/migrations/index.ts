@@ -11,6 +11,7 @@ import * as m009 from "./009_job_shaft_system_and_voltage.ts";
 import * as m012 from "./012_notifications_and_replies.ts";
 import * as m014 from "./014_yard_settings.ts";
 import * as m015 from "./015_seal_by_key.ts";
+import * as m016 from "./016_current_value_is_latest_history.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
 const migrations: Record<string, Knex.Migration> = {
@@ -26,6 +27,7 @@ const migrations: Record<string, Knex.Migration> = {
   "012_notifications_and_replies": m012,
   "014_yard_settings": m014,
   "015_seal_by_key": m015,
+  "016_current_value_is_latest_history": m016,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

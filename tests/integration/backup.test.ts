@@ -120,7 +120,7 @@ describe("backup and restore", () => {
     try {
       expect(await restored("records").where({ id: recordId }).first()).toBeDefined();
       // The lock survives: the database still refuses to change a countersigned checklist.
-      await expect(restored("checklist_responses").update({ rev: 99 })).rejects.toThrow();
+      await expect(restored("response_history").update({ rev: 99 })).rejects.toThrow();
     } finally {
       await restored.destroy();
     }

@@ -1,5 +1,7 @@
 import { afterAll, describe, expect, it } from "vitest";
 import { connect, createDatabase, dropDatabase } from "../../db/connect.ts";
+import { seedLibrary } from "../../db/seeds/library.ts";
+import { makeJob, makeUser } from "../support/fixtures.ts";
 
 describe("migrations", () => {
   // Suffixed like every test database, so two checkouts testing on one server do not share it.
@@ -45,4 +47,92 @@ describe("migrations", () => {
       await knex.destroy();
     }
   });
+
+  it("016 keeps every current value, its author, time, change number and seal, both ways", async () => {
+    await dropDatabase(url);
+    await createDatabase(url);
+    const knex = connect(url);
+    try {
+      await knex.migrate.latest();
+      await knex.migrate.down(); // back to the separate value table of 015
+      await seedLibrary(knex);
+      const lead = await makeUser(knex, "lead");
+      const tech = await makeUser(knex, "technician");
+      const job = await makeJob(knex, lead.id, [tech.id]);
+      const version = (await knex("template_versions").first("id", "template_key"))!;
+      const [open, sealed] = ["00000000-0000-4000-8000-000000000001", "00000000-0000-4000-8000-000000000002"];
+      for (const id of [open, sealed])
+        await knex("job_checklists").insert({
+          id,
+          job_id: job.id,
+          template_version_id: version.id,
+          template_key: version.template_key,
+        });
+      const at = (s: number) => new Date(Date.UTC(2026, 10, 3, 9, 0, s));
+      const value = (text: string) => JSON.stringify({ text });
+      // Two revisions of "a" with their history; "b" without a history row; one sealed value.
+      const history = [
+        { checklist_id: open, item_key: "a", rev: 1, value: value("first"), user_id: tech.id, at: at(1) },
+        { checklist_id: open, item_key: "a", rev: 2, value: value("second"), user_id: lead.id, at: at(2) },
+        { checklist_id: sealed, item_key: "a", rev: 1, value: value("kept"), user_id: tech.id, at: at(3) },
+      ];
+      await knex("response_history").insert(history.map((h) => ({ ...h, device_id: "tablet-1" })));
+      await knex("checklist_responses").insert([
+        { ...current(history[1]!), change_seq: 7 },
+        {
+          checklist_id: open,
+          item_key: "b",
+          rev: 1,
+          value: value("no history"),
+          updated_by: tech.id,
+          device_id: null,
+          updated_at: at(4),
+          change_seq: 8,
+        },
+        { ...current(history[2]!), change_seq: 9 },
+      ]);
+      await knex("job_checklists").where({ id: sealed }).update({ state: "countersigned" });
+      const columns = ["checklist_id", "item_key", "value", "rev", "updated_by", "device_id"];
+      const snapshot = async () =>
+        (
+          await knex("checklist_responses")
+            .orderBy(["checklist_id", "item_key"])
+            .select(...columns, "updated_at", "change_seq", "open_ref")
+        ).map((r) => ({ ...r, change_seq: Number(r.change_seq), updated_at: new Date(r.updated_at) }));
+      const before = await snapshot();
+      expect(before.map((r) => r.open_ref)).toEqual([open, open, null]);
+
+      await knex.migrate.up();
+      expect(await snapshot()).toEqual(before);
+      // The sealed checklist's value still cannot be changed by a later revision.
+      await expect(
+        knex("response_history").insert({ ...history[2]!, rev: 2, value: value("late"), change_seq: 10 }),
+      ).rejects.toThrow(/sealed_when_countersigned/);
+
+      await knex.migrate.down();
+      expect(await snapshot()).toEqual(before);
+    } finally {
+      await knex.destroy();
+    }
+  });
 });
+
+/** The value row the applier of migration 015 wrote beside a history row. */
+function current(h: {
+  checklist_id: string;
+  item_key: string;
+  rev: number;
+  value: string;
+  user_id: number;
+  at: Date;
+}) {
+  return {
+    checklist_id: h.checklist_id,
+    item_key: h.item_key,
+    rev: h.rev,
+    value: h.value,
+    updated_by: h.user_id,
+    device_id: "tablet-1",
+    updated_at: h.at,
+  };
+}

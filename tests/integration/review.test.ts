@@ -170,11 +170,10 @@ describe("the lock", () => {
     // by its name (migration 015).
     const refused = /countersigned checklist cannot be changed|sealed_when_countersigned/;
     await expect(
-      knex("checklist_responses")
+      knex("response_history")
         .where({ checklist_id: id, item_key: "b" })
         .update({ value: JSON.stringify({ text: "edited" }) }),
     ).rejects.toThrow(refused);
-    await expect(knex("checklist_responses").where({ checklist_id: id }).delete()).rejects.toThrow(refused);
     await expect(knex("response_history").where({ checklist_id: id }).delete()).rejects.toThrow(refused);
     await expect(knex("job_checklists").where({ id }).update({ state: "in-progress" })).rejects.toThrow(
       refused,
@@ -189,17 +188,7 @@ describe("the lock", () => {
         at: new Date(),
       }),
     ).rejects.toThrow(refused);
-    await expect(
-      knex("checklist_responses").insert({
-        checklist_id: id,
-        item_key: "c",
-        value: JSON.stringify({ text: "late" }),
-        rev: 1,
-        updated_by: tech.id,
-        updated_at: new Date(),
-        change_seq: 1,
-      }),
-    ).rejects.toThrow(refused);
+    // A later revision would become the current value (migration 016): refused like the rest.
     await expect(
       knex("response_history").insert({
         checklist_id: id,
@@ -208,14 +197,20 @@ describe("the lock", () => {
         value: JSON.stringify({ text: "late" }),
         user_id: tech.id,
         at: new Date(),
+        change_seq: 1,
       }),
     ).rejects.toThrow(refused);
     // The key cannot be talked round: the trigger sets it whatever the writer sends.
     await expect(
-      knex("checklist_responses")
+      knex("response_history")
         .where({ checklist_id: id, item_key: "b" })
         .update({ value: JSON.stringify({ text: "edited" }), open_ref: null }),
     ).rejects.toThrow(refused);
+    // The current values are a view of the history: not written at all.
+    await expect(
+      knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).update({ rev: 9 }),
+    ).rejects.toThrow();
+    await expect(knex("checklist_responses").where({ checklist_id: id }).delete()).rejects.toThrow();
     const { value } = (await knex("checklist_responses").where({ checklist_id: id, item_key: "b" }).first())!;
     expect(typeof value === "string" ? JSON.parse(value) : value).toEqual({ text: "ok" });
   });

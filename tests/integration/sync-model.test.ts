@@ -91,7 +91,7 @@ async function setUpRun() {
   run++;
   if (lastJob !== null) {
     const ids = knex("job_checklists").where({ job_id: lastJob }).select("id");
-    for (const table of ["response_history", "checklist_responses", "sync_conflicts", "sync_ops"])
+    for (const table of ["response_history", "sync_conflicts", "sync_ops"])
       await knex(table).whereIn("checklist_id", ids).delete();
     await knex("job_checklists").where({ job_id: lastJob }).delete();
     await knex("job_technicians").where({ job_id: lastJob }).delete();

@@ -28,13 +28,13 @@ async function handIn(jobId: number, userId: number, state: "in-progress" | "sub
     template_key: key,
   });
   for (const [itemKey, response] of Object.entries(alignmentChecklist().responses))
-    await knex("checklist_responses").insert({
+    await knex("response_history").insert({
       checklist_id: id,
       item_key: itemKey,
       value: JSON.stringify(response.value),
       rev: 1,
-      updated_by: userId,
-      updated_at: new Date(at),
+      user_id: userId,
+      at: new Date(at),
       change_seq: 1,
     });
   await knex("job_checklists").where({ id }).update({ state });
