@@ -415,25 +415,28 @@ type CurrentRow = {
   value: string;
   updated_at: Date;
   name: string;
-  conflict_id: number | string;
+  /** The current history row's id, or the waiting conflict's. */
+  row_id: number | string;
 };
 
 /**
- * Every current value of the batch's checklists, and the conflicts still waiting on them (a
- * row-constructor IN over a thousand pairs costs more than reading the few checklists whole).
+ * Every current value of the batch's checklists — its current history row (decision 046) — and the
+ * conflicts still waiting on them (a row-constructor IN over a thousand pairs costs more than
+ * reading the few checklists whole).
  */
 const currentStateQuery = (knex: Knex, checklistIds: string[]) =>
-  knex("checklist_responses as r")
+  knex("response_history as r")
     .whereIn("r.checklist_id", checklistIds)
+    .where("r.is_current", 1)
     .select(
       knex.raw("'value' AS kind"),
       "r.checklist_id",
       "r.item_key",
       "r.rev",
       "r.value",
-      "r.updated_at",
-      authorName(knex, "r.updated_by"),
-      knex.raw("NULL AS conflict_id"),
+      "r.at as updated_at",
+      authorName(knex, "r.user_id"),
+      "r.id as row_id",
     )
     .unionAll((q) =>
       q
@@ -475,7 +478,7 @@ async function readBatch(send: Send, knex: Knex, checklistIds: string[], opIds: 
   const waiting = new Map<string, number[]>();
   for (const c of conflicts) {
     const key = itemId(c.checklist_id, c.item_key);
-    waiting.set(key, [...(waiting.get(key) ?? []), Number(c.conflict_id)]);
+    waiting.set(key, [...(waiting.get(key) ?? []), Number(c.row_id)]);
   }
   return { locked, known, crew, values, waiting };
 }
@@ -509,6 +512,10 @@ async function applyBatch(
   const known = await answersGiven(send, knex, batch.known, together);
   const access = await loadAccess(send, knex, actor, batch, together);
   const { values: currentRows, waiting } = batch;
+  // Each item's current history row, which a new revision replaces.
+  const currentRowId = new Map(
+    currentRows.map((r) => [itemId(r.checklist_id, r.item_key), Number(r.row_id)]),
+  );
   const current = new Map<string, { rev: number; value: unknown; by: string; at: Date }>(
     currentRows.map((r) => [
       itemId(r.checklist_id, r.item_key),
@@ -656,6 +663,13 @@ async function applyBatch(
   const opRow = opRowOf(actor, request.deviceId, results, now);
   const wrote = [...changed.values()];
   const takesClock = history.length > 0;
+  // The new current row of each changed item is its last revision here; the row it replaces (if
+  // the item had a value) and any earlier revision of this batch leave the feed.
+  const [latest, replacedHere] = partition(
+    history,
+    (h) => changed.get(itemId(h.checklist_id, h.item_key))!.rev === h.rev,
+  );
+  const replaced = [...changed.keys()].flatMap((key) => currentRowId.get(key) ?? []);
   // The whole write in one round trip, with the commit. Everything not in the change feed comes
   // first; the clock, last: its lock (every applier's) is held only for the history rows — each
   // item's latest is its current value (decision 046) — and the commit. A batch with nothing for
@@ -678,13 +692,15 @@ async function applyBatch(
         .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
     );
   if (recorded.length) add(knex("sync_ops").insert(recorded.map(opRow)));
+  if (replaced.length) add(knex("response_history").whereIn("id", replaced).update({ change_seq: null }));
+  if (replacedHere.length) add(insertRows("response_history", replacedHere));
   if (takesClock) {
     // The UPDATE takes the clock; its number is kept in @clock, since the history's own
     // auto-increment changes LAST_INSERT_ID(). One statement: a batch holds at most
     // MAX_OPS_PER_REQUEST rows, well within a packet.
     add(takeClock(knex));
     add(knex.raw("SET @clock = LAST_INSERT_ID()"));
-    add(insertRows("response_history", history, { change_seq: "@clock" }));
+    add(insertRows("response_history", latest, { change_seq: "@clock" }));
   }
   add(knex.raw("COMMIT"));
   // After the commit, in the same request: the clock (the batch's own number, or the last handed

@@ -3,8 +3,10 @@ import { sealKey } from "./015_seal_by_key.ts";
 
 /**
  * An item's current value is its latest history row (decision 046): `checklist_responses` becomes
- * a view of `response_history`, and an applied entry writes one row, not two. Each history row
- * gains `change_seq`, its place in the change feed. Existing values keep their meaning and the
+ * a view of `response_history`, and an applied entry writes one row, not two. The current row of
+ * an item carries its place in the change feed (`change_seq`); a row a later revision replaced
+ * has none. `is_current` follows from it, and a unique key on (checklist, item, is_current) lets
+ * an item have one current row at most, whoever writes. Existing values keep their meaning and the
  * records their digests: every current value already has its history row (the applier and the
  * amendment always wrote both), which receives the value's change number; a value without one,
  * if any, is copied into the history first. Sealed rows keep their seal (`open_ref` NULL): the
@@ -22,18 +24,21 @@ const dropSealTriggers = async (knex: Knex, table: string) => {
   for (const when of ["insert", "update"]) await knex.raw(`DROP TRIGGER IF EXISTS ${table}_sealed_${when}`);
 };
 
-/** The latest revision of each item: no later row of the same item exists. */
+/** Each item's current row. */
 const CURRENT_VALUES = `SELECT h.checklist_id, h.item_key, h.value, h.rev, h.user_id AS updated_by,
     h.device_id, h.at AS updated_at, h.change_seq, h.open_ref
   FROM response_history h
-  WHERE NOT EXISTS (SELECT 1 FROM response_history later
-    WHERE later.checklist_id = h.checklist_id AND later.item_key = h.item_key AND later.rev > h.rev)`;
+  WHERE h.is_current = 1`;
+const ONE_CURRENT = "response_history_one_current_row";
 
 export async function up(knex: Knex) {
   await knex.schema.alterTable("response_history", (t) => {
-    // Position in the change feed: the cursor a device pulls from.
+    // Position in the change feed (the cursor a device pulls from), while the row is current.
     t.bigInteger("change_seq").unsigned().nullable().index();
   });
+  await knex.raw(`ALTER TABLE response_history
+    ADD COLUMN is_current TINYINT AS (IF(change_seq IS NULL, NULL, 1)) PERSISTENT,
+    ADD UNIQUE KEY ${ONE_CURRENT} (checklist_id, item_key, is_current)`);
   await dropSealTriggers(knex, "response_history");
   await knex.raw(`UPDATE response_history h JOIN checklist_responses r
     ON r.checklist_id = h.checklist_id AND r.item_key = h.item_key AND r.rev = h.rev
@@ -83,6 +88,7 @@ export async function down(knex: Knex) {
   await knex.raw(`CREATE TRIGGER checklist_responses_sealed_delete BEFORE DELETE ON checklist_responses
     FOR EACH ROW BEGIN IF EXISTS (SELECT 1 FROM job_checklists c
       WHERE c.id = OLD.checklist_id AND c.state = 'countersigned') THEN ${LOCKED}; END IF; END`);
+  await knex.raw(`ALTER TABLE response_history DROP KEY ${ONE_CURRENT}, DROP COLUMN is_current`);
   await knex.schema.alterTable("response_history", (t) => {
     t.dropIndex(["change_seq"]);
     t.dropColumn("change_seq");

@@ -106,8 +106,13 @@ describe("migrations", () => {
       expect(await snapshot()).toEqual(before);
       // The sealed checklist's value still cannot be changed by a later revision.
       await expect(
-        knex("response_history").insert({ ...history[2]!, rev: 2, value: value("late"), change_seq: 10 }),
+        knex("response_history").insert({ ...history[2]!, rev: 2, value: value("late") }),
       ).rejects.toThrow(/sealed_when_countersigned/);
+
+      // One current row per item, whoever writes: a second one is refused by the key.
+      await expect(
+        knex("response_history").insert({ ...history[1]!, rev: 3, value: value("third"), change_seq: 10 }),
+      ).rejects.toThrow(/one_current_row/);
 
       await knex.migrate.down();
       expect(await snapshot()).toEqual(before);

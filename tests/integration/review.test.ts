@@ -188,12 +188,12 @@ describe("the lock", () => {
         at: new Date(),
       }),
     ).rejects.toThrow(refused);
-    // A later revision would become the current value (migration 016): refused like the rest.
+    // A new current value (migration 016): refused like the rest.
     await expect(
       knex("response_history").insert({
         checklist_id: id,
-        item_key: "b",
-        rev: 9,
+        item_key: "c",
+        rev: 1,
         value: JSON.stringify({ text: "late" }),
         user_id: tech.id,
         at: new Date(),
