@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { startChecklists } from "~/server/checklists.server";
+import { applierDb } from "~/server/db.server";
 import { sync } from "~/server/sync.server";
 import { seedLibrary } from "../../db/seeds/library.ts";
 import { appHandler, signInCookie } from "../support/app.ts";
@@ -46,6 +47,53 @@ describe("the sync rules on MariaDB", () => {
     const second = op(checklist, "seacock", check("fail", "Handle seized"), 1);
     expect((await push(tech, [second])).results[0]).toMatchObject({ status: "applied", rev: 2 });
     expect((await history("seacock")).map((h: any) => h.rev)).toEqual([1, 2]);
+  });
+
+  it("reads a batch in one request and writes, commits and pulls in a second; a pull is one (decision 044)", async () => {
+    // A technician and job of its own, so other tests' pulls do not see them.
+    const me = (await makeUser(knex, "technician")) as typeof tech;
+    const [own] = await startChecklists((await makeJob(knex, lead.id, [me.id])).id, ["cooling"], lead.id);
+    const sent: string[] = [];
+    const count = (q: { sql: string }) => sent.push(q.sql);
+    applierDb().on("query", count);
+    try {
+      await push(me, [op(own!, "impeller", check("pass"), 0), op(own!, "thermostat", check("pass"), 0)]);
+      expect(sent).toHaveLength(2);
+      expect(sent[0]).toMatch(/^START TRANSACTION;/);
+      expect(sent[1]).toMatch(/COMMIT;[\s\S]*checklist_responses/);
+      sent.length = 0;
+      await push(me, []);
+      expect(sent).toHaveLength(1);
+    } finally {
+      applierDb().off("query", count);
+    }
+  });
+
+  it("keeps one current row per item, the last revision, when a batch changes it twice (decision 046)", async () => {
+    // A technician and job of its own, so other tests' pulls do not see them.
+    const me = (await makeUser(knex, "technician")) as typeof tech;
+    const [own] = await startChecklists((await makeJob(knex, lead.id, [me.id])).id, ["cooling"], lead.id);
+    const first = op(own!, "heat-exchanger", check("pass"), 0);
+    await push(me, [first]);
+    const answer = await push(me, [
+      op(own!, "heat-exchanger", check("fail", "Scale"), 1),
+      op(own!, "heat-exchanger", check("pass"), 2),
+    ]);
+    expect(answer.results.map((r) => r.status)).toEqual(["applied", "applied"]);
+    const rows = await history("heat-exchanger", own);
+    expect(rows.map((h: any) => [h.rev, h.change_seq === null])).toEqual([
+      [1, true],
+      [2, true],
+      [3, false],
+    ]);
+    const current = await knex("checklist_responses").where({
+      checklist_id: own!,
+      item_key: "heat-exchanger",
+    });
+    expect(current.map((r: any) => [r.rev, parse(r.value)])).toEqual([[3, check("pass")]]);
+    // A tablet pulling from before the first entry gets the item once, at its last revision.
+    const pulled = (await push(me, [], null)).changes.filter((c) => c.itemKey === "heat-exchanger");
+    expect(pulled.map((c) => c.rev)).toEqual([3]);
   });
 
   it("answers a repeated operation with its first result and changes nothing", async () => {
