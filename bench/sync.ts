@@ -4,7 +4,7 @@
 // current value, decision 046), inserted raw into the real table.
 //   npx tsx bench/sync.ts        (MariaDB from DATABASE_URL, default the private one on :3307)
 //   PROFILE=1 npx tsx bench/sync.ts   also lists every statement of the last timed batch, timed
-//   ROUNDS=n                           timed rounds (default 5)
+//   ROUNDS=n                           timed rounds (default 9)
 import { randomUUID } from "node:crypto";
 import { performance } from "node:perf_hooks";
 import { connect, createDatabase, dropDatabase } from "../db/connect.ts";
@@ -16,7 +16,7 @@ const url = base.toString();
 process.env.DATABASE_URL = url;
 
 const OPS = 1000;
-const ROUNDS = Number(process.env.ROUNDS ?? 5);
+const ROUNDS = Number(process.env.ROUNDS ?? 9);
 
 await dropDatabase(url);
 await createDatabase(url);
