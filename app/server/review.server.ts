@@ -230,8 +230,8 @@ export async function startAmendment(actor: Actor, checklistId: string): Promise
     const now = new Date();
     const rows = await trx("checklist_responses").where({ checklist_id: checklistId });
     const changeSeq = await nextChangeNumber(trx);
-    // The original's values, each the first revision of the amendment's item (decision 046: an
-    // item's latest history row is its value).
+    // The original's values, each the first and current revision of the amendment's item
+    // (decision 046: an item's current history row is its value).
     if (rows.length)
       await trx("response_history").insert(
         rows.map((r) => ({

@@ -674,9 +674,9 @@ async function applyBatch(
     (h) => changed.get(itemId(h.checklist_id, h.item_key))!.rev === h.rev,
   );
   const replaced = [...changed.keys()].flatMap((key) => currentRowId.get(key) ?? []);
-  // The whole write in one round trip, with the commit. Everything not in the change feed comes
-  // first; the clock, last: its lock (every applier's) is held only for the history rows — each
-  // item's latest is its current value (decision 046) — and the commit. A batch with nothing for
+  // The whole write in one round trip, with the commit. Everything that needs no change number
+  // comes first (the rows that stop being current included); the clock, last: its lock (every
+  // applier's) is held only for the new current rows (decision 046) and the commit. A batch with nothing for
   // the feed (repeats, refusals, conflicts) does not take it. Conflict ids are read back by opId:
   // a Galera cluster hands out auto-increment ids in steps of the node count.
   const writes: Statement[] = [];

@@ -148,7 +148,7 @@ interface SealedRow {
   open_ref?: string | null;
 }
 
-/** A view (migration 016): each item's latest row of response_history. Read it; never write it. */
+/** A view (migration 016): each item's current row of response_history. Read it; never write it. */
 export interface ChecklistResponseRow extends SealedRow {
   checklist_id: string;
   item_key: string;
@@ -172,7 +172,7 @@ export interface ResponseHistoryRow extends SealedRow {
   at: Date;
   /** The device's clock exactly as the device sent it (migration 007): it decides nothing. */
   client_at: string | null;
-  /** Position in the change feed (migration 016); the latest row of an item is its current value. */
+  /** Position in the change feed while the row is its item's current value, else NULL (migration 016). */
   change_seq: BigIntColumn | null;
 }
 

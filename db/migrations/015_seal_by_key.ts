@@ -18,6 +18,13 @@ const openIdOf = "IF(NEW.state = 'countersigned', NULL, NEW.id)";
 /** The key's name is what its refusal says: it must read as the rule. */
 export const sealKey = (table: string) => `${table}_sealed_when_countersigned`;
 
+/** The triggers that set a row's `open_ref` to its checklist whatever the writer sent. */
+export async function sealTriggers(knex: Knex, table: string) {
+  for (const when of ["insert", "update"])
+    await knex.raw(`CREATE TRIGGER ${table}_sealed_${when} BEFORE ${when.toUpperCase()} ON ${table}
+      FOR EACH ROW SET NEW.open_ref = NEW.checklist_id`);
+}
+
 export async function up(knex: Knex) {
   await knex.schema.alterTable("job_checklists", (t) => {
     t.uuid("open_id").nullable().unique("job_checklists_open_id_unique");
@@ -40,9 +47,7 @@ export async function up(knex: Knex) {
     );
     await knex.raw(`ALTER TABLE ${table} ADD CONSTRAINT ${sealKey(table)} FOREIGN KEY (open_ref)
       REFERENCES job_checklists (open_id) ON UPDATE SET NULL ON DELETE SET NULL`);
-    for (const when of ["insert", "update"])
-      await knex.raw(`CREATE TRIGGER ${table}_sealed_${when} BEFORE ${when.toUpperCase()} ON ${table}
-        FOR EACH ROW SET NEW.open_ref = NEW.checklist_id`);
+    await sealTriggers(knex, table);
   }
 }
 

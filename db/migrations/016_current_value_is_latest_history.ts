@@ -1,8 +1,8 @@
 import type { Knex } from "knex";
-import { sealKey } from "./015_seal_by_key.ts";
+import { sealKey, sealTriggers } from "./015_seal_by_key.ts";
 
 /**
- * An item's current value is its latest history row (decision 046): `checklist_responses` becomes
+ * An item's current value is its current history row (decision 046): `checklist_responses` becomes
  * a view of `response_history`, and an applied entry writes one row, not two. The current row of
  * an item carries its place in the change feed (`change_seq`); a row a later revision replaced
  * has none. `is_current` follows from it, and a unique key on (checklist, item, is_current) lets
@@ -15,11 +15,6 @@ import { sealKey } from "./015_seal_by_key.ts";
 const LOCKED =
   "SIGNAL SQLSTATE '45000' SET MESSAGE_TEXT = 'A countersigned checklist cannot be changed; record an amendment.'";
 
-const sealTriggers = async (knex: Knex, table: string) => {
-  for (const when of ["insert", "update"])
-    await knex.raw(`CREATE TRIGGER ${table}_sealed_${when} BEFORE ${when.toUpperCase()} ON ${table}
-      FOR EACH ROW SET NEW.open_ref = NEW.checklist_id`);
-};
 const dropSealTriggers = async (knex: Knex, table: string) => {
   for (const when of ["insert", "update"]) await knex.raw(`DROP TRIGGER IF EXISTS ${table}_sealed_${when}`);
 };
