@@ -24,8 +24,11 @@ describe("signing in", () => {
       const page = await context.newPage();
       await signIn(page, person.email);
       const nav = page.getByRole("navigation", { name: "Main" });
-      // Every place of the role, those in the Shop menu included (closed, so read as text).
-      expect(await nav.locator("a").allTextContents()).toEqual(expectedNavigation[person.role]);
+      // Every place of the role, those in the Shop menu included (closed, so read as text). Read
+      // until the page after sign-in has rendered it: reading text does not wait by itself.
+      await expect
+        .poll(() => nav.locator("a").allTextContents(), { timeout: 10_000 })
+        .toEqual(expectedNavigation[person.role]);
       expect(await page.getByTestId("role").innerText()).toBe(
         person.role[0]!.toUpperCase() + person.role.slice(1),
       );
