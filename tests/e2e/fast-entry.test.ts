@@ -91,9 +91,12 @@ describe("fast entry at the shaft", () => {
 
     // Start from the last set, then change only what moved: the gauge types over the first cell
     // (its text is selected), and the ± toggle flips the sign of another with a tap.
+    // Once the set has been sent: its "not sent yet" mark going away moves the buttons, and a tap
+    // made while they move can land beside the button.
+    await expect.poll(() => grid.getByTestId("pending").count(), { timeout: 10_000 }).toBe(0);
     await grid.getByRole("button", { name: "Start from the last set" }).tap();
+    await expect.poll(() => cells.nth(10).inputValue()).toBe("0.004");
     await expect.poll(() => focusedCell(page)).toBe("0");
-    expect(await cells.nth(10).inputValue()).toBe("0.004");
     await page.keyboard.type("0.0005");
     await page.keyboard.press("Enter");
     await expect.poll(() => focusedCell(page)).toBe("1");
