@@ -29,6 +29,8 @@ export default defineConfig({
           globalSetup: ["tests/setup/e2e.ts"],
           fileParallelism: false,
           testTimeout: 60_000,
+          // What a poll waits for here often crosses a sync round trip on a busy machine.
+          expect: { poll: { timeout: 10_000 } },
         },
       },
     ],

@@ -91,9 +91,8 @@ describe("fast entry at the shaft", () => {
 
     // Start from the last set, then change only what moved: the gauge types over the first cell
     // (its text is selected), and the ± toggle flips the sign of another with a tap.
-    // Once the set has been sent: its "not sent yet" mark going away moves the buttons, and a tap
-    // made while they move can land beside the button.
-    await expect.poll(() => grid.getByTestId("pending").count(), { timeout: 10_000 }).toBe(0);
+    // Once the set has been sent (its answer re-renders the item).
+    await expect.poll(() => grid.getByTestId("pending").count()).toBe(0);
     await grid.getByRole("button", { name: "Start from the last set" }).tap();
     await expect.poll(() => cells.nth(10).inputValue()).toBe("0.004");
     await expect.poll(() => focusedCell(page)).toBe("0");
@@ -157,6 +156,18 @@ describe("fast entry at the shaft", () => {
     await face.getByLabel(/^Note/).fill("Read twice, same figure");
     await face.getByRole("button", { name: "Save note" }).tap();
     await expect.poll(async () => (await stored("face-runout"))?.note).toBe("Read twice, same figure");
+
+    // An entry waiting to be sent moves nothing when it goes: the buttons stay under the finger.
+    const saveNote = face.getByRole("button", { name: "Save note" });
+    const top = () => saveNote.evaluate((e) => e.getBoundingClientRect().top + window.scrollY);
+    await context.setOffline(true);
+    await face.getByLabel("Reading", { exact: true }).fill("0.0006");
+    await face.getByRole("button", { name: /Record (reading|a new attempt)/ }).tap();
+    await face.getByTestId("pending").waitFor();
+    const waiting = await top();
+    await context.setOffline(false);
+    await expect.poll(() => face.getByTestId("pending").count()).toBe(0);
+    expect(await top()).toBe(waiting);
 
     // The connection reads at arm's length and stays on screen while scrolling; offline looks different.
     const connection = page.getByTestId("connection");

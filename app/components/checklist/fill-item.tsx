@@ -94,8 +94,14 @@ export function FillItem({
           {item.label}
           {item.required && <span className="sr-only"> (required)</span>}
         </h3>
-        {pending && (
-          <span className="text-sm font-bold text-harbour" data-testid="pending">
+        {/* Kept in place (hidden) while the item can be filled: the mark coming and going with the
+            sync never moves the buttons under a gloved tap. */}
+        {(pending || !disabled) && (
+          <span
+            className={`text-sm font-bold text-harbour ${pending ? "" : "invisible"}`}
+            data-testid={pending ? "pending" : undefined}
+            aria-hidden={pending ? undefined : true}
+          >
             Saved on this tablet · waiting to send
           </span>
         )}
