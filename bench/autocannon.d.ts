@@ -26,7 +26,7 @@ declare module "autocannon" {
     p99: number;
   }
   interface Result {
-    requests: Histogram;
+    requests: Histogram & { total: number };
     latency: Histogram;
     errors: number;
     timeouts: number;

@@ -118,11 +118,20 @@ const sampler = setInterval(() => {
   peakSampled = Math.max(peakSampled, server.memoryMb().rss);
 }, 100);
 
-const results: { name: string; rps: number; p50: number; p975: number; p99: number; errors: number }[] = [];
+const results: {
+  name: string;
+  rps: number;
+  p50: number;
+  p975: number;
+  p99: number;
+  errors: number;
+  cpuMs: number;
+}[] = [];
 for (const scenario of scenarios.filter(
   (s) => !process.env.ONLY || ["health", process.env.ONLY].includes(s.name),
 )) {
   let next = 0;
+  const cpuBefore = server.cpuMs();
   const result = await autocannon({
     url: server.url,
     connections: CONNECTIONS,
@@ -152,6 +161,8 @@ for (const scenario of scenarios.filter(
     p975: result.latency.p97_5,
     p99: result.latency.p99,
     errors: result.errors + result.timeouts + result.non2xx,
+    // The server's own CPU per answer: what a route costs, whatever else the machine is doing.
+    cpuMs: (server.cpuMs() - cpuBefore) / Math.max(result.requests.total, 1),
   });
 }
 clearInterval(sampler);
@@ -172,14 +183,16 @@ const health = results[0]!;
 console.log(
   `\n${CONNECTIONS} connections, ${SECONDS} s per route, production build on loopback (${readFileSync("/proc/cpuinfo", "utf8").match(/^processor/gm)?.length ?? "?"} CPUs)\n`,
 );
-console.log("route       req/s   p50 ms  p97.5 ms  p99 ms  errors  p99 / health p99");
+console.log("route       req/s   p50 ms  p97.5 ms  p99 ms  errors  p99 / health p99  server CPU ms/req");
 for (const r of results) {
   console.log(
     `${r.name.padEnd(10)} ${r.rps.toFixed(0).padStart(6)} ${r.p50.toFixed(0).padStart(8)} ${r.p975
       .toFixed(0)
-      .padStart(
-        9,
-      )} ${r.p99.toFixed(0).padStart(7)} ${String(r.errors).padStart(7)}  ${(r.p99 / Math.max(health.p99, 1)).toFixed(2)}`,
+      .padStart(9)} ${r.p99.toFixed(0).padStart(7)} ${String(r.errors).padStart(7)}  ${(
+      r.p99 / Math.max(health.p99, 1)
+    )
+      .toFixed(2)
+      .padStart(16)}  ${r.cpuMs.toFixed(2).padStart(17)}`,
   );
 }
 console.log(`\nserver peak RSS: ${peak.toFixed(0)} MB (target < 250 MB)`);

@@ -32,14 +32,32 @@ function cookie() {
  */
 export async function sessionUserRow(request: Request): Promise<UserRow | null> {
   const header = request.headers.get("Cookie");
-  const id: unknown = header ? await cookie().parse(header) : null;
-  if (typeof id !== "string" || !id) return null;
+  const id = header ? await sessionIdIn(header) : null;
+  if (!id) return null;
   const row: (UserRow & { session_expires_at: Date | null }) | undefined = await db()("sessions as s")
     .join("users as u", "u.id", "s.user_id")
     .where("s.id", id)
     .first("u.*", "s.expires_at as session_expires_at");
   if (!row || (await droppedIfExpired(id, row.session_expires_at))) return null;
   return row;
+}
+
+/**
+ * The session id a Cookie header carries, if its signature holds. A header verifies the same way
+ * every time, so each is checked once (an HMAC costs more than the rest of a sync request's
+ * session read); the list is bounded, and whether the session still lives is asked every time.
+ */
+const verified = new Map<string, string | null>();
+const MAX_VERIFIED = 10_000;
+async function sessionIdIn(header: string): Promise<string | null> {
+  let id = verified.get(header);
+  if (id === undefined) {
+    const parsed: unknown = await cookie().parse(header);
+    id = typeof parsed === "string" && parsed ? parsed : null;
+    if (verified.size >= MAX_VERIFIED) verified.clear();
+    verified.set(header, id);
+  }
+  return id;
 }
 
 /** A session past its expiry is deleted on sight; says whether it was. */

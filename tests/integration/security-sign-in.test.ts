@@ -77,6 +77,20 @@ describe("sessions (finding 2: fixation)", () => {
   });
 });
 
+describe("session cookies", () => {
+  it("are refused when their signature does not hold, before and after the genuine one was read", async () => {
+    const manager = await makeUser(knex, "manager");
+    const genuine = await signInCookie(app, manager.email);
+    // The value is the signed session id; change one character of the signature at its end.
+    const last = genuine.at(-1) === "A" ? "B" : "A";
+    const forged = `${genuine.slice(0, -1)}${last}`;
+    expect((await app("/people", { cookie: forged })).status).toBe(302);
+    expect((await app("/people", { cookie: genuine })).status).toBe(200);
+    expect((await app("/people", { cookie: forged })).status).toBe(302);
+    expect((await app("/people", { cookie: genuine })).status).toBe(200);
+  });
+});
+
 describe("sign-in limits (finding 3)", () => {
   it("read one e-mail field: a decoy first field neither dodges the count nor is tried", async () => {
     const target = await makeUser(knex, "manager");

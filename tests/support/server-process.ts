@@ -23,6 +23,8 @@ export interface RunningServer {
   logLines(): Record<string, unknown>[];
   /** Resident memory of the server process now and at its peak, in MB (from /proc). */
   memoryMb(): { rss: number; peak: number };
+  /** CPU time the server process has used so far (user + system), in ms (from /proc). */
+  cpuMs(): number;
   stop(): Promise<void>;
 }
 
@@ -77,6 +79,12 @@ export async function startServer(env: Record<string, string | undefined> = {}):
         .filter((l) => l.startsWith("{"))
         .map((l) => JSON.parse(l) as Record<string, unknown>),
     memoryMb: () => ({ rss: status("VmRSS"), peak: status("VmHWM") }),
+    // Fields 14 and 15 of /proc/<pid>/stat, in clock ticks of 10 ms (after the command's closing
+    // parenthesis, which may itself hold spaces).
+    cpuMs: () => {
+      const fields = readFileSync(`/proc/${child.pid}/stat`, "utf8").split(") ")[1]!.split(" ");
+      return (Number(fields[11]) + Number(fields[12])) * 10;
+    },
     stop: () =>
       new Promise<void>((resolve) => {
         if (child.exitCode !== null) return resolve();
