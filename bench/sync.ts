@@ -230,6 +230,57 @@ if (f / r > 3)
   console.log(
     `≤ 3× raw is below the floor here: the history row every applied entry must write, with its keys and the seal trigger, alone takes ${(f / r).toFixed(2)}× (docs/decisions/042-sync-cost-floor.md)`,
   );
+
+// A tablet's everyday push: 10 operations on the items of one checklist, one push after another,
+// each on the current revision, so the checklist's history grows as on a long job (SMALL_PUSHES
+// of them, 300 by default). Beside it, the same 10 rows inserted raw in a transaction of their own.
+const SMALL_PUSHES = Number(process.env.SMALL_PUSHES ?? 300);
+const candidates = await freshItems(100);
+const checkItemsOf = (id: string) => candidates.filter((it) => it.checklistId === id);
+const fullest = [...new Set(candidates.map((it) => it.checklistId))].sort(
+  (a, b) => checkItemsOf(b).length - checkItemsOf(a).length,
+)[0]!;
+const own = checkItemsOf(fullest).slice(0, 10);
+const pushTimes: number[] = [];
+const smallRawTimes: number[] = [];
+let tabletCursor: string | null = null;
+for (let round = 0; round < SMALL_PUSHES; round++) {
+  const ops = own.map((it, seq) => ({
+    opId: randomUUID(),
+    seq,
+    checklistId: it.checklistId,
+    itemKey: it.itemKey,
+    value: { result: round % 2 ? ("pass" as const) : ("fail" as const) },
+    baseRev: round,
+    at: new Date().toISOString(),
+  }));
+  let t = performance.now();
+  const answer = await sync(actor, { deviceId: "bench-tablet", cursor: tabletCursor, ops });
+  pushTimes.push(performance.now() - t);
+  tabletCursor = answer.cursor;
+  if (answer.results.some((r) => r.status !== "applied")) throw new Error("a benchmark push was not applied");
+  const rows = own.map((it) => ({
+    checklist_id: it.checklistId,
+    item_key: `${it.itemKey}-${round}`,
+    value: JSON.stringify({ result: "pass" }),
+    rev: round + 1,
+    updated_by: tech,
+    device_id: "bench-tablet",
+    updated_at: new Date(),
+    change_seq: round + 1,
+  }));
+  t = performance.now();
+  await knex.transaction(async (trx) => {
+    await trx("bench_raw").insert(rows);
+  });
+  smallRawTimes.push(performance.now() - t);
+}
+const p = median(pushTimes.slice(1));
+const pr = median(smallRawTimes.slice(1));
+console.log(
+  `\n${own.length}-operation push, ${SMALL_PUSHES} in a row on one checklist: ${p.toFixed(2)} ms (median); raw insert of ${own.length} rows: ${pr.toFixed(2)} ms; ratio ${(p / pr).toFixed(2)}×`,
+);
+
 await knex.destroy();
 const { applierDb, db } = await import("../app/server/db.server.ts");
 await Promise.all([db().destroy(), applierDb().destroy()]);

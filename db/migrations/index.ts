@@ -12,6 +12,7 @@ import * as m012 from "./012_notifications_and_replies.ts";
 import * as m014 from "./014_yard_settings.ts";
 import * as m015 from "./015_seal_by_key.ts";
 import * as m016 from "./016_current_value_is_latest_history.ts";
+import * as m017 from "./017_current_rows_by_checklist.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
 const migrations: Record<string, Knex.Migration> = {
@@ -28,6 +29,7 @@ const migrations: Record<string, Knex.Migration> = {
   "014_yard_settings": m014,
   "015_seal_by_key": m015,
   "016_current_value_is_latest_history": m016,
+  "017_current_rows_by_checklist": m017,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

@@ -48,13 +48,15 @@ describe("migrations", () => {
     }
   });
 
-  it("016 keeps every current value, its author, time, change number and seal, both ways", async () => {
+  it("016 and 017 keep every current value, its author, time, change number and seal, both ways", async () => {
     await dropDatabase(url);
     await createDatabase(url);
     const knex = connect(url);
     try {
       await knex.migrate.latest();
-      await knex.migrate.down(); // back to the separate value table of 015
+      // Back past 017 and 016, to the separate value table of 015.
+      await knex.migrate.down();
+      await knex.migrate.down();
       await seedLibrary(knex);
       const lead = await makeUser(knex, "lead");
       const tech = await makeUser(knex, "technician");
@@ -109,11 +111,16 @@ describe("migrations", () => {
         knex("response_history").insert({ ...history[2]!, rev: 2, value: value("late") }),
       ).rejects.toThrow(/sealed_when_countersigned/);
 
-      // One current row per item, whoever writes: a second one is refused by the key.
-      await expect(
-        knex("response_history").insert({ ...history[1]!, rev: 3, value: value("third"), change_seq: 10 }),
-      ).rejects.toThrow(/one_current_row/);
+      // One current row per item, whoever writes: a second one is refused by the key, before and
+      // after 017 reorders it.
+      const secondCurrent = () =>
+        knex("response_history").insert({ ...history[1]!, rev: 3, value: value("third"), change_seq: 10 });
+      await expect(secondCurrent()).rejects.toThrow(/one_current_row/);
+      await knex.migrate.up();
+      expect(await snapshot()).toEqual(before);
+      await expect(secondCurrent()).rejects.toThrow(/one_current_row/);
 
+      await knex.migrate.down();
       await knex.migrate.down();
       expect(await snapshot()).toEqual(before);
     } finally {

@@ -96,6 +96,48 @@ describe("the sync rules on MariaDB", () => {
     expect(pulled.map((c) => c.rev)).toEqual([3]);
   });
 
+  it("reads a checklist's current values without walking the revisions they replaced (migration 017)", async () => {
+    const me = (await makeUser(knex, "technician")) as typeof tech;
+    const [own, beside] = await startChecklists(
+      (await makeJob(knex, lead.id, [me.id])).id,
+      ["cooling", "exhaust"],
+      lead.id,
+    );
+    // A yard's table holds many checklists' revisions: 2,000 past ones of another checklist.
+    await knex.batchInsert(
+      "response_history",
+      Array.from({ length: 2000 }, (_, i) => ({
+        checklist_id: beside!,
+        item_key: `past-${i}`,
+        rev: 1,
+        value: JSON.stringify(check("pass")),
+        user_id: me.id,
+        at: new Date(),
+      })),
+      500,
+    );
+    const items = ["seacock", "strainer", "impeller", "thermostat", "heat-exchanger"];
+    // 20 revisions of each item: 100 history rows, 5 of them current.
+    for (let rev = 0; rev < 20; rev++)
+      await push(
+        me,
+        items.map((item) => op(own!, item, check(rev % 2 ? "pass" : "fail"), rev)),
+      );
+    // Rows read from tables by the queries of this connection (a session counter).
+    const rowsRead = async (trx: typeof knex) =>
+      Number((await trx.raw("SHOW SESSION STATUS LIKE 'Rows_read'"))[0][0].Value);
+    await knex.transaction(async (trx) => {
+      const before = await rowsRead(trx);
+      const current = await trx("checklist_responses")
+        .where({ checklist_id: own! })
+        .select("item_key", "rev");
+      const read = (await rowsRead(trx)) - before;
+      expect(current.map((r: any) => [r.item_key, r.rev]).sort()).toEqual(items.map((i) => [i, 20]).sort());
+      // Before migration 017 the key led with the item, and this read walked all 100 revisions.
+      expect(read).toBeLessThanOrEqual(items.length + 1);
+    });
+  });
+
   it("answers a repeated operation with its first result and changes nothing", async () => {
     const once = op(checklist, "strainer", check("pass"), 0);
     const first = await push(tech, [once]);
