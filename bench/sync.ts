@@ -1,10 +1,12 @@
 // Server time to apply a 1,000-operation sync batch, against a raw Knex batch insert of the same
 // 1,000 rows into the same MariaDB, in one run. Prints both medians and their ratio, and the
 // floor: the row an applied operation must write (its history row, whose latest per item is the
-// current value, decision 046), inserted raw into the real table.
+// current value, decision 046), inserted raw into the real table. Then a tablet's everyday push:
+// 10 operations on one checklist, many in a row, beside a raw insert of the same 10 rows.
 //   npx tsx bench/sync.ts        (MariaDB from DATABASE_URL, default the private one on :3307)
 //   PROFILE=1 npx tsx bench/sync.ts   also lists every statement of the last timed batch, timed
 //   ROUNDS=n                           timed rounds (default 9)
+//   SMALL_PUSHES=n                     pushes of 10 operations in a row (default 300)
 import { randomUUID } from "node:crypto";
 import { performance } from "node:perf_hooks";
 import { connect, createDatabase, dropDatabase } from "../db/connect.ts";
