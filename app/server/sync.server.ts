@@ -676,9 +676,9 @@ async function applyBatch(
   const replaced = [...changed.keys()].flatMap((key) => currentRowId.get(key) ?? []);
   // The whole write in one round trip, with the commit. Everything that needs no change number
   // comes first (the rows that stop being current included); the clock, last: its lock (every
-  // applier's) is held only for the new current rows (decision 046) and the commit. A batch with nothing for
-  // the feed (repeats, refusals, conflicts) does not take it. Conflict ids are read back by opId:
-  // a Galera cluster hands out auto-increment ids in steps of the node count.
+  // applier's) is held only for the new current rows (decision 046) and the commit. A batch with
+  // nothing for the feed (repeats, refusals, conflicts) does not take it. Conflict ids are read
+  // back by opId: a Galera cluster hands out auto-increment ids in steps of the node count.
   const writes: Statement[] = [];
   const add = (s: Statement) => writes.push(s) - 1;
   let conflictIdsAt = -1;

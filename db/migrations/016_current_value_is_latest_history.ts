@@ -24,7 +24,7 @@ const CURRENT_VALUES = `SELECT h.checklist_id, h.item_key, h.value, h.rev, h.use
     h.device_id, h.at AS updated_at, h.change_seq, h.open_ref
   FROM response_history h
   WHERE h.is_current = 1`;
-const ONE_CURRENT = "response_history_one_current_row";
+export const ONE_CURRENT = "response_history_one_current_row";
 
 export async function up(knex: Knex) {
   await knex.schema.alterTable("response_history", (t) => {
