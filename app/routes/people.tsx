@@ -16,7 +16,7 @@ import { roleLabels, roles } from "~/lib/roles";
 import { inviteSchema, userChangeSchema } from "~/lib/validation/people";
 import { audit } from "~/server/audit.server";
 import { env } from "~/server/env.server";
-import { sendMail } from "~/server/mail.server";
+import { mailWaiting, queueAndSend } from "~/server/mail-outbox.server";
 import { requireCapability } from "~/server/permissions.server";
 import { endSessionsOf } from "~/server/session.server";
 import { findUserById, inviteUser, InviteError, listUsers, updateUser } from "~/server/users.server";
@@ -25,17 +25,25 @@ export const meta: Route.MetaFunction = () => [{ title: "People · Sternpost" }]
 
 export async function loader({ request }: Route.LoaderArgs) {
   const me = await requireCapability(request, "users:manage");
-  return { me: me.id, people: await listUsers() };
+  return { me: me.id, people: await listUsers(), mail: await mailWaiting() };
 }
 
+/** Says whether the mail server took the invitation (if not, the outbox tries again). */
 async function sendInvitation(to: string, name: string, token: string) {
   const link = `${env().APP_URL}/invitation/${token}`;
-  await sendMail({
-    to,
-    subject: "You are invited to Sternpost",
-    text: `Hello ${name},\n\nYou have been given an account on Sternpost, the yard's engine installation records.\nChoose your password here (the link works once, for 7 days):\n\n${link}\n`,
-  });
+  const { sent } = await queueAndSend([
+    {
+      kind: "invitation",
+      to,
+      subject: "You are invited to Sternpost",
+      text: `Hello ${name},\n\nYou have been given an account on Sternpost, the yard's engine installation records.\nChoose your password here (the link works once, for 7 days):\n\n${link}\n`,
+    },
+  ]);
+  return sent > 0;
 }
+
+const WAITING =
+  "The mail server did not take it yet; Sternpost keeps it and sends it as soon as the server answers.";
 
 export async function action({ request }: Route.ActionArgs) {
   const me = await requireCapability(request, "users:manage");
@@ -46,7 +54,7 @@ export async function action({ request }: Route.ActionArgs) {
       return data({ invite: submission.reply(), notice: null }, { status: 400 });
     try {
       const { userId, token } = await inviteUser(submission.value, me.id);
-      await sendInvitation(submission.value.email, submission.value.name, token);
+      const sent = await sendInvitation(submission.value.email, submission.value.name, token);
       await audit({
         userId: me.id,
         action: "user.invited",
@@ -56,7 +64,9 @@ export async function action({ request }: Route.ActionArgs) {
       });
       return {
         invite: null,
-        notice: `Invitation sent to ${submission.value.email}.`,
+        notice: sent
+          ? `Invitation sent to ${submission.value.email}.`
+          : `Invitation to ${submission.value.email} kept. ${WAITING}`,
         sent: `${userId}-${Date.now()}`,
       };
     } catch (error) {
@@ -85,6 +95,7 @@ export async function action({ request }: Route.ActionArgs) {
       },
       { status: 400 },
     );
+  let mailKept = false;
   switch (change.value.intent) {
     case "role":
       await updateUser(target.id, { role: change.value.role });
@@ -105,7 +116,7 @@ export async function action({ request }: Route.ActionArgs) {
         if (e instanceof InviteError) throw data({ message: e.message }, { status: 400 });
         throw e;
       });
-      await sendInvitation(target.email, target.name, token);
+      mailKept = !(await sendInvitation(target.email, target.name, token));
       break;
     }
   }
@@ -118,7 +129,9 @@ export async function action({ request }: Route.ActionArgs) {
   });
   return {
     invite: null,
-    notice: `${target.name}: ${change.value.intent === "role" ? "role changed" : change.value.intent + "d"}.`,
+    notice: mailKept
+      ? `${target.name}: new invitation kept. ${WAITING}`
+      : `${target.name}: ${change.value.intent === "role" ? "role changed" : change.value.intent + "d"}.`,
   };
 }
 
@@ -182,6 +195,7 @@ export default function People({ loaderData, actionData }: Route.ComponentProps)
   return (
     <>
       <PageHeader title="People" />
+      <MailWaiting {...loaderData.mail} />
       {notice && (
         <p role="status" className="mb-4 rounded-md border-2 border-sound bg-sound-light p-3 font-bold">
           {notice}
@@ -269,5 +283,29 @@ export default function People({ loaderData, actionData }: Route.ComponentProps)
         </tbody>
       </table>
     </>
+  );
+}
+
+/** Mail the server has not taken yet, and mail given up this week: the manager should know. */
+function MailWaiting({ waiting, lastError, failedThisWeek }: Route.ComponentProps["loaderData"]["mail"]) {
+  if (!waiting && !failedThisWeek) return null;
+  return (
+    <div
+      role="status"
+      data-testid="mail-waiting"
+      className="mb-4 rounded-md border-2 border-brass bg-brass-light p-3"
+    >
+      {waiting > 0 && (
+        <p className="font-bold">
+          {`${waiting === 1 ? "1 e-mail waits" : `${waiting} e-mails wait`} for the mail server; Sternpost keeps trying.`}
+          {lastError && <span className="font-normal">{` Last answer: ${lastError}`}</span>}
+        </p>
+      )}
+      {failedThisWeek > 0 && (
+        <p>
+          {`${failedThisWeek === 1 ? "1 e-mail" : `${failedThisWeek} e-mails`} could not be sent this week (the address was refused, or the server stayed away three days). Check the address and invite again.`}
+        </p>
+      )}
+    </div>
   );
 }

@@ -15,6 +15,8 @@ const schema = z.object({
   YARD_TIME_ZONE: z.string().min(1).default("UTC"),
   /** Folder where the local SMTP sink keeps messages; when set, /dev/mail shows them to managers. */
   MAIL_SINK_DIR: z.string().optional(),
+  /** Seconds between looks at the mail outbox, and the first wait before a failed message is tried again. */
+  MAIL_RETRY_S: z.coerce.number().positive().default(30),
   /** A production server shows /dev/mail only when asked explicitly (npm start's local demo does). */
   DEV_MAIL_PAGE: z.enum(["on", "off"]).default("off"),
   /** Login attempts allowed per account and per address in 15 minutes. */

@@ -6,13 +6,13 @@ import { db } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import { env } from "./env.server.ts";
 import { logger } from "./logger.server.ts";
-import { sendMail } from "./mail.server.ts";
+import { queueAndSend } from "./mail-outbox.server.ts";
 
 /**
  * The e-mails that tell a person something waits for them. Each is sent after the change it
- * reports has been committed, only to active people who have not turned that kind off, and a
- * failing mail server is logged, never passed on: the submission, the return or the page view
- * it follows has already happened.
+ * reports has been committed, only to active people who have not turned that kind off. A mail
+ * server that refuses or is away is retried from the outbox, never passed on: the submission,
+ * the return or the page view it follows has already happened.
  */
 async function notify(
   kind: NotificationKind,
@@ -25,13 +25,7 @@ async function notify(
     .where({ active: true })
     .whereNotExists(db()("notification_optouts as o").whereRaw("o.user_id = users.id").where("o.kind", kind))
     .select("id", "email", "name");
-  for (const person of people) {
-    try {
-      await sendMail({ to: person.email, ...message(person.name) });
-    } catch (error) {
-      logger.warn({ kind, userId: person.id, err: (error as Error).message }, "notification not sent");
-    }
-  }
+  await queueAndSend(people.map((person) => ({ kind, to: person.email, ...message(person.name) })));
 }
 
 /** Waits for a notification, but never lets it fail the action it follows. */

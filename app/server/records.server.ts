@@ -11,7 +11,7 @@ import { db } from "./db.server.ts";
 import { env } from "./env.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import { findJob } from "./jobs.server.ts";
-import { sendMail } from "./mail.server.ts";
+import { deliver, queueMail, type OutgoingMail } from "./mail-outbox.server.ts";
 import { loadRecordChecklist } from "./record-data.server.ts";
 import type { JobChecklistRow } from "./tables.server.ts";
 import { inviteUser } from "./users.server.ts";
@@ -44,10 +44,15 @@ const verifyUrl = (id: string) => `${env().APP_URL}/verify/${id}`;
  * Issues the job's commissioning record to surveyors: a snapshot of every current checklist as
  * countersigned, its digest, and access for each surveyor (an invitation when they are new).
  */
-export async function issueRecord(actor: Actor, jobId: number, recipients: Recipient[]): Promise<string> {
-  const issued = await createRecord(actor, jobId, recipients);
-  await mailRecord(issued);
-  return issued.id;
+export async function issueRecord(
+  actor: Actor,
+  jobId: number,
+  recipients: Recipient[],
+): Promise<{ id: string; mailWaiting: boolean }> {
+  const issued = await createRecord(actor, jobId, recipients, { mail: true });
+  // Kept with the record; a mail server that is away only delays them (mail-outbox.server.ts).
+  const { sent } = await deliver(issued.mailIds);
+  return { id: issued.id, mailWaiting: sent < issued.mailIds.length };
 }
 
 interface IssuedRecord {
@@ -59,16 +64,20 @@ interface IssuedRecord {
   /** The surveyor's name for those who had an account, the invitation token for those new. */
   names: Map<string, string>;
   invitations: Map<string, string>;
+  /** The messages to the surveyors, kept in the record's transaction (none for the demo seed). */
+  mailIds: number[];
 }
 
 /**
- * The record stored, with access for each surveyor, and no mail sent yet: issueRecord's first
- * half, and all of it for the demo seed (whose surveyor already has an account and no inbox).
+ * The record stored, with access for each surveyor and, with `mail`, the messages to them kept
+ * to send: issueRecord's first half, and all of it for the demo seed (whose surveyor already has
+ * an account and no inbox).
  */
 export async function createRecord(
   actor: Actor,
   jobId: number,
   recipients: Recipient[],
+  { mail = false } = {},
 ): Promise<IssuedRecord> {
   const emails = recipients.map((r) => r.email);
   const job = await findJob(jobId);
@@ -153,7 +162,9 @@ export async function createRecord(
       invitations.set(email, token);
     }
   }
-  await db().transaction(async (trx) => {
+  const names = new Map(people.map((p) => [p.email as string, p.name as string]));
+  const issued = { id, digest, vessel, job, recipients, names, invitations };
+  const mailIds = await db().transaction(async (trx) => {
     await trx("records").insert({
       id,
       job_id: jobId,
@@ -176,15 +187,25 @@ export async function createRecord(
       },
       trx,
     );
+    return mail ? queueMail(recordMail(issued), trx) : [];
   });
-  const names = new Map(people.map((p) => [p.email as string, p.name as string]));
-  return { id, digest, vessel, job, recipients, names, invitations };
+  return { ...issued, mailIds };
 }
 
-async function mailRecord({ id, digest, vessel, job, recipients, names, invitations }: IssuedRecord) {
-  for (const { email, name } of recipients) {
+/** One message per surveyor: the record's links, and the invitation of a newcomer. */
+function recordMail({
+  id,
+  digest,
+  vessel,
+  job,
+  recipients,
+  names,
+  invitations,
+}: Omit<IssuedRecord, "mailIds">): OutgoingMail[] {
+  return recipients.map(({ email, name }) => {
     const invitation = invitations.get(email);
-    await sendMail({
+    return {
+      kind: "record",
       to: email,
       subject: `Commissioning record: ${vessel.name}`,
       text: [
@@ -200,8 +221,8 @@ async function mailRecord({ id, digest, vessel, job, recipients, names, invitati
         `Check it is genuine: ${verifyUrl(id)}`,
         `Record digest (SHA-256): ${digest}`,
       ].join("\n"),
-    });
-  }
+    };
+  });
 }
 
 export async function findRecord(id: string) {

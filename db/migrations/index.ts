@@ -13,6 +13,7 @@ import * as m014 from "./014_yard_settings.ts";
 import * as m015 from "./015_seal_by_key.ts";
 import * as m016 from "./016_current_value_is_latest_history.ts";
 import * as m017 from "./017_current_rows_by_checklist.ts";
+import * as m018 from "./018_mail_outbox.ts";
 
 // Listed explicitly so the same migrations load under tsx, vitest and the Vite build alike.
 const migrations: Record<string, Knex.Migration> = {
@@ -30,6 +31,7 @@ const migrations: Record<string, Knex.Migration> = {
   "015_seal_by_key": m015,
   "016_current_value_is_latest_history": m016,
   "017_current_rows_by_checklist": m017,
+  "018_mail_outbox": m018,
 };
 
 export const migrationSource: Knex.MigrationSource<string> = {

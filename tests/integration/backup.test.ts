@@ -82,9 +82,11 @@ beforeAll(async () => {
   await storePhoto(tech, { id: photoId, checklistId: checklistId!, itemKey: "p", bytes: photo });
   await push([op(checklistId!, SUBMIT_KEY, submitValue, 0)]);
   await countersign(lead, checklistId!, TEST_PASSWORD);
-  recordId = await issueRecord(manager, jobId, [
-    { email: `surveyor-${Date.now()}@survey.example`, name: "Sela Sounding" },
-  ]);
+  recordId = (
+    await issueRecord(manager, jobId, [
+      { email: `surveyor-${Date.now()}@survey.example`, name: "Sela Sounding" },
+    ])
+  ).id;
   target = await startS3Fake({
     port: 0,
     directory: mkdtempSync(path.join(tmpdir(), "sternpost-restore-s3-")),

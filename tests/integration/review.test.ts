@@ -250,9 +250,11 @@ describe("issuing and verifying a record", () => {
       issueRecord(otherLead, jobId, [{ email: "s@survey.example", name: "Sela Sounding" }]),
     ).rejects.toThrow(/manager or the job's lead/);
     // (Mail goes to the SMTP stand-in the integration setup starts.)
-    const recordId = await issueRecord(manager, jobId, [
-      { email: `surveyor-${Date.now()}@survey.example`, name: "Sela Sounding" },
-    ]);
+    const recordId = (
+      await issueRecord(manager, jobId, [
+        { email: `surveyor-${Date.now()}@survey.example`, name: "Sela Sounding" },
+      ])
+    ).id;
     expect((await verifyRecord(recordId))!.genuine).toBe(true);
     expect(await knex("audit_log").where({ action: "record.issued", entity_id: recordId })).toHaveLength(1);
     const row = (await knex("records").where({ id: recordId }).first())!;
@@ -336,7 +338,8 @@ describe("e-mail when something waits for a person", () => {
     await push(tech, [...complete(id), op(id, SUBMIT_KEY, submitValue, 0)]);
     await countersign(lead, id, TEST_PASSWORD);
     const surveyorEmail = `first-look-${Date.now()}@survey.example`;
-    const recordId = await issueRecord(manager, jobId, [{ email: surveyorEmail, name: "Fenna Sounding" }]);
+    const recordId = (await issueRecord(manager, jobId, [{ email: surveyorEmail, name: "Fenna Sounding" }]))
+      .id;
     const surveyor = (await knex("users").where({ email: surveyorEmail }).first())!;
     const actor = { id: surveyor.id, name: surveyor.name, role: "surveyor" };
     await Promise.all([recordOpened(actor, recordId), recordOpened(actor, recordId)]);
@@ -478,9 +481,11 @@ describe("answers to the lead's comments, and each person's queue", () => {
       "record-ready",
     );
     expect((await waitingFor(manager)).map((e) => e.to)).toContain(`/jobs/${jobId}#record-title`);
-    const recordId = await issueRecord(manager, jobId, [
-      { email: `queue-${Date.now()}@survey.example`, name: "Quill Marlow" },
-    ]);
+    const recordId = (
+      await issueRecord(manager, jobId, [
+        { email: `queue-${Date.now()}@survey.example`, name: "Quill Marlow" },
+      ])
+    ).id;
     expect((await waitingFor(lead)).map((e) => e.to)).not.toContain(`/jobs/${jobId}#record-title`);
     expect((await issuedRecently()).map((r) => r.id)).toContain(recordId);
   });

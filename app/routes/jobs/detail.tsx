@@ -57,11 +57,15 @@ export async function action({ request, params }: Route.ActionArgs) {
   const form = submission.value;
   try {
     switch (form.intent) {
-      case "issue-record":
-        await issueRecord(user, job.id, form.emails);
+      case "issue-record": {
+        const { mailWaiting } = await issueRecord(user, job.id, form.emails);
+        const to = form.emails.map((r) => r.email).join(", ");
         return answer(submission.reply({ resetForm: true }), {
-          issued: `Record issued to ${form.emails.map((r) => r.email).join(", ")}.`,
+          issued: mailWaiting
+            ? `Record issued to ${to}. The mail server did not take the e-mail yet; Sternpost keeps it and sends it as soon as the server answers.`
+            : `Record issued to ${to}.`,
         });
+      }
       case "amend":
         await startAmendment(user, form.checklistId);
         break;

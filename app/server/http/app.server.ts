@@ -13,6 +13,7 @@ import { sendRefusal, sendUnavailable } from "./answers.server.ts";
 import { reactRouterHandler } from "./bridge.server.ts";
 import { refusal } from "./guards.server.ts";
 import { SYNC_BUDGET_RETRY_S, syncBudgetRefusal } from "./sync-budget.server.ts";
+import { startMailRetries } from "../mail-outbox.server.ts";
 
 /** A path fit for a log line: no query string (it may carry anything) and no invitation token. */
 export const loggedPath = (url: string) =>
@@ -104,6 +105,8 @@ const securityHeaders = () =>
  * sync operations an account can leave behind, and 503 while the database is down. It keeps no state, so any number can run side by side.
  */
 export function createHttpApp(build: ServerBuild) {
+  // Mail the mail server did not take is tried again from here (every instance; each message once).
+  startMailRetries();
   const app = express();
   app.disable("x-powered-by");
   if (process.env.TRUST_PROXY) app.set("trust proxy", process.env.TRUST_PROXY);
