@@ -290,11 +290,7 @@ export default function People({ loaderData, actionData }: Route.ComponentProps)
 function MailWaiting({ waiting, lastError, failedThisWeek }: Route.ComponentProps["loaderData"]["mail"]) {
   if (!waiting && !failedThisWeek) return null;
   return (
-    <div
-      role="status"
-      data-testid="mail-waiting"
-      className="mb-4 rounded-md border-2 border-brass bg-brass-light p-3"
-    >
+    <div data-testid="mail-waiting" className="mb-4 rounded-md border-2 border-brass bg-brass-light p-3">
       {waiting > 0 && (
         <p className="font-bold">
           {`${waiting === 1 ? "1 e-mail waits" : `${waiting} e-mails wait`} for the mail server; Sternpost keeps trying.`}
