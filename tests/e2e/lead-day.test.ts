@@ -2,9 +2,8 @@ import { randomUUID } from "node:crypto";
 import type { Browser, Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
-import { sha256 } from "../../db/seeds/library.ts";
 import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
-import { makeCrewedJob, TEST_PASSWORD } from "../support/fixtures.ts";
+import { makeCrewedJob, publishTemplate, TEST_PASSWORD } from "../support/fixtures.ts";
 import { waitForMail } from "../support/mail.ts";
 
 let browser: Browser;
@@ -34,18 +33,7 @@ let shaft: string, cooling: string;
 
 beforeAll(async () => {
   browser = await launch();
-  for (const t of templates) {
-    const body = JSON.stringify(t);
-    await knex("template_versions").insert({
-      template_key: t.key,
-      version: 1,
-      status: "published",
-      title: t.title,
-      body,
-      body_sha256: sha256(body),
-      published_at: new Date(),
-    });
-  }
+  for (const t of templates) await publishTemplate(knex, t);
   crew = await makeCrewedJob(
     knex,
     HULL,

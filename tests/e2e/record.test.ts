@@ -8,8 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { connect } from "../../db/connect.ts";
 import { createHash } from "node:crypto";
 import canonicalize from "canonicalize";
-import { sha256 } from "../../db/seeds/library.ts";
 import { expectNoConsoleErrors, launch, open, signIn, tabletContext } from "../support/browser.ts";
+import { publishTemplate } from "../support/fixtures.ts";
 import { waitForMail } from "../support/mail.ts";
 
 let browser: Browser;
@@ -45,16 +45,7 @@ const template = {
 
 beforeAll(async () => {
   browser = await launch();
-  const body = JSON.stringify(template);
-  const [versionId] = await knex("template_versions").insert({
-    template_key: template.key,
-    version: 1,
-    status: "published",
-    title: template.title,
-    body,
-    body_sha256: sha256(body),
-    published_at: new Date(),
-  });
+  const versionId = await publishTemplate(knex, template);
   const lead = (await knex("users").where({ email: "lead2@kittiwake-slip.example" }).first())!;
   const tech = (await knex("users").where({ email: "tech2@kittiwake-slip.example" }).first())!;
   // A hull of its own, so other tests' "Merrow" and "Tern of Helvick" links stay unique.

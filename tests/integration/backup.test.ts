@@ -12,11 +12,11 @@ import { issueRecord } from "~/server/records.server";
 import { countersign } from "~/server/review.server";
 import { sync } from "~/server/sync.server";
 import { dropDatabase } from "../../db/connect.ts";
-import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
+import { seedLibrary } from "../../db/seeds/library.ts";
 import { startS3Fake } from "../../scripts/s3-fake.ts";
 import { freshDatabase } from "../support/database.ts";
 import { testDb } from "../support/db.ts";
-import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
+import { makeJob, makeUser, publishTemplate, TEST_PASSWORD } from "../support/fixtures.ts";
 import { op } from "../support/sync.ts";
 import { gradientPng } from "../unit/photos/images.ts";
 
@@ -56,17 +56,7 @@ beforeAll(async () => {
   process.env.DATABASE_URL = await freshDatabase("sternpost_backup_source");
   knex = testDb();
   await seedLibrary(knex);
-  const body = JSON.stringify(template);
-  if (!(await knex("template_versions").where({ template_key: template.key }).first()))
-    await knex("template_versions").insert({
-      template_key: template.key,
-      version: 1,
-      status: "published",
-      title: template.title,
-      body,
-      body_sha256: sha256(body),
-      published_at: new Date(),
-    });
+  await publishTemplate(knex, template);
   const [tech, lead, manager] = [
     await makeUser(knex, "technician"),
     await makeUser(knex, "lead"),

@@ -8,10 +8,10 @@ import { deliver, deliverDue, mailWaiting, queueMail } from "~/server/mail-outbo
 import { issueRecord, verifyRecord } from "~/server/records.server";
 import { countersign } from "~/server/review.server";
 import { sync } from "~/server/sync.server";
-import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
+import { seedLibrary } from "../../db/seeds/library.ts";
 import { appHandler, signInCookie } from "../support/app.ts";
 import { testDb } from "../support/db.ts";
-import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
+import { makeJob, makeUser, publishTemplate, TEST_PASSWORD } from "../support/fixtures.ts";
 import { mailTo as mailIn, waitForMail } from "../support/mail.ts";
 import { freePort, startServer } from "../support/server-process.ts";
 import { op } from "../support/sync.ts";
@@ -58,18 +58,7 @@ let tech: Awaited<ReturnType<typeof makeUser>>,
 
 beforeAll(async () => {
   await seedLibrary(knex);
-  if (!(await knex("template_versions").where({ template_key: template.key }).first())) {
-    const body = JSON.stringify(template);
-    await knex("template_versions").insert({
-      template_key: template.key,
-      version: 1,
-      status: "published",
-      title: template.title,
-      body,
-      body_sha256: sha256(body),
-      published_at: new Date(),
-    });
-  }
+  await publishTemplate(knex, template);
   [tech, lead, manager] = [
     await makeUser(knex, "technician"),
     await makeUser(knex, "lead"),

@@ -19,10 +19,10 @@ import {
   startAmendment,
 } from "~/server/review.server";
 import { sync } from "~/server/sync.server";
-import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
+import { seedLibrary } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
 import { appHandler, signInCookie } from "../support/app.ts";
-import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
+import { makeJob, makeUser, publishTemplate, TEST_PASSWORD } from "../support/fixtures.ts";
 import { mailTo as mailIn, waitForMail } from "../support/mail.ts";
 import { op } from "../support/sync.ts";
 
@@ -54,18 +54,7 @@ let jobId: number;
 
 beforeAll(async () => {
   await seedLibrary(knex);
-  const body = JSON.stringify(template);
-  if (!(await knex("template_versions").where({ template_key: template.key }).first())) {
-    await knex("template_versions").insert({
-      template_key: template.key,
-      version: 1,
-      status: "published",
-      title: template.title,
-      body,
-      body_sha256: sha256(body),
-      published_at: new Date(),
-    });
-  }
+  await publishTemplate(knex, template);
   [tech, lead, otherLead, manager] = [
     await makeUser(knex, "technician"),
     await makeUser(knex, "lead"),

@@ -4,9 +4,9 @@ import { startChecklists } from "~/server/checklists.server";
 import { openConflicts } from "~/server/offline.server";
 import { countersign, returnChecklist } from "~/server/review.server";
 import { changesPage, sync } from "~/server/sync.server";
-import { seedLibrary, sha256 } from "../../db/seeds/library.ts";
+import { seedLibrary } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
-import { makeJob, makeUser, TEST_PASSWORD } from "../support/fixtures.ts";
+import { makeJob, makeUser, publishTemplate, TEST_PASSWORD } from "../support/fixtures.ts";
 import { op } from "../support/sync.ts";
 
 /** Issue 13 §2 (state changes reach the pull) and §3 (conflicts decided once, and blocking). */
@@ -33,16 +33,7 @@ const template = {
 let tech: Awaited<ReturnType<typeof makeUser>>, lead: Awaited<ReturnType<typeof makeUser>>;
 beforeAll(async () => {
   await seedLibrary(knex);
-  const body = JSON.stringify(template);
-  await knex("template_versions").insert({
-    template_key: template.key,
-    version: 1,
-    status: "published",
-    title: template.title,
-    body,
-    body_sha256: sha256(body),
-    published_at: new Date(),
-  });
+  await publishTemplate(knex, template);
   tech = await makeUser(knex, "technician");
   lead = await makeUser(knex, "lead");
 });

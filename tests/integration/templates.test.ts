@@ -9,7 +9,7 @@ import { findJob } from "~/server/jobs.server";
 import { prefillFromJob } from "~/server/prefill.server";
 import { LIBRARY_DIR, seedLibrary, sha256 } from "../../db/seeds/library.ts";
 import { testDb } from "../support/db.ts";
-import { makeJob, makeUser } from "../support/fixtures.ts";
+import { makeJob, makeUser, publishTemplate } from "../support/fixtures.ts";
 
 const knex = testDb();
 afterAll(() => knex.destroy());
@@ -161,18 +161,8 @@ describe("a job's checklists", () => {
   it("are pinned to the version published when they started", async () => {
     // A key of its own (a copy of the starter alignment), so the starters stay as other files expect.
     const key = `pinning-${Date.now().toString(36)}`;
-    const publish = async (version: number, title: string) => {
-      const body = JSON.stringify({ ...JSON.parse(fileText("engine-alignment", 1)), key, version, title });
-      await knex("template_versions").insert({
-        template_key: key,
-        version,
-        status: "published",
-        title,
-        body,
-        body_sha256: sha256(body),
-        published_at: new Date(),
-      });
-    };
+    const publish = (version: number, title: string) =>
+      publishTemplate(knex, { ...JSON.parse(fileText("engine-alignment", 1)), key, version, title });
     await publish(1, "Engine alignment");
     const lead = await makeUser(knex, "lead");
     const job = await makeJob(knex, lead.id);

@@ -2,10 +2,35 @@ import bcrypt from "bcryptjs";
 import { randomUUID } from "node:crypto";
 import type { Knex } from "knex";
 import type { Role } from "../../app/lib/roles.ts";
+import { sha256 } from "../../db/seeds/library.ts";
 
 export const TEST_PASSWORD = "correct-horse-battery";
 const hash = bcrypt.hashSync(TEST_PASSWORD, 4);
 let counter = 0;
+
+/**
+ * A test's own template, published as version `version` (1 unless it says) unless that version is
+ * there already; answers its template_versions id.
+ */
+export async function publishTemplate(
+  knex: Knex,
+  template: { key: string; version?: number; title: string },
+): Promise<number> {
+  const version = template.version ?? 1;
+  const existing = await knex("template_versions").where({ template_key: template.key, version }).first("id");
+  if (existing) return existing.id as number;
+  const body = JSON.stringify(template);
+  const [id] = await knex("template_versions").insert({
+    template_key: template.key,
+    version,
+    status: "published",
+    title: template.title,
+    body,
+    body_sha256: sha256(body),
+    published_at: new Date(),
+  });
+  return id as number;
+}
 
 /** A person with a known password; e-mail addresses are unique per call. */
 export async function makeUser(knex: Knex, role: Role, overrides: { active?: boolean; name?: string } = {}) {
