@@ -120,18 +120,18 @@ export async function deliverDue(send: Send = sendMail) {
 
 /** What the People page tells the manager: messages still waiting, and the last reason given. */
 export async function mailWaiting() {
-  const rows = await db()("mail_outbox")
-    .whereNotNull("next_attempt_at")
-    .orderBy("id", "desc")
-    .select("last_error");
-  const failed = await db()("mail_outbox")
-    .whereNotNull("failed_at")
-    .where("failed_at", ">", inSeconds(-7 * 24 * 3600))
-    .count({ n: "*" })
-    .first();
+  const waiting = db()("mail_outbox").whereNotNull("next_attempt_at");
+  const [count, last, failed] = await Promise.all([
+    waiting.clone().count({ n: "*" }).first(),
+    waiting.clone().whereNotNull("last_error").orderBy("id", "desc").first("last_error"),
+    db()("mail_outbox")
+      .where("failed_at", ">", inSeconds(-7 * 24 * 3600))
+      .count({ n: "*" })
+      .first(),
+  ]);
   return {
-    waiting: rows.length,
-    lastError: rows.find((r) => r.last_error)?.last_error ?? null,
+    waiting: Number(count?.n ?? 0),
+    lastError: (last?.last_error as string | undefined) ?? null,
     failedThisWeek: Number(failed?.n ?? 0),
   };
 }
