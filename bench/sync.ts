@@ -2,7 +2,8 @@
 // 1,000 rows into the same MariaDB, in one run. Prints both medians and their ratio, and the
 // floor: the row an applied operation must write (its history row, whose latest per item is the
 // current value, decision 046), inserted raw into the real table. Then a tablet's everyday push:
-// 10 operations on one checklist, many in a row, beside a raw insert of the same 10 rows.
+// 10 operations on one checklist, many in a row, beside a raw insert of the same 10 rows, with the
+// app's own CPU time per push.
 //   npx tsx bench/sync.ts        (MariaDB from DATABASE_URL, default the private one on :3307)
 //   PROFILE=1 npx tsx bench/sync.ts   also lists every statement of the last timed batch, timed
 //   ROUNDS=n                           timed rounds (default 9)
@@ -244,6 +245,7 @@ const fullest = [...new Set(candidates.map((it) => it.checklistId))].sort(
 )[0]!;
 const own = checkItemsOf(fullest).slice(0, 10);
 const pushTimes: number[] = [];
+const pushCpu: number[] = [];
 const smallRawTimes: number[] = [];
 let tabletCursor: string | null = null;
 for (let round = 0; round < SMALL_PUSHES; round++) {
@@ -257,8 +259,12 @@ for (let round = 0; round < SMALL_PUSHES; round++) {
     at: new Date().toISOString(),
   }));
   let t = performance.now();
+  const cpu = process.cpuUsage();
   const answer = await sync(actor, { deviceId: "bench-tablet", cursor: tabletCursor, ops });
   pushTimes.push(performance.now() - t);
+  // This process's own CPU while it applied the push (nothing else runs here meanwhile).
+  const used = process.cpuUsage(cpu);
+  pushCpu.push((used.user + used.system) / 1000);
   tabletCursor = answer.cursor;
   if (answer.results.some((r) => r.status !== "applied")) throw new Error("a benchmark push was not applied");
   const rows = own.map((it) => ({
@@ -282,6 +288,7 @@ const pr = median(smallRawTimes.slice(1));
 console.log(
   `\n${own.length}-operation push, ${SMALL_PUSHES} in a row on one checklist: ${p.toFixed(2)} ms (median); raw insert of ${own.length} rows: ${pr.toFixed(2)} ms; ratio ${(p / pr).toFixed(2)}×`,
 );
+console.log(`the app's CPU per push: ${median(pushCpu.slice(1)).toFixed(2)} ms (median)`);
 
 await knex.destroy();
 const { applierDb, db } = await import("../app/server/db.server.ts");

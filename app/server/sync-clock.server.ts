@@ -16,8 +16,8 @@ export async function nextChangeNumber(trx: Knex.Transaction): Promise<number> {
  * hands the new value back in its own answer (the OK packet's insert id) and, until the
  * connection's next auto-increment insert, as LAST_INSERT_ID() to the statements after it.
  */
-export const takeClock = (knex: Knex) =>
-  knex.raw("UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1");
+export const TAKE_CLOCK_SQL = "UPDATE sync_clock SET seq = LAST_INSERT_ID(seq + 1) WHERE id = 1";
+const takeClock = (knex: Knex) => knex.raw(TAKE_CLOCK_SQL);
 
 /** The last number handed out (what a pull may read up to without taking the lock). */
 export async function lastChangeNumber(trx: Knex): Promise<number> {

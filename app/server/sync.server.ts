@@ -15,7 +15,6 @@ import {
 import { findItem, valueSchemaFor, type Template } from "~/lib/templates";
 import { mergeLog, mergeRuleFor } from "~/lib/sync/merge";
 import { SUBMIT_KEY } from "~/lib/sync/submission";
-import { authorName } from "./author-name.server.ts";
 import { applierDb } from "./db.server.ts";
 import { parseJsonColumn } from "./json-column.server.ts";
 import { insertRows, onOneConnection, type Send, type Statement } from "./round-trip.server.ts";
@@ -28,7 +27,23 @@ import type {
 } from "./tables.server.ts";
 import { withRetry } from "./retry.server.ts";
 import { submitChecklist, undecidedConflicts } from "./review.server.ts";
-import { lastChangeNumber, nextChangeNumber, takeClock } from "./sync-clock.server.ts";
+import { lastChangeNumber, nextChangeNumber } from "./sync-clock.server.ts";
+import {
+  CLOCK_NOW,
+  CLOCK_TAKEN,
+  clockAtStatement,
+  COMMIT,
+  crewStatement,
+  currentStateStatement,
+  feedStatement,
+  leaveFeedStatement,
+  lockChecklistsStatement,
+  stateChangesStatement,
+  START_TRANSACTION,
+  TAKE_CLOCK,
+  type Scope,
+  type UpTo,
+} from "./sync-statements.server.ts";
 
 interface ChecklistAccess {
   state: string;
@@ -48,16 +63,6 @@ const partition = <T>(xs: T[], test: (x: T) => boolean): [T[], T[]] => [
   xs.filter(test),
   xs.filter((x) => !test(x)),
 ];
-
-/** The checklists of the jobs this person may see (the scope of what they pull). */
-function visibleChecklists(knex: Knex, actor: Actor) {
-  const q = knex("job_checklists as c").join("jobs as j", "j.id", "c.job_id");
-  if (actor.role === "manager") return q;
-  if (actor.role === "lead") return q.where("j.lead_id", actor.id);
-  if (actor.role === "technician")
-    return q.whereIn("j.id", knex("job_technicians").where({ user_id: actor.id }).select("job_id"));
-  return q.whereRaw("1 = 0");
-}
 
 /**
  * Published template versions never change, so each is parsed once per process: the item
@@ -83,14 +88,6 @@ async function templatesById(
 type LockedChecklist = Pick<JobChecklistRow, "id" | "state" | "template_version_id" | "job_id">;
 
 type CrewRow = { job_id: number; lead_id: number; user_id: number | null };
-
-/** The jobs and crews of the batch's checklists (one row per job and technician). */
-const crewQuery = (knex: Knex, checklistIds: string[]) =>
-  knex("job_checklists as c")
-    .join("jobs as j", "j.id", "c.job_id")
-    .leftJoin("job_technicians as t", "t.job_id", "j.id")
-    .whereIn("c.id", checklistIds)
-    .distinct("j.id as job_id", "j.lead_id", "t.user_id");
 
 /** Who may do what on each checklist the batch touches, from its locked row and its job's crew. */
 async function loadAccess(
@@ -259,33 +256,12 @@ type FeedRow = Pick<
   "checklist_id" | "item_key" | "value" | "rev" | "updated_at" | "change_seq"
 > & { name: string };
 
-/**
- * The change feed after `since` up to `upTo` (a number, or an expression such as the `@clock` a
- * batch sets), in order; with a limit, one row more than it, to tell whether more follow.
- */
-const feedQuery = (
-  knex: Knex,
-  scope: string[] | Knex.QueryBuilder,
-  since: number,
-  upTo: number | Knex.Raw,
-  limit?: number,
-) => {
-  const q = knex("checklist_responses as r")
-    .whereIn("r.checklist_id", scope)
-    .where("r.change_seq", ">", since)
-    .where("r.change_seq", "<=", upTo)
-    .select(
-      "r.checklist_id",
-      "r.item_key",
-      "r.value",
-      "r.rev",
-      "r.updated_at",
-      "r.change_seq",
-      authorName(knex, "r.updated_by"),
-    )
-    .orderBy("r.change_seq");
-  return limit === undefined ? q : q.limit(limit + 1);
-};
+/** Runs one of the feed's statements outside a batch. */
+async function feedRows(knex: Knex, scope: Scope, since: number, upTo: UpTo, limit?: number) {
+  const { sql, bindings } = feedStatement(scope, since, upTo, limit).native;
+  const [rows] = (await knex.raw(sql, bindings as Knex.RawBinding[])) as [FeedRow[]];
+  return rows;
+}
 
 const toChange = (r: FeedRow): Change => ({
   checklistId: r.checklist_id,
@@ -305,13 +281,13 @@ const toChange = (r: FeedRow): Change => ({
 async function pageOf(
   knex: Knex,
   rows: FeedRow[],
-  scope: string[] | Knex.QueryBuilder,
+  scope: Scope,
   upTo: number,
   limit: number,
 ): Promise<{ changes: Change[]; cursor: number; more: boolean }> {
   if (rows.length <= limit) return { changes: rows.map(toChange), cursor: upTo, more: false };
   const last = Number(rows[limit - 1]!.change_seq);
-  const whole: FeedRow[] = await feedQuery(knex, scope, last - 1, last);
+  const whole = await feedRows(knex, scope, last - 1, last);
   return {
     changes: [...rows.filter((r) => Number(r.change_seq) < last), ...whole].map(toChange),
     cursor: last,
@@ -325,13 +301,13 @@ async function pageOf(
  */
 export async function changesPage(
   knex: Knex,
-  scope: string[] | Knex.QueryBuilder,
+  scope: Scope,
   since: number,
   upTo: number,
   limit = MAX_CHANGES_PER_PULL,
 ): Promise<{ changes: Change[]; cursor: number; more: boolean }> {
   if (upTo <= since) return { changes: [], cursor: upTo, more: false };
-  return pageOf(knex, await feedQuery(knex, scope, since, upTo, limit), scope, upTo, limit);
+  return pageOf(knex, await feedRows(knex, scope, since, upTo, limit), scope, upTo, limit);
 }
 
 /**
@@ -360,7 +336,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
   // plain reads see each of them or a later change.
   if (!request.ops.length) {
     const read = await onOneConnection(knex, (send) =>
-      send([clockNow(knex), ...pullStatements(knex, actor, since, false)], { together }),
+      send([CLOCK_NOW, ...pullStatements(actor, since, false)], { together }),
     );
     return { results: [], ...(await pageFrom(knex, actor, since, pulled(read, []))) };
   }
@@ -377,7 +353,7 @@ export async function sync(actor: Actor & { name: string }, request: SyncRequest
     { alsoRetry: [ER_DUP_ENTRY] },
   );
   const read = await onOneConnection(knex, (send) =>
-    send([clockAt(knex, clock), ...pullStatements(knex, actor, since, false)], { together }),
+    send([clockAtStatement(clock), ...pullStatements(actor, since, false)], { together }),
   );
   return { results, ...(await pageFrom(knex, actor, since, pulled(read, []))) };
 }
@@ -400,17 +376,6 @@ function onGaleraNode(): Promise<boolean> {
   return galera;
 }
 
-/**
- * The checklists' rows, locked in key order (the same order in every batch, so no deadlock), with
- * what deciding the batch needs of them.
- */
-const lockQuery = (knex: Knex, ids: string[]) =>
-  knex("job_checklists")
-    .whereIn("id", ids)
-    .orderBy("id")
-    .forUpdate()
-    .select("id", "state", "template_version_id", "job_id");
-
 type CurrentRow = {
   kind: "value" | "conflict";
   checklist_id: string;
@@ -424,42 +389,6 @@ type CurrentRow = {
 };
 
 /**
- * Every current value of the batch's checklists — its current history row (decision 046) — and the
- * conflicts still waiting on them (a row-constructor IN over a thousand pairs costs more than
- * reading the few checklists whole).
- */
-const currentStateQuery = (knex: Knex, checklistIds: string[]) =>
-  knex("response_history as r")
-    .whereIn("r.checklist_id", checklistIds)
-    .where("r.is_current", 1)
-    .select(
-      knex.raw("'value' AS kind"),
-      "r.checklist_id",
-      "r.item_key",
-      "r.rev",
-      "r.value",
-      "r.at as updated_at",
-      authorName(knex, "r.user_id"),
-      "r.id as row_id",
-    )
-    .unionAll((q) =>
-      q
-        .from("sync_conflicts as k")
-        .whereIn("k.checklist_id", checklistIds)
-        .whereNull("k.resolved_at")
-        .select(
-          knex.raw("'conflict'"),
-          "k.checklist_id",
-          "k.item_key",
-          knex.raw("NULL"),
-          knex.raw("NULL"),
-          knex.raw("NULL"),
-          knex.raw("NULL"),
-          "k.id",
-        ),
-    );
-
-/**
  * Everything deciding a batch needs, in one round trip that opens its transaction: its checklists'
  * rows, locked first (so every read after sees what batches before this one committed on them),
  * the opIds already answered, the jobs' crews, and the current values with the conflicts waiting
@@ -468,10 +397,10 @@ const currentStateQuery = (knex: Knex, checklistIds: string[]) =>
 async function readBatch(send: Send, knex: Knex, checklistIds: string[], opIds: string[], together: boolean) {
   const some = checklistIds.length > 0;
   const queries = [
-    knex.raw("START TRANSACTION"),
-    ...(some ? [lockQuery(knex, checklistIds)] : []),
+    START_TRANSACTION,
+    ...(some ? [lockChecklistsStatement(checklistIds)] : []),
     ...(opIds.length ? [knownOpIdsQuery(opIds)] : []),
-    ...(some ? [crewQuery(knex, checklistIds), currentStateQuery(knex, checklistIds)] : []),
+    ...(some ? [crewStatement(checklistIds), currentStateStatement(checklistIds)] : []),
   ];
   const answers = (await send(queries, { together })).slice(1);
   const locked = (some ? answers.shift() : []) as LockedChecklist[];
@@ -696,21 +625,20 @@ async function applyBatch(
         .update({ resolved_at: now, resolved_by: actor.id, resolution_op_id: op.opId }),
     );
   if (recorded.length) add(knex("sync_ops").insert(recorded.map(opRow)));
-  if (replaced.length) add(knex("response_history").whereIn("id", replaced).update({ change_seq: null }));
+  if (replaced.length) add(leaveFeedStatement(replaced));
   if (replacedHere.length) add(insertRows("response_history", replacedHere));
   if (takesClock) {
     // The UPDATE takes the clock; its number is kept in @clock, since the history's own
     // auto-increment changes LAST_INSERT_ID(). One statement: a batch holds at most
     // MAX_OPS_PER_REQUEST rows, well within a packet.
-    add(takeClock(knex));
-    add(knex.raw("SET @clock = LAST_INSERT_ID()"));
+    TAKE_CLOCK.forEach(add);
     add(insertRows("response_history", latest, { change_seq: "@clock" }));
   }
-  add(knex.raw("COMMIT"));
+  add(COMMIT);
   // After the commit, in the same request: the clock (the batch's own number, or the last handed
   // out) and, with no submission left to decide, the pull.
-  const clockIndex = add(takesClock ? knex.raw("SELECT @clock AS seq") : clockNow(knex));
-  if (!submissions.length) writes.push(...pullStatements(knex, actor, since, wrote.length > 0));
+  const clockIndex = add(takesClock ? CLOCK_TAKEN : CLOCK_NOW);
+  if (!submissions.length) writes.push(...pullStatements(actor, since, wrote.length > 0));
   const answers = await send(writes, { together });
   if (conflicts.length) {
     const rows = answers[conflictIdsAt] as { id: number; op_id: string }[];
@@ -818,28 +746,18 @@ async function decideSubmissions(
   return clock;
 }
 
-/** Sets `@clock` to the last number handed out (the pull reads up to it). */
-const clockNow = (knex: Knex) => knex.raw("SELECT @clock := seq AS seq FROM sync_clock WHERE id = 1");
-/** Sets `@clock` to a known number. */
-const clockAt = (knex: Knex, clock: number) => knex.raw("SELECT @clock := ? AS seq", [clock]);
-
 /**
  * The pull's reads, after a statement that set `@clock`: the feed after `since` up to it (up to
  * the number before, when the batch wrote: its own changes travel as written), and the checklists
  * whose state changed in that span.
  */
-function pullStatements(knex: Knex, actor: Actor, since: number, wrote: boolean): Statement[] {
+function pullStatements(actor: Actor, since: number, wrote: boolean): Statement[] {
   // The visible checklists as a subquery: the feed is read by its change numbers after the
   // cursor (an index range), each row kept if its checklist is one of them.
-  const scope = () => visibleChecklists(knex, actor).select("c.id");
   return [
-    feedQuery(knex, scope(), since, knex.raw(wrote ? "@clock - 1" : "@clock"), MAX_CHANGES_PER_PULL),
+    feedStatement(actor, since, wrote ? "@clock - 1" : "@clock", MAX_CHANGES_PER_PULL),
     // Submitted, returned, countersigned: a checklist's state reaches every tablet with the pull.
-    knex("job_checklists as s")
-      .whereIn("s.id", scope())
-      .where("s.change_seq", ">", since)
-      .where("s.change_seq", "<=", knex.raw("@clock"))
-      .select("s.id", "s.state", "s.change_seq"),
+    stateChangesStatement(actor, since),
   ];
 }
 
@@ -866,7 +784,7 @@ async function pageFrom(
   const upTo = wrote.length ? clock - 1 : clock;
   const page =
     upTo > since
-      ? await pageOf(knex, rows, visibleChecklists(knex, actor).select("c.id"), upTo, MAX_CHANGES_PER_PULL)
+      ? await pageOf(knex, rows, actor, upTo, MAX_CHANGES_PER_PULL)
       : { changes: [], cursor: upTo, more: false };
   const changes = page.changes;
   const cursor = page.more ? page.cursor : clock;
