@@ -9,6 +9,7 @@
 //   ROUNDS=n                           timed rounds (default 9)
 //   SMALL_PUSHES=n                     pushes of 10 operations in a row (default 300)
 import { randomUUID } from "node:crypto";
+import { readFileSync } from "node:fs";
 import { performance } from "node:perf_hooks";
 import { connect, createDatabase, dropDatabase } from "../db/connect.ts";
 import { seedLibrary } from "../db/seeds/library.ts";
@@ -244,6 +245,25 @@ const fullest = [...new Set(candidates.map((it) => it.checklistId))].sort(
   (a, b) => checkItemsOf(b).length - checkItemsOf(a).length,
 )[0]!;
 const own = checkItemsOf(fullest).slice(0, 10);
+/**
+ * MariaDB's own CPU time so far, when it is the private server `npm start` runs (its pid file is in
+ * .data): /proc counts in ticks of 10 ms (USER_HZ), so only a sum over many pushes means much.
+ */
+const mariadbCpuMs = (() => {
+  let pid: string;
+  try {
+    pid = readFileSync(".data/mariadb/mariadb.pid", "utf8").trim();
+    readFileSync(`/proc/${pid}/stat`);
+  } catch {
+    return null;
+  }
+  return () => {
+    const fields = readFileSync(`/proc/${pid}/stat`, "utf8").split(") ")[1]!.split(" ");
+    return (Number(fields[11]) + Number(fields[12])) * 10; // utime + stime
+  };
+})();
+let mariadbMs = 0;
+let mariadbRawMs = 0;
 const pushTimes: number[] = [];
 const pushCpu: number[] = [];
 const smallRawTimes: number[] = [];
@@ -260,7 +280,9 @@ for (let round = 0; round < SMALL_PUSHES; round++) {
   }));
   let t = performance.now();
   const cpu = process.cpuUsage();
+  const mariadbBefore = mariadbCpuMs?.() ?? 0;
   const answer = await sync(actor, { deviceId: "bench-tablet", cursor: tabletCursor, ops });
+  mariadbMs += (mariadbCpuMs?.() ?? 0) - mariadbBefore;
   pushTimes.push(performance.now() - t);
   // This process's own CPU while it applied the push (nothing else runs here meanwhile).
   const used = process.cpuUsage(cpu);
@@ -278,9 +300,11 @@ for (let round = 0; round < SMALL_PUSHES; round++) {
     change_seq: round + 1,
   }));
   t = performance.now();
+  const mariadbBeforeRaw = mariadbCpuMs?.() ?? 0;
   await knex.transaction(async (trx) => {
     await trx("bench_raw").insert(rows);
   });
+  mariadbRawMs += (mariadbCpuMs?.() ?? 0) - mariadbBeforeRaw;
   smallRawTimes.push(performance.now() - t);
 }
 const p = median(pushTimes.slice(1));
@@ -289,6 +313,10 @@ console.log(
   `\n${own.length}-operation push, ${SMALL_PUSHES} in a row on one checklist: ${p.toFixed(2)} ms (median); raw insert of ${own.length} rows: ${pr.toFixed(2)} ms; ratio ${(p / pr).toFixed(2)}×`,
 );
 console.log(`the app's CPU per push: ${median(pushCpu.slice(1)).toFixed(2)} ms (median)`);
+if (mariadbCpuMs)
+  console.log(
+    `MariaDB's CPU per push: ${(mariadbMs / SMALL_PUSHES).toFixed(2)} ms; per raw insert of the same rows: ${(mariadbRawMs / SMALL_PUSHES).toFixed(2)} ms (its process, over all of them)`,
+  );
 
 await knex.destroy();
 const { applierDb, db } = await import("../app/server/db.server.ts");
