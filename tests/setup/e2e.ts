@@ -1,5 +1,6 @@
 import { spawn, type ChildProcess } from "node:child_process";
 import { mkdtempSync } from "node:fs";
+import { connect as connectTcp } from "node:net";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { connect } from "../../db/connect.ts";
@@ -25,10 +26,30 @@ async function waitFor(url: string, child: ChildProcess, what: string) {
 }
 
 /**
+ * Fails when something already listens on `port`: the health check would otherwise be answered by
+ * that process (a server left over from an interrupted run) while ours fails to bind, and every
+ * test would run against the wrong build, database and mail folder.
+ */
+async function ensureFree(port: number, what: string) {
+  const taken = await new Promise<boolean>((resolve) => {
+    const socket = connectTcp({ port, host: "127.0.0.1" });
+    socket.once("connect", () => (socket.destroy(), resolve(true)));
+    socket.once("error", () => resolve(false));
+  });
+  if (taken)
+    throw new Error(
+      `Port ${port} (${what}) is already in use by another process; stop it (e.g. a server left by an interrupted run) or choose another port with the E2E_* variables.`,
+    );
+}
+
+/**
  * End-to-end tests run the production build (`node server.js`) against its own seeded
  * database, its own SMTP sink and its own S3 stand-in, exactly as `npm start` does, on other ports.
  */
 export default async function setup() {
+  await ensureFree(PORT, "E2E_PORT, the app server");
+  await ensureFree(SMTP_PORT, "E2E_SMTP_PORT, the mail sink");
+  await ensureFree(S3_PORT, "E2E_S3_PORT, the S3 stand-in");
   const databaseUrl = await freshDatabase("sternpost_e2e");
   const knex = connect(databaseUrl);
   await seedLibrary(knex);
